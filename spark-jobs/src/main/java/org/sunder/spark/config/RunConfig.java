@@ -1,0 +1,101 @@
+package org.sunder.spark.config;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.node.JsonNodeFactory;
+
+/**
+ * A run configuration as written in its JSON file. Every coordinate list is in the order that
+ * {@code axes} names (default {@code "zyx"}, slowest axis first). Only {@code input.container}
+ * is required; {@link #withDefaults()} fills in everything else that does not need the input
+ * dataset, and {@link RunResolver} the rest (offsets from the dataset's attributes, block shape
+ * and halo from its chunks and offsets).
+ *
+ * @param axes order of every coordinate list in the file
+ * @param input where the affinities are
+ * @param output where the segmentation goes (default: dataset {@code segmentation} in the input container)
+ * @param workDir manifest and checkpoints (default: beside the output container, see {@link RunResolver})
+ * @param blocks block shape and halo
+ * @param partition the partition method and its parameters (the partition module's configuration)
+ * @param solve global solve settings
+ * @param evaluate optional ground truth to score the result against
+ */
+public record RunConfig(String axes, InputSection input, OutputSection output, String workDir,
+    BlockSection blocks, JsonNode partition, SolveSection solve, EvaluateSection evaluate) {
+
+  /** Default output dataset name. */
+  public static final String DEFAULT_OUTPUT_DATASET = "segmentation";
+  /** Default name of the affinity dataset. */
+  public static final String DEFAULT_AFFINITIES = "affinities";
+  /** Default bound on the reduced graph's edges gathered on the driver. */
+  public static final long DEFAULT_MAX_DRIVER_EDGES = 20_000_000L;
+
+  /**
+   * @param container N5 or Zarr container (required)
+   * @param affinities affinity dataset inside it (default {@code affinities})
+   * @param offsets one offset per channel, in {@code axes} order (default: the dataset's {@code "offsets"} attribute)
+   * @param mask optional uint8 mask dataset in the same container, 1 = inside
+   */
+  public record InputSection(String container, String affinities, int[][] offsets, String mask) {}
+
+  /**
+   * @param container container for the segmentation (default: the input container)
+   * @param dataset dataset path (default {@code segmentation})
+   */
+  public record OutputSection(String container, String dataset) {}
+
+  /**
+   * @param shape block core shape in voxels, whole chunks (default: chosen from the chunk shape)
+   * @param halo context around each core per axis (default: the largest offset along each axis)
+   */
+  public record BlockSection(int[] shape, int[] halo) {}
+
+  /** @param maxDriverEdges largest reduced graph (edges) that may be gathered on the driver */
+  public record SolveSection(Long maxDriverEdges) {}
+
+  /**
+   * @param container container of the ground truth (default: the input container)
+   * @param groundTruth uint64 ground-truth dataset; evaluation is skipped when absent
+   * @param ignoreBackground ignore ground-truth label 0 (default true)
+   */
+  public record EvaluateSection(String container, String groundTruth, Boolean ignoreBackground) {}
+
+  /** This configuration with every default filled in that does not need the input dataset. */
+  public RunConfig withDefaults() {
+    if (input == null) {
+      throw new ConfigException("missing key 'input': the section naming the affinities,"
+          + " e.g. \"input\": {\"container\": \"volume.n5\"}");
+    }
+    if (input.container() == null || input.container().isBlank()) {
+      throw new ConfigException("missing key 'input.container': the N5 or Zarr container"
+          + " holding the affinities");
+    }
+    AxisOrder order = new AxisOrder(axes == null ? AxisOrder.ZYX.letters() : axes);
+    InputSection in = new InputSection(input.container(),
+        orDefault(input.affinities(), DEFAULT_AFFINITIES), input.offsets(), input.mask());
+    OutputSection out = output == null ? new OutputSection(null, null) : output;
+    out = new OutputSection(orDefault(out.container(), in.container()),
+        orDefault(out.dataset(), DEFAULT_OUTPUT_DATASET));
+    BlockSection b = blocks == null ? new BlockSection(null, null) : blocks;
+    JsonNode p = partition == null || partition.isNull()
+        ? JsonNodeFactory.instance.objectNode() : partition;
+    SolveSection s = solve == null || solve.maxDriverEdges() == null
+        ? new SolveSection(DEFAULT_MAX_DRIVER_EDGES) : solve;
+    if (s.maxDriverEdges() < 1) {
+      throw new ConfigException("solve.maxDriverEdges: expected a positive number of edges, got "
+          + s.maxDriverEdges());
+    }
+    EvaluateSection e = evaluate == null ? new EvaluateSection(null, null, true) : evaluate;
+    e = new EvaluateSection(orDefault(e.container(), in.container()), e.groundTruth(),
+        e.ignoreBackground() == null ? Boolean.TRUE : e.ignoreBackground());
+    return new RunConfig(order.letters(), in, out, workDir, b, p, s, e);
+  }
+
+  /** The axis order ({@link #withDefaults()} first). */
+  public AxisOrder axisOrder() {
+    return new AxisOrder(axes == null ? AxisOrder.ZYX.letters() : axes);
+  }
+
+  private static String orDefault(String value, String fallback) {
+    return value == null || value.isBlank() ? fallback : value;
+  }
+}

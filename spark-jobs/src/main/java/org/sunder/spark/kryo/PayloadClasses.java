@@ -1,0 +1,17 @@
+package org.sunder.spark.kryo;
+
+import java.util.List;
+
+/**
+ * The classes Sunder's stages send through Spark, in a fixed order (Kryo numbers registered
+ * classes by registration order, so driver and executors must agree on it).
+ */
+public final class PayloadClasses {
+  private PayloadClasses() {}
+
+  /** Every payload class, including the arrays they hold. */
+  public static final List<Class<?>> ALL = List.of(
+      int[].class, long[].class, double[].class, float[].class, byte[].class, boolean[].class,
+      int[][].class, long[][].class, String[].class, Object[].class,
+      java.util.ArrayList.class, java.util.BitSet.class);
+}

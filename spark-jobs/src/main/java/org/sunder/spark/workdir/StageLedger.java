@@ -1,0 +1,95 @@
+package org.sunder.spark.workdir;
+
+import java.io.IOException;
+import java.nio.file.DirectoryStream;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.BitSet;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.spark.stage.Stage;
+
+/**
+ * The record of one stage's finished tasks in a work dir: one file per task, named by the task's
+ * index, holding the task's serialized result. A task's record is written (atomically) only
+ * after all its outputs are in place, so resume may trust every record it finds. Safe to use
+ * from many processes at once, as long as no two write the same task (Spark's retries write the
+ * same bytes, and the rename makes the last one win).
+ */
+public final class StageLedger {
+  private static final String SUFFIX = ".done";
+
+  private final Stage stage;
+  private final Path dir;
+
+  StageLedger(Path stagesDir, Stage stage) {
+    this.stage = stage;
+    this.dir = stagesDir.resolve(stage.cliName());
+  }
+
+  public Stage stage() {
+    return stage;
+  }
+
+  public Path dir() {
+    return dir;
+  }
+
+  /** Records that task {@code index} finished, with its result bytes. */
+  public void record(int index, byte[] result) {
+    AtomicFile.write(dir.resolve(index + SUFFIX), result);
+  }
+
+  /** Whether task {@code index} has a record. */
+  public boolean isFinished(int index) {
+    return Files.isRegularFile(dir.resolve(index + SUFFIX));
+  }
+
+  /** The result bytes recorded for task {@code index}. */
+  public byte[] read(int index) {
+    Path file = dir.resolve(index + SUFFIX);
+    try {
+      return Files.readAllBytes(file);
+    } catch (IOException e) {
+      throw new SunderException(ErrorKind.STORAGE, "cannot read the record of " + stage.cliName()
+          + " task " + index + " at " + file + ": " + e, e);
+    }
+  }
+
+  /** The indices of all recorded tasks (one directory listing). */
+  public BitSet finished() {
+    BitSet done = new BitSet();
+    try (DirectoryStream<Path> files = Files.newDirectoryStream(dir, "*" + SUFFIX)) {
+      for (Path file : files) {
+        String name = file.getFileName().toString();
+        try {
+          done.set(Integer.parseInt(name.substring(0, name.length() - SUFFIX.length())));
+        } catch (NumberFormatException e) {
+          throw new SunderException(ErrorKind.CONFLICT, "unexpected file " + file
+              + " in the work dir; it was not written by Sunder");
+        }
+      }
+    } catch (NoSuchFileException e) {
+      return done;
+    } catch (IOException e) {
+      throw new SunderException(ErrorKind.STORAGE, "cannot list " + dir + ": " + e, e);
+    }
+    return done;
+  }
+
+  /** Removes every record of this stage. */
+  public void clear() {
+    if (!Files.isDirectory(dir)) {
+      return;
+    }
+    try (DirectoryStream<Path> files = Files.newDirectoryStream(dir)) {
+      for (Path file : files) {
+        Files.delete(file);
+      }
+      Files.delete(dir);
+    } catch (IOException e) {
+      throw new SunderException(ErrorKind.STORAGE, "cannot clear " + dir + ": " + e, e);
+    }
+  }
+}
