@@ -1,0 +1,382 @@
+package org.sunder.blockwise.graph;
+
+import java.io.Serializable;
+import java.util.Arrays;
+import java.util.List;
+
+/**
+ * Accumulated statistics of the edges between pairs of nodes (segments): for each pair
+ * {@code u < v}, the sum, count, minimum and maximum of the weights of its edges. Struct of
+ * arrays; pairs are unique and sorted by {@code (u, v)} (canonical order), so two instances with
+ * the same content are equal and serialise to the same bytes.
+ *
+ * <p>Statistics are mergeable: {@link #merge} combines two tables in {@code O(n + m)} (sums and
+ * counts add, minima and maxima combine), which is how blocks, faces and the global solve build
+ * the reduced graph. Immutable after construction, thread-safe. Plain arrays inside, so Kryo and
+ * Java serialisation both handle it.
+ */
+public final class EdgeStatistics implements Serializable {
+  private static final long serialVersionUID = 1L;
+  private static final EdgeStatistics EMPTY =
+      new EdgeStatistics(new long[0], new long[0], new double[0], new long[0], new double[0],
+          new double[0]);
+
+  private final long[] u;
+  private final long[] v;
+  private final double[] sum;
+  private final long[] count;
+  private final double[] min;
+  private final double[] max;
+
+  private EdgeStatistics(long[] u, long[] v, double[] sum, long[] count, double[] min,
+      double[] max) {
+    this.u = u;
+    this.v = v;
+    this.sum = sum;
+    this.count = count;
+    this.min = min;
+    this.max = max;
+  }
+
+  public static EdgeStatistics empty() {
+    return EMPTY;
+  }
+
+  /**
+   * Statistics from arbitrary rows (copied): each row is stored with its smaller id first, rows
+   * with {@code u == v} are dropped, rows of the same pair are combined. The result does not
+   * depend on the order of the rows: rows of one pair are combined in ascending order of
+   * {@code (sum, count, min, max)}.
+   *
+   * @throws IllegalArgumentException for arrays of different length, a count below 1,
+   *     {@code min > max}, or a value that is not finite
+   */
+  public static EdgeStatistics of(long[] u, long[] v, double[] sum, long[] count, double[] min,
+      double[] max) {
+    int n = u.length;
+    if (v.length != n || sum.length != n || count.length != n || min.length != n
+        || max.length != n) {
+      throw new IllegalArgumentException("statistics arrays differ in length");
+    }
+    for (int i = 0; i < n; i++) {
+      if (count[i] < 1 || !(min[i] <= max[i]) || !Double.isFinite(sum[i])
+          || !Double.isFinite(min[i]) || !Double.isFinite(max[i])) {
+        throw new IllegalArgumentException("row " + i + " (" + u[i] + ", " + v[i] + "): sum "
+            + sum[i] + ", count " + count[i] + ", min " + min[i] + ", max " + max[i]
+            + " is not a valid statistic");
+      }
+    }
+    long[] a = new long[n];
+    long[] b = new long[n];
+    for (int i = 0; i < n; i++) {
+      a[i] = Math.min(u[i], v[i]);
+      b[i] = Math.max(u[i], v[i]);
+    }
+    int[] order = new int[n];
+    for (int i = 0; i < n; i++) {
+      order[i] = i;
+    }
+    IndexSort.sort(order, (x, y) -> {
+      int c = Long.compare(a[x], a[y]);
+      c = c != 0 ? c : Long.compare(b[x], b[y]);
+      c = c != 0 ? c : Double.compare(sum[x], sum[y]);
+      c = c != 0 ? c : Long.compare(count[x], count[y]);
+      c = c != 0 ? c : Double.compare(min[x], min[y]);
+      return c != 0 ? c : Double.compare(max[x], max[y]);
+    });
+    return collapse(order, a, b, sum, count, min, max);
+  }
+
+  /** Statistics of single edges {@code (u[i], v[i])} with weight {@code w[i]}. */
+  public static EdgeStatistics ofEdges(long[] u, long[] v, double[] w) {
+    long[] ones = new long[u.length];
+    Arrays.fill(ones, 1);
+    return of(u, v, w, ones, w, w);
+  }
+
+  private static EdgeStatistics collapse(int[] order, long[] a, long[] b, double[] sum,
+      long[] count, double[] min, double[] max) {
+    Builder out = new Builder(order.length);
+    for (int i : order) {
+      if (a[i] == b[i]) {
+        continue;
+      }
+      out.append(a[i], b[i], sum[i], count[i], min[i], max[i]);
+    }
+    return out.build();
+  }
+
+  /** Number of pairs. */
+  public int size() {
+    return u.length;
+  }
+
+  public long u(int i) {
+    return u[i];
+  }
+
+  public long v(int i) {
+    return v[i];
+  }
+
+  public double sum(int i) {
+    return sum[i];
+  }
+
+  public long count(int i) {
+    return count[i];
+  }
+
+  public double min(int i) {
+    return min[i];
+  }
+
+  public double max(int i) {
+    return max[i];
+  }
+
+  public double mean(int i) {
+    return sum[i] / count[i];
+  }
+
+  /** Total number of edges over all pairs. */
+  public long edgeCount() {
+    long total = 0;
+    for (long c : count) {
+      total += c;
+    }
+    return total;
+  }
+
+  /** Row of pair {@code (a, b)} in either order, or -1; {@code O(log size)}. */
+  public int indexOf(long a, long b) {
+    long x = Math.min(a, b);
+    long y = Math.max(a, b);
+    int lo = 0;
+    int hi = u.length - 1;
+    while (lo <= hi) {
+      int mid = (lo + hi) >>> 1;
+      int c = compare(u[mid], v[mid], x, y);
+      if (c == 0) {
+        return mid;
+      }
+      if (c < 0) {
+        lo = mid + 1;
+      } else {
+        hi = mid - 1;
+      }
+    }
+    return -1;
+  }
+
+  /** Both tables combined: pairs in either are kept, pairs in both are merged. O(n + m). */
+  public EdgeStatistics merge(EdgeStatistics other) {
+    Builder out = new Builder(size() + other.size());
+    int i = 0;
+    int j = 0;
+    while (i < size() || j < other.size()) {
+      int c = i >= size() ? 1 : j >= other.size() ? -1
+          : compare(u[i], v[i], other.u[j], other.v[j]);
+      if (c < 0) {
+        out.append(u[i], v[i], sum[i], count[i], min[i], max[i]);
+        i++;
+      } else if (c > 0) {
+        out.append(other.u[j], other.v[j], other.sum[j], other.count[j], other.min[j],
+            other.max[j]);
+        j++;
+      } else {
+        out.append(u[i], v[i], sum[i] + other.sum[j], count[i] + other.count[j],
+            Math.min(min[i], other.min[j]), Math.max(max[i], other.max[j]));
+        i++;
+        j++;
+      }
+    }
+    return out.build();
+  }
+
+  /** All tables combined, in list order (pairwise, so the result is canonical). */
+  public static EdgeStatistics mergeAll(List<EdgeStatistics> parts) {
+    EdgeStatistics total = EMPTY;
+    for (EdgeStatistics part : parts) {
+      total = total.merge(part);
+    }
+    return total;
+  }
+
+  /**
+   * The table with ids replaced: {@code id -> newIds[i]} where {@code oldIds[i] == id}
+   * ({@code oldIds} sorted ascending, unique); ids not listed stay. Pairs that become one id
+   * vanish, pairs that coincide merge. {@code O(size log size)}.
+   */
+  public EdgeStatistics relabel(long[] oldIds, long[] newIds) {
+    long[] a = new long[u.length];
+    long[] b = new long[u.length];
+    for (int i = 0; i < u.length; i++) {
+      a[i] = map(u[i], oldIds, newIds);
+      b[i] = map(v[i], oldIds, newIds);
+    }
+    return of(a, b, sum, count, min, max);
+  }
+
+  private static long map(long id, long[] oldIds, long[] newIds) {
+    int at = Arrays.binarySearch(oldIds, id);
+    return at >= 0 ? newIds[at] : id;
+  }
+
+  /** Copies of the columns, for callers that need whole arrays. */
+  public long[] copyU() {
+    return u.clone();
+  }
+
+  public long[] copyV() {
+    return v.clone();
+  }
+
+  public double[] copySum() {
+    return sum.clone();
+  }
+
+  public long[] copyCount() {
+    return count.clone();
+  }
+
+  public double[] copyMin() {
+    return min.clone();
+  }
+
+  public double[] copyMax() {
+    return max.clone();
+  }
+
+  private static int compare(long a, long b, long x, long y) {
+    int c = Long.compare(a, x);
+    return c != 0 ? c : Long.compare(b, y);
+  }
+
+  @Override
+  public boolean equals(Object o) {
+    return o instanceof EdgeStatistics s && Arrays.equals(u, s.u) && Arrays.equals(v, s.v)
+        && Arrays.equals(sum, s.sum) && Arrays.equals(count, s.count)
+        && Arrays.equals(min, s.min) && Arrays.equals(max, s.max);
+  }
+
+  @Override
+  public int hashCode() {
+    return Arrays.hashCode(u) * 31 + Arrays.hashCode(v) * 17 + Arrays.hashCode(sum);
+  }
+
+  @Override
+  public String toString() {
+    return "EdgeStatistics[" + size() + " pairs, " + edgeCount() + " edges]";
+  }
+
+  /**
+   * Accumulates single edges or partial statistics in any order, hashed by pair; {@link #build}
+   * sorts into canonical order. Expected {@code O(1)} per add, {@code O(p log p)} to build for
+   * {@code p} pairs. Not thread-safe.
+   */
+  public static final class Accumulator {
+    private final PairIndex index;
+    private final Builder rows;
+
+    public Accumulator(int expectedPairs) {
+      this.index = new PairIndex(expectedPairs);
+      this.rows = new Builder(expectedPairs);
+    }
+
+    /** Adds one edge of weight {@code w} between {@code a} and {@code b} ({@code a != b}). */
+    public void add(long a, long b, double w) {
+      add(a, b, w, 1, w, w);
+    }
+
+    /** Adds partial statistics of the pair {@code (a, b)}. */
+    public void add(long a, long b, double sum, long count, double min, double max) {
+      long x = Math.min(a, b);
+      long y = Math.max(a, b);
+      if (x == y) {
+        throw new IllegalArgumentException("edge from " + a + " to itself");
+      }
+      int row = index.get(x, y);
+      if (row < 0) {
+        index.put(x, y, rows.size);
+        rows.append(x, y, sum, count, min, max);
+      } else {
+        rows.combine(row, sum, count, min, max);
+      }
+    }
+
+    /** Number of distinct pairs so far. */
+    public int size() {
+      return rows.size;
+    }
+
+    /** The canonical table of everything added. */
+    public EdgeStatistics build() {
+      int[] order = new int[rows.size];
+      for (int i = 0; i < order.length; i++) {
+        order[i] = i;
+      }
+      long[] a = rows.u;
+      long[] b = rows.v;
+      IndexSort.sort(order, (x, y) -> compare(a[x], b[x], a[y], b[y]));
+      return collapse(order, rows.u, rows.v, rows.sum, rows.count, rows.min, rows.max);
+    }
+  }
+
+  /** Appends rows in sorted order, combining consecutive rows of one pair. */
+  private static final class Builder {
+    long[] u;
+    long[] v;
+    double[] sum;
+    long[] count;
+    double[] min;
+    double[] max;
+    int size;
+
+    Builder(int capacity) {
+      int c = Math.max(4, capacity);
+      u = new long[c];
+      v = new long[c];
+      sum = new double[c];
+      count = new long[c];
+      min = new double[c];
+      max = new double[c];
+    }
+
+    void append(long a, long b, double s, long n, double lo, double hi) {
+      if (size > 0 && u[size - 1] == a && v[size - 1] == b) {
+        combine(size - 1, s, n, lo, hi);
+        return;
+      }
+      if (size == u.length) {
+        int c = size * 2;
+        u = Arrays.copyOf(u, c);
+        v = Arrays.copyOf(v, c);
+        sum = Arrays.copyOf(sum, c);
+        count = Arrays.copyOf(count, c);
+        min = Arrays.copyOf(min, c);
+        max = Arrays.copyOf(max, c);
+      }
+      u[size] = a;
+      v[size] = b;
+      sum[size] = s;
+      count[size] = n;
+      min[size] = lo;
+      max[size] = hi;
+      size++;
+    }
+
+    void combine(int row, double s, long n, double lo, double hi) {
+      sum[row] += s;
+      count[row] += n;
+      min[row] = Math.min(min[row], lo);
+      max[row] = Math.max(max[row], hi);
+    }
+
+    EdgeStatistics build() {
+      return new EdgeStatistics(Arrays.copyOf(u, size), Arrays.copyOf(v, size),
+          Arrays.copyOf(sum, size), Arrays.copyOf(count, size), Arrays.copyOf(min, size),
+          Arrays.copyOf(max, size));
+    }
+  }
+}

@@ -1,0 +1,238 @@
+package org.sunder.blockwise.graph;
+
+/**
+ * The implicit signed graph of an {@link AffinityBlock}: nodes are the voxels of the box
+ * (index in memory order), edges are pairs (voxel {@code p}, offset {@code k}) joining {@code p}
+ * and {@code p + d_k}. No edge object exists; the edge id is {@code p + k * nodeCount()}, the
+ * flat index of its affinity.
+ *
+ * <p>An edge is <em>present</em> when both ends lie in the box (edges leaving the box are
+ * absent), both ends are inside the mask, and the {@link Subsampling} keeps it. Its weight comes
+ * from the {@link WeightRule}; a present edge may have weight 0 (statistics count it, partition
+ * algorithms treat it as neither attractive nor repulsive).
+ *
+ * <p>{@link #forEachEdge} visits all present edges in ascending edge id in
+ * {@code O(nodeCount * offsetCount)} time without allocation per edge. Immutable, thread-safe.
+ */
+public final class GridGraph {
+  private final AffinityBlock block;
+  private final WeightRule rule;
+  private final Subsampling subsampling;
+  private final int nodeCount;
+  private final int offsetCount;
+  private final int[] delta;
+  private final float[] parameters;
+  private final float[] byteWeights;
+  private final boolean[] longRange;
+
+  /** Receives one present edge: source voxel, target voxel, offset index, signed weight. */
+  @FunctionalInterface
+  public interface EdgeVisitor {
+    void visit(int source, int target, int offset, float weight);
+  }
+
+  private GridGraph(AffinityBlock block, WeightRule rule, Subsampling subsampling) {
+    this.block = block;
+    this.rule = rule;
+    this.subsampling = subsampling;
+    Offsets offsets = block.offsets();
+    subsampling.validate(offsets);
+    this.parameters = rule.channelParameters(offsets);
+    this.nodeCount = block.voxelCount();
+    this.offsetCount = offsets.count();
+    this.delta = new int[offsetCount];
+    this.longRange = new boolean[offsetCount];
+    for (int k = 0; k < offsetCount; k++) {
+      int step = 1;
+      for (int d = 0; d < block.dimension(); d++) {
+        delta[k] += offsets.component(k, d) * step;
+        step *= block.shape(d);
+      }
+      longRange[k] = offsets.isLongRange(k);
+    }
+    this.byteWeights = block.isQuantized() ? byteWeightTable() : null;
+  }
+
+  /** The graph of {@code block}; validates rule and subsampling against its offsets. */
+  public static GridGraph of(AffinityBlock block, WeightRule rule, Subsampling subsampling) {
+    return new GridGraph(block, rule, subsampling);
+  }
+
+  public AffinityBlock block() {
+    return block;
+  }
+
+  public WeightRule weightRule() {
+    return rule;
+  }
+
+  public Subsampling subsampling() {
+    return subsampling;
+  }
+
+  public int nodeCount() {
+    return nodeCount;
+  }
+
+  public int offsetCount() {
+    return offsetCount;
+  }
+
+  /** Number of edge ids {@code nodeCount * offsetCount}, present or not. */
+  public int edgeSlotCount() {
+    return nodeCount * offsetCount;
+  }
+
+  /** Index difference {@code target - source} of offset {@code k} inside the box. */
+  public int delta(int k) {
+    return delta[k];
+  }
+
+  /** Signed weight of edge slot (voxel, k), whether present or not. */
+  public float weight(int voxel, int k) {
+    int i = voxel + k * nodeCount;
+    if (byteWeights != null) {
+      return byteWeights[k * 256 + (block.byteValuesOrNull()[i] & 0xff)];
+    }
+    return rule.weight(block.floatValuesOrNull()[i], parameters[k]);
+  }
+
+  /**
+   * The weight table of a quantized block: entry {@code k * 256 + b} is the weight of byte
+   * value {@code b} on channel {@code k}; null for float blocks. Do not modify.
+   */
+  public float[] byteWeightTableOrNull() {
+    return byteWeights;
+  }
+
+  /** The target voxel of edge (voxel, k) if the edge is present, else -1. Allocates. */
+  public int target(int voxel, int k) {
+    int[] p = block.position(voxel);
+    long[] global = new long[p.length];
+    for (int d = 0; d < p.length; d++) {
+      int t = p[d] + block.offsets().component(k, d);
+      if (t < 0 || t >= block.shape(d)) {
+        return -1;
+      }
+      global[d] = block.globalMin(d) + p[d];
+    }
+    int target = voxel + delta[k];
+    if (!block.inside(voxel) || !block.inside(target)) {
+      return -1;
+    }
+    if (longRange[k] && !subsampling.keepsLongRange(global, k)) {
+      return -1;
+    }
+    return target;
+  }
+
+  /** True when edge (voxel, k) is present. Allocates; use {@link #forEachEdge} in bulk. */
+  public boolean hasEdge(int voxel, int k) {
+    return target(voxel, k) >= 0;
+  }
+
+  /** Visits every present edge in ascending edge id. */
+  public void forEachEdge(EdgeVisitor visitor) {
+    for (int k = 0; k < offsetCount; k++) {
+      forEachEdge(k, visitor);
+    }
+  }
+
+  /** Visits the present edges of offset {@code k} in ascending source voxel. */
+  public void forEachEdge(int k, EdgeVisitor visitor) {
+    int n = block.dimension();
+    int[] lo = new int[n];
+    int[] hi = new int[n];
+    for (int d = 0; d < n; d++) {
+      int o = block.offsets().component(k, d);
+      lo[d] = Math.max(0, -o);
+      hi[d] = Math.min(block.shape(d), block.shape(d) - o);
+      if (lo[d] >= hi[d]) {
+        return;
+      }
+    }
+    int[] row = lo.clone();
+    long[] global = new long[n];
+    boolean thin = longRange[k] && !subsampling.keepsAll();
+    byte[] mask = block.maskOrNull();
+    while (true) {
+      int start = 0;
+      int step = 1;
+      for (int d = 0; d < n; d++) {
+        start += row[d] * step;
+        step *= block.shape(d);
+        global[d] = block.globalMin(d) + row[d];
+      }
+      visitRow(k, start, hi[0] - lo[0], global, thin, mask, visitor);
+      int d = 1;
+      while (d < n && ++row[d] >= hi[d]) {
+        row[d] = lo[d];
+        d++;
+      }
+      if (d >= n) {
+        return;
+      }
+    }
+  }
+
+  private void visitRow(int k, int start, int length, long[] global, boolean thin, byte[] mask,
+      EdgeVisitor visitor) {
+    int dk = delta[k];
+    int base = k * nodeCount;
+    long x0 = global[0];
+    byte[] bytes = block.byteValuesOrNull();
+    float[] floats = block.floatValuesOrNull();
+    float p = parameters[k];
+    for (int i = 0; i < length; i++) {
+      int source = start + i;
+      int target = source + dk;
+      if (mask != null && (mask[source] == 0 || mask[target] == 0)) {
+        continue;
+      }
+      if (thin) {
+        global[0] = x0 + i;
+        if (!subsampling.keepsLongRange(global, k)) {
+          continue;
+        }
+      }
+      float w = bytes != null
+          ? byteWeights[(k << 8) + (bytes[base + source] & 0xff)]
+          : rule.weight(floats[base + source], p);
+      visitor.visit(source, target, k, w);
+    }
+    global[0] = x0;
+  }
+
+  /** Counts present edges; one pass over all slots. */
+  public long presentEdgeCount() {
+    long[] count = new long[1];
+    forEachEdge((s, t, k, w) -> count[0]++);
+    return count[0];
+  }
+
+  /** A sparse copy holding every present edge (edge order = ascending edge id). Allocates. */
+  public SignedGraph toSignedGraph() {
+    int m = Math.toIntExact(presentEdgeCount());
+    int[] u = new int[m];
+    int[] v = new int[m];
+    double[] w = new double[m];
+    int[] next = new int[1];
+    forEachEdge((s, t, k, weight) -> {
+      int e = next[0]++;
+      u[e] = s;
+      v[e] = t;
+      w[e] = weight;
+    });
+    return SignedGraph.of(nodeCount, u, v, w);
+  }
+
+  private float[] byteWeightTable() {
+    float[] table = new float[offsetCount * 256];
+    for (int k = 0; k < offsetCount; k++) {
+      for (int b = 0; b < 256; b++) {
+        table[k * 256 + b] = rule.weight(b / 255f, parameters[k]);
+      }
+    }
+    return table;
+  }
+}

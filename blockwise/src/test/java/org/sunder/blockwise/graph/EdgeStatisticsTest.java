@@ -1,0 +1,125 @@
+package org.sunder.blockwise.graph;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+
+class EdgeStatisticsTest {
+
+  @Test
+  void accumulatorMatchesBruteForceAndIsCanonical() {
+    Random random = new Random(13);
+    int m = 3000;
+    long[] u = new long[m];
+    long[] v = new long[m];
+    double[] w = new double[m];
+    Map<List<Long>, double[]> expected = new HashMap<>();
+    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(4);
+    for (int e = 0; e < m; e++) {
+      u[e] = random.nextInt(40) + (1L << 40);
+      do {
+        v[e] = random.nextInt(40) + (1L << 40);
+      } while (v[e] == u[e]);
+      w[e] = random.nextInt(9) - 4;
+      acc.add(u[e], v[e], w[e]);
+      double[] s = expected.computeIfAbsent(List.of(Math.min(u[e], v[e]), Math.max(u[e], v[e])),
+          key -> new double[] {0, 0, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY});
+      s[0] += w[e];
+      s[1]++;
+      s[2] = Math.min(s[2], w[e]);
+      s[3] = Math.max(s[3], w[e]);
+    }
+    EdgeStatistics stats = acc.build();
+    assertEquals(expected.size(), stats.size());
+    for (int i = 0; i < stats.size(); i++) {
+      assertTrue(stats.u(i) < stats.v(i));
+      if (i > 0) {
+        assertTrue(stats.u(i - 1) < stats.u(i)
+            || (stats.u(i - 1) == stats.u(i) && stats.v(i - 1) < stats.v(i)));
+      }
+      double[] s = expected.get(List.of(stats.u(i), stats.v(i)));
+      assertEquals(s[0], stats.sum(i));
+      assertEquals((long) s[1], stats.count(i));
+      assertEquals(s[2], stats.min(i));
+      assertEquals(s[3], stats.max(i));
+      assertEquals(i, stats.indexOf(stats.v(i), stats.u(i)));
+    }
+    assertEquals(stats, EdgeStatistics.ofEdges(u, v, w));
+    assertEquals(m, stats.edgeCount());
+  }
+
+  @Test
+  void mergeOfPartsEqualsWholeWhateverTheSplitAndOrder() {
+    Random random = new Random(13);
+    int m = 2000;
+    long[] u = new long[m];
+    long[] v = new long[m];
+    double[] w = new double[m];
+    for (int e = 0; e < m; e++) {
+      u[e] = random.nextInt(30);
+      v[e] = (u[e] + 1 + random.nextInt(29)) % 30;
+      w[e] = random.nextInt(5) * 0.25 - 0.5;
+    }
+    EdgeStatistics whole = EdgeStatistics.ofEdges(u, v, w);
+    List<EdgeStatistics> parts = new ArrayList<>();
+    for (int p = 0; p < 4; p++) {
+      int from = p * m / 4;
+      int to = (p + 1) * m / 4;
+      parts.add(EdgeStatistics.ofEdges(slice(u, from, to), slice(v, from, to),
+          java.util.Arrays.copyOfRange(w, from, to)));
+    }
+    assertEquals(whole, EdgeStatistics.mergeAll(parts));
+    Collections.reverse(parts);
+    assertEquals(whole, EdgeStatistics.mergeAll(parts));
+    assertEquals(parts.get(0).merge(parts.get(1)), parts.get(1).merge(parts.get(0)));
+  }
+
+  @Test
+  void relabelMergesPairsAndDropsInnerOnes() {
+    EdgeStatistics s = EdgeStatistics.ofEdges(new long[] {1, 1, 2, 3}, new long[] {2, 3, 3, 4},
+        new double[] {0.5, -1, 2, 4});
+    EdgeStatistics r = s.relabel(new long[] {2, 3}, new long[] {9, 9});
+    assertEquals(2, r.size());
+    int i = r.indexOf(1, 9);
+    assertEquals(-0.5, r.sum(i));
+    assertEquals(2, r.count(i));
+    assertEquals(-1, r.min(i));
+    assertEquals(0.5, r.max(i));
+    assertEquals(4, r.sum(r.indexOf(4, 9)));
+  }
+
+  @Test
+  void pairIndexSurvivesManyRemovals() {
+    Random random = new Random(13);
+    PairIndex index = new PairIndex(2);
+    Map<List<Long>, Integer> reference = new HashMap<>();
+    for (int step = 0; step < 50000; step++) {
+      long a = random.nextInt(60);
+      long b = random.nextInt(60) - 30L;
+      int op = random.nextInt(3);
+      Integer expected = reference.get(List.of(a, b));
+      if (op == 0) {
+        int value = random.nextInt(1000);
+        assertEquals(expected == null ? -1 : expected, index.put(a, b, value));
+        reference.put(List.of(a, b), value);
+      } else if (op == 1) {
+        assertEquals(expected == null ? -1 : expected, index.remove(a, b));
+        reference.remove(List.of(a, b));
+      } else {
+        assertEquals(expected == null ? -1 : expected, index.get(a, b));
+      }
+      assertEquals(reference.size(), index.size());
+    }
+  }
+
+  private static long[] slice(long[] a, int from, int to) {
+    return java.util.Arrays.copyOfRange(a, from, to);
+  }
+}
