@@ -1,0 +1,403 @@
+package org.sunder.blockwise.store;
+
+import java.io.IOException;
+import java.nio.ByteBuffer;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.concurrent.locks.ReentrantLock;
+import net.imglib2.Interval;
+import net.imglib2.img.array.ArrayImg;
+import net.imglib2.type.NativeType;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.store.codec.Codec;
+import org.sunder.blockwise.store.codec.Codecs;
+
+/**
+ * A chunked dataset of one {@link DataType} in a {@link Container}: boxes of voxels are read
+ * into and written from primitive-array-backed {@link ArrayImg}s (dimension 0 fastest).
+ *
+ * <p>Thread-safe: concurrent reads, and concurrent writes of different chunks, never interfere.
+ * Each chunk file is replaced atomically (temporary file in its directory, then rename), so a
+ * reader sees a chunk before or after a write, never half of one. A write that covers a chunk
+ * only partly reads the chunk, changes it and writes it back; inside one {@code Dataset} such
+ * writes to the same chunk are serialised, across processes they are safe only when no two
+ * writers share a chunk. Missing chunks read as the fill value.
+ *
+ * <p>Cost: a box read or write touches every chunk it intersects once; whole aligned chunks
+ * are encoded from and decoded into the caller's or result's array without an extra copy.
+ */
+public final class Dataset {
+  private static final int LOCK_STRIPES = 64;
+
+  private final Path dir;
+  private final String path;
+  private final DatasetSpec spec;
+  private final String description;
+  private final ChunkFormat format;
+  private final long[] gridShape;
+  private final ReentrantLock[] locks = new ReentrantLock[LOCK_STRIPES];
+
+  Dataset(Path dir, String path, DatasetSpec spec, ContainerLayout layout, Path root) {
+    this.dir = dir;
+    this.path = path;
+    this.spec = spec;
+    this.description = "dataset '" + path + "' in " + layout.format() + " container " + root;
+    Codec codec;
+    try {
+      codec = Codecs.create(spec.codec(), layout.format(), spec.dataType());
+    } catch (StoreException e) {
+      throw new StoreException(e.kind(), description + ": " + e.getMessage(), e);
+    }
+    this.format = layout.chunkFormat(spec, codec);
+    this.gridShape = spec.gridShape();
+    for (int i = 0; i < LOCK_STRIPES; i++) {
+      locks[i] = new ReentrantLock();
+    }
+  }
+
+  /** What is stored: shape, chunks, type, codec, fill value, byte and chunk order. */
+  public DatasetSpec spec() {
+    return spec;
+  }
+
+  /** The dataset's path inside its container, without leading or trailing slashes. */
+  public String path() {
+    return path;
+  }
+
+  /** The volume size, memory order; a copy. */
+  public long[] shape() {
+    return spec.shape();
+  }
+
+  /** The chunk size, memory order; a copy. */
+  public int[] chunkShape() {
+    return spec.chunkShape();
+  }
+
+  public DataType dataType() {
+    return spec.dataType();
+  }
+
+  /** Number of chunks per dimension, memory order; a copy. */
+  public long[] gridShape() {
+    return gridShape.clone();
+  }
+
+  /**
+   * Reads the voxels of {@code box} (inside the volume) into a new array of the box's size.
+   * The element type follows {@link #dataType()} (e.g. {@code UnsignedLongType} for UINT64).
+   *
+   * @throws StoreException INVALID_INPUT if the box leaves the volume; STORAGE if a chunk is
+   *     corrupt (the message names its grid position and file)
+   */
+  @SuppressWarnings("unchecked")
+  public <T extends NativeType<T>> ArrayImg<T, ?> read(Interval box) {
+    long[] min = box.minAsLongArray();
+    long[] max = box.maxAsLongArray();
+    checkBox(min, max, "read");
+    int n = min.length;
+    int[] dims = boxDims(min, max, "read");
+    long[] grid = new long[n];
+    if (isChunk(min, dims, grid)) {
+      return (ArrayImg<T, ?>) readChunk(grid);
+    }
+    Object target = ElementArrays.allocate(spec.dataType(), product(dims));
+    forEachChunk(min, max, chunk -> {
+      int[] clipped = clippedDims(chunk);
+      int[] from = new int[n];
+      int[] to = new int[n];
+      int[] size = new int[n];
+      intersect(chunk, min, dims, from, to, size);
+      ChunkFormat.DecodedChunk decoded = load(chunk, clipped);
+      if (decoded == null) {
+        if (!spec.fillValue().isZero()) {
+          BoxCopy.fill(target, dims, to, size, spec.fillValue());
+        }
+      } else {
+        BoxCopy.copy(decoded.elements(), decoded.dims(), from, target, dims, to, size);
+      }
+    });
+    return (ArrayImg<T, ?>) ElementArrays.wrap(target, spec.dataType(), toLong(dims));
+  }
+
+  /**
+   * Writes {@code data} with its origin at {@code min}; the box must lie inside the volume and
+   * the element type must match. Chunks covered only in part are read, changed and rewritten.
+   * Everything is checked before the first chunk is written.
+   */
+  public void write(ArrayImg<?, ?> data, long[] min) {
+    int n = spec.numDimensions();
+    if (min.length != n || data.numDimensions() != n) {
+      throw new StoreException(ErrorKind.INVALID_INPUT, description + ": write of an array of "
+          + data.numDimensions() + " dimensions at " + Arrays.toString(min) + "; expected "
+          + n + " dimensions for both");
+    }
+    long[] max = new long[n];
+    for (int d = 0; d < n; d++) {
+      max[d] = min[d] + data.dimension(d) - 1;
+    }
+    checkBox(min, max, "write");
+    int[] dims = boxDims(min, max, "write");
+    Object source = ElementArrays.storage(data, spec.dataType(), description);
+    long[] grid = new long[n];
+    if (isChunk(min, dims, grid)) {
+      writeChunk(grid, data);
+      return;
+    }
+    forEachChunk(min, max, chunk -> writePart(chunk, source, min, dims));
+  }
+
+  private void writePart(long[] chunk, Object source, long[] min, int[] dims) {
+    int n = dims.length;
+    int[] clipped = clippedDims(chunk);
+    int[] inChunk = new int[n];
+    int[] inBox = new int[n];
+    int[] size = new int[n];
+    intersect(chunk, min, dims, inChunk, inBox, size);
+    int[] stored = format.storedDims(clipped);
+    if (Arrays.equals(size, clipped)) {
+      Object elements = ElementArrays.allocate(spec.dataType(), product(stored),
+          spec.fillValue());
+      BoxCopy.copy(source, dims, inBox, elements, stored, new int[n], size);
+      store(chunk, elements, stored);
+      return;
+    }
+    ReentrantLock lock = lockFor(chunk);
+    lock.lock();
+    try {
+      Object elements = storedElements(chunk, clipped, stored);
+      BoxCopy.copy(source, dims, inBox, elements, stored, inChunk, size);
+      store(chunk, elements, stored);
+    } finally {
+      lock.unlock();
+    }
+  }
+
+  /** The chunk's current content in its stored shape, or the fill value if it is missing. */
+  private Object storedElements(long[] chunk, int[] clipped, int[] stored) {
+    ChunkFormat.DecodedChunk decoded = load(chunk, clipped);
+    if (decoded != null && Arrays.equals(decoded.dims(), stored)) {
+      return decoded.elements();
+    }
+    Object elements = ElementArrays.allocate(spec.dataType(), product(stored), spec.fillValue());
+    if (decoded != null) {
+      BoxCopy.copy(decoded.elements(), decoded.dims(), new int[stored.length], elements, stored,
+          new int[stored.length], clipped);
+    }
+    return elements;
+  }
+
+  /**
+   * Reads one whole chunk, clipped to the volume: the result's dims are the chunk shape, cut
+   * at the volume border. A missing chunk reads as the fill value.
+   */
+  public ArrayImg<?, ?> readChunk(long[] gridPosition) {
+    checkGrid(gridPosition);
+    int[] clipped = clippedDims(gridPosition);
+    ChunkFormat.DecodedChunk decoded = load(gridPosition, clipped);
+    Object elements;
+    if (decoded == null) {
+      elements = ElementArrays.allocate(spec.dataType(), product(clipped), spec.fillValue());
+    } else if (Arrays.equals(decoded.dims(), clipped)) {
+      elements = decoded.elements();
+    } else {
+      elements = ElementArrays.allocate(spec.dataType(), product(clipped));
+      int[] origin = new int[clipped.length];
+      BoxCopy.copy(decoded.elements(), decoded.dims(), origin, elements, clipped, origin,
+          clipped);
+    }
+    return ElementArrays.wrap(elements, spec.dataType(), toLong(clipped));
+  }
+
+  /** Replaces one whole chunk; {@code data}'s dims must be the chunk's, clipped to the volume. */
+  public void writeChunk(long[] gridPosition, ArrayImg<?, ?> data) {
+    checkGrid(gridPosition);
+    int[] clipped = clippedDims(gridPosition);
+    long[] dims = data.dimensionsAsLongArray();
+    if (!Arrays.equals(dims, toLong(clipped))) {
+      throw new StoreException(ErrorKind.INVALID_INPUT, description + ": chunk at grid position "
+          + Arrays.toString(gridPosition) + " has shape " + Arrays.toString(clipped)
+          + ", the array written to it has " + Arrays.toString(dims));
+    }
+    Object source = ElementArrays.storage(data, spec.dataType(), description);
+    int[] stored = format.storedDims(clipped);
+    if (Arrays.equals(stored, clipped)) {
+      store(gridPosition, source, stored);
+      return;
+    }
+    Object elements = ElementArrays.allocate(spec.dataType(), product(stored), spec.fillValue());
+    int[] origin = new int[clipped.length];
+    BoxCopy.copy(source, clipped, origin, elements, stored, origin, clipped);
+    store(gridPosition, elements, stored);
+  }
+
+  /** Whether the chunk's file exists. */
+  public boolean chunkExists(long[] gridPosition) {
+    checkGrid(gridPosition);
+    return Files.isRegularFile(format.chunkFile(dir, gridPosition));
+  }
+
+  /** The chunk's file (which may not exist). */
+  public Path chunkFile(long[] gridPosition) {
+    checkGrid(gridPosition);
+    return format.chunkFile(dir, gridPosition);
+  }
+
+  private ChunkFormat.DecodedChunk load(long[] grid, int[] clipped) {
+    Path file = format.chunkFile(dir, grid);
+    byte[] bytes = AtomicWrites.readIfExists(file);
+    if (bytes == null) {
+      return null;
+    }
+    try {
+      return format.decode(bytes, clipped);
+    } catch (IOException | RuntimeException e) {
+      if (e instanceof StoreException store && store.kind() != ErrorKind.INTERNAL) {
+        throw store;
+      }
+      throw new StoreException(ErrorKind.STORAGE, description + ": chunk at grid position "
+          + Arrays.toString(grid) + " (file " + file + ", " + bytes.length + " bytes, codec "
+          + spec.codec() + ") cannot be read: " + e.getMessage(), e);
+    }
+  }
+
+  private void store(long[] grid, Object elements, int[] stored) {
+    ByteBuffer[] content = format.encode(elements, stored);
+    AtomicWrites.write(format.chunkFile(dir, grid), content);
+  }
+
+  private ReentrantLock lockFor(long[] grid) {
+    return locks[Math.floorMod(Arrays.hashCode(grid), LOCK_STRIPES)];
+  }
+
+  private void checkBox(long[] min, long[] max, String what) {
+    int n = spec.numDimensions();
+    boolean inside = min.length == n && max.length == n;
+    for (int d = 0; inside && d < n; d++) {
+      inside = min[d] >= 0 && max[d] < spec.shape(d) && max[d] >= min[d] - 1;
+    }
+    if (!inside) {
+      throw new StoreException(ErrorKind.INVALID_INPUT, description + ": " + what + " box min "
+          + Arrays.toString(min) + " max " + Arrays.toString(max)
+          + " is not inside the volume; expected " + n + " dimensions within [0, "
+          + Arrays.toString(spec.shape()) + ")");
+    }
+  }
+
+  private int[] boxDims(long[] min, long[] max, String what) {
+    int[] dims = new int[min.length];
+    long count = 1;
+    for (int d = 0; d < dims.length; d++) {
+      dims[d] = (int) (max[d] - min[d] + 1);
+      count *= dims[d];
+    }
+    if (count > Integer.MAX_VALUE - 8) {
+      throw new StoreException(ErrorKind.INVALID_INPUT, description + ": " + what + " box of "
+          + Arrays.toString(dims) + " has " + count + " voxels; one array holds at most 2^31-9");
+    }
+    return dims;
+  }
+
+  private void checkGrid(long[] grid) {
+    boolean inside = grid.length == gridShape.length;
+    for (int d = 0; inside && d < grid.length; d++) {
+      inside = grid[d] >= 0 && grid[d] < gridShape[d];
+    }
+    if (!inside) {
+      throw new StoreException(ErrorKind.INVALID_INPUT, description + ": chunk grid position "
+          + Arrays.toString(grid) + " is outside the grid " + Arrays.toString(gridShape));
+    }
+  }
+
+  /** Whether the box is exactly one chunk (clipped); if so its grid position is put in grid. */
+  private boolean isChunk(long[] min, int[] dims, long[] grid) {
+    for (int d = 0; d < min.length; d++) {
+      int c = spec.chunkShape(d);
+      if (min[d] % c != 0) {
+        return false;
+      }
+      grid[d] = min[d] / c;
+      long end = Math.min(spec.shape(d), min[d] + c);
+      if (min[d] + dims[d] != end) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  private int[] clippedDims(long[] grid) {
+    int[] dims = new int[grid.length];
+    for (int d = 0; d < grid.length; d++) {
+      long start = grid[d] * spec.chunkShape(d);
+      dims[d] = (int) Math.min(spec.chunkShape(d), spec.shape(d) - start);
+    }
+    return dims;
+  }
+
+  /** Intersection of chunk {@code grid} with the box: start in chunk, start in box, size. */
+  private void intersect(long[] grid, long[] min, int[] dims, int[] inChunk, int[] inBox,
+      int[] size) {
+    for (int d = 0; d < grid.length; d++) {
+      long chunkStart = grid[d] * spec.chunkShape(d);
+      long chunkEnd = Math.min(spec.shape(d), chunkStart + spec.chunkShape(d));
+      long start = Math.max(chunkStart, min[d]);
+      long end = Math.min(chunkEnd, min[d] + dims[d]);
+      inChunk[d] = (int) (start - chunkStart);
+      inBox[d] = (int) (start - min[d]);
+      size[d] = (int) (end - start);
+    }
+  }
+
+  private interface ChunkVisitor {
+    void visit(long[] grid);
+  }
+
+  private void forEachChunk(long[] min, long[] max, ChunkVisitor visitor) {
+    int n = min.length;
+    long[] first = new long[n];
+    long[] last = new long[n];
+    for (int d = 0; d < n; d++) {
+      if (max[d] < min[d]) {
+        return;
+      }
+      first[d] = min[d] / spec.chunkShape(d);
+      last[d] = max[d] / spec.chunkShape(d);
+    }
+    long[] grid = first.clone();
+    while (true) {
+      visitor.visit(grid.clone());
+      int d = 0;
+      while (d < n && grid[d] == last[d]) {
+        grid[d] = first[d];
+        d++;
+      }
+      if (d == n) {
+        return;
+      }
+      grid[d]++;
+    }
+  }
+
+  private static int product(int[] dims) {
+    int p = 1;
+    for (int size : dims) {
+      p *= size;
+    }
+    return p;
+  }
+
+  private static long[] toLong(int[] dims) {
+    long[] out = new long[dims.length];
+    for (int d = 0; d < dims.length; d++) {
+      out[d] = dims[d];
+    }
+    return out;
+  }
+
+  @Override
+  public String toString() {
+    return description;
+  }
+}

@@ -1,0 +1,22 @@
+package org.sunder.blockwise.store.codec;
+
+import java.io.IOException;
+import java.util.Arrays;
+
+/** No compression: the bytes are stored as they are. */
+final class RawCodec implements Codec {
+
+  @Override
+  public byte[] encode(byte[] data) {
+    return data.clone();
+  }
+
+  @Override
+  public byte[] decode(byte[] source, int offset, int length, int decodedSize)
+      throws IOException {
+    if (length != decodedSize) {
+      throw new IOException("raw chunk has " + length + " bytes, expected " + decodedSize);
+    }
+    return Arrays.copyOfRange(source, offset, offset + length);
+  }
+}

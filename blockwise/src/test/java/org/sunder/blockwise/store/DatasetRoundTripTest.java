@@ -1,0 +1,171 @@
+package org.sunder.blockwise.store;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Objects;
+import java.util.Random;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import net.imglib2.FinalInterval;
+import net.imglib2.img.array.ArrayImg;
+import net.imglib2.img.basictypeaccess.array.ArrayDataAccess;
+import net.imglib2.type.numeric.integer.UnsignedLongType;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.Arguments;
+import org.junit.jupiter.params.provider.MethodSource;
+
+/**
+ * Writes random volumes in random boxes and whole chunks and reads random boxes back, against a
+ * dense in-memory copy, for every format, element type, layout option and codec.
+ */
+class DatasetRoundTripTest {
+  private static final long[] SHAPE = {23, 17, 11};
+  private static final int[] CHUNKS = {8, 5, 4};
+
+  @TempDir
+  Path tmp;
+
+  static List<Arguments> layouts() {
+    List<Arguments> out = new ArrayList<>();
+    CodecSpec[] codecs = {CodecSpec.raw(), CodecSpec.gzip(5), CodecSpec.zstd(3)};
+    int i = 0;
+    for (StorageFormat format : StorageFormat.values()) {
+      for (DataType type : DataType.values()) {
+        CodecSpec codec = codecs[i % codecs.length];
+        Endianness endianness = i % 2 == 0 ? Endianness.LITTLE : Endianness.BIG;
+        ChunkOrder order = (i / 2) % 2 == 0 ? ChunkOrder.C : ChunkOrder.F;
+        String separator = (i / 3) % 2 == 0 ? "." : "/";
+        out.add(Arguments.of(format, type, codec, endianness, order, separator));
+        i++;
+      }
+    }
+    return out;
+  }
+
+  @ParameterizedTest(name = "{0} {1} {2} {3} {4} ''{5}''")
+  @MethodSource("layouts")
+  void boxesReadBackAsWritten(StorageFormat format, DataType type, CodecSpec codec,
+      Endianness endianness, ChunkOrder order, String separator) {
+    Random random = new Random(13);
+    Container container = Container.create(tmp.resolve("c"), format);
+    DatasetSpec spec = DatasetSpec.of(SHAPE, CHUNKS, type).withCodec(codec)
+        .withEndianness(endianness).withChunkOrder(order).withDimensionSeparator(separator)
+        .withFillValue(format == StorageFormat.ZARR ? FillValue.ofInteger(7) : FillValue.zero());
+    Dataset dataset = container.createDataset("group/volume", spec);
+    int total = (int) (SHAPE[0] * SHAPE[1] * SHAPE[2]);
+    Object expected = ElementArrays.allocate(type, total, dataset.spec().fillValue());
+    int[] volume = {(int) SHAPE[0], (int) SHAPE[1], (int) SHAPE[2]};
+    for (int round = 0; round < 12; round++) {
+      int[] min = new int[3];
+      int[] size = new int[3];
+      for (int d = 0; d < 3; d++) {
+        min[d] = random.nextInt(volume[d]);
+        size[d] = 1 + random.nextInt(volume[d] - min[d]);
+      }
+      Object data = RandomArrays.random(type, size[0] * size[1] * size[2], random);
+      dataset.write(ElementArrays.wrap(data, type, longs(size)), longs(min));
+      BoxCopy.copy(data, size, new int[3], expected, volume, min, size);
+    }
+    Dataset reopened = Container.open(tmp.resolve("c")).openDataset("group/volume");
+    assertEquals(dataset.spec(), reopened.spec());
+    for (int round = 0; round < 12; round++) {
+      int[] min = new int[3];
+      int[] size = new int[3];
+      for (int d = 0; d < 3; d++) {
+        min[d] = random.nextInt(volume[d]);
+        size[d] = 1 + random.nextInt(volume[d] - min[d]);
+      }
+      long[] max = new long[3];
+      for (int d = 0; d < 3; d++) {
+        max[d] = min[d] + size[d] - 1L;
+      }
+      ArrayImg<?, ?> read = reopened.read(new FinalInterval(longs(min), max));
+      assertArrayEquals(longs(size), read.dimensionsAsLongArray());
+      Object want = ElementArrays.allocate(type, size[0] * size[1] * size[2]);
+      BoxCopy.copy(expected, volume, min, want, size, new int[3], size);
+      assertTrue(Objects.deepEquals(want, storage(read)),
+          "box at " + java.util.Arrays.toString(min) + " size " + java.util.Arrays.toString(size));
+    }
+    Object whole = storage(reopened.read(new FinalInterval(SHAPE)));
+    assertTrue(Objects.deepEquals(expected, whole));
+  }
+
+  @Test
+  void wholeChunksRoundTripAndMissingChunksReadAsFill() {
+    Container container = Container.create(tmp.resolve("z"), StorageFormat.ZARR);
+    Dataset dataset = container.createDataset("labels",
+        DatasetSpec.of(SHAPE, CHUNKS, DataType.UINT64).withFillValue(FillValue.ofInteger(-1L)));
+    long[] border = {2, 3, 2};
+    assertFalse(dataset.chunkExists(border));
+    ArrayImg<?, ?> missing = dataset.readChunk(border);
+    assertArrayEquals(new long[] {7, 2, 3}, missing.dimensionsAsLongArray());
+    for (long v : (long[]) storage(missing)) {
+      assertEquals(-1L, v);
+    }
+    long[] values = (long[]) RandomArrays.random(DataType.UINT64, 7 * 2 * 3, new Random(13));
+    dataset.writeChunk(border, ElementArrays.wrap(values, DataType.UINT64, new long[] {7, 2, 3}));
+    assertTrue(dataset.chunkExists(border));
+    ArrayImg<UnsignedLongType, ?> back = dataset.read(new FinalInterval(
+        new long[] {16, 15, 8}, new long[] {22, 16, 10}));
+    assertArrayEquals(values, (long[]) storage(back));
+  }
+
+  @Test
+  void concurrentWritersOfDifferentChunksKeepEveryValue() throws Exception {
+    Container container = Container.create(tmp.resolve("n5"), StorageFormat.N5);
+    long[] shape = {40, 30, 6};
+    int[] chunks = {10, 10, 3};
+    Dataset dataset = container.createDataset("a", DatasetSpec.of(shape, chunks, DataType.INT32));
+    ExecutorService pool = Executors.newFixedThreadPool(4);
+    List<Future<?>> tasks = new ArrayList<>();
+    for (int gx = 0; gx < 4; gx++) {
+      for (int gy = 0; gy < 3; gy++) {
+        for (int gz = 0; gz < 2; gz++) {
+          long[] min = {gx * 10L, gy * 10L, gz * 3L};
+          tasks.add(pool.submit(() -> {
+            for (int part = 0; part < 3; part++) {
+              int[] values = new int[10 * 10];
+              java.util.Arrays.fill(values, (int) (min[0] * 10000 + min[1] * 100 + min[2] + part));
+              long[] at = {min[0], min[1], min[2] + part};
+              dataset.write(ElementArrays.wrap(values, DataType.INT32, new long[] {10, 10, 1}), at);
+            }
+          }));
+        }
+      }
+    }
+    for (Future<?> task : tasks) {
+      task.get();
+    }
+    pool.shutdown();
+    int[] all = (int[]) storage(dataset.read(new FinalInterval(shape)));
+    for (int z = 0; z < 6; z++) {
+      for (int y = 0; y < 30; y++) {
+        for (int x = 0; x < 40; x++) {
+          long expected = (x / 10 * 10) * 10000L + (y / 10 * 10) * 100L + (z / 3 * 3) + z % 3;
+          assertEquals(expected, all[x + 40 * (y + 30 * z)], "voxel " + x + "," + y + "," + z);
+        }
+      }
+    }
+  }
+
+  static Object storage(ArrayImg<?, ?> img) {
+    return ((ArrayDataAccess<?>) img.update(null)).getCurrentStorageArray();
+  }
+
+  static long[] longs(int[] values) {
+    long[] out = new long[values.length];
+    for (int i = 0; i < values.length; i++) {
+      out[i] = values[i];
+    }
+    return out;
+  }
+}
