@@ -1,0 +1,182 @@
+package org.sunder.spark.run;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.UUID;
+import java.util.stream.Stream;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.DatasetSpec;
+import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.spark.SunderVersion;
+import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Manifest;
+import org.sunder.spark.workdir.ResumeDecision;
+import org.sunder.spark.workdir.ResumePlanner;
+import org.sunder.spark.workdir.WorkDir;
+
+/**
+ * Readies the work dir and the output dataset for a run, refusing before anything is written
+ * when the output belongs to something else or the work dir to another run. The output dataset
+ * carries the attribute {@value #MARKER} with the run's id, which ties it to its work dir.
+ */
+public final class RunPreparation {
+  /** Attribute of the output dataset naming the run that owns it. */
+  public static final String MARKER = "sunder";
+
+  private RunPreparation() {}
+
+  /**
+   * @param fresh discard an earlier run's work dir and output (both must be Sunder's)
+   */
+  public static PreparedRun prepare(RunSettings settings, boolean fresh) {
+    Path outputRoot = Path.of(settings.outputContainer());
+    String dataset = settings.outputDataset();
+    WorkDir work = new WorkDir(settings.workDirPath());
+    Optional<Container> output = existingOutput(outputRoot);
+    String outputRun = output.flatMap(c -> ownerRun(c, dataset, outputRoot)).orElse(null);
+    if (work.holdsForeignFiles()) {
+      throw new SunderException(ErrorKind.CONFLICT, "work dir " + work.root()
+          + " holds files that Sunder did not write; choose another work dir (key workDir)");
+    }
+    Optional<Manifest> previous = work.manifest();
+    List<String> notes = new ArrayList<>();
+    String runId;
+    if (previous.isPresent() && outputRun != null && !previous.get().runId().equals(outputRun)) {
+      throw new SunderException(ErrorKind.CONFLICT, "work dir " + work.root() + " is from run "
+          + previous.get().runId() + ", but output dataset '" + dataset + "' in " + outputRoot
+          + " belongs to run " + outputRun + "; use --fresh to start over, or the matching work dir");
+    }
+    if (previous.isEmpty() && outputRun != null && !fresh) {
+      throw new SunderException(ErrorKind.CONFLICT, "output dataset '" + dataset + "' in "
+          + outputRoot + " was written by Sunder run " + outputRun + ", whose work dir is not at "
+          + work.root() + "; use --fresh to overwrite it, or set workDir to that run's work dir");
+    }
+    if (fresh) {
+      if (previous.isPresent() || outputRun != null) {
+        notes.add("--fresh: discarding the earlier run's records and output");
+      }
+      work.clearAll();
+      if (outputRun != null) {
+        deleteTree(outputRoot.resolve(dataset));
+      }
+      previous = Optional.empty();
+      outputRun = null;
+    }
+    Manifest current;
+    if (previous.isPresent()) {
+      runId = previous.get().runId();
+      current = RunIdentity.manifest(settings, runId);
+      if (outputRun == null) {
+        notes.add("the output dataset is missing; redoing every stage");
+        work.clearFrom(Stage.PARTITION);
+      } else {
+        boolean relabelled = !work.ledger(Stage.RELABEL).finished().isEmpty();
+        ResumeDecision decision = ResumePlanner.decide(previous.get(), current, relabelled,
+            work.root().toString());
+        notes.addAll(decision.notes());
+        if (decision.redoFrom() != null) {
+          work.clearFrom(decision.redoFrom());
+        }
+        notes.add("resuming run " + runId + " from work dir " + work.root());
+      }
+    } else {
+      runId = UUID.randomUUID().toString();
+      current = RunIdentity.manifest(settings, runId);
+    }
+    createOutput(settings, outputRoot, output, dataset, runId);
+    work.writeManifest(current);
+    return new PreparedRun(settings, work, current, notes);
+  }
+
+  private static Optional<Container> existingOutput(Path root) {
+    if (!Files.exists(root)) {
+      return Optional.empty();
+    }
+    try {
+      return Optional.of(Container.open(root));
+    } catch (SunderException e) {
+      throw new SunderException(ErrorKind.CONFLICT, "output.container: " + root
+          + " exists and is not an N5 or Zarr container; choose another path", e);
+    }
+  }
+
+  private static Optional<String> ownerRun(Container container, String dataset, Path root) {
+    if (!container.datasetExists(dataset)) {
+      if (container.groupExists(dataset) || Files.exists(root.resolve(dataset))) {
+        throw new SunderException(ErrorKind.CONFLICT, "output.dataset: '" + dataset + "' in "
+            + root + " exists and is not a dataset written by Sunder; choose another name");
+      }
+      return Optional.empty();
+    }
+    Object marker = container.readAttributes(dataset).get(MARKER);
+    if (marker instanceof Map<?, ?> map && map.get("runId") instanceof String id) {
+      return Optional.of(id);
+    }
+    throw new SunderException(ErrorKind.CONFLICT, "output.dataset: '" + dataset + "' in " + root
+        + " exists and was not written by Sunder; choose another output dataset or remove it");
+  }
+
+  private static void createOutput(RunSettings s, Path root, Optional<Container> existing,
+      String dataset, String runId) {
+    Container container;
+    if (existing.isPresent()) {
+      container = existing.get();
+    } else {
+      try {
+        Files.createDirectories(root.toAbsolutePath().getParent());
+      } catch (IOException e) {
+        throw new SunderException(ErrorKind.STORAGE, "output.container: cannot create "
+            + root + ": " + e, e);
+      }
+      StorageFormat format = root.getFileName().toString().endsWith(".n5") ? StorageFormat.N5
+          : formatOf(Path.of(s.inputContainer()));
+      container = Container.create(root, format);
+    }
+    if (!container.datasetExists(dataset)) {
+      container.createDataset(dataset,
+          DatasetSpec.of(s.volumeShape(), s.chunkShape(), DataType.UINT64));
+      Map<String, Object> marker = new LinkedHashMap<>();
+      marker.put("runId", runId);
+      marker.put("workDir", s.workDir());
+      marker.put("version", SunderVersion.get());
+      Map<String, Object> attributes = new LinkedHashMap<>();
+      attributes.put(MARKER, marker);
+      attributes.put("axes", "zyx");
+      container.mergeAttributes(dataset, attributes);
+    }
+  }
+
+  private static StorageFormat formatOf(Path input) {
+    String name = input.getFileName().toString();
+    if (name.endsWith(".zarr")) {
+      return StorageFormat.ZARR;
+    }
+    if (name.endsWith(".n5")) {
+      return StorageFormat.N5;
+    }
+    return Container.open(input).format();
+  }
+
+  private static void deleteTree(Path dir) {
+    if (!Files.exists(dir)) {
+      return;
+    }
+    try (Stream<Path> walk = Files.walk(dir)) {
+      for (Path path : walk.sorted(Comparator.reverseOrder()).toList()) {
+        Files.delete(path);
+      }
+    } catch (IOException e) {
+      throw new SunderException(ErrorKind.STORAGE, "cannot remove " + dir + ": " + e, e);
+    }
+  }
+}

@@ -1,0 +1,258 @@
+package org.sunder.spark.run;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Map;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.Dataset;
+import org.sunder.spark.config.AxisOrder;
+import org.sunder.spark.config.ConfigException;
+import org.sunder.spark.config.RunConfig;
+
+/**
+ * Checks a {@link RunConfig} against the input containers and fills in what depends on them:
+ * offsets from the affinity dataset's {@code "offsets"} attribute, a block shape of whole chunks
+ * and a halo as deep as the longest offset along each axis, the work dir. Everything is checked
+ * before any output is touched; each error names the configuration key and the value at fault.
+ */
+public final class RunResolver {
+  /** Blocks get at least this many core voxels by default (about 128 x 128 x 64). */
+  static final long DEFAULT_BLOCK_VOXELS = 1L << 20;
+
+  private static final ObjectMapper JSON = new ObjectMapper();
+
+  private RunResolver() {}
+
+  /** Resolves {@code config} (with defaults filled in); relative paths against the current directory. */
+  public static RunSettings resolve(RunConfig config, TaskHooks hooks) {
+    AxisOrder axes = config.axisOrder();
+    int n = axes.dimensions();
+    Path inputPath = absolute(config.input().container());
+    Container input = openInput(inputPath, "input.container");
+    String affName = config.input().affinities();
+    Dataset affinities = openDataset(input, affName, "input.affinities");
+    long[] shape = affinities.shape();
+    if (shape.length != n + 1) {
+      throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
+          + "' in " + inputPath + " is not an affinity dataset: expected " + (n + 1)
+          + " dimensions (" + axes + " and channels), it has shape "
+          + Arrays.toString(reverse(shape)) + " (slowest axis first)");
+    }
+    DataType type = affinities.dataType();
+    if (type != DataType.FLOAT32 && type != DataType.UINT8) {
+      throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
+          + "' in " + inputPath + " has data type " + type.name().toLowerCase()
+          + "; affinities must be float32 in [0, 1] or uint8 (value / 255)");
+    }
+    long channels = shape[n];
+    long[] volume = Arrays.copyOf(shape, n);
+    int[] chunks = Arrays.copyOf(affinities.chunkShape(), n);
+    int[][] offsets = offsets(config, input, affName, axes, channels);
+    int[] blockShape = blockShape(config, axes, volume, chunks);
+    int[] halo = halo(config, axes, offsets);
+    String mask = config.input().mask();
+    if (mask != null) {
+      Dataset m = openDataset(input, mask, "input.mask");
+      requireVolumeShape(m, volume, "input.mask", mask, axes);
+      if (m.dataType() != DataType.UINT8) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, "input.mask: dataset '" + mask
+            + "' has data type " + m.dataType().name().toLowerCase() + "; expected uint8 (1 = inside)");
+      }
+    }
+    Path outputPath = absolute(config.output().container());
+    String outputDataset = config.output().dataset();
+    Path workDir = config.workDir() == null ? defaultWorkDir(outputPath, outputDataset)
+        : absolute(config.workDir());
+    String truth = config.evaluate().groundTruth();
+    Path truthPath = absolute(config.evaluate().container());
+    if (truth != null) {
+      Container truthContainer = truthPath.equals(inputPath) ? input
+          : openInput(truthPath, "evaluate.container");
+      Dataset gt = openDataset(truthContainer, truth, "evaluate.groundTruth");
+      requireVolumeShape(gt, volume, "evaluate.groundTruth", truth, axes);
+      if (gt.dataType() == DataType.FLOAT32 || gt.dataType() == DataType.FLOAT64) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, "evaluate.groundTruth: dataset '"
+            + truth + "' has data type " + gt.dataType().name().toLowerCase()
+            + "; expected integer labels");
+      }
+    }
+    String partitionJson;
+    try {
+      partitionJson = JSON.writeValueAsString(config.partition());
+    } catch (JsonProcessingException e) {
+      throw new ConfigException("partition: cannot encode the section: " + e.getMessage(), e);
+    }
+    RunSettings settings = new RunSettings(axes.letters(), inputPath.toString(), affName, offsets,
+        mask, outputPath.toString(), outputDataset, workDir.toString(), volume, chunks,
+        blockShape, halo, partitionJson, config.solve().maxDriverEdges(), truthPath.toString(),
+        truth, config.evaluate().ignoreBackground(), hooks);
+    PartitionSettings.validate(settings);
+    return settings;
+  }
+
+  /** {@code <container>.sunder-work/<dataset>} beside the output container. */
+  public static Path defaultWorkDir(Path outputContainer, String dataset) {
+    Path container = outputContainer.toAbsolutePath().normalize();
+    return container.resolveSibling(container.getFileName() + ".sunder-work").resolve(dataset);
+  }
+
+  static Path absolute(String path) {
+    return Path.of(path).toAbsolutePath().normalize();
+  }
+
+  static Container openInput(Path path, String key) {
+    if (!Files.isDirectory(path)) {
+      throw new SunderException(ErrorKind.INVALID_INPUT, key + ": " + path
+          + (Files.exists(path) ? " is not a directory" : " does not exist")
+          + "; expected an N5 or Zarr container");
+    }
+    try {
+      return Container.open(path);
+    } catch (SunderException e) {
+      throw new SunderException(e.kind(), key + ": " + e.getMessage(), e);
+    }
+  }
+
+  static Dataset openDataset(Container container, String name, String key) {
+    if (!container.datasetExists(name)) {
+      List<String> members = container.list("");
+      throw new SunderException(ErrorKind.INVALID_INPUT, key + ": no dataset '" + name + "' in "
+          + container.root() + (members.isEmpty() ? " (it is empty)" : "; it holds " + members));
+    }
+    return container.openDataset(name);
+  }
+
+  private static void requireVolumeShape(Dataset dataset, long[] volume, String key, String name,
+      AxisOrder axes) {
+    if (!Arrays.equals(dataset.shape(), volume)) {
+      throw new SunderException(ErrorKind.INVALID_INPUT, key + ": dataset '" + name + "' has shape "
+          + Arrays.toString(axes.toFile(dataset.shape())) + ", expected the affinities' shape "
+          + Arrays.toString(axes.toFile(volume)) + " (" + axes + ")");
+    }
+  }
+
+  private static int[][] offsets(RunConfig config, Container input, String affName, AxisOrder axes,
+      long channels) {
+    int[][] fileOrder = config.input().offsets();
+    String source = "input.offsets";
+    AxisOrder order = axes;
+    if (fileOrder == null) {
+      Map<String, Object> attributes = input.readAttributes(affName);
+      Object stored = attributes.get("offsets");
+      if (stored == null) {
+        throw new ConfigException("input.offsets: missing, and dataset '" + affName
+            + "' has no \"offsets\" attribute; give one offset per channel, e.g."
+            + " [[-1, 0, 0], [0, -1, 0], [0, 0, -1]] (" + axes + ")");
+      }
+      fileOrder = JSON.convertValue(stored, int[][].class);
+      Object storedAxes = attributes.get("axes");
+      order = storedAxes instanceof String s ? new AxisOrder(s) : AxisOrder.ZYX;
+      source = "the \"offsets\" attribute of dataset '" + affName + "'";
+    }
+    if (fileOrder.length != channels) {
+      throw new ConfigException("input.offsets: " + fileOrder.length + " offsets ("
+          + source + "), but dataset '" + affName + "' has " + channels
+          + " channels; give one offset per channel");
+    }
+    int[][] memory = new int[fileOrder.length][];
+    for (int k = 0; k < fileOrder.length; k++) {
+      int[] offset = fileOrder[k];
+      if (offset == null || offset.length != order.dimensions()) {
+        throw new ConfigException("input.offsets[" + k + "]: expected " + order.dimensions()
+            + " integers (" + order + "), got " + Arrays.toString(offset));
+      }
+      if (Arrays.stream(offset).allMatch(v -> v == 0)) {
+        throw new ConfigException("input.offsets[" + k + "]: the zero offset connects a voxel"
+            + " to itself; every offset needs a non-zero entry");
+      }
+      memory[k] = order.toMemory(offset);
+    }
+    return memory;
+  }
+
+  private static int[] blockShape(RunConfig config, AxisOrder axes, long[] volume, int[] chunks) {
+    int n = volume.length;
+    int[] fileShape = config.blocks().shape();
+    if (fileShape == null) {
+      return defaultBlockShape(volume, chunks);
+    }
+    if (fileShape.length != n) {
+      throw new ConfigException("blocks.shape: expected " + n + " integers (" + axes + "), got "
+          + Arrays.toString(fileShape));
+    }
+    int[] shape = axes.toMemory(fileShape);
+    int[] fileChunks = axes.toFile(chunks);
+    for (int d = 0; d < n; d++) {
+      if (shape[d] <= 0 || shape[d] % chunks[d] != 0) {
+        int[] below = new int[n];
+        int[] above = new int[n];
+        for (int e = 0; e < n; e++) {
+          int c = fileChunks[e];
+          below[e] = Math.max(c, fileShape[e] / c * c);
+          above[e] = Math.max(c, (fileShape[e] + c - 1) / c * c);
+        }
+        throw new ConfigException("blocks.shape: " + Arrays.toString(fileShape) + " (" + axes
+            + ") is not a multiple of the chunk shape " + Arrays.toString(fileChunks)
+            + " along every axis; nearest valid: " + Arrays.toString(below)
+            + (Arrays.equals(below, above) ? "" : " or " + Arrays.toString(above)));
+      }
+    }
+    return shape;
+  }
+
+  /** Whole chunks, grown along the axis with the fewest voxels until about 2^20 voxels. */
+  static int[] defaultBlockShape(long[] volume, int[] chunks) {
+    int n = volume.length;
+    int[] shape = chunks.clone();
+    while (true) {
+      long voxels = 1;
+      for (int s : shape) {
+        voxels *= s;
+      }
+      int grow = -1;
+      for (int d = 0; d < n; d++) {
+        if (shape[d] < volume[d] && (grow < 0 || shape[d] < shape[grow])) {
+          grow = d;
+        }
+      }
+      if (voxels >= DEFAULT_BLOCK_VOXELS || grow < 0) {
+        return shape;
+      }
+      shape[grow] += chunks[grow];
+    }
+  }
+
+  private static int[] halo(RunConfig config, AxisOrder axes, int[][] offsets) {
+    int n = axes.dimensions();
+    int[] fileHalo = config.blocks().halo();
+    if (fileHalo == null) {
+      int[] halo = new int[n];
+      for (int[] offset : offsets) {
+        for (int d = 0; d < n; d++) {
+          halo[d] = Math.max(halo[d], Math.abs(offset[d]));
+        }
+      }
+      return halo;
+    }
+    if (fileHalo.length != n || Arrays.stream(fileHalo).anyMatch(h -> h < 0)) {
+      throw new ConfigException("blocks.halo: expected " + n + " integers >= 0 (" + axes
+          + "), got " + Arrays.toString(fileHalo));
+    }
+    return axes.toMemory(fileHalo);
+  }
+
+  private static long[] reverse(long[] shape) {
+    long[] out = new long[shape.length];
+    for (int i = 0; i < shape.length; i++) {
+      out[i] = shape[shape.length - 1 - i];
+    }
+    return out;
+  }
+}
