@@ -93,7 +93,6 @@ public final class RunResolver {
         mask, outputPath.toString(), outputDataset, workDir.toString(), volume, chunks,
         blockShape, halo, partitionJson, config.solve().maxDriverEdges(), truthPath.toString(),
         truth, config.evaluate().ignoreBackground(), hooks);
-    PartitionSettings.validate(settings);
     return settings;
   }
 

@@ -1,0 +1,131 @@
+package org.sunder.spark.run;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.spark.config.ConfigReader;
+import org.sunder.spark.config.RunConfig;
+
+class RunResolverTest {
+  private static final long[] VOLUME = {12, 20, 28};
+  private static final int[] CHUNKS = {6, 10, 14};
+
+  private static RunSettings resolve(String json) {
+    RunConfig config = new ConfigReader().parse(json).withDefaults();
+    return RunResolver.resolve(config, TaskHooks.NONE);
+  }
+
+  private static SunderException fails(String json) {
+    return assertThrows(SunderException.class, () -> resolve(json));
+  }
+
+  @Test
+  void defaultsComeFromTheDataset(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    RunSettings s = resolve("{\"input\": {\"container\": \"" + root + "\"}}");
+    assertArrayEquals(new long[] {28, 20, 12}, s.volumeShape());
+    assertArrayEquals(new int[] {14, 10, 6}, s.chunkShape());
+    assertArrayEquals(new int[] {0, 0, -1}, s.offsets()[0]);
+    assertArrayEquals(new int[] {-4, 0, 0}, s.offsets()[4]);
+    assertArrayEquals(new int[] {4, 3, 1}, s.halo());
+    for (int d = 0; d < 3; d++) {
+      assertEquals(0, s.blockShape()[d] % s.chunkShape()[d]);
+    }
+    assertEquals(root.toAbsolutePath().toString(), s.outputContainer());
+    assertEquals("segmentation", s.outputDataset());
+    assertEquals(dir.resolve("v.zarr.sunder-work/segmentation").toAbsolutePath().toString(),
+        s.workDir());
+  }
+
+  @Test
+  void explicitBlocksAndOffsetsAreInZyxOrder(@TempDir Path dir) {
+    Path root = dir.resolve("v.n5");
+    TestContainers.withAffinities(root, StorageFormat.N5, VOLUME, CHUNKS, new int[][] {
+        {-1, 0, 0}, {0, -1, 0}, {0, 0, -1}, {-2, 0, 0}, {0, -5, 0}});
+    RunSettings s = resolve("{\"input\": {\"container\": \"" + root + "\", \"offsets\":"
+        + " [[-1, 0, 0], [0, -1, 0], [0, 0, -1], [-2, 0, 0], [0, -5, 0]]},"
+        + " \"blocks\": {\"shape\": [6, 20, 14], \"halo\": [2, 5, 1]}}");
+    assertArrayEquals(new int[] {14, 20, 6}, s.blockShape());
+    assertArrayEquals(new int[] {1, 5, 2}, s.halo());
+    assertEquals(2 * 1 * 2, s.grid().blockCount());
+  }
+
+  @Test
+  void missingContainerIsNamed(@TempDir Path dir) {
+    SunderException e = fails("{\"input\": {\"container\": \"" + dir.resolve("nope.zarr") + "\"}}");
+    assertEquals(ErrorKind.INVALID_INPUT, e.kind());
+    assertTrue(e.getMessage().startsWith("input.container: "), e.getMessage());
+    assertTrue(e.getMessage().contains("does not exist"), e.getMessage());
+  }
+
+  @Test
+  void missingDatasetListsWhatIsThere(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    SunderException e = fails("{\"input\": {\"container\": \"" + root
+        + "\", \"affinities\": \"affs\"}}");
+    assertEquals(ErrorKind.INVALID_INPUT, e.kind());
+    assertTrue(e.getMessage().contains("input.affinities: no dataset 'affs'"), e.getMessage());
+    assertTrue(e.getMessage().contains("[affinities]"), e.getMessage());
+  }
+
+  @Test
+  void labelDatasetIsNotAnAffinityDataset(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    Container c = TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    TestContainers.labels(c, "labels", VOLUME, CHUNKS);
+    SunderException e = fails("{\"input\": {\"container\": \"" + root
+        + "\", \"affinities\": \"labels\", \"offsets\": [[-1, 0, 0]]}}");
+    assertEquals(ErrorKind.INVALID_INPUT, e.kind());
+    assertTrue(e.getMessage().contains("is not an affinity dataset"), e.getMessage());
+    assertTrue(e.getMessage().contains("[12, 20, 28]"), e.getMessage());
+  }
+
+  @Test
+  void offsetCountMustMatchChannels(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    SunderException e = fails("{\"input\": {\"container\": \"" + root
+        + "\", \"offsets\": [[-1, 0, 0], [0, -1, 0], [0, 0, -1]]}}");
+    assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
+    assertTrue(e.getMessage().contains("input.offsets: 3 offsets"), e.getMessage());
+    assertTrue(e.getMessage().contains("has 5 channels"), e.getMessage());
+    SunderException dims = fails("{\"input\": {\"container\": \"" + root
+        + "\", \"offsets\": [[-1, 0, 0], [0, -1, 0], [0, 0, -1], [0, -3], [0, 0, -4]]}}");
+    assertTrue(dims.getMessage().contains("input.offsets[3]: expected 3 integers"), dims.getMessage());
+  }
+
+  @Test
+  void blockShapeMustBeWholeChunks(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    SunderException e = fails("{\"input\": {\"container\": \"" + root
+        + "\"}, \"blocks\": {\"shape\": [6, 15, 14]}}");
+    assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
+    assertTrue(e.getMessage().contains("blocks.shape: [6, 15, 14] (zyx)"), e.getMessage());
+    assertTrue(e.getMessage().contains("[6, 10, 14] or [6, 20, 14]"), e.getMessage());
+  }
+
+  @Test
+  void defaultBlockShapeGrowsTheSmallestAxis() {
+    int[] shape = RunResolver.defaultBlockShape(new long[] {1000, 1000, 100}, new int[] {64, 64, 16});
+    assertArrayEquals(new int[] {128, 128, 64}, shape);
+    int[] small = RunResolver.defaultBlockShape(new long[] {30, 20, 10}, new int[] {16, 16, 8});
+    assertArrayEquals(new int[] {32, 32, 16}, small);
+  }
+}
