@@ -1,0 +1,247 @@
+package org.sunder.blockwise.synth;
+
+import java.util.SplittableRandom;
+
+/** Applies one {@link Degradation} to one affinity array; see there for what each kind does. */
+final class AffinityDegrader {
+  private static final long GAP_STREAM = 0x6A09E667F3BCC909L;
+  private static final long FALSE_BOUNDARY_STREAM = 0xBB67AE8584CAA73BL;
+  private static final long NOISE_STREAM = 0x3C6EF372FE94F82BL;
+  private static final long SLICE_STREAM = 0xA54FF53A5F1D36F1L;
+
+  private final Degradation degradation;
+  private final long[] labels;
+  private final int nx;
+  private final int ny;
+  private final int nz;
+  private final int n;
+  private final double[] size;
+  private final double finest;
+  private final int[][] offsets;
+
+  AffinityDegrader(Degradation degradation, long[] labels, long[] shape, double[] voxelSize,
+      int[][] offsets) {
+    ExactAffinities.validate(offsets, 3);
+    this.degradation = degradation;
+    this.labels = labels;
+    this.nx = (int) shape[0];
+    this.ny = (int) shape[1];
+    this.nz = (int) shape[2];
+    this.n = nx * ny * nz;
+    if (labels.length != n || voxelSize.length != 3) {
+      throw new IllegalArgumentException("labels or voxel size do not match the shape");
+    }
+    this.size = voxelSize.clone();
+    this.finest = Math.min(size[0], Math.min(size[1], size[2]));
+    this.offsets = offsets;
+  }
+
+  float[] degrade(float[] exact) {
+    if (exact.length != (long) n * offsets.length) {
+      throw new IllegalArgumentException("affinities hold " + exact.length + " values, expected "
+          + n + " voxels x " + offsets.length + " channels");
+    }
+    float[] a = exact.clone();
+    if (degradation.gapRate() > 0) {
+      gaps(a);
+    }
+    if (degradation.falseBoundaryRate() > 0) {
+      falseBoundaries(a);
+    }
+    if (degradation.blurSigma() > 0) {
+      blur(a);
+    }
+    if (degradation.noiseSigma() > 0) {
+      noise(a);
+    }
+    if (degradation.corruptSliceProbability() > 0) {
+      corruptSlices(a);
+    }
+    return a;
+  }
+
+  private SplittableRandom stream(long salt) {
+    return new SplittableRandom(degradation.seed() ^ salt);
+  }
+
+  private void gaps(float[] a) {
+    SplittableRandom random = stream(GAP_STREAM);
+    double radius = Degradation.GAP_RADIUS_VOXELS * finest;
+    for (int i = 0; i < n; i++) {
+      if (labels[i] != 0 && touchesOtherObject(i) && random.nextDouble() < degradation.gapRate()) {
+        forEdgesInBall(i, radius, (p, q, k) -> {
+          if (labels[q] != 0 && labels[p] != 0 && labels[p] != labels[q]) {
+            a[k * n + p] = (float) (0.85 + 0.15 * random.nextDouble());
+          }
+        });
+      }
+    }
+  }
+
+  private void falseBoundaries(float[] a) {
+    SplittableRandom random = stream(FALSE_BOUNDARY_STREAM);
+    double radius = Degradation.FALSE_BOUNDARY_RADIUS_VOXELS * finest;
+    for (int c = 0; c < n; c++) {
+      if (labels[c] == 0 || random.nextDouble() >= degradation.falseBoundaryRate()) {
+        continue;
+      }
+      double[] normal = TissueLayout.normalized(new double[] {gaussian(random),
+          gaussian(random), gaussian(random)});
+      int centre = c;
+      forEdgesInBall(c, radius, (p, q, k) -> {
+        if (labels[p] != 0 && labels[p] == labels[q]
+            && side(p, centre, normal) != side(q, centre, normal)) {
+          a[k * n + p] = (float) (0.15 * random.nextDouble());
+        }
+      });
+    }
+  }
+
+  /** Which side of the plane through voxel {@code c} with {@code normal} voxel {@code p} is on. */
+  private boolean side(int p, int c, double[] normal) {
+    double dx = (p % nx - c % nx) * size[0];
+    double dy = ((p / nx) % ny - (c / nx) % ny) * size[1];
+    double dz = (p / (nx * ny) - c / (nx * ny)) * size[2];
+    return dx * normal[0] + dy * normal[1] + dz * normal[2] >= 0;
+  }
+
+  @FunctionalInterface
+  private interface EdgeAction {
+    void apply(int p, int q, int channel);
+  }
+
+  /** Every edge (p, p + offset_k) with both ends within {@code radius} (nm) of voxel c. */
+  private void forEdgesInBall(int c, double radius, EdgeAction action) {
+    int cx = c % nx;
+    int cy = (c / nx) % ny;
+    int cz = c / (nx * ny);
+    int rx = (int) Math.floor(radius / size[0]);
+    int ry = (int) Math.floor(radius / size[1]);
+    int rz = (int) Math.floor(radius / size[2]);
+    for (int z = Math.max(0, cz - rz); z <= Math.min(nz - 1, cz + rz); z++) {
+      for (int y = Math.max(0, cy - ry); y <= Math.min(ny - 1, cy + ry); y++) {
+        for (int x = Math.max(0, cx - rx); x <= Math.min(nx - 1, cx + rx); x++) {
+          if (!within(x - cx, y - cy, z - cz, radius)) {
+            continue;
+          }
+          int p = x + nx * (y + ny * z);
+          for (int k = 0; k < offsets.length; k++) {
+            int[] d = offsets[k];
+            int qx = x + d[0];
+            int qy = y + d[1];
+            int qz = z + d[2];
+            if (qx >= 0 && qy >= 0 && qz >= 0 && qx < nx && qy < ny && qz < nz
+                && within(qx - cx, qy - cy, qz - cz, radius)) {
+              action.apply(p, qx + nx * (qy + ny * qz), k);
+            }
+          }
+        }
+      }
+    }
+  }
+
+  private boolean within(int dx, int dy, int dz, double radius) {
+    double x = dx * size[0];
+    double y = dy * size[1];
+    double z = dz * size[2];
+    return x * x + y * y + z * z <= radius * radius;
+  }
+
+  private boolean touchesOtherObject(int i) {
+    int x = i % nx;
+    int y = (i / nx) % ny;
+    int z = i / (nx * ny);
+    return other(i, x > 0, -1) || other(i, x < nx - 1, 1) || other(i, y > 0, -nx)
+        || other(i, y < ny - 1, nx) || other(i, z > 0, -nx * ny)
+        || other(i, z < nz - 1, nx * ny);
+  }
+
+  private boolean other(int i, boolean inside, int step) {
+    return inside && labels[i + step] != 0 && labels[i + step] != labels[i];
+  }
+
+  private void blur(float[] a) {
+    int[] extent = {nx, ny, nz};
+    int[] stride = {1, nx, nx * ny};
+    for (int axis = 0; axis < 3; axis++) {
+      double sigma = degradation.blurSigma() * finest / size[axis];
+      int radius = (int) Math.ceil(3 * sigma);
+      if (radius == 0 || extent[axis] == 1) {
+        continue;
+      }
+      double[] kernel = gaussianKernel(sigma, radius);
+      int length = extent[axis];
+      double[] line = new double[length];
+      for (int k = 0; k < offsets.length; k++) {
+        int base = k * n;
+        for (int start = 0; start < n; start++) {
+          if ((start / stride[axis]) % length != 0) {
+            continue;
+          }
+          blurLine(a, base + start, stride[axis], length, kernel, radius, line);
+        }
+      }
+    }
+  }
+
+  private static void blurLine(float[] a, int first, int stride, int length, double[] kernel,
+      int radius, double[] line) {
+    for (int t = 0; t < length; t++) {
+      line[t] = a[first + t * stride];
+    }
+    for (int t = 0; t < length; t++) {
+      double sum = 0;
+      for (int j = -radius; j <= radius; j++) {
+        int s = t + j;
+        s = s < 0 ? 0 : (s >= length ? length - 1 : s);
+        sum += kernel[j + radius] * line[s];
+      }
+      a[first + t * stride] = (float) sum;
+    }
+  }
+
+  private static double[] gaussianKernel(double sigma, int radius) {
+    double[] kernel = new double[2 * radius + 1];
+    double sum = 0;
+    for (int j = -radius; j <= radius; j++) {
+      kernel[j + radius] = Math.exp(-0.5 * j * j / (sigma * sigma));
+      sum += kernel[j + radius];
+    }
+    for (int j = 0; j < kernel.length; j++) {
+      kernel[j] /= sum;
+    }
+    return kernel;
+  }
+
+  private void noise(float[] a) {
+    SplittableRandom random = stream(NOISE_STREAM);
+    double sigma = degradation.noiseSigma();
+    for (int i = 0; i < a.length; i++) {
+      double v = a[i] + sigma * gaussian(random);
+      a[i] = (float) (v < 0 ? 0 : (v > 1 ? 1 : v));
+    }
+  }
+
+  private void corruptSlices(float[] a) {
+    SplittableRandom random = stream(SLICE_STREAM);
+    int plane = nx * ny;
+    for (int z = 0; z < nz; z++) {
+      if (random.nextDouble() >= degradation.corruptSliceProbability()) {
+        continue;
+      }
+      for (int k = 0; k < offsets.length; k++) {
+        int base = k * n + z * plane;
+        for (int i = 0; i < plane; i++) {
+          a[base + i] = (float) random.nextDouble();
+        }
+      }
+    }
+  }
+
+  /** A standard normal draw (Box–Muller; SplittableRandom has no nextGaussian on Java 17). */
+  private static double gaussian(SplittableRandom random) {
+    double u = 1 - random.nextDouble();
+    double v = random.nextDouble();
+    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
+  }
+}
