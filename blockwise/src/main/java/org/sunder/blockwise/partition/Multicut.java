@@ -1,6 +1,7 @@
 package org.sunder.blockwise.partition;
 
 import java.util.Objects;
+import org.sunder.blockwise.graph.SignedGraph;
 
 /**
  * The multicut (correlation clustering) problem on a signed graph: find a partition of the
@@ -25,6 +26,30 @@ import java.util.Objects;
  */
 public final class Multicut {
   private Multicut() {}
+
+  /** Greedy additive edge contraction followed by Kernighan–Lin refinement of a sparse graph. */
+  public static MulticutResult solve(SignedGraph graph) {
+    Edges e = Edges.of(graph);
+    return solve(graph.nodeCount(), e.u, e.v, e.w);
+  }
+
+  /** Greedy additive edge contraction of a sparse graph. */
+  public static MulticutResult greedyAdditive(SignedGraph graph) {
+    Edges e = Edges.of(graph);
+    return greedyAdditive(graph.nodeCount(), e.u, e.v, e.w);
+  }
+
+  /** Kernighan–Lin refinement of {@code initial} on a sparse graph. */
+  public static MulticutResult refine(SignedGraph graph, int[] initial) {
+    Edges e = Edges.of(graph);
+    return refine(graph.nodeCount(), e.u, e.v, e.w, initial);
+  }
+
+  /** The multicut objective of {@code labels} on a sparse graph. */
+  public static double objective(SignedGraph graph, int[] labels) {
+    Edges e = Edges.of(graph);
+    return objective(e.u, e.v, e.w, labels);
+  }
 
   /** Greedy additive edge contraction followed by Kernighan–Lin refinement. */
   public static MulticutResult solve(int nodeCount, int[] u, int[] v, double[] w) {
@@ -170,6 +195,22 @@ public final class Multicut {
         throw new IllegalArgumentException("edge " + e + " has weight " + w[e]
             + "; expected a finite value");
       }
+    }
+  }
+
+  /** The edge arrays of a sparse graph (copied). */
+  private record Edges(int[] u, int[] v, double[] w) {
+    static Edges of(SignedGraph graph) {
+      int m = graph.edgeCount();
+      int[] u = new int[m];
+      int[] v = new int[m];
+      double[] w = new double[m];
+      for (int e = 0; e < m; e++) {
+        u[e] = graph.edgeU(e);
+        v[e] = graph.edgeV(e);
+        w[e] = graph.weight(e);
+      }
+      return new Edges(u, v, w);
     }
   }
 }

@@ -14,6 +14,7 @@ import java.util.Map;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.graph.SignedGraph;
 import org.sunder.testing.PythonReference;
 
 class MulticutTest {
@@ -81,6 +82,21 @@ class MulticutTest {
       MulticutResult b = Multicut.solve(n, h.u(), h.v(), h.w());
       assertArrayEquals(a.labels(), b.labels(), "trial " + trial);
     }
+  }
+
+  @Test
+  void sparseGraphOverloadsGiveTheArrayResults() {
+    Random random = new Random(13);
+    RandomSignedGraph g = RandomSignedGraph.sparse(random, 70, 3, 0.2);
+    SignedGraph graph = SignedGraph.of(g.nodeCount(), g.u(), g.v(), g.w());
+    MulticutResult fromArrays = Multicut.solve(g.nodeCount(), g.u(), g.v(), g.w());
+    MulticutResult fromGraph = Multicut.solve(graph);
+    assertArrayEquals(fromArrays.labels(), fromGraph.labels());
+    assertEquals(fromArrays.objective(), fromGraph.objective(), TOLERANCE);
+    assertEquals(fromGraph.objective(), Multicut.objective(graph, fromGraph.labels()), 0.0);
+    MulticutResult greedy = Multicut.greedyAdditive(graph);
+    assertTrue(Multicut.refine(graph, greedy.labels()).objective()
+        <= greedy.objective() + TOLERANCE);
   }
 
   @Test
