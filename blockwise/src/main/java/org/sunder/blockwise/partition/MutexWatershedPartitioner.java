@@ -1,0 +1,16 @@
+package org.sunder.blockwise.partition;
+
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.GridGraph;
+import org.sunder.blockwise.graph.Subsampling;
+import org.sunder.blockwise.graph.WeightRule;
+
+/** The {@code "mutex-watershed"} method: {@link MutexWatershed} on the block's voxel graph. */
+public record MutexWatershedPartitioner(WeightRule weights, Subsampling subsampling)
+    implements Partitioner {
+
+  @Override
+  public Segmentation partition(AffinityBlock block) {
+    return MutexWatershed.partition(GridGraph.of(block, weights, subsampling));
+  }
+}

@@ -1,0 +1,229 @@
+package org.sunder.blockwise.partition;
+
+import com.fasterxml.jackson.annotation.JsonCreator;
+import com.fasterxml.jackson.annotation.JsonIgnore;
+import com.fasterxml.jackson.annotation.JsonProperty;
+import com.fasterxml.jackson.annotation.JsonValue;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.JsonMappingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.core.JsonProcessingException;
+import java.util.Objects;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.Subsampling;
+import org.sunder.blockwise.graph.WeightRule;
+
+/**
+ * How blocks are partitioned: the method and its parameters, read from JSON, e.g.
+ * <pre>{@code
+ * {"method": "agglomeration", "linkage": "mean", "constraints": false, "threshold": 0.0,
+ *  "weights": {"kind": "value", "transform": "logit"},
+ *  "subsampling": {"kind": "hash", "keepFraction": 0.1, "seed": 7}}
+ * }</pre>
+ *
+ * <p>Keys: {@code method} ({@code "mutex-watershed"} or {@code "agglomeration"}); {@code linkage}
+ * (agglomeration only; {@code sum}, {@code mean}, {@code max}, {@code min}, {@code abs-max};
+ * default {@code mean}); {@code constraints} (cannot-link constraints, default false);
+ * {@code threshold} (merge while the linkage exceeds it, default 0; must be 0 with constraints);
+ * {@code weights} (a {@link WeightRule}; default channel roles for the Mutex Watershed and
+ * {@code logit} by value for agglomeration); {@code subsampling} (a {@link Subsampling}, default
+ * none). {@link #validate(Offsets)} checks them against the dataset's offsets.
+ *
+ * <p>Extension point: a new method (for instance {@code "fragments-multicut"} and
+ * {@code "fragments-agglomeration"}) adds a {@link Method} constant with its JSON name, its keys
+ * as constructor parameters (null = default), its checks in {@link #validate(Offsets)} and a case
+ * in {@link #create()} returning its {@link Partitioner}. Immutable.
+ */
+public final class PartitionConfig {
+
+  /** The partition methods by JSON name. */
+  public enum Method {
+    MUTEX_WATERSHED("mutex-watershed"),
+    AGGLOMERATION("agglomeration");
+
+    private final String jsonName;
+
+    Method(String jsonName) {
+      this.jsonName = jsonName;
+    }
+
+    @JsonValue
+    public String jsonName() {
+      return jsonName;
+    }
+
+    @JsonCreator
+    public static Method fromName(String name) {
+      for (Method m : values()) {
+        if (m.jsonName.equals(name)) {
+          return m;
+        }
+      }
+      StringBuilder names = new StringBuilder();
+      for (Method m : values()) {
+        names.append(names.length() == 0 ? "" : ", ").append(m.jsonName);
+      }
+      throw new PartitionConfigException(ErrorKind.INVALID_CONFIG, "method: unknown value \""
+          + name + "\"; expected one of " + names);
+    }
+  }
+
+  private final Method method;
+  private final Linkage linkage;
+  private final boolean constraints;
+  private final double threshold;
+  private final WeightRule weights;
+  private final Subsampling subsampling;
+
+  /** Null arguments take their defaults (see the class comment); {@code method} is required. */
+  @JsonCreator
+  public PartitionConfig(@JsonProperty("method") Method method,
+      @JsonProperty("linkage") Linkage linkage,
+      @JsonProperty("constraints") Boolean constraints,
+      @JsonProperty("threshold") Double threshold,
+      @JsonProperty("weights") WeightRule weights,
+      @JsonProperty("subsampling") Subsampling subsampling) {
+    if (method == null) {
+      throw invalid("method: missing; expected \"mutex-watershed\" or \"agglomeration\"");
+    }
+    this.method = method;
+    this.linkage = linkage != null ? linkage : Linkage.MEAN;
+    this.constraints = constraints != null && constraints;
+    this.threshold = threshold != null ? threshold : 0;
+    if (!Double.isFinite(this.threshold)) {
+      throw invalid("threshold: " + threshold + "; expected a finite number");
+    }
+    if (this.constraints && this.threshold != 0) {
+      throw invalid("threshold: " + threshold + " with constraints; constrained agglomeration "
+          + "stops where no linkage is positive, so the threshold must be 0");
+    }
+    if (method == Method.MUTEX_WATERSHED && (linkage != null || this.constraints
+        || this.threshold != 0)) {
+      throw invalid("linkage/constraints/threshold: not used by method \"mutex-watershed\"; "
+          + "remove them or use \"agglomeration\"");
+    }
+    this.weights = weights != null ? weights
+        : method == Method.MUTEX_WATERSHED ? WeightRule.byChannelRole()
+            : WeightRule.byValue(WeightRule.Transform.LOGIT, null);
+    this.subsampling = subsampling != null ? subsampling : Subsampling.none();
+  }
+
+  public static PartitionConfig mutexWatershed(WeightRule weights, Subsampling subsampling) {
+    return new PartitionConfig(Method.MUTEX_WATERSHED, null, null, null, weights, subsampling);
+  }
+
+  public static PartitionConfig agglomeration(Linkage linkage, boolean constraints,
+      WeightRule weights, Subsampling subsampling) {
+    return new PartitionConfig(Method.AGGLOMERATION, linkage, constraints, null, weights,
+        subsampling);
+  }
+
+  /**
+   * Reads a configuration from JSON; every mistake becomes a {@link SunderException} of kind
+   * {@link ErrorKind#INVALID_CONFIG} whose message names the key.
+   */
+  public static PartitionConfig fromJson(String json) {
+    ObjectMapper mapper = new ObjectMapper()
+        .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
+        .enable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES);
+    try {
+      return mapper.readValue(json, PartitionConfig.class);
+    } catch (JsonProcessingException e) {
+      for (Throwable t = e; t != null; t = t.getCause()) {
+        if (t instanceof SunderException s) {
+          throw new PartitionConfigException(ErrorKind.INVALID_CONFIG, s.getMessage());
+        }
+      }
+      String where = e instanceof JsonMappingException m && !m.getPath().isEmpty()
+          ? pathOf(m) : "partition";
+      throw invalid(where + ": " + e.getOriginalMessage());
+    }
+  }
+
+  private static String pathOf(JsonMappingException e) {
+    StringBuilder path = new StringBuilder();
+    for (JsonMappingException.Reference r : e.getPath()) {
+      if (r.getFieldName() != null) {
+        path.append(path.length() == 0 ? "" : ".").append(r.getFieldName());
+      } else {
+        path.append('[').append(r.getIndex()).append(']');
+      }
+    }
+    return path.toString();
+  }
+
+  /** Throws {@link SunderException} (INVALID_CONFIG) naming the key unless all fits. */
+  public void validate(Offsets offsets) {
+    weights.validate(offsets);
+    subsampling.validate(offsets);
+  }
+
+  /** The configured partitioner. */
+  public Partitioner create() {
+    return switch (method) {
+      case MUTEX_WATERSHED -> new MutexWatershedPartitioner(weights, subsampling);
+      case AGGLOMERATION -> new AgglomerationPartitioner(
+          new Agglomeration(linkage, constraints).withThreshold(threshold), weights, subsampling);
+    };
+  }
+
+  @JsonProperty("method")
+  public Method method() {
+    return method;
+  }
+
+  @JsonProperty("linkage")
+  public Linkage linkage() {
+    return method == Method.MUTEX_WATERSHED ? null : linkage;
+  }
+
+  @JsonProperty("constraints")
+  public boolean constraints() {
+    return constraints;
+  }
+
+  @JsonProperty("threshold")
+  public double threshold() {
+    return threshold;
+  }
+
+  @JsonProperty("weights")
+  public WeightRule weights() {
+    return weights;
+  }
+
+  @JsonProperty("subsampling")
+  public Subsampling subsampling() {
+    return subsampling;
+  }
+
+  @JsonIgnore
+  public boolean isMutexWatershed() {
+    return method == Method.MUTEX_WATERSHED;
+  }
+
+  @Override
+  public boolean equals(Object o) {
+    return o instanceof PartitionConfig c && method == c.method && linkage == c.linkage
+        && constraints == c.constraints && threshold == c.threshold && weights.equals(c.weights)
+        && subsampling.equals(c.subsampling);
+  }
+
+  @Override
+  public int hashCode() {
+    return Objects.hash(method, linkage, constraints, threshold, weights, subsampling);
+  }
+
+  @Override
+  public String toString() {
+    return "PartitionConfig[" + method.jsonName() + (method == Method.AGGLOMERATION
+        ? " " + linkage.jsonName() + (constraints ? " constrained" : "") : "") + ", " + weights
+        + ", " + subsampling + "]";
+  }
+
+  private static PartitionConfigException invalid(String message) {
+    return new PartitionConfigException(ErrorKind.INVALID_CONFIG, message);
+  }
+}
