@@ -126,8 +126,7 @@ public final class PartitionConfig {
    */
   public static PartitionConfig fromJson(String json) {
     ObjectMapper mapper = new ObjectMapper()
-        .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES)
-        .enable(DeserializationFeature.FAIL_ON_NULL_FOR_PRIMITIVES);
+        .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
     try {
       return mapper.readValue(json, PartitionConfig.class);
     } catch (JsonProcessingException e) {
