@@ -45,7 +45,7 @@ public final class Dataset {
     this.description = "dataset '" + path + "' in " + layout.format() + " container " + root;
     Codec codec;
     try {
-      codec = Codecs.create(spec.codec(), layout.format(), spec.dataType());
+      codec = Codecs.createDecoder(spec.codec(), layout.format(), spec.dataType());
     } catch (StoreException e) {
       throw new StoreException(e.kind(), description + ": " + e.getMessage(), e);
     }

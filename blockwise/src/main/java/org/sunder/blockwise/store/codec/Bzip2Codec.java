@@ -6,7 +6,11 @@ import java.io.OutputStream;
 import org.apache.commons.compress.compressors.bzip2.BZip2CompressorInputStream;
 import org.apache.commons.compress.compressors.bzip2.BZip2CompressorOutputStream;
 
-/** bzip2 through Apache Commons Compress; reads concatenated streams. */
+/**
+ * bzip2 through Apache Commons Compress; reads concatenated streams. A chunk smaller than the
+ * configured block size is written with the smallest block size that holds it (the same
+ * output a larger block would give, but far less memory to encode and decode).
+ */
 final class Bzip2Codec extends StreamCodec {
   private final int blockSize;
 
@@ -15,8 +19,9 @@ final class Bzip2Codec extends StreamCodec {
   }
 
   @Override
-  OutputStream compressing(OutputStream sink) throws IOException {
-    return new BZip2CompressorOutputStream(sink, blockSize);
+  OutputStream compressing(OutputStream sink, int length) throws IOException {
+    int needed = (int) Math.max(1, Math.min(blockSize, (length + 99_999L) / 100_000));
+    return new BZip2CompressorOutputStream(sink, needed);
   }
 
   @Override

@@ -31,8 +31,21 @@ import org.sunder.blockwise.store.StoreException;
 public final class Codecs {
   private Codecs() {}
 
-  /** The codec for {@code spec} in {@code format}, for elements of {@code type}. */
+  /**
+   * The codec for {@code spec} in {@code format}, for elements of {@code type}.
+   *
+   * @throws StoreException INVALID_CONFIG if the spec can be read but not written (blosc with
+   *     blosclz); use {@link #createDecoder} to read such data
+   */
   public static Codec create(CodecSpec spec, StorageFormat format, DataType type) {
+    if (spec.name().equals("blosc")) {
+      BloscCodec.checkEncodable(spec);
+    }
+    return createDecoder(spec, format, type);
+  }
+
+  /** A codec for {@code spec} that decodes every variant; its encode may not support all. */
+  public static Codec createDecoder(CodecSpec spec, StorageFormat format, DataType type) {
     return switch (spec.name()) {
       case "raw" -> new RawCodec();
       case "gzip" -> new DeflateCodec(true, spec.level());
@@ -42,6 +55,7 @@ public final class Codecs {
           ? Lz4Codec.Framing.BLOCK_STREAM : Lz4Codec.Framing.SIZE_PREFIXED, spec.blockSize());
       case "bzip2" -> new Bzip2Codec(spec.level());
       case "xz" -> new XzCodec(spec.level());
+      case "blosc" -> new BloscCodec(spec, type.bytes());
       default -> throw new StoreException(ErrorKind.INVALID_CONFIG,
           "codec '" + spec.name() + "' has no implementation");
     };

@@ -104,7 +104,7 @@ final class Lz4Codec implements Codec {
       int decodedSize) throws IOException {
     StreamCodec stream = new StreamCodec() {
       @Override
-      java.io.OutputStream compressing(java.io.OutputStream sink) {
+      java.io.OutputStream compressing(java.io.OutputStream sink, int length) {
         throw new UnsupportedOperationException();
       }
 

@@ -13,8 +13,8 @@ import java.io.UncheckedIOException;
  */
 abstract class StreamCodec implements Codec {
 
-  /** Wraps {@code sink} in the compressing stream. */
-  abstract OutputStream compressing(OutputStream sink) throws IOException;
+  /** Wraps {@code sink} in the compressing stream for {@code length} bytes of input. */
+  abstract OutputStream compressing(OutputStream sink, int length) throws IOException;
 
   /** Wraps {@code source} in the decompressing stream. */
   abstract InputStream decompressing(InputStream source) throws IOException;
@@ -25,7 +25,7 @@ abstract class StreamCodec implements Codec {
   @Override
   public byte[] encode(byte[] data) {
     ByteArrayOutputStream sink = new ByteArrayOutputStream(data.length / 2 + 64);
-    try (OutputStream out = compressing(sink)) {
+    try (OutputStream out = compressing(sink, data.length)) {
       out.write(data);
     } catch (IOException e) {
       throw new UncheckedIOException("in-memory " + name() + " compression failed", e);

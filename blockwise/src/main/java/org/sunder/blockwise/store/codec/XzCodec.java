@@ -3,6 +3,7 @@ package org.sunder.blockwise.store.codec;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.OutputStream;
+import org.tukaani.xz.BasicArrayCache;
 import org.tukaani.xz.LZMA2Options;
 import org.tukaani.xz.UnsupportedOptionsException;
 import org.tukaani.xz.XZ;
@@ -11,9 +12,12 @@ import org.tukaani.xz.XZOutputStream;
 
 /**
  * The .xz container with LZMA2 (XZ for Java), the format of N5's {@code xz} and of numcodecs'
- * {@code lzma} with its default {@code format=1} (FORMAT_XZ); written with a CRC64 check.
+ * {@code lzma} with its default {@code format=1} (FORMAT_XZ); written with a CRC64 check. The
+ * dictionary is capped at the chunk size (same output, less memory), and buffers are reused
+ * through XZ for Java's {@link BasicArrayCache}.
  */
 final class XzCodec extends StreamCodec {
+
   private final int preset;
 
   XzCodec(int preset) {
@@ -21,9 +25,12 @@ final class XzCodec extends StreamCodec {
   }
 
   @Override
-  OutputStream compressing(OutputStream sink) throws IOException {
+  OutputStream compressing(OutputStream sink, int length) throws IOException {
     try {
-      return new XZOutputStream(sink, new LZMA2Options(preset), XZ.CHECK_CRC64);
+      LZMA2Options options = new LZMA2Options(preset);
+      options.setDictSize(Math.max(LZMA2Options.DICT_SIZE_MIN,
+          Math.min(options.getDictSize(), length)));
+      return new XZOutputStream(sink, options, XZ.CHECK_CRC64, BasicArrayCache.getInstance());
     } catch (UnsupportedOptionsException e) {
       throw new IOException("xz preset " + preset + " is not supported", e);
     }
@@ -31,7 +38,7 @@ final class XzCodec extends StreamCodec {
 
   @Override
   InputStream decompressing(InputStream source) throws IOException {
-    return new XZInputStream(source);
+    return new XZInputStream(source, -1, true, BasicArrayCache.getInstance());
   }
 
   @Override
