@@ -299,7 +299,7 @@ final class BloscCodec implements Codec {
     int leftover = nbytes % blocksize;
     int limit = nbytes + HEADER;
     byte[] out = new byte[limit];
-    int op = HEADER + 4 * nblocks;
+    int op = HEADER + 4 * nblocks < limit ? HEADER + 4 * nblocks : -1;
     byte[] tmp = shuffleFlag() != 0 ? new byte[blocksize] : null;
     BlockCompressor compressor = new BlockCompressor(cname, format, clevel);
     try {
