@@ -58,31 +58,45 @@ final class Rasterizer {
   }
 
   void draw(Capsule k) {
-    double reach = Math.max(k.ra(), k.rb()) + fill;
+    double ra = k.ra();
+    double rb = k.rb();
+    double reach = Math.max(ra, rb) + fill;
     int[] lo = new int[3];
     int[] hi = new int[3];
     box(new double[] {k.ax(), k.ay(), k.az()}, new double[] {k.bx(), k.by(), k.bz()}, reach,
         lo, hi);
-    double sx = k.bx() - k.ax();
-    double sy = k.by() - k.ay();
-    double sz = k.bz() - k.az();
+    double ax = k.ax();
+    double ay = k.ay();
+    double az = k.az();
+    double sx = k.bx() - ax;
+    double sy = k.by() - ay;
+    double sz = k.bz() - az;
     double length2 = sx * sx + sy * sy + sz * sz;
+    double inverse = length2 == 0 ? 0 : 1 / length2;
+    double reach2 = reach * reach;
+    double inverseFill = 1 / fill;
+    int object = k.object();
+    double hx = size[0];
     for (int z = lo[2]; z <= hi[2]; z++) {
-      double pz = (z + 0.5) * size[2] - k.az();
+      double pz = (z + 0.5) * size[2] - az;
       for (int y = lo[1]; y <= hi[1]; y++) {
-        double py = (y + 0.5) * size[1] - k.ay();
+        double py = (y + 0.5) * size[1] - ay;
         int row = nx * (y + ny * z);
-        for (int x = lo[0]; x <= hi[0]; x++) {
-          double px = (x + 0.5) * size[0] - k.ax();
-          double t = length2 == 0 ? 0 : (px * sx + py * sy + pz * sz) / length2;
+        double px = (lo[0] + 0.5) * hx - ax;
+        for (int x = lo[0]; x <= hi[0]; x++, px += hx) {
+          double t = (px * sx + py * sy + pz * sz) * inverse;
           t = t < 0 ? 0 : (t > 1 ? 1 : t);
           double dx = px - t * sx;
           double dy = py - t * sy;
           double dz = pz - t * sz;
-          double d = Math.sqrt(dx * dx + dy * dy + dz * dz);
-          double r = k.ra() + t * (k.rb() - k.ra());
-          double s = d < r ? d / r - 1 : (d - r) / fill;
-          offer(row + x, s, k.object());
+          double d2 = dx * dx + dy * dy + dz * dz;
+          if (d2 > reach2) {
+            continue;
+          }
+          double d = Math.sqrt(d2);
+          double r = ra + t * (rb - ra);
+          double s = d < r ? d / r - 1 : (d - r) * inverseFill;
+          offer(row + x, s, object);
         }
       }
     }

@@ -9,11 +9,13 @@ import java.util.Random;
  * apart), then cells (ellipsoids kept off bodies and each other), then fibres as persistent
  * random walks that start inside the volume, run both ways until they leave it, slide around
  * bodies and cells they would enter, vary their radius along their length and branch now and
- * then. Object ids are 1.., in that order. Deterministic from the spec's seed.
+ * then (side branches of the two main arms, at most {@value #MAX_BRANCHES_PER_FIBRE} per fibre,
+ * each up to 0.6 of the volume's longest extent). Steps are 1.5 local radii long. Object ids
+ * are 1.., in that order. Deterministic from the spec's seed.
  */
 final class TissueLayout {
   private static final int PLACEMENT_TRIES = 60;
-  private static final int MAX_BRANCH_DEPTH = 2;
+  private static final int MAX_BRANCHES_PER_FIBRE = 4;
 
   final List<Ellipsoid> ellipsoids = new ArrayList<>();
   final List<Capsule> capsules = new ArrayList<>();
@@ -24,6 +26,7 @@ final class TissueLayout {
   private final SynthSpec spec;
   private final Random random;
   private final double[] extent = new double[3];
+  private int branchesLeft;
 
   TissueLayout(SynthSpec spec) {
     this.spec = spec;
@@ -92,6 +95,7 @@ final class TissueLayout {
     }
     double[] direction = randomUnit();
     double phase = random.nextDouble() * 2 * Math.PI;
+    branchesLeft = MAX_BRANCHES_PER_FIBRE;
     walk(id, start, direction, baseRadius, phase, 0);
     walk(id, start, scale(direction, -1), baseRadius, phase + Math.PI, 0);
   }
@@ -104,11 +108,12 @@ final class TissueLayout {
     double wavelength = 10 * baseRadius;
     double travelled = 0;
     double radius = radiusAt(baseRadius, phase, 0, wavelength);
-    double maxLength = 3 * (extent[0] + extent[1] + extent[2]);
+    double longest = Math.max(extent[0], Math.max(extent[1], extent[2]));
+    double maxLength = depth == 0 ? 3 * (extent[0] + extent[1] + extent[2]) : 0.6 * longest;
     int arm = armDepths.size();
     armDepths.add(depth);
     while (inside(p, radius) && travelled < maxLength) {
-      double step = Math.max(0.6 * radius, 0.5 * minVoxelSize());
+      double step = Math.max(1.5 * radius, 0.5 * minVoxelSize());
       for (int d = 0; d < 3; d++) {
         dir[d] += spec.tortuosity() * random.nextGaussian();
       }
@@ -122,7 +127,8 @@ final class TissueLayout {
       travelled += step;
       p = next;
       radius = nextRadius;
-      if (depth < MAX_BRANCH_DEPTH && random.nextDouble() < spec.branchProbability()) {
+      if (depth == 0 && branchesLeft > 0 && random.nextDouble() < spec.branchProbability()) {
+        branchesLeft--;
         double[] side = normalized(add(dir, scale(randomUnit(), 1.2)));
         walk(id, p, side, Math.max(0.7 * radius, 0.6 * spec.fibreRadiusMin()),
             random.nextDouble() * 2 * Math.PI, depth + 1);

@@ -125,7 +125,7 @@ class SyntheticVolumeTest {
     assertTrue(median(fibreRatio) > 30, "fibre length / mean boundary distance "
         + median(fibreRatio));
     assertTrue(median(compactRatio) < 25, "compact ratio " + median(compactRatio));
-    assertTrue(median(fibreThickness) < 0.6 * median(compactThickness),
+    assertTrue(median(fibreThickness) < 0.7 * median(compactThickness),
         "fibre thickness " + median(fibreThickness) + " vs " + median(compactThickness));
     assertTrue(median(fibreThickness) < spec.fibreRadiusMax() / 2);
   }
