@@ -3,11 +3,13 @@ package org.sunder.blockwise.partition;
 import java.util.Arrays;
 
 /**
- * Regional maxima of a scalar box: connected plateaus of equal value (full connectivity,
- * {@code 3^d − 1} neighbours, inside slice planes when a slice axis is given) with no neighbour
- * of larger value. Only voxels with {@code eligible[i] != 0} can belong to a maximum; others are
- * still compared as neighbours. Plateaus are numbered 1, 2, … in the order of their first voxel
- * in memory order. Time {@code O(n · 3^d)}, memory {@code O(n)}.
+ * Regional maxima of a scalar box restricted to the eligible voxels: connected plateaus of
+ * equal value (full connectivity, {@code 3^d − 1} neighbours, inside slice planes when a slice
+ * axis is given) with no eligible neighbour of larger value. Voxels with {@code eligible[i] == 0}
+ * take no part at all, so every connected component of eligible voxels holds at least one
+ * maximum. With every voxel eligible these are the ordinary regional maxima. Plateaus are
+ * numbered 1, 2, … in the order of their first voxel in memory order. Time
+ * {@code O(n · 3^d)}, memory {@code O(n)}.
  */
 public final class RegionalMaxima {
   private RegionalMaxima() {}
@@ -40,9 +42,12 @@ public final class RegionalMaxima {
             continue;
           }
           int j = i + hood.delta(k);
+          if (eligible[j] == 0) {
+            continue;
+          }
           if (values[j] > value) {
             maximal = false;
-          } else if (values[j] == value && eligible[j] != 0 && visited[j] == 0) {
+          } else if (values[j] == value && visited[j] == 0) {
             visited[j] = 1;
             if (size == plateau.length) {
               plateau = Arrays.copyOf(plateau, size * 2);

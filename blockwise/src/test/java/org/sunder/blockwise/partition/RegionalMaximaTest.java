@@ -23,10 +23,10 @@ class RegionalMaximaTest {
   }
 
   @Test
-  void ineligibleVoxelsAreComparedButNeverSeeds() {
+  void ineligibleVoxelsTakeNoPartSoEveryEligibleComponentHasASeed() {
     double[] values = {0, 5, 1, 2, 1};
     byte[] eligible = {1, 0, 1, 1, 1};
-    assertArrayEquals(new int[] {0, 0, 0, 1, 0},
+    assertArrayEquals(new int[] {1, 0, 0, 2, 0},
         RegionalMaxima.label(values, eligible, new int[] {5}, -1));
   }
 
