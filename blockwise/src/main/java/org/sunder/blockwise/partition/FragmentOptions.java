@@ -1,54 +1,143 @@
 package org.sunder.blockwise.partition;
 
+import com.fasterxml.jackson.annotation.JsonCreator;
+import com.fasterxml.jackson.annotation.JsonIgnore;
+import com.fasterxml.jackson.annotation.JsonInclude;
+import com.fasterxml.jackson.annotation.JsonProperty;
+import java.io.Serializable;
 import java.util.Arrays;
+import org.sunder.blockwise.ErrorKind;
 
 /**
- * How {@link WatershedFragments} over-segments a block.
+ * How {@link WatershedFragments} over-segments a block. In JSON (key {@code "fragments"} of the
+ * partition configuration), every key optional:
+ * <pre>{@code {"boundaryThreshold": 0.5, "seedSmoothing": 1.0, "voxelSize": [40, 4, 4],
+ *  "perSlice": false}}</pre>
+ * where {@code voxelSize} is in <b>zyx</b> order, as configuration files are.
  *
  * @param boundaryThreshold voxels whose boundary value is below it are object interior; seeds
- *     lie at the maxima of their distance to the rest. In (0, 1]
+ *     lie at the maxima of their distance to the rest. In (0, 1]; default 0.5
  * @param seedSmoothing σ of a Gaussian applied to the distance transform before its maxima are
- *     taken, in the same physical units as {@code voxelSize}; 0 for none
- * @param voxelSize the physical size of a voxel along each axis, memory order (x, y, z)
+ *     taken, in the physical units of {@code voxelSize}; 0 for none; default 1
+ * @param voxelSize physical voxel size per axis, <b>memory order</b> (x, y, z); null means
+ *     isotropic unit voxels of whatever dimension the block has
  * @param perSlice fragments per plane of the slowest axis (z), for anisotropic data: the
- *     distance transform, the seeds and the flood stay inside each slice
+ *     distance transform, the seeds and the flood stay inside each slice; default false
  */
+@JsonInclude(JsonInclude.Include.NON_NULL)
 public record FragmentOptions(double boundaryThreshold, double seedSmoothing, double[] voxelSize,
-    boolean perSlice) {
+    boolean perSlice) implements Serializable {
 
+  /**
+   * @throws PartitionConfigException (INVALID_CONFIG) naming the key of a value out of range
+   */
   public FragmentOptions {
     if (!(boundaryThreshold > 0 && boundaryThreshold <= 1)) {
-      throw new IllegalArgumentException("boundary threshold " + boundaryThreshold
-          + " is outside (0, 1]");
+      throw invalid("fragments.boundaryThreshold: " + boundaryThreshold
+          + "; expected a number in (0, 1]");
     }
     if (!(seedSmoothing >= 0) || Double.isInfinite(seedSmoothing)) {
-      throw new IllegalArgumentException("seed smoothing " + seedSmoothing
-          + " is not a finite value >= 0");
+      throw invalid("fragments.seedSmoothing: " + seedSmoothing
+          + "; expected a finite number >= 0");
     }
-    voxelSize = voxelSize.clone();
-    for (double s : voxelSize) {
-      if (!(s > 0) || Double.isInfinite(s)) {
-        throw new IllegalArgumentException("voxel size " + Arrays.toString(voxelSize)
-            + " has a value that is not finite and > 0");
+    if (voxelSize != null) {
+      voxelSize = voxelSize.clone();
+      for (double s : voxelSize) {
+        if (!(s > 0) || Double.isInfinite(s)) {
+          throw invalid("fragments.voxelSize: " + Arrays.toString(voxelSize)
+              + " (memory order); expected finite numbers > 0");
+        }
+      }
+      if (voxelSize.length == 0) {
+        throw invalid("fragments.voxelSize: empty; expected one value per axis");
       }
     }
   }
 
-  /** Threshold 0.5, smoothing σ = 1 voxel, isotropic unit voxels, 3D, for {@code dims} axes. */
-  public static FragmentOptions defaults(int dims) {
-    double[] unit = new double[dims];
-    Arrays.fill(unit, 1.0);
-    return new FragmentOptions(0.5, 1.0, unit, false);
+  /** Reads the JSON form; {@code voxelSize} in zyx order; missing keys take their defaults. */
+  @JsonCreator
+  public static FragmentOptions fromJson(
+      @JsonProperty("boundaryThreshold") Double boundaryThreshold,
+      @JsonProperty("seedSmoothing") Double seedSmoothing,
+      @JsonProperty("voxelSize") double[] voxelSizeZyx,
+      @JsonProperty("perSlice") Boolean perSlice) {
+    return new FragmentOptions(boundaryThreshold != null ? boundaryThreshold : 0.5,
+        seedSmoothing != null ? seedSmoothing : 1.0,
+        voxelSizeZyx == null ? null : reversed(voxelSizeZyx), perSlice != null && perSlice);
   }
 
-  /** The axis whose planes are processed apart, or −1. */
+  /** Threshold 0.5, smoothing σ = 1, isotropic unit voxels, 3D flooding. */
+  public static FragmentOptions defaults() {
+    return new FragmentOptions(0.5, 1.0, null, false);
+  }
+
+  /** The same options with an explicit voxel size for {@code dims} axes. */
+  public FragmentOptions forDimension(int dims) {
+    if (voxelSize == null) {
+      double[] unit = new double[dims];
+      Arrays.fill(unit, 1.0);
+      return new FragmentOptions(boundaryThreshold, seedSmoothing, unit, perSlice);
+    }
+    if (voxelSize.length != dims) {
+      throw invalid("fragments.voxelSize: " + voxelSize.length + " values but the data has "
+          + dims + " spatial axes");
+    }
+    return this;
+  }
+
+  /** The axis whose planes are processed apart ({@code dims − 1}), or −1. */
+  @JsonIgnore
   public int sliceAxis() {
-    return perSlice ? voxelSize.length - 1 : -1;
+    if (!perSlice) {
+      return -1;
+    }
+    if (voxelSize == null) {
+      throw new IllegalStateException("slice axis of options without a dimension");
+    }
+    return voxelSize.length - 1;
   }
 
+  @JsonProperty("boundaryThreshold")
+  @Override
+  public double boundaryThreshold() {
+    return boundaryThreshold;
+  }
+
+  @JsonProperty("seedSmoothing")
+  @Override
+  public double seedSmoothing() {
+    return seedSmoothing;
+  }
+
+  /** A copy of the voxel size in memory order, or null for isotropic. */
+  @JsonIgnore
   @Override
   public double[] voxelSize() {
-    return voxelSize.clone();
+    return voxelSize == null ? null : voxelSize.clone();
+  }
+
+  /** The voxel size in zyx order (as written in configuration), or null. */
+  @JsonProperty("voxelSize")
+  public double[] voxelSizeZyx() {
+    return voxelSize == null ? null : reversed(voxelSize);
+  }
+
+  @JsonProperty("perSlice")
+  @Override
+  public boolean perSlice() {
+    return perSlice;
+  }
+
+  private static double[] reversed(double[] values) {
+    double[] r = new double[values.length];
+    for (int i = 0; i < values.length; i++) {
+      r[i] = values[values.length - 1 - i];
+    }
+    return r;
+  }
+
+  private static PartitionConfigException invalid(String message) {
+    return new PartitionConfigException(ErrorKind.INVALID_CONFIG, message);
   }
 
   @Override
@@ -60,14 +149,14 @@ public record FragmentOptions(double boundaryThreshold, double seedSmoothing, do
 
   @Override
   public int hashCode() {
-    return Double.hashCode(boundaryThreshold) * 31 * 31 * 31 + Double.hashCode(seedSmoothing) * 31 * 31
+    return Arrays.hashCode(new double[] {boundaryThreshold, seedSmoothing}) * 961
         + Arrays.hashCode(voxelSize) * 31 + Boolean.hashCode(perSlice);
   }
 
   @Override
   public String toString() {
     return "FragmentOptions[boundaryThreshold=" + boundaryThreshold + ", seedSmoothing="
-        + seedSmoothing + ", voxelSize=" + Arrays.toString(voxelSize) + ", perSlice=" + perSlice
-        + "]";
+        + seedSmoothing + ", voxelSize(xyz)=" + Arrays.toString(voxelSize) + ", perSlice="
+        + perSlice + "]";
   }
 }

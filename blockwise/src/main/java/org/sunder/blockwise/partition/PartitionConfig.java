@@ -2,6 +2,7 @@ package org.sunder.blockwise.partition;
 
 import com.fasterxml.jackson.annotation.JsonCreator;
 import com.fasterxml.jackson.annotation.JsonIgnore;
+import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import com.fasterxml.jackson.annotation.JsonValue;
 import com.fasterxml.jackson.databind.DeserializationFeature;
@@ -23,13 +24,19 @@ import org.sunder.blockwise.graph.WeightRule;
  *  "subsampling": {"kind": "hash", "keepFraction": 0.1, "seed": 7}}
  * }</pre>
  *
- * <p>Keys: {@code method} ({@code "mutex-watershed"} or {@code "agglomeration"}); {@code linkage}
- * (agglomeration only; {@code sum}, {@code mean}, {@code max}, {@code min}, {@code abs-max};
- * default {@code mean}); {@code constraints} (cannot-link constraints, default false);
+ * <p>Keys: {@code method} ({@code "mutex-watershed"}, {@code "agglomeration"},
+ * {@code "fragments-multicut"} or {@code "fragments-agglomeration"}); {@code linkage}
+ * (not for the Mutex Watershed; {@code sum}, {@code mean}, {@code max}, {@code min},
+ * {@code abs-max}; default {@code mean}, for {@code fragments-multicut} {@code sum}: the
+ * multicut cost of a fragment pair); {@code constraints} (cannot-link constraints, default false);
  * {@code threshold} (merge while the linkage exceeds it, default 0; must be 0 with constraints);
  * {@code weights} (a {@link WeightRule}; default channel roles for the Mutex Watershed and
  * {@code logit} by value for agglomeration); {@code subsampling} (a {@link Subsampling}, default
- * none). {@link #validate(Offsets)} checks them against the dataset's offsets.
+ * none); {@code fragments} (fragment methods only: a {@link FragmentOptions}, defaults if
+ * omitted); {@code minSegmentSize} (any method: segments with fewer voxels are merged by a
+ * {@link SizeFilter} into their most attracted neighbour, never across the method's
+ * constraints; default 0 = off). {@link #validate(Offsets)} checks them against the dataset's
+ * offsets.
  *
  * <p>Extension point: a new method (for instance {@code "fragments-multicut"} and
  * {@code "fragments-agglomeration"}) adds a {@link Method} constant with its JSON name, its keys
@@ -41,7 +48,9 @@ public final class PartitionConfig {
   /** The partition methods by JSON name. */
   public enum Method {
     MUTEX_WATERSHED("mutex-watershed"),
-    AGGLOMERATION("agglomeration");
+    AGGLOMERATION("agglomeration"),
+    FRAGMENTS_MULTICUT("fragments-multicut"),
+    FRAGMENTS_AGGLOMERATION("fragments-agglomeration");
 
     private final String jsonName;
 
@@ -76,6 +85,14 @@ public final class PartitionConfig {
   private final double threshold;
   private final WeightRule weights;
   private final Subsampling subsampling;
+  private final FragmentOptions fragments;
+  private final int minSegmentSize;
+
+  /** As the full constructor without fragment options and size filter. */
+  public PartitionConfig(Method method, Linkage linkage, Boolean constraints, Double threshold,
+      WeightRule weights, Subsampling subsampling) {
+    this(method, linkage, constraints, threshold, weights, subsampling, null, null);
+  }
 
   /** Null arguments take their defaults (see the class comment); {@code method} is required. */
   @JsonCreator
@@ -84,12 +101,16 @@ public final class PartitionConfig {
       @JsonProperty("constraints") Boolean constraints,
       @JsonProperty("threshold") Double threshold,
       @JsonProperty("weights") WeightRule weights,
-      @JsonProperty("subsampling") Subsampling subsampling) {
+      @JsonProperty("subsampling") Subsampling subsampling,
+      @JsonProperty("fragments") FragmentOptions fragments,
+      @JsonProperty("minSegmentSize") Integer minSegmentSize) {
     if (method == null) {
-      throw invalid("method: missing; expected \"mutex-watershed\" or \"agglomeration\"");
+      throw invalid("method: missing; expected \"mutex-watershed\", \"agglomeration\", "
+          + "\"fragments-multicut\" or \"fragments-agglomeration\"");
     }
     this.method = method;
-    this.linkage = linkage != null ? linkage : Linkage.MEAN;
+    this.linkage = linkage != null ? linkage
+        : method == Method.FRAGMENTS_MULTICUT ? Linkage.SUM : Linkage.MEAN;
     this.constraints = constraints != null && constraints;
     this.threshold = threshold != null ? threshold : 0;
     if (!Double.isFinite(this.threshold)) {
@@ -108,6 +129,21 @@ public final class PartitionConfig {
         : method == Method.MUTEX_WATERSHED ? WeightRule.byChannelRole()
             : WeightRule.byValue(WeightRule.Transform.LOGIT, null);
     this.subsampling = subsampling != null ? subsampling : Subsampling.none();
+    boolean fromFragments = method == Method.FRAGMENTS_MULTICUT
+        || method == Method.FRAGMENTS_AGGLOMERATION;
+    if (fragments != null && !fromFragments) {
+      throw invalid("fragments: not used by method \"" + method.jsonName() + "\"; remove it or "
+          + "use \"fragments-multicut\" or \"fragments-agglomeration\"");
+    }
+    if (method == Method.FRAGMENTS_MULTICUT && (this.constraints || this.threshold != 0)) {
+      throw invalid("constraints/threshold: not used by method \"fragments-multicut\"");
+    }
+    this.fragments = fromFragments
+        ? (fragments != null ? fragments : FragmentOptions.defaults()) : null;
+    if (minSegmentSize != null && minSegmentSize < 0) {
+      throw invalid("minSegmentSize: " + minSegmentSize + "; expected an integer >= 0");
+    }
+    this.minSegmentSize = minSegmentSize != null ? minSegmentSize : 0;
   }
 
   public static PartitionConfig mutexWatershed(WeightRule weights, Subsampling subsampling) {
@@ -157,15 +193,33 @@ public final class PartitionConfig {
   public void validate(Offsets offsets) {
     weights.validate(offsets);
     subsampling.validate(offsets);
+    if (fragments != null) {
+      fragments.forDimension(offsets.dimension());
+    }
   }
 
   /** The configured partitioner. */
   public Partitioner create() {
-    return switch (method) {
+    Agglomeration agglomeration = method == Method.MUTEX_WATERSHED
+        || method == Method.FRAGMENTS_MULTICUT ? null
+        : new Agglomeration(linkage, constraints).withThreshold(threshold);
+    Partitioner partitioner = switch (method) {
       case MUTEX_WATERSHED -> new MutexWatershedPartitioner(weights, subsampling);
-      case AGGLOMERATION -> new AgglomerationPartitioner(
-          new Agglomeration(linkage, constraints).withThreshold(threshold), weights, subsampling);
+      case AGGLOMERATION -> new AgglomerationPartitioner(agglomeration, weights, subsampling);
+      case FRAGMENTS_MULTICUT ->
+          new FragmentsMulticutPartitioner(fragments, linkage, weights, subsampling);
+      case FRAGMENTS_AGGLOMERATION ->
+          new FragmentsAgglomerationPartitioner(fragments, agglomeration, weights, subsampling);
     };
+    if (minSegmentSize <= 1) {
+      return partitioner;
+    }
+    SizeFilteredPartitioner.CannotLink cannotLink = method == Method.MUTEX_WATERSHED
+        ? SizeFilteredPartitioner.CannotLink.REPULSIVE_EDGE
+        : constraints ? SizeFilteredPartitioner.CannotLink.NONZERO_LINKAGE
+            : SizeFilteredPartitioner.CannotLink.NONE;
+    return new SizeFilteredPartitioner(partitioner, new SizeFilter(minSegmentSize, linkage),
+        weights, subsampling, cannotLink);
   }
 
   @JsonProperty("method")
@@ -198,6 +252,19 @@ public final class PartitionConfig {
     return subsampling;
   }
 
+  /** Fragment options of the fragment-based methods, else null. */
+  @JsonProperty("fragments")
+  @JsonInclude(JsonInclude.Include.NON_NULL)
+  public FragmentOptions fragments() {
+    return fragments;
+  }
+
+  /** Segments with fewer voxels are merged away by a {@link SizeFilter}; 0 or 1 = off. */
+  @JsonProperty("minSegmentSize")
+  public int minSegmentSize() {
+    return minSegmentSize;
+  }
+
   @JsonIgnore
   public boolean isMutexWatershed() {
     return method == Method.MUTEX_WATERSHED;
@@ -207,19 +274,22 @@ public final class PartitionConfig {
   public boolean equals(Object o) {
     return o instanceof PartitionConfig c && method == c.method && linkage == c.linkage
         && constraints == c.constraints && threshold == c.threshold && weights.equals(c.weights)
-        && subsampling.equals(c.subsampling);
+        && subsampling.equals(c.subsampling) && Objects.equals(fragments, c.fragments)
+        && minSegmentSize == c.minSegmentSize;
   }
 
   @Override
   public int hashCode() {
-    return Objects.hash(method, linkage, constraints, threshold, weights, subsampling);
+    return Objects.hash(method, linkage, constraints, threshold, weights, subsampling, fragments,
+        minSegmentSize);
   }
 
   @Override
   public String toString() {
-    return "PartitionConfig[" + method.jsonName() + (method == Method.AGGLOMERATION
+    return "PartitionConfig[" + method.jsonName() + (method != Method.MUTEX_WATERSHED
         ? " " + linkage.jsonName() + (constraints ? " constrained" : "") : "") + ", " + weights
-        + ", " + subsampling + "]";
+        + ", " + subsampling + (fragments != null ? ", " + fragments : "")
+        + (minSegmentSize > 1 ? ", minSegmentSize " + minSegmentSize : "") + "]";
   }
 
   private static PartitionConfigException invalid(String message) {

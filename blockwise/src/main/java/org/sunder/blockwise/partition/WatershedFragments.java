@@ -26,18 +26,19 @@ public final class WatershedFragments {
 
   /** Fragment labels of {@code boundary} (values in [0, 1]); {@code mask} may be null. */
   public int[] label(float[] boundary, int[] shape, byte[] mask) {
-    if (shape.length != options.voxelSize().length) {
-      throw new IllegalArgumentException("box " + Arrays.toString(shape) + " has "
-          + shape.length + " axes, voxel size " + options.voxelSize().length);
-    }
+    FragmentOptions fitted = options.forDimension(shape.length);
     int[] seeds = seeds(boundary, shape, mask);
-    int[] labels = SeededWatershed.flood(boundary, shape, seeds, mask, options.sliceAxis());
+    int[] labels = SeededWatershed.flood(boundary, shape, seeds, mask, fitted.sliceAxis());
     return consecutive(labels);
   }
 
   /** The seed labels the flood starts from (see class javadoc, steps 1–3). */
   public int[] seeds(float[] boundary, int[] shape, byte[] mask) {
+    FragmentOptions options = this.options.forDimension(shape.length);
     int n = VoxelBox.size(shape);
+    if (boundary.length != n || (mask != null && mask.length != n)) {
+      throw new IllegalArgumentException("arrays do not match the box " + Arrays.toString(shape));
+    }
     byte[] interior = new byte[n];
     double threshold = options.boundaryThreshold();
     for (int i = 0; i < n; i++) {

@@ -57,7 +57,7 @@ class WatershedFragmentsTest {
     for (int i = 0; i < 120; i++) {
       mask[i] = (byte) ((i % 6) == 2 ? 0 : 1);
     }
-    int[] labels = new WatershedFragments(FragmentOptions.defaults(3)).label(boundary, shape, mask);
+    int[] labels = new WatershedFragments(FragmentOptions.defaults()).label(boundary, shape, mask);
     assertConsecutiveAndMasked(labels, mask);
     assertEquals(1, labels[0]);
     assertEquals(2, labels[3]);
@@ -65,16 +65,19 @@ class WatershedFragmentsTest {
   }
 
   @Test
-  void optionsRejectValuesOutOfRange() {
-    assertThrows(IllegalArgumentException.class,
+  void optionsRejectValuesOutOfRangeNamingTheKey() {
+    PartitionConfigException e = assertThrows(PartitionConfigException.class,
         () -> new FragmentOptions(0.0, 1, new double[] {1, 1, 1}, false));
-    assertThrows(IllegalArgumentException.class,
+    assertTrue(e.getMessage().startsWith("fragments.boundaryThreshold: 0.0"), e.getMessage());
+    assertThrows(PartitionConfigException.class,
         () -> new FragmentOptions(0.5, -1, new double[] {1, 1, 1}, false));
-    assertThrows(IllegalArgumentException.class,
+    assertThrows(PartitionConfigException.class,
         () -> new FragmentOptions(0.5, 1, new double[] {1, 0, 1}, false));
-    assertThrows(IllegalArgumentException.class,
-        () -> new WatershedFragments(FragmentOptions.defaults(2)).label(new float[8],
-            new int[] {2, 2, 2}, null));
+    e = assertThrows(PartitionConfigException.class,
+        () -> new WatershedFragments(new FragmentOptions(0.5, 1, new double[] {1, 1}, false))
+            .label(new float[8], new int[] {2, 2, 2}, null));
+    assertTrue(e.getMessage().contains("fragments.voxelSize"), e.getMessage());
+    assertEquals(org.sunder.blockwise.ErrorKind.INVALID_CONFIG, e.kind());
   }
 
   /** Objects: slabs along x of the given width, each split in y halves. */

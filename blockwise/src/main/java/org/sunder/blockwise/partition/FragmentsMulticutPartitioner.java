@@ -1,0 +1,47 @@
+package org.sunder.blockwise.partition;
+
+import java.util.Objects;
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.graph.Subsampling;
+import org.sunder.blockwise.graph.WeightRule;
+
+/**
+ * The {@code "fragments-multicut"} method: {@link BlockFragments}, then a {@link Multicut} of
+ * the fragment graph whose edge weights are the {@link Linkage} values of the statistics
+ * between fragments (sum of the voxel-edge weights by default: with logit weights this is the
+ * usual probabilistic multicut cost), solved by greedy additive edge contraction and
+ * Kernighan–Lin refinement. Deterministic; stateless.
+ */
+public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage linkage,
+    WeightRule weights, Subsampling subsampling) implements Partitioner {
+
+  public FragmentsMulticutPartitioner {
+    Objects.requireNonNull(fragments, "fragments");
+    Objects.requireNonNull(linkage, "linkage");
+    Objects.requireNonNull(weights, "weights");
+    Objects.requireNonNull(subsampling, "subsampling");
+  }
+
+  @Override
+  public Segmentation partition(AffinityBlock block) {
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
+    MulticutResult cut = solve(f.count(), f.statistics(), linkage);
+    return f.toSegmentation(cut.labels(), block.maskOrNull());
+  }
+
+  /** The multicut of nodes 0..count−1 with the statistics of ids 1..count as edge costs. */
+  static MulticutResult solve(int count, EdgeStatistics statistics, Linkage linkage) {
+    int m = statistics.size();
+    int[] u = new int[m];
+    int[] v = new int[m];
+    double[] w = new double[m];
+    for (int i = 0; i < m; i++) {
+      u[i] = (int) statistics.u(i) - 1;
+      v[i] = (int) statistics.v(i) - 1;
+      w[i] = linkage.value(statistics.sum(i), statistics.count(i), statistics.min(i),
+          statistics.max(i));
+    }
+    return Multicut.solve(count, u, v, w);
+  }
+}
