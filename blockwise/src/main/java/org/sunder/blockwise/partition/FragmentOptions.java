@@ -15,23 +15,35 @@ import org.sunder.blockwise.ErrorKind;
  *  "perSlice": false}}</pre>
  * where {@code voxelSize} is in <b>zyx</b> order, as configuration files are.
  *
- * @param boundaryThreshold voxels whose boundary value is below it are object interior; seeds
- *     lie at the maxima of their distance to the rest. In (0, 1]; default 0.5
- * @param seedSmoothing σ of a Gaussian applied to the distance transform before its maxima are
- *     taken, in the physical units of {@code voxelSize}; 0 for none; default 1
- * @param voxelSize physical voxel size per axis, <b>memory order</b> (x, y, z); null means
- *     isotropic unit voxels of whatever dimension the block has
- * @param perSlice fragments per plane of the slowest axis (z), for anisotropic data: the
- *     distance transform, the seeds and the flood stay inside each slice; default false
+ * <ul>
+ *   <li>{@code boundaryThreshold}: voxels whose boundary value is below it are object interior;
+ *       seeds lie at the maxima of their distance to the rest. In (0, 1]; default 0.5;</li>
+ *   <li>{@code seedSmoothing}: σ of a Gaussian applied to the distance transform before its
+ *       maxima are taken, in the physical units of {@code voxelSize}; 0 for none; default 1;</li>
+ *   <li>{@code voxelSize}: physical voxel size per axis (in Java: memory order x, y, z); absent
+ *       means isotropic unit voxels of whatever dimension the block has;</li>
+ *   <li>{@code perSlice}: fragments per plane of the slowest axis (z), for anisotropic data:
+ *       the distance transform, the seeds and the flood stay inside each slice; default
+ *       false.</li>
+ * </ul>
+ * Immutable (arrays copied), serializable.
  */
 @JsonInclude(JsonInclude.Include.NON_NULL)
-public record FragmentOptions(double boundaryThreshold, double seedSmoothing, double[] voxelSize,
-    boolean perSlice) implements Serializable {
+public final class FragmentOptions implements Serializable {
+  private static final long serialVersionUID = 1L;
+
+  private final double boundaryThreshold;
+  private final double seedSmoothing;
+  private final double[] voxelSize;
+  private final boolean perSlice;
 
   /**
+   * Options with {@code voxelSize} in memory order (copied; null = isotropic).
+   *
    * @throws PartitionConfigException (INVALID_CONFIG) naming the key of a value out of range
    */
-  public FragmentOptions {
+  public FragmentOptions(double boundaryThreshold, double seedSmoothing, double[] voxelSize,
+      boolean perSlice) {
     if (!(boundaryThreshold > 0 && boundaryThreshold <= 1)) {
       throw invalid("fragments.boundaryThreshold: " + boundaryThreshold
           + "; expected a number in (0, 1]");
@@ -52,6 +64,10 @@ public record FragmentOptions(double boundaryThreshold, double seedSmoothing, do
         throw invalid("fragments.voxelSize: empty; expected one value per axis");
       }
     }
+    this.boundaryThreshold = boundaryThreshold;
+    this.seedSmoothing = seedSmoothing;
+    this.voxelSize = voxelSize;
+    this.perSlice = perSlice;
   }
 
   /** Reads the JSON form; {@code voxelSize} in zyx order; missing keys take their defaults. */
@@ -98,20 +114,17 @@ public record FragmentOptions(double boundaryThreshold, double seedSmoothing, do
   }
 
   @JsonProperty("boundaryThreshold")
-  @Override
   public double boundaryThreshold() {
     return boundaryThreshold;
   }
 
   @JsonProperty("seedSmoothing")
-  @Override
   public double seedSmoothing() {
     return seedSmoothing;
   }
 
   /** A copy of the voxel size in memory order, or null for isotropic. */
   @JsonIgnore
-  @Override
   public double[] voxelSize() {
     return voxelSize == null ? null : voxelSize.clone();
   }
@@ -123,7 +136,6 @@ public record FragmentOptions(double boundaryThreshold, double seedSmoothing, do
   }
 
   @JsonProperty("perSlice")
-  @Override
   public boolean perSlice() {
     return perSlice;
   }
