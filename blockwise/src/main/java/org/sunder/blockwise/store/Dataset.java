@@ -4,7 +4,9 @@ import java.io.IOException;
 import java.nio.ByteBuffer;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 import java.util.concurrent.locks.ReentrantLock;
 import net.imglib2.Interval;
 import net.imglib2.img.array.ArrayImg;
@@ -125,7 +127,9 @@ public final class Dataset {
   /**
    * Writes {@code data} with its origin at {@code min}; the box must lie inside the volume and
    * the element type must match. Chunks covered only in part are read, changed and rewritten.
-   * Everything is checked before the first chunk is written.
+   * Every chunk of the box is encoded in memory before the first file is replaced, so bad
+   * input or a corrupt existing chunk leaves the dataset unchanged (an I/O failure while
+   * replacing the files can still leave some replaced). Memory: the encoded chunks of the box.
    */
   public void write(ArrayImg<?, ?> data, long[] min) {
     int n = spec.numDimensions();
@@ -146,10 +150,48 @@ public final class Dataset {
       writeChunk(grid, data);
       return;
     }
-    forEachChunk(min, max, chunk -> writePart(chunk, source, min, dims));
+    List<long[]> chunks = new ArrayList<>();
+    forEachChunk(min, max, chunks::add);
+    List<ReentrantLock> held = lockPartialChunks(chunks, min, dims);
+    try {
+      List<ByteBuffer[]> contents = new ArrayList<>(chunks.size());
+      for (long[] chunk : chunks) {
+        contents.add(encodePart(chunk, source, min, dims));
+      }
+      for (int i = 0; i < chunks.size(); i++) {
+        AtomicWrites.write(format.chunkFile(dir, chunks.get(i)), contents.get(i));
+      }
+    } finally {
+      for (int i = held.size() - 1; i >= 0; i--) {
+        held.get(i).unlock();
+      }
+    }
   }
 
-  private void writePart(long[] chunk, Object source, long[] min, int[] dims) {
+  /**
+   * Locks the stripes of the chunks the box covers only in part, in ascending stripe order so
+   * that concurrent writers cannot deadlock; returns them in locking order.
+   */
+  private List<ReentrantLock> lockPartialChunks(List<long[]> chunks, long[] min, int[] dims) {
+    java.util.TreeSet<Integer> stripes = new java.util.TreeSet<>();
+    int n = dims.length;
+    for (long[] chunk : chunks) {
+      int[] size = new int[n];
+      intersect(chunk, min, dims, new int[n], new int[n], size);
+      if (!Arrays.equals(size, clippedDims(chunk))) {
+        stripes.add(stripeOf(chunk));
+      }
+    }
+    List<ReentrantLock> held = new ArrayList<>(stripes.size());
+    for (int stripe : stripes) {
+      locks[stripe].lock();
+      held.add(locks[stripe]);
+    }
+    return held;
+  }
+
+  /** The new file content of {@code chunk}: the box's part, merged into the chunk if partial. */
+  private ByteBuffer[] encodePart(long[] chunk, Object source, long[] min, int[] dims) {
     int n = dims.length;
     int[] clipped = clippedDims(chunk);
     int[] inChunk = new int[n];
@@ -157,22 +199,16 @@ public final class Dataset {
     int[] size = new int[n];
     intersect(chunk, min, dims, inChunk, inBox, size);
     int[] stored = format.storedDims(clipped);
+    Object elements;
     if (Arrays.equals(size, clipped)) {
-      Object elements = ElementArrays.allocate(spec.dataType(), product(stored),
-          spec.fillValue());
-      BoxCopy.copy(source, dims, inBox, elements, stored, new int[n], size);
-      store(chunk, elements, stored);
-      return;
+      elements = Arrays.equals(stored, clipped)
+          ? ElementArrays.allocate(spec.dataType(), product(stored))
+          : ElementArrays.allocate(spec.dataType(), product(stored), spec.fillValue());
+    } else {
+      elements = storedElements(chunk, clipped, stored);
     }
-    ReentrantLock lock = lockFor(chunk);
-    lock.lock();
-    try {
-      Object elements = storedElements(chunk, clipped, stored);
-      BoxCopy.copy(source, dims, inBox, elements, stored, inChunk, size);
-      store(chunk, elements, stored);
-    } finally {
-      lock.unlock();
-    }
+    BoxCopy.copy(source, dims, inBox, elements, stored, inChunk, size);
+    return format.encode(elements, stored);
   }
 
   /** The chunk's current content in its stored shape, or the fill value if it is missing. */
@@ -268,8 +304,8 @@ public final class Dataset {
     AtomicWrites.write(format.chunkFile(dir, grid), content);
   }
 
-  private ReentrantLock lockFor(long[] grid) {
-    return locks[Math.floorMod(Arrays.hashCode(grid), LOCK_STRIPES)];
+  private static int stripeOf(long[] grid) {
+    return Math.floorMod(Arrays.hashCode(grid), LOCK_STRIPES);
   }
 
   private void checkBox(long[] min, long[] max, String what) {

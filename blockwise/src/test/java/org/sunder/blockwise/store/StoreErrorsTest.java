@@ -272,6 +272,17 @@ class StoreErrorsTest {
   }
 
   @Test
+  void aWriteMeetingACorruptChunkChangesNoOtherChunk() throws IOException {
+    Dataset dataset = datasetWithChunk(StorageFormat.ZARR, CodecSpec.zstd(3));
+    rewrite(dataset.chunkFile(new long[] {1, 2, 1}), bytes -> Arrays.copyOf(bytes, 5));
+    long[] neighbour = {0, 2, 1};
+    assertFalse(dataset.chunkExists(neighbour));
+    assertStoreError(ErrorKind.STORAGE, () -> dataset.write(ArrayImgs.unsignedShorts(10, 2, 2),
+        new long[] {3, 11, 4}), "[1, 2, 1]");
+    assertFalse(dataset.chunkExists(neighbour), "the whole write failed before any file changed");
+  }
+
+  @Test
   void wrongN5HeadersNameTheHeader() throws IOException {
     Dataset dataset = datasetWithChunk(StorageFormat.N5, CodecSpec.raw());
     Path file = dataset.chunkFile(new long[] {1, 2, 1});

@@ -121,12 +121,12 @@ public final class StorageBenchmark {
     return best;
   }
 
-  /** Trilinear value noise on a grid of spacing 16, plus 0 or 1 of per-voxel noise; 0..255. */
+  /** Trilinear value noise on a grid of spacing 16, quantized to 0..250. */
   private static byte[] valueNoiseBytes(long[] shape, Random random) {
     float[] noise = valueNoise(shape, random, 16);
     byte[] out = new byte[noise.length];
     for (int i = 0; i < out.length; i++) {
-      out[i] = (byte) Math.min(255, Math.max(0, (int) (noise[i] * 250 + random.nextInt(2))));
+      out[i] = (byte) Math.min(255, Math.max(0, (int) (noise[i] * 250)));
     }
     return out;
   }
