@@ -110,7 +110,8 @@ final class Lz4Codec implements Codec {
 
       @Override
       java.io.InputStream decompressing(java.io.InputStream in) {
-        return new LZ4BlockInputStream(in, FACTORY.fastDecompressor());
+        return LZ4BlockInputStream.newBuilder().withDecompressor(FACTORY.safeDecompressor())
+            .build(in);
       }
 
       @Override
