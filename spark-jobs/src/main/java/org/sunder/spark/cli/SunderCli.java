@@ -25,7 +25,7 @@ import picocli.CommandLine.Command;
         "and check it, then run it:   sunder plan run.json   and   sunder run run.json",
         "",
         "Automated segmentations contain errors: proofread before drawing scientific conclusions."},
-    subcommands = {InspectCommand.class},
+    subcommands = {PlanCommand.class, EvaluateCommand.class, InspectCommand.class},
     footer = {"", "Exit codes: 0 success, 2 invalid configuration or option, 3 invalid input data,",
         "4 storage failure, 5 conflict with an existing output or work dir, 70 internal error."})
 public final class SunderCli implements Runnable {
@@ -65,6 +65,7 @@ public final class SunderCli implements Runnable {
   /** Runs one command line and returns its exit code. */
   public int execute(String... args) {
     CommandLine line = new CommandLine(this);
+    line.setUsageHelpWidth(100);
     line.setOut(new PrintWriter(out, true, StandardCharsets.UTF_8));
     line.setErr(new PrintWriter(err, true, StandardCharsets.UTF_8));
     line.setExecutionExceptionHandler(new ExitCodes(err));

@@ -57,9 +57,6 @@ public final class ConfigReader {
           + (known.isEmpty() ? "" : "; known keys there: " + known), e);
     } catch (JsonParseException e) {
       throw malformed(e);
-    } catch (MismatchedInputException e) {
-      throw new ConfigException("key '" + keyPath(e) + "': expected " + expectedType(e)
-          + (e.getLocation() == null ? "" : " (line " + e.getLocation().getLineNr() + ")"), e);
     } catch (JsonMappingException e) {
       Throwable cause = e.getCause();
       if (cause instanceof ConfigException c) {
@@ -68,7 +65,12 @@ public final class ConfigReader {
       if (cause instanceof JsonParseException p) {
         throw malformed(p);
       }
-      throw new ConfigException("key '" + keyPath(e) + "': " + e.getOriginalMessage(), e);
+      Class<?> type = typeAt(e.getPath());
+      if (type == null && e instanceof MismatchedInputException m) {
+        type = m.getTargetType();
+      }
+      throw new ConfigException("key '" + keyPath(e) + "': expected " + describe(type)
+          + (e.getLocation() == null ? "" : " (line " + e.getLocation().getLineNr() + ")"), e);
     } catch (JsonProcessingException e) {
       throw new ConfigException("not valid JSON: " + e.getOriginalMessage(), e);
     }
@@ -99,8 +101,35 @@ public final class ConfigReader {
     return path.length() == 0 ? "(top level)" : path.toString();
   }
 
-  private static String expectedType(MismatchedInputException e) {
-    Class<?> type = e.getTargetType();
+  /** The Java type the configuration expects at a key path, or null if unknown there. */
+  static Class<?> typeAt(java.util.List<JsonMappingException.Reference> path) {
+    java.lang.reflect.Type type = RunConfig.class;
+    for (JsonMappingException.Reference ref : path) {
+      Class<?> raw = type instanceof Class<?> c ? c : null;
+      if (raw == null) {
+        return null;
+      }
+      if (ref.getFieldName() != null && raw.isRecord()) {
+        java.lang.reflect.Type next = null;
+        for (java.lang.reflect.RecordComponent component : raw.getRecordComponents()) {
+          if (component.getName().equals(ref.getFieldName())) {
+            next = component.getGenericType();
+          }
+        }
+        type = next;
+      } else if (ref.getIndex() >= 0 && raw.isArray()) {
+        type = raw.getComponentType();
+      } else {
+        return null;
+      }
+      if (type == null) {
+        return null;
+      }
+    }
+    return type instanceof Class<?> c && c != RunConfig.class ? c : null;
+  }
+
+  private static String describe(Class<?> type) {
     if (type == null) {
       return "a different kind of value";
     }

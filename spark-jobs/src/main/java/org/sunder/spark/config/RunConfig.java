@@ -2,6 +2,7 @@ package org.sunder.spark.config;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
+import com.fasterxml.jackson.databind.node.ObjectNode;
 
 /**
  * A run configuration as written in its JSON file. Every coordinate list is in the order that
@@ -26,6 +27,8 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
   public static final String DEFAULT_OUTPUT_DATASET = "segmentation";
   /** Default name of the affinity dataset. */
   public static final String DEFAULT_AFFINITIES = "affinities";
+  /** Partition method when the configuration names none: parameter-free. */
+  public static final String DEFAULT_METHOD = "mutex-watershed";
   /** Default bound on the reduced graph's edges gathered on the driver. */
   public static final long DEFAULT_MAX_DRIVER_EDGES = 20_000_000L;
 
@@ -77,7 +80,14 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
         orDefault(out.dataset(), DEFAULT_OUTPUT_DATASET));
     BlockSection b = blocks == null ? new BlockSection(null, null) : blocks;
     JsonNode p = partition == null || partition.isNull()
-        ? JsonNodeFactory.instance.objectNode() : partition;
+        ? JsonNodeFactory.instance.objectNode() : partition.deepCopy();
+    if (!p.isObject()) {
+      throw new ConfigException("partition: expected an object such as {\"method\": \""
+          + DEFAULT_METHOD + "\"}, got " + p);
+    }
+    if (!p.has("method")) {
+      ((ObjectNode) p).put("method", DEFAULT_METHOD);
+    }
     SolveSection s = solve == null || solve.maxDriverEdges() == null
         ? new SolveSection(DEFAULT_MAX_DRIVER_EDGES) : solve;
     if (s.maxDriverEdges() < 1) {

@@ -13,5 +13,9 @@ public final class PayloadClasses {
   public static final List<Class<?>> ALL = List.of(
       int[].class, long[].class, double[].class, float[].class, byte[].class, boolean[].class,
       int[][].class, long[][].class, String[].class, Object[].class,
-      java.util.ArrayList.class, java.util.BitSet.class);
+      java.util.ArrayList.class, java.util.BitSet.class,
+      org.sunder.spark.run.RunSettings.class, org.sunder.spark.run.TaskHooks.class,
+      org.sunder.blockwise.graph.EdgeStatistics.class,
+      org.sunder.blockwise.grid.IdLayout.class,
+      org.sunder.blockwise.metrics.ContingencyTable.Pairs.class);
 }

@@ -1,7 +1,7 @@
 package org.sunder.spark.run;
 
 import java.nio.file.Path;
-import org.apache.spark.api.java.JavaSparkContext;
+import org.apache.spark.SparkConf;
 import org.sunder.spark.config.ConfigReader;
 import org.sunder.spark.config.RunConfig;
 
@@ -21,9 +21,8 @@ public final class RunLoader {
   }
 
   /** Resolves and prepares the work dir and output ({@link RunPreparation}). */
-  public static PreparedRun prepare(Path configFile, Path workDir, boolean fresh,
-      JavaSparkContext sc) {
-    RunSettings settings = resolve(configFile, workDir, TaskHooks.from(sc.getConf()));
+  public static PreparedRun prepare(Path configFile, Path workDir, boolean fresh) {
+    RunSettings settings = resolve(configFile, workDir, TaskHooks.from(new SparkConf()));
     return RunPreparation.prepare(settings, fresh);
   }
 }

@@ -76,19 +76,17 @@ public final class RunPreparation {
     if (previous.isPresent()) {
       runId = previous.get().runId();
       current = RunIdentity.manifest(settings, runId);
+      boolean relabelled = !work.ledger(Stage.RELABEL).finished().isEmpty();
+      ResumeDecision decision = ResumePlanner.decide(previous.get(), current, relabelled,
+          work.root().toString());
+      notes.addAll(decision.notes());
       if (outputRun == null) {
         notes.add("the output dataset is missing; redoing every stage");
         work.clearFrom(Stage.PARTITION);
-      } else {
-        boolean relabelled = !work.ledger(Stage.RELABEL).finished().isEmpty();
-        ResumeDecision decision = ResumePlanner.decide(previous.get(), current, relabelled,
-            work.root().toString());
-        notes.addAll(decision.notes());
-        if (decision.redoFrom() != null) {
-          work.clearFrom(decision.redoFrom());
-        }
-        notes.add("resuming run " + runId + " from work dir " + work.root());
+      } else if (decision.redoFrom() != null) {
+        work.clearFrom(decision.redoFrom());
       }
+      notes.add("resuming run " + runId + " from work dir " + work.root());
     } else {
       runId = UUID.randomUUID().toString();
       current = RunIdentity.manifest(settings, runId);

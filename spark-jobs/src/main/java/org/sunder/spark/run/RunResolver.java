@@ -9,6 +9,8 @@ import java.util.List;
 import java.util.Map;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
@@ -83,17 +85,29 @@ public final class RunResolver {
             + "; expected integer labels");
       }
     }
-    String partitionJson;
-    try {
-      partitionJson = JSON.writeValueAsString(config.partition());
-    } catch (JsonProcessingException e) {
-      throw new ConfigException("partition: cannot encode the section: " + e.getMessage(), e);
-    }
+    String partitionJson = partitionJson(config, offsets);
     RunSettings settings = new RunSettings(axes.letters(), inputPath.toString(), affName, offsets,
         mask, outputPath.toString(), outputDataset, workDir.toString(), volume, chunks,
         blockShape, halo, partitionJson, config.solve().maxDriverEdges(), truthPath.toString(),
         truth, config.evaluate().ignoreBackground(), hooks);
     return settings;
+  }
+
+  /** The partition section checked against the offsets, with every default written out. */
+  private static String partitionJson(RunConfig config, int[][] offsets) {
+    PartitionConfig partition;
+    try {
+      String json = JSON.writeValueAsString(config.partition());
+      partition = PartitionConfig.fromJson(json);
+      partition.validate(new Offsets(offsets));
+      return json;
+    } catch (JsonProcessingException e) {
+      throw new ConfigException("partition: cannot encode the section: " + e.getMessage(), e);
+    } catch (SunderException e) {
+      String message = e.getMessage();
+      throw new ConfigException(message.startsWith("partition") ? message
+          : "partition." + message, e);
+    }
   }
 
   /** {@code <container>.sunder-work/<dataset>} beside the output container. */

@@ -1,0 +1,125 @@
+package org.sunder.spark.plan;
+
+import java.io.PrintStream;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Locale;
+import net.imglib2.FinalInterval;
+import net.imglib2.img.array.ArrayImg;
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.Block;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.HaloShortfall;
+import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.Dataset;
+import org.sunder.spark.config.AxisOrder;
+import org.sunder.spark.run.RunSettings;
+
+/**
+ * What a run will do, before it does it: the block grid, task counts per stage, memory per
+ * partition task, and a time estimate from partitioning one sample block (the central one) in
+ * this process.
+ *
+ * <p>Memory per partition task = extended block voxels x (channels x bytes per affinity +
+ * {@value #PARTITION_BYTES_PER_VOXEL} bytes for the partition's graph and labels). The
+ * per-voxel figure is the partition module's stated bound for the Mutex Watershed (150 bytes)
+ * plus the provisional labels (8 bytes); agglomeration from voxels may need more.
+ */
+public final class RunPlan {
+  static final int PARTITION_BYTES_PER_VOXEL = 158;
+
+  private RunPlan() {}
+
+  /** Prints the plan; times a sample block unless {@code sample} is false. */
+  public static void print(RunSettings s, boolean sample, int cores, PrintStream out) {
+    AxisOrder axes = new AxisOrder(s.axes());
+    BlockGrid grid = s.grid();
+    Dataset affinities = Container.open(Path.of(s.inputContainer())).openDataset(s.affinities());
+    int channels = s.offsets().length;
+    int bytesPerValue = affinities.dataType() == DataType.UINT8 ? 1 : 4;
+    out.println("input      " + s.inputContainer() + "  dataset " + s.affinities());
+    out.println("volume     " + Arrays.toString(axes.toFile(s.volumeShape())) + " (" + axes
+        + "), " + channels + " channels " + affinities.dataType().name().toLowerCase(Locale.ROOT)
+        + ", chunks " + Arrays.toString(axes.toFile(s.chunkShape())));
+    int[][] zyx = new int[channels][];
+    for (int k = 0; k < channels; k++) {
+      zyx[k] = axes.toFile(s.offsets()[k]);
+    }
+    out.println("offsets    " + Arrays.deepToString(zyx) + " (" + axes + ")");
+    out.println("blocks     shape " + Arrays.toString(axes.toFile(s.blockShape())) + ", halo "
+        + Arrays.toString(axes.toFile(s.halo())) + ", grid "
+        + Arrays.toString(axes.toFile(grid.gridShape())) + " = " + grid.blockCount() + " blocks");
+    List<HaloShortfall> shortfalls = grid.haloShortfalls(s.offsets());
+    for (HaloShortfall shortfall : shortfalls) {
+      out.println("note       " + shortfall.message());
+    }
+    out.println("tasks      partition " + grid.blockCount() + ", seams " + grid.faceCount()
+        + ", solve 1 (driver), relabel " + grid.blockCount() + " (" + grid.chunkCount()
+        + " chunks)" + (s.evaluates() ? ", evaluate " + grid.blockCount() : ""));
+    long extended = largestExtendedVoxels(grid);
+    long bytes = extended * ((long) channels * bytesPerValue + PARTITION_BYTES_PER_VOXEL);
+    out.println(String.format(Locale.ROOT, "memory     about %s per partition task (%d voxels"
+        + " in the largest extended block x (%d channels x %d bytes + %d bytes))",
+        mebibytes(bytes), extended, channels, bytesPerValue, PARTITION_BYTES_PER_VOXEL));
+    out.println("driver     reduced graph bound solve.maxDriverEdges = " + s.maxDriverEdges()
+        + " edges (about " + mebibytes(s.maxDriverEdges() * 100) + ")");
+    if (sample) {
+      int index = centralBlock(grid);
+      double seconds = timeSample(s, grid.block(index));
+      double total = seconds * grid.blockCount();
+      out.println(String.format(Locale.ROOT, "estimate   sample block %d partitioned in %.3f s;"
+          + " partition stage about %.1f s of work, %.1f s on %d cores (seams, relabel and I/O"
+          + " not included)", index, seconds, total, total / Math.max(1, cores), cores));
+    }
+    out.println("output     " + s.outputContainer() + "  dataset " + s.outputDataset()
+        + " (uint64, chunks " + Arrays.toString(axes.toFile(s.chunkShape())) + ")");
+    out.println("work dir   " + s.workDir());
+  }
+
+  /** Voxels of an extended box of a full block (cores at the border are smaller). */
+  private static long largestExtendedVoxels(BlockGrid grid) {
+    long[] volume = grid.volumeShape();
+    int[] block = grid.blockShape();
+    int[] halo = grid.halo();
+    long voxels = 1;
+    for (int d = 0; d < volume.length; d++) {
+      voxels *= Math.min(volume[d], block[d] + 2L * halo[d]);
+    }
+    return voxels;
+  }
+
+  static int centralBlock(BlockGrid grid) {
+    long[] grids = grid.gridShape();
+    long[] middle = new long[grids.length];
+    for (int d = 0; d < grids.length; d++) {
+      middle[d] = grids[d] / 2;
+    }
+    return grid.blockIndex(middle);
+  }
+
+  private static double timeSample(RunSettings s, Block block) {
+    Container input = Container.open(Path.of(s.inputContainer()));
+    Dataset affinities = input.openDataset(s.affinities());
+    int n = block.numDimensions();
+    long[] min = Arrays.copyOf(block.extendedMin(), n + 1);
+    long[] max = Arrays.copyOf(block.extendedMax(), n + 1);
+    max[n] = s.offsets().length - 1;
+    ArrayImg<?, ?> values = affinities.read(new FinalInterval(min, max));
+    ArrayImg<?, ?> mask = s.mask() == null ? null
+        : input.openDataset(s.mask()).read(block.extended());
+    PartitionConfig config = PartitionConfig.fromJson(s.partitionJson());
+    AffinityBlock affinityBlock = AffinityBlock.of(values, block.extendedMin(),
+        new Offsets(s.offsets()), mask);
+    long start = System.nanoTime();
+    config.create().partition(affinityBlock);
+    return (System.nanoTime() - start) / 1e9;
+  }
+
+  private static String mebibytes(long bytes) {
+    return String.format(Locale.ROOT, "%.1f MiB", bytes / (1024.0 * 1024.0));
+  }
+}

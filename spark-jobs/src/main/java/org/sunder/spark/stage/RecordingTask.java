@@ -1,0 +1,42 @@
+package org.sunder.spark.stage;
+
+import java.util.Iterator;
+import org.apache.spark.api.java.function.VoidFunction;
+import org.apache.spark.broadcast.Broadcast;
+import org.sunder.spark.kryo.PayloadCodec;
+import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.StageLedger;
+import org.sunder.spark.workdir.WorkDir;
+
+/**
+ * The Spark function of a stage: for each task index of its partition, runs the task body and
+ * then records the task's result in the work dir. A task killed before its record is written is
+ * redone by a rerun; a retry by Spark rewrites the same outputs (task bodies are idempotent).
+ */
+final class RecordingTask implements VoidFunction<Iterator<Integer>> {
+  private static final long serialVersionUID = 1L;
+
+  private final Broadcast<RunSettings> settings;
+  private final Stage stage;
+  private final TaskBody body;
+  private final PayloadCodec codec = new PayloadCodec();
+
+  RecordingTask(Broadcast<RunSettings> settings, Stage stage, TaskBody body) {
+    this.settings = settings;
+    this.stage = stage;
+    this.body = body;
+  }
+
+  @Override
+  public void call(Iterator<Integer> indices) {
+    RunSettings s = settings.value();
+    WorkDir work = new WorkDir(s.workDirPath());
+    StageLedger ledger = work.ledger(stage);
+    while (indices.hasNext()) {
+      int index = indices.next();
+      s.hooks().beforeTask(stage.cliName(), index, work.root());
+      Object result = body.run(s, index);
+      ledger.record(index, codec.encode(result));
+    }
+  }
+}

@@ -1,0 +1,65 @@
+package org.sunder.spark.stage;
+
+import java.io.PrintStream;
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.List;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.apache.spark.broadcast.Broadcast;
+import org.sunder.spark.progress.ProgressListener;
+import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.StageLedger;
+import org.sunder.spark.workdir.WorkDir;
+
+/**
+ * Runs the unfinished tasks of one stage as a Spark job, one Spark task per stage task (up to
+ * {@value #MAX_PARTITIONS}, beyond which tasks are grouped), and says how many were skipped
+ * because an earlier run had finished them.
+ */
+public final class StageRunner {
+  static final int MAX_PARTITIONS = 20_000;
+
+  private final JavaSparkContext sc;
+  private final Broadcast<RunSettings> settings;
+  private final WorkDir work;
+  private final PrintStream out;
+
+  public StageRunner(JavaSparkContext sc, Broadcast<RunSettings> settings, WorkDir work,
+      PrintStream out) {
+    this.sc = sc;
+    this.settings = settings;
+    this.work = work;
+    this.out = out;
+  }
+
+  /** Runs every task of {@code stage} in {@code [0, taskCount)} that has no record yet. */
+  public StageReport run(Stage stage, int taskCount, TaskBody body) {
+    long start = System.nanoTime();
+    StageLedger ledger = work.ledger(stage);
+    BitSet finished = ledger.finished();
+    List<Integer> todo = new ArrayList<>();
+    for (int i = 0; i < taskCount; i++) {
+      if (!finished.get(i)) {
+        todo.add(i);
+      }
+    }
+    int skipped = taskCount - todo.size();
+    if (skipped > 0) {
+      out.println(stage.cliName() + ": " + skipped + " of " + taskCount
+          + " tasks finished in an earlier run, skipped");
+    }
+    if (!todo.isEmpty()) {
+      sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, stage.cliName());
+      sc.setJobDescription("sunder " + stage.cliName());
+      try {
+        sc.parallelize(todo, Math.min(todo.size(), MAX_PARTITIONS))
+            .foreachPartition(new RecordingTask(settings, stage, body));
+      } finally {
+        sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, null);
+        sc.setJobDescription(null);
+      }
+    }
+    return new StageReport(stage, taskCount, skipped, todo.size(),
+        (System.nanoTime() - start) / 1e9);
+  }
+}

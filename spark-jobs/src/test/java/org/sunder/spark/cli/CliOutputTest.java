@@ -1,0 +1,86 @@
+package org.sunder.spark.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.spark.run.TestContainers;
+
+/** What {@code inspect}, {@code plan} and {@code --help} print. */
+class CliOutputTest {
+  private static final long[] VOLUME = {12, 20, 28};
+  private static final int[] CHUNKS = {6, 10, 14};
+
+  @Test
+  void inspectListsDatasetsWithShapeChunksTypeCodecAndAttributes(@TempDir Path dir) {
+    for (StorageFormat format : StorageFormat.values()) {
+      Path root = dir.resolve("v-" + format);
+      Container c = TestContainers.withAffinities(root, format, VOLUME, CHUNKS,
+          TestContainers.OFFSETS_ZYX);
+      c.createGroup("more");
+      TestContainers.labels(c, "more/labels", VOLUME, CHUNKS);
+      CliRun run = CliRun.withoutSpark("inspect", root.toString());
+      assertEquals(0, run.exitCode(), run.err());
+      String out = run.out();
+      assertTrue(out.contains("format " + format.name().toLowerCase()), out);
+      assertTrue(out.contains("affinities  dataset"), out);
+      assertTrue(out.contains("shape   [5, 12, 20, 28]  (c, z, y, x)"), out);
+      assertTrue(out.contains("chunks  [5, 6, 10, 14]"), out);
+      assertTrue(out.contains("dtype   float32"), out);
+      assertTrue(out.contains("codec   zstd"), out);
+      assertTrue(out.contains("\"offsets\":[[-1,0,0],[0,-1,0],[0,0,-1],[0,-3,0],[0,0,-4]]"), out);
+      assertTrue(out.contains("more/  group"), out);
+      assertTrue(out.contains("more/labels  dataset"), out);
+      assertTrue(out.contains("shape   [12, 20, 28]  (z, y, x)"), out);
+      assertTrue(out.contains("dtype   uint64"), out);
+      CliRun one = CliRun.withoutSpark("inspect", root.toString(), "more/labels");
+      assertTrue(one.out().contains("more/labels  dataset") && !one.out().contains("affinities"),
+          one.out());
+    }
+  }
+
+  @Test
+  void inspectOfSomethingElseIsAnInputError(@TempDir Path dir) throws Exception {
+    Files.writeString(dir.resolve("notes.txt"), "x");
+    CliRun run = CliRun.withoutSpark("inspect", dir.toString());
+    assertEquals(ErrorKind.INVALID_INPUT.exitCode(), run.exitCode());
+    assertTrue(run.err().contains("is not an N5 or Zarr container"), run.err());
+  }
+
+  @Test
+  void planShowsGridTasksMemoryAndEstimate(@TempDir Path dir) throws Exception {
+    Path root = dir.resolve("v.n5");
+    TestContainers.withAffinities(root, StorageFormat.N5, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    Path config = dir.resolve("run.json");
+    Files.writeString(config, "{\"input\": {\"container\": \"" + root + "\"},"
+        + " \"blocks\": {\"shape\": [6, 10, 14], \"halo\": [1, 2, 2]}}");
+    CliRun run = CliRun.withoutSpark("plan", config.toString(), "--cores", "2");
+    assertEquals(0, run.exitCode(), run.err());
+    String out = run.out();
+    assertTrue(out.contains("volume     [12, 20, 28] (zyx), 5 channels float32, chunks [6, 10, 14]"), out);
+    assertTrue(out.contains("blocks     shape [6, 10, 14], halo [1, 2, 2], grid [2, 2, 2] = 8 blocks"), out);
+    assertTrue(out.contains("tasks      partition 8, seams 12, solve 1 (driver), relabel 8 (8 chunks)"), out);
+    // The halo (2 along x) is shorter than the longest offset along x (4): reported.
+    assertTrue(out.contains("note "), out);
+    // Largest extended block: (6+2)(10+4)(14+4) = 2016 voxels x (5 x 4 + 158) bytes.
+    Matcher memory = Pattern.compile("memory     about ([0-9.]+) MiB per partition task \\(2016"
+        + " voxels").matcher(out);
+    assertTrue(memory.find(), out);
+    assertEquals(2016 * (5 * 4 + 158) / (1024.0 * 1024.0), Double.parseDouble(memory.group(1)), 0.05);
+    Matcher estimate = Pattern.compile("estimate   sample block (\\d+) partitioned in ([0-9.]+) s;"
+        + " partition stage about ([0-9.]+) s of work").matcher(out);
+    assertTrue(estimate.find(), out);
+    assertEquals("7", estimate.group(1));
+    assertTrue(out.contains("work dir   " + dir.resolve("v.n5.sunder-work/segmentation")), out);
+    assertTrue(!Files.exists(dir.resolve("v.n5.sunder-work")), "plan writes nothing");
+  }
+}
