@@ -40,6 +40,12 @@ final class GaussianSmoothing {
   private static double convolve(double[] line, int length, int q, double[] kernel) {
     int radius = kernel.length / 2;
     double sum = 0;
+    if (q >= radius && q + radius < length) {
+      for (int t = 0, i = q - radius; t < kernel.length; t++, i++) {
+        sum += kernel[t] * line[i];
+      }
+      return sum;
+    }
     for (int t = -radius; t <= radius; t++) {
       sum += kernel[t + radius] * line[mirror(q + t, length)];
     }

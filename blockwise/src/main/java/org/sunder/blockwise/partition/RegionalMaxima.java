@@ -21,39 +21,44 @@ public final class RegionalMaxima {
       throw new IllegalArgumentException("arrays do not match the box " + Arrays.toString(shape));
     }
     Neighbourhood hood = new Neighbourhood(shape, sliceAxis);
+    byte[] state = new byte[n];
+    for (int i = 0; i < n; i++) {
+      if (eligible[i] != 0 && hasHigherNeighbour(values, eligible, hood, i)) {
+        state[i] = LOWER;
+      }
+    }
     int[] labels = new int[n];
-    byte[] visited = new byte[n];
     int[] plateau = new int[64];
     int next = 0;
     for (int start = 0; start < n; start++) {
-      if (visited[start] != 0 || eligible[start] == 0) {
+      if (state[start] != 0 || eligible[start] == 0) {
         continue;
       }
       double value = values[start];
       int size = 0;
       boolean maximal = true;
       plateau[size++] = start;
-      visited[start] = 1;
+      state[start] = VISITED;
       for (int head = 0; head < size; head++) {
         int i = plateau[head];
         hood.locate(i);
+        boolean all = hood.interior();
         for (int k = 0; k < hood.count(); k++) {
-          if (!hood.inside(k)) {
+          if (!all && !hood.inside(k)) {
             continue;
           }
           int j = i + hood.delta(k);
-          if (eligible[j] == 0) {
+          if (eligible[j] == 0 || values[j] != value || state[j] == VISITED) {
             continue;
           }
-          if (values[j] > value) {
+          if (state[j] == LOWER) {
             maximal = false;
-          } else if (values[j] == value && visited[j] == 0) {
-            visited[j] = 1;
-            if (size == plateau.length) {
-              plateau = Arrays.copyOf(plateau, size * 2);
-            }
-            plateau[size++] = j;
           }
+          state[j] = VISITED;
+          if (size == plateau.length) {
+            plateau = Arrays.copyOf(plateau, size * 2);
+          }
+          plateau[size++] = j;
         }
       }
       if (maximal) {
@@ -66,6 +71,25 @@ public final class RegionalMaxima {
     return labels;
   }
 
+  private static final byte LOWER = 1;
+  private static final byte VISITED = 2;
+
+  private static boolean hasHigherNeighbour(double[] values, byte[] eligible,
+      Neighbourhood hood, int i) {
+    double value = values[i];
+    hood.locate(i);
+    boolean all = hood.interior();
+    for (int k = 0; k < hood.count(); k++) {
+      if (all || hood.inside(k)) {
+        int j = i + hood.delta(k);
+        if (eligible[j] != 0 && values[j] > value) {
+          return true;
+        }
+      }
+    }
+    return false;
+  }
+
   /** The full neighbourhood of a voxel, with bounds checks by coordinate. */
   static final class Neighbourhood {
     private final int[] shape;
@@ -73,6 +97,7 @@ public final class RegionalMaxima {
     private final int[][] steps;
     private final int[] deltas;
     private final int[] coordinate;
+    private final boolean[] spans;
 
     Neighbourhood(int[] shape, int sliceAxis) {
       this.shape = shape;
@@ -106,6 +131,10 @@ public final class RegionalMaxima {
         }
       }
       coordinate = new int[dims];
+      spans = new boolean[dims];
+      for (int d = 0; d < dims; d++) {
+        spans[d] = d != sliceAxis;
+      }
     }
 
     void locate(int index) {
@@ -118,6 +147,17 @@ public final class RegionalMaxima {
 
     int count() {
       return deltas.length;
+    }
+
+    /** Whether every neighbour of the located voxel lies in the box. */
+    boolean interior() {
+      for (int d = 0; d < shape.length; d++) {
+        if (steps.length > 0 && (coordinate[d] == 0 || coordinate[d] == shape[d] - 1)
+            && spans[d]) {
+          return false;
+        }
+      }
+      return true;
     }
 
     int delta(int k) {
