@@ -157,6 +157,35 @@ class DatasetRoundTripTest {
     }
   }
 
+  @Test
+  void concurrentPartialWritesOfOneChunkInOneDatasetKeepEveryValue() throws Exception {
+    Container container = Container.create(tmp.resolve("rmw"), StorageFormat.ZARR);
+    long[] shape = {16, 12, 5};
+    Dataset dataset = container.createDataset("a",
+        DatasetSpec.of(shape, new int[] {16, 12, 5}, DataType.UINT16));
+    ExecutorService pool = Executors.newFixedThreadPool(4);
+    List<Future<?>> tasks = new ArrayList<>();
+    for (int z = 0; z < 5; z++) {
+      for (int y = 0; y < 12; y++) {
+        long[] at = {0, y, z};
+        short value = (short) (1 + y + 12 * z);
+        tasks.add(pool.submit(() -> {
+          short[] row = new short[16];
+          java.util.Arrays.fill(row, value);
+          dataset.write(ElementArrays.wrap(row, DataType.UINT16, new long[] {16, 1, 1}), at);
+        }));
+      }
+    }
+    for (Future<?> task : tasks) {
+      task.get();
+    }
+    pool.shutdown();
+    short[] all = (short[]) storage(dataset.read(new FinalInterval(shape)));
+    for (int i = 0; i < all.length; i++) {
+      assertEquals(1 + i / 16, all[i], "row " + i / 16 + " lost by a read-modify-write race");
+    }
+  }
+
   static Object storage(ArrayImg<?, ?> img) {
     return ((ArrayDataAccess<?>) img.update(null)).getCurrentStorageArray();
   }
