@@ -129,12 +129,22 @@ class CodecTest {
       try (GZIPOutputStream out = new GZIPOutputStream(member)) {
         out.write(data, half * 2500, 2500);
       }
-      joined.write(member.toByteArray());
+      byte[] bytes = member.toByteArray();
+      if (half == 1) {
+        bytes[3] |= 8 | 16;
+        joined.write(bytes, 0, 10);
+        joined.write("chunk.raw\0a comment\0".getBytes(StandardCharsets.US_ASCII));
+        joined.write(bytes, 10, bytes.length - 10);
+      } else {
+        joined.write(bytes);
+      }
     }
     byte[] both = joined.toByteArray();
     Codec gzip = Codecs.create(CodecSpec.gzip(6), StorageFormat.ZARR, DataType.UINT8);
     assertArrayEquals(data, gzip.decode(both, 0, both.length, data.length),
-        "RFC 1952: a gzip file may hold several members");
+        "RFC 1952: a gzip file may hold several members, with optional name and comment");
+    both[both.length - 12] ^= 1;
+    assertThrows(IOException.class, () -> gzip.decode(both, 0, both.length, data.length));
   }
 
   @Test
