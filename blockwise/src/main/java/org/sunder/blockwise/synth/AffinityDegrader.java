@@ -163,6 +163,7 @@ final class AffinityDegrader {
   private void blur(float[] a) {
     int[] extent = {nx, ny, nz};
     int[] stride = {1, nx, nx * ny};
+    float[] source = new float[n];
     for (int axis = 0; axis < 3; axis++) {
       double sigma = degradation.blurSigma() * finest / size[axis];
       int radius = (int) Math.ceil(3 * sigma);
@@ -170,33 +171,57 @@ final class AffinityDegrader {
         continue;
       }
       double[] kernel = gaussianKernel(sigma, radius);
-      int length = extent[axis];
-      double[] line = new double[length];
       for (int k = 0; k < offsets.length; k++) {
-        int base = k * n;
-        for (int start = 0; start < n; start++) {
-          if ((start / stride[axis]) % length != 0) {
-            continue;
-          }
-          blurLine(a, base + start, stride[axis], length, kernel, radius, line);
+        if (axis == 0) {
+          blurRows(a, k * n, kernel, radius);
+        } else {
+          System.arraycopy(a, k * n, source, 0, n);
+          blurAcrossRows(source, a, k * n, stride[axis], extent[axis], kernel, radius);
         }
       }
     }
   }
 
-  private static void blurLine(float[] a, int first, int stride, int length, double[] kernel,
-      int radius, double[] line) {
-    for (int t = 0; t < length; t++) {
-      line[t] = a[first + t * stride];
-    }
-    for (int t = 0; t < length; t++) {
-      double sum = 0;
-      for (int j = -radius; j <= radius; j++) {
-        int s = t + j;
-        s = s < 0 ? 0 : (s >= length ? length - 1 : s);
-        sum += kernel[j + radius] * line[s];
+  /** Blurs along x, one contiguous row at a time. */
+  private void blurRows(float[] a, int base, double[] kernel, int radius) {
+    double[] line = new double[nx];
+    for (int row = base; row < base + n; row += nx) {
+      for (int t = 0; t < nx; t++) {
+        line[t] = a[row + t];
       }
-      a[first + t * stride] = (float) sum;
+      for (int t = 0; t < nx; t++) {
+        double sum = 0;
+        for (int j = -radius; j <= radius; j++) {
+          int s = t + j;
+          s = s < 0 ? 0 : (s >= nx ? nx - 1 : s);
+          sum += kernel[j + radius] * line[s];
+        }
+        a[row + t] = (float) sum;
+      }
+    }
+  }
+
+  /**
+   * Blurs along y or z: each output run of {@code stride} contiguous values is a weighted sum
+   * of whole shifted runs of the source, so memory is read in order.
+   */
+  private void blurAcrossRows(float[] source, float[] a, int base, int stride, int length,
+      double[] kernel, int radius) {
+    int block = stride * length;
+    for (int outer = 0; outer < n; outer += block) {
+      for (int t = 0; t < length; t++) {
+        int to = base + outer + t * stride;
+        java.util.Arrays.fill(a, to, to + stride, 0f);
+        for (int j = -radius; j <= radius; j++) {
+          int s = t + j;
+          s = s < 0 ? 0 : (s >= length ? length - 1 : s);
+          int from = outer + s * stride;
+          float w = (float) kernel[j + radius];
+          for (int i = 0; i < stride; i++) {
+            a[to + i] += w * source[from + i];
+          }
+        }
+      }
     }
   }
 
@@ -238,10 +263,8 @@ final class AffinityDegrader {
     }
   }
 
-  /** A standard normal draw (Box–Muller; SplittableRandom has no nextGaussian on Java 17). */
+  /** A standard normal draw (the JDK's ziggurat-based {@code RandomGenerator.nextGaussian}). */
   private static double gaussian(SplittableRandom random) {
-    double u = 1 - random.nextDouble();
-    double v = random.nextDouble();
-    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
+    return random.nextGaussian();
   }
 }

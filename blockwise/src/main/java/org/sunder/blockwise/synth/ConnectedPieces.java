@@ -61,10 +61,12 @@ final class ConnectedPieces {
     int tail = 0;
     piece[start] = id;
     queue = push(queue, tail++, start);
+    int[] around = new int[6];
     while (head < tail) {
       int i = queue[head++];
+      neighbours(i, around);
       for (int k = 0; k < 6; k++) {
-        int j = neighbour(i, k);
+        int j = around[k];
         if (j >= 0 && piece[j] == 0 && objectLabel[j] == object) {
           piece[j] = id;
           queue = push(queue, tail++, j);
@@ -188,6 +190,21 @@ final class ConnectedPieces {
       case 4: return z > 0 ? i - nx * ny : -1;
       default: return z < nz - 1 ? i + nx * ny : -1;
     }
+  }
+
+  /** The six face neighbours of voxel i, -1 where the volume ends. */
+  private void neighbours(int i, int[] out) {
+    int plane = nx * ny;
+    int z = i / plane;
+    int rest = i - z * plane;
+    int y = rest / nx;
+    int x = rest - y * nx;
+    out[0] = x > 0 ? i - 1 : -1;
+    out[1] = x < nx - 1 ? i + 1 : -1;
+    out[2] = y > 0 ? i - nx : -1;
+    out[3] = y < ny - 1 ? i + nx : -1;
+    out[4] = z > 0 ? i - plane : -1;
+    out[5] = z < nz - 1 ? i + plane : -1;
   }
 
   private void ensure(int id) {

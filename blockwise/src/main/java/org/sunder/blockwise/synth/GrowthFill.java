@@ -17,11 +17,15 @@ final class GrowthFill {
     float[] dist = new float[n];
     Arrays.fill(dist, Float.POSITIVE_INFINITY);
     VoxelHeap heap = new VoxelHeap(1024);
-    for (int i = 0; i < n; i++) {
-      if (label[i] != 0) {
-        dist[i] = 0;
-        if (hasEmptyNeighbour(label, i, nx, ny, nz)) {
-          heap.push(0, i);
+    for (int z = 0, i = 0; z < nz; z++) {
+      for (int y = 0; y < ny; y++) {
+        for (int x = 0; x < nx; x++, i++) {
+          if (label[i] != 0) {
+            dist[i] = 0;
+            if (hasEmptyNeighbour(label, i, x, y, z, nx, ny, nz)) {
+              heap.push(0, i);
+            }
+          }
         }
       }
     }
@@ -54,10 +58,8 @@ final class GrowthFill {
     }
   }
 
-  private static boolean hasEmptyNeighbour(int[] label, int i, int nx, int ny, int nz) {
-    int x = i % nx;
-    int y = (i / nx) % ny;
-    int z = i / (nx * ny);
+  private static boolean hasEmptyNeighbour(int[] label, int i, int x, int y, int z, int nx,
+      int ny, int nz) {
     int plane = nx * ny;
     return (x > 0 && label[i - 1] == 0) || (x < nx - 1 && label[i + 1] == 0)
         || (y > 0 && label[i - nx] == 0) || (y < ny - 1 && label[i + nx] == 0)
