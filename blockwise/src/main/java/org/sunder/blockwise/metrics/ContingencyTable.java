@@ -117,7 +117,8 @@ public final class ContingencyTable implements Serializable {
 
   /**
    * The non-zero pairs sorted by ground-truth label, then segment label (both unsigned).
-   * Allocates three arrays of {@link #pairCount()} entries; {@code O(p log p)}.
+   * Allocates a few arrays of {@link #pairCount()} entries; {@code O(p log p)} (primitive sorts
+   * of the labels, then counting sorts by rank).
    */
   public Pairs sortedPairs() {
     long[] g = new long[size];
@@ -132,10 +133,8 @@ public final class ContingencyTable implements Serializable {
         k++;
       }
     }
-    int[] order = IndexOrder.sorted(size, (a, b) -> {
-      int byGroundTruth = Long.compareUnsigned(g[a], g[b]);
-      return byGroundTruth != 0 ? byGroundTruth : Long.compareUnsigned(s[a], s[b]);
-    });
+    int[] bySegment = new LabelRanks(s).stableSort(LabelRanks.identity(size));
+    int[] order = new LabelRanks(g).stableSort(bySegment);
     return new Pairs(permute(g, order), permute(s, order), permute(c, order));
   }
 

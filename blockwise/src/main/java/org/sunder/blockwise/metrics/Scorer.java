@@ -52,11 +52,8 @@ public final class Scorer {
           + table.voxelCount() + " voxels" + (options.ignoreGroundTruthZero()
               ? ", all with ground-truth label 0, which is ignored" : ""));
     }
-    int[] rowOrder = identity(p.size());
-    int[] columnOrder = IndexOrder.sorted(p.size(), (x, y) -> {
-      int bySegment = Long.compareUnsigned(p.s[x], p.s[y]);
-      return bySegment != 0 ? bySegment : Long.compareUnsigned(p.g[x], p.g[y]);
-    });
+    int[] rowOrder = LabelRanks.identity(p.size());
+    int[] columnOrder = new LabelRanks(p.s).stableSort(rowOrder);
     Marginals rows = marginals(p.g, p.c, rowOrder);
     Marginals columns = marginals(p.s, p.c, columnOrder);
     double n = 0;
@@ -205,13 +202,5 @@ public final class Scorer {
 
   private static double xlog2x(double x) {
     return x <= 1 ? 0 : x * (Math.log(x) * INVERSE_LN_2);
-  }
-
-  private static int[] identity(int n) {
-    int[] out = new int[n];
-    for (int i = 0; i < n; i++) {
-      out[i] = i;
-    }
-    return out;
   }
 }
