@@ -1,0 +1,154 @@
+package org.sunder.stitching;
+
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.graph.GridGraph;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.RegionGraph;
+import org.sunder.blockwise.grid.Block;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.Segmentation;
+
+/**
+ * From the partition of a block's extended box to its core: provisional labels and the
+ * {@link BlockSummary}.
+ *
+ * <p>Local ids are the partition's labels present in the core, renumbered from 1 in ascending
+ * order of the partition label; when the core is the whole extended box (one block covering the
+ * volume) local ids equal the partition's labels.
+ *
+ * <p>Inner edges count only edges with <em>both</em> ends in the core; edges reaching into the
+ * halo are left to the block that owns the other end or to the face that owns them (see
+ * {@link SeamEdges}). So every voxel edge of the volume is counted exactly once, and the reduced
+ * graph's statistics are those of the whole volume's region graph of the provisional labels,
+ * restricted to boundary segments. O(extended voxels * offsets).
+ */
+final class CoreSegments {
+  private CoreSegments() {}
+
+  /** The provisional labels of the core (core order) and the block's summary. */
+  record Result(long[] provisionalLabels, BlockSummary summary) {}
+
+  static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
+      Segmentation segmentation, GridGraph extendedGraph) {
+    int[] extShape = block.extendedShape();
+    int[] coreShape = block.coreShape();
+    int[] coreIndex = BoxIndex.subBoxIndices(extShape,
+        BoxIndex.origin(block.extendedMin(), block.coreMin()), coreShape);
+    int[] labels = segmentation.labels();
+    int[] localOf = new int[segmentation.segmentCount() + 1];
+    for (int i : coreIndex) {
+      localOf[labels[i]] = 1;
+    }
+    int localCount = 0;
+    for (int label = 1; label < localOf.length; label++) {
+      localOf[label] = localOf[label] == 0 ? 0 : ++localCount;
+    }
+    localOf[0] = 0;
+    long[] sizes = new long[localCount];
+    int[] coreLocal = new int[coreIndex.length];
+    for (int i = 0; i < coreIndex.length; i++) {
+      int local = localOf[labels[coreIndex[i]]];
+      coreLocal[i] = local;
+      if (local > 0) {
+        sizes[local - 1]++;
+      }
+    }
+    int[] sides = boundarySides(grid, block, offsets, coreShape, coreLocal, localCount);
+    int boundaryCount = 0;
+    for (int k = 1; k <= localCount; k++) {
+      boundaryCount += sides[k] != 0 ? 1 : 0;
+    }
+    int[] boundaryIds = new int[boundaryCount];
+    int[] boundarySides = new int[boundaryCount];
+    int next = 0;
+    for (int k = 1; k <= localCount; k++) {
+      if (sides[k] != 0) {
+        boundaryIds[next] = k;
+        boundarySides[next++] = sides[k];
+      }
+    }
+    EdgeStatistics inner = innerEdges(layout, block.index(), labels.length, coreIndex, coreLocal,
+        sides, extendedGraph);
+    long[] provisional = new long[coreLocal.length];
+    for (int i = 0; i < coreLocal.length; i++) {
+      int local = coreLocal[i];
+      provisional[i] = local == 0 ? 0 : layout.provisional(block.index(), local);
+    }
+    return new Result(provisional,
+        new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, inner));
+  }
+
+  /**
+   * Per local id, the mask of sides (bit {@code 2 * axis + upper}) that have a face and that
+   * the segment comes closer to than the longest offset along the axis.
+   */
+  private static int[] boundarySides(BlockGrid grid, Block block, Offsets offsets,
+      int[] coreShape, int[] coreLocal, int localCount) {
+    int n = coreShape.length;
+    int[] depth = new int[n];
+    for (int k = 0; k < offsets.count(); k++) {
+      for (int d = 0; d < n; d++) {
+        depth[d] = Math.max(depth[d], Math.abs(offsets.component(k, d)));
+      }
+    }
+    int[] lowEnd = new int[n];
+    int[] highStart = new int[n];
+    for (int d = 0; d < n; d++) {
+      boolean lowFace = grid.faceIndex(block.index(), d, false) >= 0;
+      boolean highFace = grid.faceIndex(block.index(), d, true) >= 0;
+      lowEnd[d] = lowFace ? depth[d] : 0;
+      highStart[d] = highFace ? coreShape[d] - depth[d] : Integer.MAX_VALUE;
+    }
+    int[] sides = new int[localCount + 1];
+    int[] p = new int[n];
+    for (int i = 0; i < coreLocal.length; i++) {
+      int local = coreLocal[i];
+      if (local != 0) {
+        int mask = 0;
+        for (int d = 0; d < n; d++) {
+          if (p[d] < lowEnd[d]) {
+            mask |= 1 << (2 * d);
+          }
+          if (p[d] >= highStart[d]) {
+            mask |= 1 << (2 * d + 1);
+          }
+        }
+        sides[local] |= mask;
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < coreShape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return sides;
+  }
+
+  private static EdgeStatistics innerEdges(IdLayout layout, int block, int extendedVoxels,
+      int[] coreIndex, int[] coreLocal, int[] sides, GridGraph extendedGraph) {
+    int[] boundaryLabels = new int[extendedVoxels];
+    boolean any = false;
+    for (int i = 0; i < coreIndex.length; i++) {
+      int local = coreLocal[i];
+      if (local != 0 && sides[local] != 0) {
+        boundaryLabels[coreIndex[i]] = local;
+        any = true;
+      }
+    }
+    if (!any) {
+      return EdgeStatistics.empty();
+    }
+    EdgeStatistics local = RegionGraph.of(boundaryLabels, extendedGraph).statistics();
+    int m = local.size();
+    long[] u = new long[m];
+    long[] v = new long[m];
+    for (int e = 0; e < m; e++) {
+      u[e] = layout.provisional(block, local.u(e));
+      v[e] = layout.provisional(block, local.v(e));
+    }
+    return EdgeStatistics.of(u, v, local.copySum(), local.copyCount(), local.copyMin(),
+        local.copyMax());
+  }
+}

@@ -1,0 +1,64 @@
+package org.sunder.stitching;
+
+import java.io.Serializable;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.PartitionConfig;
+
+/**
+ * The solve stage: assembles the {@link ReducedGraph} from all block summaries and seam edges,
+ * partitions it with the method family the blocks used, and maps every provisional id to a
+ * final id (consecutive from 1; see {@link FinalIds}). Segments that touch no face never enter
+ * the graph and simply get the next final id. The result depends only on the summaries' and
+ * seams' content, not on their order.
+ *
+ * <p>Methods: {@code mutex-watershed} continues as absolute-maximum linkage with constraints,
+ * keeping each block's separations (see {@link AgglomerativeSolver}); {@code agglomeration}
+ * continues with the configured linkage, constraints and threshold. Cost: O(p log p) for p
+ * reduced-graph pairs plus the agglomeration's O(p log p); memory about 100 bytes per pair.
+ */
+public final class GlobalSolve {
+  private GlobalSolve() {}
+
+  /** The final id map and the figures of the solve. */
+  public record Result(FinalIdMap finalIds, SolveReport report) implements Serializable {}
+
+  /** Solves the setup's run from every block's summary and every face's seam edges. */
+  public static Result run(StitchingSetup setup, List<BlockSummary> summaries,
+      List<SeamEdges> seams) {
+    return solve(setup.idLayout(), setup.grid().blockCount(), setup.partition(), summaries,
+        seams);
+  }
+
+  static Result solve(IdLayout layout, int blockCount, PartitionConfig config,
+      List<BlockSummary> summaries, List<SeamEdges> seams) {
+    long start = System.nanoTime();
+    List<BlockSummary> blocks = new ArrayList<>(summaries);
+    blocks.sort(Comparator.comparingInt(BlockSummary::block));
+    ReducedGraph graph = ReducedGraph.assemble(layout, blocks, seams);
+    ReducedGraphSolver solver = solverFor(config);
+    int[] clusters = solver.clusters(graph);
+    FinalIdMap map = FinalIds.assign(layout, blockCount, blocks, graph, clusters);
+    double seconds = (System.nanoTime() - start) / 1e9;
+    long segments = 0;
+    for (BlockSummary s : blocks) {
+      segments += s.segmentCount();
+    }
+    SolveReport report = new SolveReport(solver.name(), segments, graph.nodeCount(),
+        graph.edges().size(), map.finalIdCount(), seconds);
+    return new Result(map, report);
+  }
+
+  static ReducedGraphSolver solverFor(PartitionConfig config) {
+    if (config.isMutexWatershed()) {
+      return new AgglomerativeSolver(Linkage.ABS_MAX, true, 0, true,
+          "mutex-watershed (abs-max linkage with constraints)");
+    }
+    return new AgglomerativeSolver(config.linkage(), config.constraints(), config.threshold(),
+        false, "agglomeration " + config.linkage().jsonName()
+            + (config.constraints() ? " with constraints" : ""));
+  }
+}

@@ -1,0 +1,34 @@
+package org.sunder.stitching;
+
+import java.util.ArrayList;
+import java.util.List;
+import org.sunder.blockwise.grid.BlockGrid;
+
+/**
+ * Runs the stages of a blockwise run one after another in this thread: a loop over the tasks
+ * of each stage, nothing more. Tests and benchmarks use it; the Spark jobs run the same task
+ * functions on executors.
+ */
+public final class InProcessRunner {
+  private InProcessRunner() {}
+
+  /** Partition, seams, solve and relabel; returns the solve's result. */
+  public static GlobalSolve.Result run(StitchingSetup setup) {
+    setup.validateInputs();
+    setup.createLabels();
+    BlockGrid grid = setup.grid();
+    List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
+    for (int b = 0; b < grid.blockCount(); b++) {
+      summaries.add(PartitionTask.run(setup, b));
+    }
+    List<SeamEdges> seams = new ArrayList<>(grid.faceCount());
+    for (int f = 0; f < grid.faceCount(); f++) {
+      seams.add(SeamTask.run(setup, f));
+    }
+    GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
+    for (long c = 0; c < grid.chunkCount(); c++) {
+      RelabelTask.run(setup, grid.chunkPosition(c), result.finalIds());
+    }
+    return result;
+  }
+}

@@ -1,0 +1,46 @@
+package org.sunder.stitching;
+
+import net.imglib2.img.array.ArrayImgs;
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.GridGraph;
+import org.sunder.blockwise.grid.Block;
+import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.store.Dataset;
+
+/**
+ * The partition stage's task for one block: read the extended box's affinities (and mask),
+ * partition them with the configured method, crop to the core, write the core's provisional ids
+ * (whole chunks, so no other block's task touches them) and return the {@link BlockSummary}.
+ * Deterministic: a rerun writes the same bytes. Nothing is written before the partition is
+ * complete. Cost: the partition of the extended box plus one pass over its edges for the inner
+ * edges (see {@link CoreSegments}).
+ */
+public final class PartitionTask {
+  private PartitionTask() {}
+
+  /** Runs the task for block {@code blockIndex}; the label dataset must exist. */
+  public static BlockSummary run(StitchingSetup setup, int blockIndex) {
+    Block block = setup.grid().block(blockIndex);
+    AffinityBlock affinities =
+        AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
+    PartitionConfig config = setup.partition();
+    CoreSegments.Result result = partition(setup, block, affinities, config);
+    Dataset labels = setup.openLabels();
+    int[] shape = block.coreShape();
+    long[] dims = new long[shape.length];
+    for (int d = 0; d < shape.length; d++) {
+      dims[d] = shape[d];
+    }
+    labels.write(ArrayImgs.unsignedLongs(result.provisionalLabels(), dims), block.coreMin());
+    return result.summary();
+  }
+
+  static CoreSegments.Result partition(StitchingSetup setup, Block block,
+      AffinityBlock affinities, PartitionConfig config) {
+    Segmentation segmentation = config.create().partition(affinities);
+    GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
+    return CoreSegments.of(setup.grid(), setup.idLayout(), block, setup.offsets(), segmentation,
+        graph);
+  }
+}

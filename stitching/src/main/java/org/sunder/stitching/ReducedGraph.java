@@ -1,0 +1,77 @@
+package org.sunder.stitching;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Comparator;
+import java.util.List;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.grid.IdLayout;
+
+/**
+ * The graph the global solve works on: nodes are the boundary segments of all blocks, in
+ * ascending provisional id (block by block, local id ascending); edges are the blocks' inner
+ * edges and the faces' seam edges, with ids replaced by node indices. Built from summaries and
+ * seams in any order; the result depends only on their content. O(p log p) for p pairs.
+ *
+ * @param nodeIds the provisional id of each node, ascending
+ * @param edges statistics between node indices ({@code u < v}, canonical order)
+ * @param sameBlock per edge row, whether both nodes belong to one block (an inner edge)
+ */
+record ReducedGraph(long[] nodeIds, EdgeStatistics edges, boolean[] sameBlock) {
+
+  int nodeCount() {
+    return nodeIds.length;
+  }
+
+  static ReducedGraph assemble(IdLayout layout, List<BlockSummary> summaries,
+      List<SeamEdges> seams) {
+    List<BlockSummary> blocks = new ArrayList<>(summaries);
+    blocks.sort(Comparator.comparingInt(BlockSummary::block));
+    int nodeCount = 0;
+    for (BlockSummary s : blocks) {
+      nodeCount += s.boundaryLocalIds().length;
+    }
+    long[] nodeIds = new long[nodeCount];
+    int next = 0;
+    List<EdgeStatistics> parts = new ArrayList<>();
+    for (BlockSummary s : blocks) {
+      for (int local : s.boundaryLocalIds()) {
+        nodeIds[next++] = layout.provisional(s.block(), local);
+      }
+      parts.add(s.innerEdges());
+    }
+    List<SeamEdges> faces = new ArrayList<>(seams);
+    faces.sort(Comparator.comparingInt(SeamEdges::face));
+    for (SeamEdges seam : faces) {
+      parts.add(seam.edges());
+    }
+    EdgeStatistics merged = EdgeStatistics.mergeAll(parts);
+    long[] indices = new long[nodeCount];
+    for (int i = 0; i < nodeCount; i++) {
+      indices[i] = i;
+    }
+    requireNodes(merged, nodeIds, layout);
+    EdgeStatistics edges = merged.relabel(nodeIds, indices);
+    boolean[] sameBlock = new boolean[edges.size()];
+    for (int e = 0; e < edges.size(); e++) {
+      sameBlock[e] = layout.blockOf(nodeIds[(int) edges.u(e)])
+          == layout.blockOf(nodeIds[(int) edges.v(e)]);
+    }
+    return new ReducedGraph(nodeIds, edges, sameBlock);
+  }
+
+  private static void requireNodes(EdgeStatistics edges, long[] nodeIds, IdLayout layout) {
+    for (int e = 0; e < edges.size(); e++) {
+      for (long id : new long[] {edges.u(e), edges.v(e)}) {
+        if (Arrays.binarySearch(nodeIds, id) < 0) {
+          throw new SunderException(ErrorKind.INTERNAL, "an edge names provisional id "
+              + Long.toUnsignedString(id) + " (block " + layout.blockOf(id) + ", local id "
+              + layout.localOf(id) + "), which no block summary lists as a boundary segment;"
+              + " summaries and seams are from different runs");
+        }
+      }
+    }
+  }
+}

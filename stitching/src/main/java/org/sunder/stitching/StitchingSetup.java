@@ -1,0 +1,139 @@
+package org.sunder.stitching;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.Serializable;
+import java.nio.file.Path;
+import java.util.Arrays;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.Dataset;
+import org.sunder.blockwise.store.DatasetSpec;
+
+/**
+ * Everything a task of a blockwise run needs to know, sent once to every worker: where the
+ * affinities (and optional mask) are, where the labels go, the block grid, the offsets and the
+ * partition configuration (kept as its JSON text so the record serialises with plain Java or
+ * Kryo). Tasks open the containers themselves.
+ *
+ * @param inputRoot the container holding the affinities (and mask)
+ * @param affinitiesPath affinity dataset, dims {@code (x, y, z, channel)}, FLOAT32 or UINT8
+ * @param maskPath mask dataset (non-zero = inside, same spatial shape) or {@code ""} for none
+ * @param outputRoot the container the label dataset is written to
+ * @param labelsPath the UINT64 label dataset: provisional ids after the partition stage, final
+ *     ids after the relabel stage
+ * @param grid the block grid; its chunk shape is the label dataset's chunk shape
+ * @param offsets one per affinity channel, memory order
+ * @param partitionJson the {@link PartitionConfig} as JSON
+ */
+public record StitchingSetup(String inputRoot, String affinitiesPath, String maskPath,
+    String outputRoot, String labelsPath, BlockGrid grid, Offsets offsets, String partitionJson)
+    implements Serializable {
+
+  private static final ObjectMapper JSON = new ObjectMapper();
+
+  /** A setup; validates the partition configuration against the offsets. */
+  public static StitchingSetup of(Path inputRoot, String affinitiesPath, String maskPathOrEmpty,
+      Path outputRoot, String labelsPath, BlockGrid grid, Offsets offsets,
+      PartitionConfig partition) {
+    partition.validate(offsets);
+    offsets.requireDimension(grid.numDimensions(), "offsets");
+    String json;
+    try {
+      json = JSON.writeValueAsString(partition);
+    } catch (JsonProcessingException e) {
+      throw new SunderException(ErrorKind.INTERNAL, "partition config " + partition
+          + " cannot be written as JSON: " + e.getOriginalMessage(), e);
+    }
+    return new StitchingSetup(inputRoot.toString(), affinitiesPath, maskPathOrEmpty,
+        outputRoot.toString(), labelsPath, grid, offsets, json);
+  }
+
+  /** The partition configuration (parsed on each call). */
+  public PartitionConfig partition() {
+    return PartitionConfig.fromJson(partitionJson);
+  }
+
+  /** The provisional/final id layout of this grid. */
+  public IdLayout idLayout() {
+    return IdLayout.forGrid(grid);
+  }
+
+  public boolean hasMask() {
+    return !maskPath.isEmpty();
+  }
+
+  public Container openInput() {
+    return Container.open(Path.of(inputRoot));
+  }
+
+  public Container openOutput() {
+    return Container.open(Path.of(outputRoot));
+  }
+
+  public Dataset openLabels() {
+    return openOutput().openDataset(labelsPath);
+  }
+
+  /**
+   * Checks the input datasets against the grid and offsets, before anything is written.
+   *
+   * @throws SunderException INVALID_INPUT naming the dataset and what was expected
+   */
+  public void validateInputs() {
+    Container input = openInput();
+    Dataset affinities = input.openDataset(affinitiesPath);
+    long[] shape = affinities.shape();
+    long[] volume = grid.volumeShape();
+    int n = volume.length;
+    if (shape.length != n + 1 || !Arrays.equals(Arrays.copyOf(shape, n), volume)
+        || shape[n] != offsets.count()) {
+      throw new SunderException(ErrorKind.INVALID_INPUT, "affinities '" + affinitiesPath
+          + "' in " + inputRoot + " have shape " + Arrays.toString(shape) + " (memory order);"
+          + " expected " + Arrays.toString(volume) + " plus a channel axis of "
+          + offsets.count() + " (one per offset)");
+    }
+    if (affinities.dataType() != DataType.FLOAT32 && affinities.dataType() != DataType.UINT8) {
+      throw new SunderException(ErrorKind.INVALID_INPUT, "affinities '" + affinitiesPath
+          + "' are " + affinities.dataType() + "; expected FLOAT32 or UINT8");
+    }
+    if (hasMask()) {
+      long[] maskShape = input.openDataset(maskPath).shape();
+      if (!Arrays.equals(maskShape, volume)) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, "mask '" + maskPath + "' has shape "
+            + Arrays.toString(maskShape) + "; expected the volume's " + Arrays.toString(volume));
+      }
+    }
+  }
+
+  /**
+   * Creates the label dataset (UINT64, the grid's volume and chunk shape), or opens it if it
+   * exists with exactly that shape, chunk shape and type (a resumed run).
+   *
+   * @throws SunderException CONFLICT if a dataset of another shape or type is in the way
+   */
+  public Dataset createLabels() {
+    Container output = openOutput();
+    DatasetSpec spec = DatasetSpec.of(grid.volumeShape(), grid.chunkShape(), DataType.UINT64);
+    if (output.datasetExists(labelsPath)) {
+      Dataset existing = output.openDataset(labelsPath);
+      if (!Arrays.equals(existing.shape(), spec.shape())
+          || !Arrays.equals(existing.chunkShape(), spec.chunkShape())
+          || existing.dataType() != DataType.UINT64) {
+        throw new SunderException(ErrorKind.CONFLICT, "label dataset '" + labelsPath + "' in "
+            + outputRoot + " exists with shape " + Arrays.toString(existing.shape())
+            + ", chunks " + Arrays.toString(existing.chunkShape()) + ", " + existing.dataType()
+            + "; expected " + Arrays.toString(spec.shape()) + ", "
+            + Arrays.toString(spec.chunkShape()) + ", UINT64");
+      }
+      return existing;
+    }
+    return output.createDataset(labelsPath, spec);
+  }
+}
