@@ -24,7 +24,7 @@ public final class PartitionTask {
     Block block = setup.grid().block(blockIndex);
     AffinityBlock affinities =
         AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
-    PartitionConfig config = setup.partition();
+    PartitionConfig config = setup.partitionConfig();
     CoreSegments.Result result = partition(setup, block, affinities, config);
     Dataset labels = setup.openLabels();
     int[] shape = block.coreShape();

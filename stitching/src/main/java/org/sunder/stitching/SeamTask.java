@@ -24,7 +24,7 @@ public final class SeamTask {
     AffinityBlock affinities = AffinityReader.read(setup, slab.min(), slab.max());
     long[] labels = ((LongArray) setup.openLabels()
         .read(new FinalInterval(slab.min(), slab.max())).update(null)).getCurrentStorageArray();
-    PartitionConfig config = setup.partition();
+    PartitionConfig config = setup.partitionConfig();
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
     return SeamExtraction.extract(setup.grid(), face, labels, graph);
   }

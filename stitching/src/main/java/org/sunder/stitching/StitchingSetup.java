@@ -1,7 +1,5 @@
 package org.sunder.stitching;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.Serializable;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -19,8 +17,8 @@ import org.sunder.blockwise.store.DatasetSpec;
 /**
  * Everything a task of a blockwise run needs to know, sent once to every worker: where the
  * affinities (and optional mask) are, where the labels go, the block grid, the offsets and the
- * partition configuration (kept as its JSON text so the record serialises with plain Java or
- * Kryo). Tasks open the containers themselves.
+ * partition configuration (kept as its serialisable parts, so the record serialises with plain
+ * Java or Kryo). Tasks open the containers themselves.
  *
  * @param inputRoot the container holding the affinities (and mask)
  * @param affinitiesPath affinity dataset, dims {@code (x, y, z, channel)}, FLOAT32 or UINT8
@@ -30,13 +28,11 @@ import org.sunder.blockwise.store.DatasetSpec;
  *     ids after the relabel stage
  * @param grid the block grid; its chunk shape is the label dataset's chunk shape
  * @param offsets one per affinity channel, memory order
- * @param partitionJson the {@link PartitionConfig} as JSON
+ * @param partition the {@link PartitionConfig}'s settings
  */
 public record StitchingSetup(String inputRoot, String affinitiesPath, String maskPath,
-    String outputRoot, String labelsPath, BlockGrid grid, Offsets offsets, String partitionJson)
+    String outputRoot, String labelsPath, BlockGrid grid, Offsets offsets, PartitionSettings partition)
     implements Serializable {
-
-  private static final ObjectMapper JSON = new ObjectMapper();
 
   /** A setup; validates the partition configuration against the offsets. */
   public static StitchingSetup of(Path inputRoot, String affinitiesPath, String maskPathOrEmpty,
@@ -44,20 +40,13 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
       PartitionConfig partition) {
     partition.validate(offsets);
     offsets.requireDimension(grid.numDimensions(), "offsets");
-    String json;
-    try {
-      json = JSON.writeValueAsString(partition);
-    } catch (JsonProcessingException e) {
-      throw new SunderException(ErrorKind.INTERNAL, "partition config " + partition
-          + " cannot be written as JSON: " + e.getOriginalMessage(), e);
-    }
     return new StitchingSetup(inputRoot.toString(), affinitiesPath, maskPathOrEmpty,
-        outputRoot.toString(), labelsPath, grid, offsets, json);
+        outputRoot.toString(), labelsPath, grid, offsets, PartitionSettings.of(partition));
   }
 
-  /** The partition configuration (parsed on each call). */
-  public PartitionConfig partition() {
-    return PartitionConfig.fromJson(partitionJson);
+  /** The partition configuration. */
+  public PartitionConfig partitionConfig() {
+    return partition.toConfig();
   }
 
   /** The provisional/final id layout of this grid. */

@@ -130,7 +130,7 @@ class ReducedGraphTest {
     int[] p = new int[3];
     int max = 0;
     for (int i = 0; i < labels.length; i++) {
-      CellScene.position(i, shape, p);
+      TissueScene.position(i, shape, p);
       long x = min[0] + p[0];
       long y = min[1] + p[1];
       long z = min[2] + p[2];

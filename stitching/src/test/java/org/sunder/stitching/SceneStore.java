@@ -12,14 +12,14 @@ import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 
-/** Writes a {@link CellScene} into a container and builds the setup of a run over it. */
+/** Writes a {@link TissueScene} into a container and builds the setup of a run over it. */
 final class SceneStore {
   private SceneStore() {}
 
   static final String AFFINITIES = "affinities";
   static final String LABELS = "segmentation";
 
-  static void write(CellScene scene, Path root, StorageFormat format, int[] chunk) {
+  static void write(TissueScene scene, Path root, StorageFormat format, int[] chunk) {
     Container container = Container.create(root, format);
     int c = scene.offsets.length;
     long[] shape = {scene.shape[0], scene.shape[1], scene.shape[2], c};
@@ -28,7 +28,7 @@ final class SceneStore {
         .write(ArrayImgs.floats(scene.affinities.clone(), shape), new long[4]);
   }
 
-  static StitchingSetup setup(CellScene scene, Path root, int[] chunk, int[] block, int[] halo,
+  static StitchingSetup setup(TissueScene scene, Path root, int[] chunk, int[] block, int[] halo,
       PartitionConfig config) {
     long[] volume = {scene.shape[0], scene.shape[1], scene.shape[2]};
     BlockGrid grid = BlockGrid.of(volume, chunk, block, halo);
@@ -37,7 +37,7 @@ final class SceneStore {
   }
 
   /** The whole-volume partition, as one process holding everything would compute it. */
-  static Segmentation wholeVolume(CellScene scene, PartitionConfig config) {
+  static Segmentation wholeVolume(TissueScene scene, PartitionConfig config) {
     AffinityBlock block = AffinityBlock.ofFloats(scene.affinities, scene.shape, new long[3],
         Offsets.of(scene.offsets), null);
     return config.create().partition(block);

@@ -1,0 +1,50 @@
+package org.sunder.stitching;
+
+import org.sunder.blockwise.synth.Degradation;
+import org.sunder.blockwise.synth.ExactAffinities;
+import org.sunder.blockwise.synth.SynthSpec;
+import org.sunder.blockwise.synth.SyntheticVolume;
+
+/**
+ * A synthetic test volume (the synth package's tissue generator): ground truth, offsets and
+ * affinities (exact, or degraded), arrays in memory order, affinities channel last.
+ */
+final class TissueScene {
+  final int[] shape;
+  final long[] groundTruth;
+  final float[] affinities;
+  final int[][] offsets;
+
+  private TissueScene(int[] shape, long[] groundTruth, float[] affinities, int[][] offsets) {
+    this.shape = shape;
+    this.groundTruth = groundTruth;
+    this.affinities = affinities;
+    this.offsets = offsets;
+  }
+
+  static TissueScene generate(SynthSpec spec, int[][] offsets, Degradation degradation) {
+    SyntheticVolume volume = SyntheticVolume.generate(spec);
+    long[] shape = volume.shape();
+    long[] labels = volume.labels();
+    float[] exact = ExactAffinities.compute(labels, shape, offsets);
+    float[] affinities = degradation.isNone() ? exact
+        : degradation.apply(labels, shape, spec.voxelSize(), offsets, exact);
+    return new TissueScene(new int[] {(int) shape[0], (int) shape[1], (int) shape[2]}, labels,
+        affinities, offsets);
+  }
+
+  /** The small synthetic tissue of the given shape and seed. */
+  static TissueScene small(long seed, long[] shape, Degradation degradation) {
+    return generate(SynthSpec.small(seed).withShape(shape), SceneStore.offsets(), degradation);
+  }
+
+  int voxelCount() {
+    return shape[0] * shape[1] * shape[2];
+  }
+
+  static void position(int index, int[] shape, int[] out) {
+    out[0] = index % shape[0];
+    out[1] = index / shape[0] % shape[1];
+    out[2] = index / (shape[0] * shape[1]);
+  }
+}

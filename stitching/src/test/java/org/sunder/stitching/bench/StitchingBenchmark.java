@@ -1,0 +1,237 @@
+package org.sunder.stitching.bench;
+
+import java.io.IOException;
+import java.lang.management.ManagementFactory;
+import java.lang.management.ThreadMXBean;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import net.imglib2.FinalInterval;
+import net.imglib2.img.array.ArrayImgs;
+import net.imglib2.img.basictypeaccess.array.LongArray;
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.metrics.ContingencyTable;
+import org.sunder.blockwise.metrics.ScoreOptions;
+import org.sunder.blockwise.metrics.Scorer;
+import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.Dataset;
+import org.sunder.blockwise.store.DatasetSpec;
+import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.blockwise.synth.Degradation;
+import org.sunder.blockwise.synth.ExactAffinities;
+import org.sunder.blockwise.synth.SynthSpec;
+import org.sunder.blockwise.synth.SyntheticVolume;
+import org.sunder.stitching.BlockSummary;
+import org.sunder.stitching.GlobalSolve;
+import org.sunder.stitching.PartitionTask;
+import org.sunder.stitching.RelabelTask;
+import org.sunder.stitching.SeamEdges;
+import org.sunder.stitching.SeamTask;
+import org.sunder.stitching.StitchingSetup;
+
+/**
+ * Blockwise against whole-volume partitioning on a synthetic tissue volume, for the Mutex
+ * Watershed and mean-linkage agglomeration with 8 and 27 blocks: CPU time of all tasks over the
+ * whole-volume run's (both reading affinities from and writing labels to the same Zarr
+ * container), reduced-graph size over the voxel count, and scores (variation of information,
+ * adapted Rand error) against ground truth and against the whole-volume result, beside the
+ * naive halo-overlap join ({@link HaloOverlapJoin}). Everything runs on one thread.
+ *
+ * <p>Arguments (optional): {@code x y z} volume shape (default 192 192 48), seed (11),
+ * degradation: {@code mild} (default: the synth package's moderate mix without corrupted
+ * slices), {@code moderate} or {@code none}; halo as a multiple of the longest offset per axis
+ * (default 1).
+ */
+public final class StitchingBenchmark {
+  private static final ThreadMXBean CPU = ManagementFactory.getThreadMXBean();
+  private static final int[] CHUNK = {32, 32, 8};
+  private static final int[][] OFFSETS = {{-1, 0, 0}, {0, -1, 0}, {0, 0, -1}, {-3, 0, 0},
+      {0, -3, 0}, {0, 0, -2}, {-9, 0, 0}, {0, -9, 0}, {-4, -4, 0}};
+
+  private StitchingBenchmark() {}
+
+  public static void main(String[] args) throws IOException {
+    long[] shape = args.length >= 3
+        ? new long[] {Long.parseLong(args[0]), Long.parseLong(args[1]), Long.parseLong(args[2])}
+        : new long[] {192, 192, 48};
+    long seed = args.length >= 4 ? Long.parseLong(args[3]) : 11;
+    long voxels = shape[0] * shape[1] * shape[2];
+    double scale = voxels / (64.0 * 56 * 20);
+    SynthSpec spec = SynthSpec.small(seed).withShape(shape)
+        .withCounts((int) (30 * scale / 3), (int) Math.max(4, 4 * scale / 3),
+            (int) Math.max(1, scale / 6));
+    SyntheticVolume volume = SyntheticVolume.generate(spec);
+    long[] truth = volume.labels();
+    float[] exact = ExactAffinities.compute(truth, shape, OFFSETS);
+    String preset = args.length >= 5 ? args[4] : "mild";
+    int haloFactor = args.length >= 6 ? Integer.parseInt(args[5]) : 1;
+    Degradation degradation = switch (preset) {
+      case "moderate" -> Degradation.moderate(seed);
+      case "none" -> Degradation.none();
+      default -> new Degradation(seed, 0.7, 0.08, 0.01, 0.0005, 0);
+    };
+    float[] affinities = degradation.apply(truth, shape, spec.voxelSize(), OFFSETS, exact);
+    Path root = Files.createTempDirectory("sunder-stitching-bench");
+    writeAffinities(root, shape, affinities);
+    System.out.printf(Locale.ROOT, "volume %d x %d x %d (x y z) = %d voxels, %d objects,"
+        + " %d offsets, degradation %s, chunks %d x %d x %d, halo %d x longest offset%n",
+        shape[0], shape[1], shape[2], voxels, volume.objectCount(), OFFSETS.length, degradation,
+        CHUNK[0], CHUNK[1], CHUNK[2], haloFactor);
+    Offsets offsets = Offsets.of(OFFSETS);
+    List<String> rows = new ArrayList<>();
+    PartitionConfig[] configs = {PartitionConfig.mutexWatershed(null, null),
+        PartitionConfig.agglomeration(Linkage.MEAN, false, null, null)};
+    String[] names = {"mutex-watershed", "mean"};
+    for (int m = 0; m < configs.length; m++) {
+      PartitionConfig config = configs[m];
+      long start = CPU.getCurrentThreadCpuTime();
+      long[] whole = wholeVolume(root, shape, offsets, config, "whole-" + names[m]);
+      double wholeSeconds = (CPU.getCurrentThreadCpuTime() - start) / 1e9;
+      SegmentationScores wholeVsTruth = score(truth, whole, true);
+      rows.add(String.format(Locale.ROOT, "%-16s %6s %8.2f %8s %9s %9s %7.4f %7.4f %9s %9s",
+          names[m], "whole", wholeSeconds, "-", "-", "-", wholeVsTruth.voi(),
+          wholeVsTruth.adaptedRandError(), "-", "-"));
+      for (int g : new int[] {2, 3}) {
+        int[] block = new int[3];
+        int[] halo = new int[3];
+        for (int d = 0; d < 3; d++) {
+          int size = (int) ((shape[d] + g - 1) / g);
+          block[d] = (size + CHUNK[d] - 1) / CHUNK[d] * CHUNK[d];
+          for (int[] o : OFFSETS) {
+            halo[d] = Math.max(halo[d], haloFactor * Math.abs(o[d]));
+          }
+        }
+        BlockGrid grid = BlockGrid.of(shape, CHUNK, block, halo);
+        String labels = "blockwise-" + names[m] + "-" + grid.blockCount();
+        StitchingSetup setup = StitchingSetup.of(root, "affinities", "", root, labels, grid,
+            offsets, config);
+        Stages stages = runStages(setup);
+        long[] blockwise = read(setup.openLabels(), shape);
+        SegmentationScores vsTruth = score(truth, blockwise, true);
+        SegmentationScores vsWhole = score(whole, blockwise, false);
+        long naiveStart = CPU.getCurrentThreadCpuTime();
+        long[] naive = HaloOverlapJoin.run(grid, affinities, toInt(shape), offsets,
+            config.create());
+        double naiveSeconds = (CPU.getCurrentThreadCpuTime() - naiveStart) / 1e9;
+        SegmentationScores naiveVsTruth = score(truth, naive, true);
+        SegmentationScores naiveVsWhole = score(whole, naive, false);
+        double total = stages.total();
+        System.out.printf(Locale.ROOT, "%s, %d blocks %s halo %s: CPU partition %.2f s, seams"
+            + " %.2f s, solve %.3f s, relabel %.2f s, total %.2f s = %.3f x whole (%.2f s);"
+            + " reduced graph %d nodes (%.5f per voxel), %d edges (%.5f per voxel) of %d"
+            + " segments%n", names[m], grid.blockCount(), java.util.Arrays.toString(block),
+            java.util.Arrays.toString(halo), stages.partition, stages.seams, stages.solve,
+            stages.relabel, total, total / wholeSeconds, wholeSeconds,
+            stages.result.report().nodeCount(),
+            stages.result.report().nodeCount() / (double) voxels,
+            stages.result.report().edgeCount(),
+            stages.result.report().edgeCount() / (double) voxels,
+            stages.result.report().segmentCount());
+        rows.add(String.format(Locale.ROOT, "%-16s %6d %8.2f %8.3f %9.4f %9.4f %7.4f %7.4f"
+            + " %9.4f %9.4f", names[m], grid.blockCount(), total, total / wholeSeconds,
+            vsWhole.voi(), vsWhole.adaptedRandError(), vsTruth.voi(),
+            vsTruth.adaptedRandError(), relative(vsTruth.voi(), wholeVsTruth.voi()),
+            relative(vsTruth.adaptedRandError(), wholeVsTruth.adaptedRandError())));
+        rows.add(String.format(Locale.ROOT, "%-16s %6d %8.2f %8s %9.4f %9.4f %7.4f %7.4f"
+            + " %9.4f %9.4f", "  naive overlap", grid.blockCount(), naiveSeconds, "-",
+            naiveVsWhole.voi(), naiveVsWhole.adaptedRandError(), naiveVsTruth.voi(),
+            naiveVsTruth.adaptedRandError(), relative(naiveVsTruth.voi(), wholeVsTruth.voi()),
+            relative(naiveVsTruth.adaptedRandError(), wholeVsTruth.adaptedRandError())));
+      }
+    }
+    System.out.println();
+    System.out.printf(Locale.ROOT, "%-16s %6s %8s %8s %9s %9s %7s %7s %9s %9s%n", "method",
+        "blocks", "cpu s", "/whole", "VOI~whole", "ARE~whole", "VOI~GT", "ARE~GT", "dVOI~GT",
+        "dARE~GT");
+    rows.forEach(System.out::println);
+    System.out.println("VOI in bits; ARE = adapted Rand error; ~whole: against the whole-volume"
+        + " result; ~GT: against ground truth; dX~GT: (blockwise - whole) / whole");
+  }
+
+  private record Stages(double partition, double seams, double solve, double relabel,
+      GlobalSolve.Result result) {
+    double total() {
+      return partition + seams + solve + relabel;
+    }
+  }
+
+  private static Stages runStages(StitchingSetup setup) {
+    setup.validateInputs();
+    setup.createLabels();
+    BlockGrid grid = setup.grid();
+    long t0 = CPU.getCurrentThreadCpuTime();
+    List<BlockSummary> summaries = new ArrayList<>();
+    for (int b = 0; b < grid.blockCount(); b++) {
+      summaries.add(PartitionTask.run(setup, b));
+    }
+    long t1 = CPU.getCurrentThreadCpuTime();
+    List<SeamEdges> seams = new ArrayList<>();
+    for (int f = 0; f < grid.faceCount(); f++) {
+      seams.add(SeamTask.run(setup, f));
+    }
+    long t2 = CPU.getCurrentThreadCpuTime();
+    GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
+    long t3 = CPU.getCurrentThreadCpuTime();
+    for (long c = 0; c < grid.chunkCount(); c++) {
+      RelabelTask.run(setup, grid.chunkPosition(c), result.finalIds());
+    }
+    long t4 = CPU.getCurrentThreadCpuTime();
+    return new Stages((t1 - t0) / 1e9, (t2 - t1) / 1e9, (t3 - t2) / 1e9, (t4 - t3) / 1e9,
+        result);
+  }
+
+  /** Reads the affinities, partitions the whole volume, writes the labels: the baseline. */
+  private static long[] wholeVolume(Path root, long[] shape, Offsets offsets,
+      PartitionConfig config, String name) {
+    Container container = Container.open(root);
+    long[] max = {shape[0] - 1, shape[1] - 1, shape[2] - 1, offsets.count() - 1};
+    AffinityBlock block = AffinityBlock.of(container.openDataset("affinities")
+        .read(new FinalInterval(new long[4], max)), new long[3], offsets, null);
+    Segmentation segmentation = config.create().partition(block);
+    int[] labels = segmentation.labels();
+    long[] out = new long[labels.length];
+    for (int i = 0; i < labels.length; i++) {
+      out[i] = labels[i];
+    }
+    container.createDataset(name, DatasetSpec.of(shape, CHUNK, DataType.UINT64))
+        .write(ArrayImgs.unsignedLongs(out, shape), new long[3]);
+    return out;
+  }
+
+  private static void writeAffinities(Path root, long[] shape, float[] affinities) {
+    Container container = Container.create(root, StorageFormat.ZARR);
+    long[] dims = {shape[0], shape[1], shape[2], OFFSETS.length};
+    int[] chunks = {CHUNK[0], CHUNK[1], CHUNK[2], OFFSETS.length};
+    container.createDataset("affinities", DatasetSpec.of(dims, chunks, DataType.FLOAT32))
+        .write(ArrayImgs.floats(affinities, dims), new long[4]);
+  }
+
+  private static long[] read(Dataset dataset, long[] shape) {
+    long[] max = {shape[0] - 1, shape[1] - 1, shape[2] - 1};
+    return ((LongArray) dataset.read(new FinalInterval(new long[3], max)).update(null))
+        .getCurrentStorageArray();
+  }
+
+  private static SegmentationScores score(long[] reference, long[] labels, boolean truth) {
+    ContingencyTable table = new ContingencyTable();
+    table.add(reference, labels);
+    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(truth)).score(table);
+  }
+
+  private static double relative(double value, double base) {
+    return base == 0 ? (value == 0 ? 0 : Double.POSITIVE_INFINITY) : (value - base) / base;
+  }
+
+  private static int[] toInt(long[] shape) {
+    return new int[] {(int) shape[0], (int) shape[1], (int) shape[2]};
+  }
+}
