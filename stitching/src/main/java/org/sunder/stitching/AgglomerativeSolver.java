@@ -11,8 +11,10 @@ import org.sunder.blockwise.partition.Linkage;
  * then comparing the result with a third gives the same value a whole-volume run would compute
  * from those voxel edges.
  *
- * <p>{@code keepBlockDecisions}: pairs of segments of one block that the block left apart become
- * cannot-link constraints (their minimum is replaced by {@link #APART}). Used for the Mutex
+ * <p>{@code keepBlockDecisions}: pairs of segments of one block that the block kept apart by a
+ * repulsive edge become cannot-link constraints (a row of weight {@link #APART} is merged in,
+ * so their minimum becomes {@link #APART}; only minimum and maximum matter to the
+ * absolute-maximum linkage). Used for the Mutex
  * Watershed, which continues as absolute-maximum linkage with constraints (its published
  * equivalence, "A Generalized Framework for Agglomerative Clustering of Signed Graphs applied to
  * Instance Segmentation", 2019/2022): two touching segments the Mutex Watershed left apart were
@@ -46,15 +48,18 @@ final class AgglomerativeSolver implements ReducedGraphSolver {
   }
 
   private static EdgeStatistics withBlockDecisions(ReducedGraph graph) {
-    EdgeStatistics edges = graph.edges();
-    double[] min = edges.copyMin();
-    boolean[] sameBlock = graph.sameBlock();
-    for (int e = 0; e < min.length; e++) {
-      if (sameBlock[e]) {
-        min[e] = APART;
-      }
+    int n = graph.separatedU().length;
+    long[] u = new long[n];
+    long[] v = new long[n];
+    double[] value = new double[n];
+    long[] count = new long[n];
+    for (int i = 0; i < n; i++) {
+      u[i] = graph.separatedU()[i];
+      v[i] = graph.separatedV()[i];
+      value[i] = APART;
+      count[i] = 1;
     }
-    return EdgeStatistics.of(edges.copyU(), edges.copyV(), edges.copySum(), edges.copyCount(),
-        min, edges.copyMax());
+    EdgeStatistics apart = EdgeStatistics.of(u, v, value, count, value, value);
+    return graph.edges().merge(apart);
   }
 }

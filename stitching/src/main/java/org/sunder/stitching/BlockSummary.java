@@ -22,9 +22,14 @@ import org.sunder.blockwise.grid.BlockGrid;
  *     side (sides on the volume border never count)
  * @param innerEdges statistics of the edges with both ends in this block's core between two
  *     different boundary segments, keyed by provisional id
+ * @param separatedU with {@code separatedV}: the pairs of boundary segments (provisional ids,
+ *     {@code u < v}, ascending) joined by a repulsive edge in the block's extended box, which
+ *     the block's partition therefore kept apart; the Mutex Watershed's solve keeps them apart
+ * @param separatedV see {@code separatedU}
  */
 public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalIds,
-    int[] boundarySides, EdgeStatistics innerEdges) implements Serializable {
+    int[] boundarySides, EdgeStatistics innerEdges, long[] separatedU, long[] separatedV)
+    implements Serializable {
 
   /** The number of segments (local ids) of the block. */
   public int segmentCount() {
@@ -49,7 +54,8 @@ public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalId
     return other instanceof BlockSummary s && block == s.block
         && Arrays.equals(segmentSizes, s.segmentSizes)
         && Arrays.equals(boundaryLocalIds, s.boundaryLocalIds)
-        && Arrays.equals(boundarySides, s.boundarySides) && innerEdges.equals(s.innerEdges);
+        && Arrays.equals(boundarySides, s.boundarySides) && innerEdges.equals(s.innerEdges)
+        && Arrays.equals(separatedU, s.separatedU) && Arrays.equals(separatedV, s.separatedV);
   }
 
   @Override

@@ -21,7 +21,14 @@ import org.sunder.blockwise.partition.Segmentation;
  * halo are left to the block that owns the other end or to the face that owns them (see
  * {@link SeamEdges}). So every voxel edge of the volume is counted exactly once, and the reduced
  * graph's statistics are those of the whole volume's region graph of the provisional labels,
- * restricted to boundary segments. O(extended voxels * offsets).
+ * restricted to boundary segments.
+ *
+ * <p>Separated pairs: pairs of boundary segments joined by at least one repulsive edge
+ * (weight {@code < 0}) anywhere in the extended box. For the Mutex Watershed these are exactly
+ * the pairs the block kept apart by a mutual exclusion (every repulsive edge between two final
+ * clusters adds one); touching segments without such an edge were merely not connected inside
+ * the box, and the solve may still join them through another block. O(extended voxels *
+ * offsets).
  */
 final class CoreSegments {
   private CoreSegments() {}
@@ -68,15 +75,16 @@ final class CoreSegments {
         boundarySides[next++] = sides[k];
       }
     }
-    EdgeStatistics inner = innerEdges(layout, block.index(), labels.length, coreIndex, coreLocal,
-        sides, extendedGraph);
+    Inner inner = innerEdges(layout, block.index(), labels, localOf, coreIndex, sides,
+        extendedGraph);
     long[] provisional = new long[coreLocal.length];
     for (int i = 0; i < coreLocal.length; i++) {
       int local = coreLocal[i];
       provisional[i] = local == 0 ? 0 : layout.provisional(block.index(), local);
     }
     return new Result(provisional,
-        new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, inner));
+        new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, inner.edges(),
+            inner.separatedU(), inner.separatedV()));
   }
 
   /**
@@ -126,21 +134,43 @@ final class CoreSegments {
     return sides;
   }
 
-  private static EdgeStatistics innerEdges(IdLayout layout, int block, int extendedVoxels,
-      int[] coreIndex, int[] coreLocal, int[] sides, GridGraph extendedGraph) {
-    int[] boundaryLabels = new int[extendedVoxels];
+  /** Core-only statistics and separated pairs (extended box) of the boundary segments. */
+  private record Inner(EdgeStatistics edges, long[] separatedU, long[] separatedV) {}
+
+  private static Inner innerEdges(IdLayout layout, int block, int[] labels, int[] localOf,
+      int[] coreIndex, int[] sides, GridGraph extendedGraph) {
+    int[] boundaryOf = new int[localOf.length];
     boolean any = false;
-    for (int i = 0; i < coreIndex.length; i++) {
-      int local = coreLocal[i];
+    for (int label = 1; label < localOf.length; label++) {
+      int local = localOf[label];
       if (local != 0 && sides[local] != 0) {
-        boundaryLabels[coreIndex[i]] = local;
+        boundaryOf[label] = local;
         any = true;
       }
     }
     if (!any) {
-      return EdgeStatistics.empty();
+      return new Inner(EdgeStatistics.empty(), new long[0], new long[0]);
     }
-    EdgeStatistics local = RegionGraph.of(boundaryLabels, extendedGraph).statistics();
+    boolean[] inCore = new boolean[labels.length];
+    for (int i : coreIndex) {
+      inCore[i] = true;
+    }
+    EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
+    EdgeStatistics.Accumulator repulsive = new EdgeStatistics.Accumulator(256);
+    extendedGraph.forEachEdge((s, t, k, w) -> {
+      int a = boundaryOf[labels[s]];
+      int b = boundaryOf[labels[t]];
+      if (a == 0 || b == 0 || a == b) {
+        return;
+      }
+      if (inCore[s] && inCore[t]) {
+        core.add(a, b, w);
+      }
+      if (w < 0) {
+        repulsive.add(a, b, w);
+      }
+    });
+    EdgeStatistics local = core.build();
     int m = local.size();
     long[] u = new long[m];
     long[] v = new long[m];
@@ -148,7 +178,15 @@ final class CoreSegments {
       u[e] = layout.provisional(block, local.u(e));
       v[e] = layout.provisional(block, local.v(e));
     }
-    return EdgeStatistics.of(u, v, local.copySum(), local.copyCount(), local.copyMin(),
-        local.copyMax());
+    EdgeStatistics edges = EdgeStatistics.of(u, v, local.copySum(), local.copyCount(),
+        local.copyMin(), local.copyMax());
+    EdgeStatistics apart = repulsive.build();
+    long[] su = new long[apart.size()];
+    long[] sv = new long[apart.size()];
+    for (int e = 0; e < apart.size(); e++) {
+      su[e] = layout.provisional(block, apart.u(e));
+      sv[e] = layout.provisional(block, apart.v(e));
+    }
+    return new Inner(edges, su, sv);
   }
 }

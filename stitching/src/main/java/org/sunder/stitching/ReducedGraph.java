@@ -17,9 +17,11 @@ import org.sunder.blockwise.grid.IdLayout;
  *
  * @param nodeIds the provisional id of each node, ascending
  * @param edges statistics between node indices ({@code u < v}, canonical order)
- * @param sameBlock per edge row, whether both nodes belong to one block (an inner edge)
+ * @param separatedU with {@code separatedV}: node pairs a block kept apart (see
+ *     {@link BlockSummary#separatedU()}), ascending
+ * @param separatedV see {@code separatedU}
  */
-record ReducedGraph(long[] nodeIds, EdgeStatistics edges, boolean[] sameBlock) {
+record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[] separatedV) {
 
   int nodeCount() {
     return nodeIds.length;
@@ -54,22 +56,42 @@ record ReducedGraph(long[] nodeIds, EdgeStatistics edges, boolean[] sameBlock) {
     }
     requireNodes(merged, nodeIds, layout);
     EdgeStatistics edges = merged.relabel(nodeIds, indices);
-    boolean[] sameBlock = new boolean[edges.size()];
-    for (int e = 0; e < edges.size(); e++) {
-      sameBlock[e] = layout.blockOf(nodeIds[(int) edges.u(e)])
-          == layout.blockOf(nodeIds[(int) edges.v(e)]);
+    int separated = 0;
+    for (BlockSummary s : blocks) {
+      separated += s.separatedU().length;
     }
-    return new ReducedGraph(nodeIds, edges, sameBlock);
+    int[] su = new int[separated];
+    int[] sv = new int[separated];
+    int row = 0;
+    for (BlockSummary s : blocks) {
+      for (int i = 0; i < s.separatedU().length; i++) {
+        su[row] = node(nodeIds, s.separatedU()[i], layout);
+        sv[row++] = node(nodeIds, s.separatedV()[i], layout);
+      }
+    }
+    return new ReducedGraph(nodeIds, edges, su, sv);
+  }
+
+  private static int node(long[] nodeIds, long id, IdLayout layout) {
+    int at = Arrays.binarySearch(nodeIds, id);
+    if (at < 0) {
+      throw unknown(id, layout);
+    }
+    return at;
+  }
+
+  private static SunderException unknown(long id, IdLayout layout) {
+    return new SunderException(ErrorKind.INTERNAL, "an edge names provisional id "
+        + Long.toUnsignedString(id) + " (block " + layout.blockOf(id) + ", local id "
+        + layout.localOf(id) + "), which no block summary lists as a boundary segment;"
+        + " summaries and seams are from different runs");
   }
 
   private static void requireNodes(EdgeStatistics edges, long[] nodeIds, IdLayout layout) {
     for (int e = 0; e < edges.size(); e++) {
       for (long id : new long[] {edges.u(e), edges.v(e)}) {
         if (Arrays.binarySearch(nodeIds, id) < 0) {
-          throw new SunderException(ErrorKind.INTERNAL, "an edge names provisional id "
-              + Long.toUnsignedString(id) + " (block " + layout.blockOf(id) + ", local id "
-              + layout.localOf(id) + "), which no block summary lists as a boundary segment;"
-              + " summaries and seams are from different runs");
+          throw unknown(id, layout);
         }
       }
     }

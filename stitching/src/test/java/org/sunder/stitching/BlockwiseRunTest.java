@@ -1,0 +1,269 @@
+package org.sunder.stitching;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.List;
+import java.util.Random;
+import net.imglib2.img.array.ArrayImgs;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.Face;
+import org.sunder.blockwise.metrics.ContingencyTable;
+import org.sunder.blockwise.metrics.ScoreOptions;
+import org.sunder.blockwise.metrics.Scorer;
+import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.Dataset;
+import org.sunder.blockwise.store.DatasetSpec;
+import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.blockwise.synth.Degradation;
+import org.sunder.testing.PythonReference;
+
+/** Whole runs through the store with the in-process runner, on small synthetic tissue. */
+class BlockwiseRunTest {
+  private static final long[] SHAPE = {64, 56, 20};
+  private static final int[] CHUNK = {8, 8, 4};
+  private static final int[] BLOCK = {32, 32, 12};
+  private static final int[] HALO = {3, 3, 2};
+  private static final Degradation MILD = new Degradation(7, 0.7, 0.08, 0.01, 0.0005, 0);
+  private static final PartitionConfig MWS = PartitionConfig.mutexWatershed(null, null);
+  private static final PartitionConfig MEAN =
+      PartitionConfig.agglomeration(Linkage.MEAN, false, null, null);
+
+  @TempDir
+  Path dir;
+
+  private StitchingSetup stage(TissueScene scene, String name, StorageFormat format, int[] block,
+      int[] halo, PartitionConfig config) {
+    Path root = dir.resolve(name);
+    SceneStore.write(scene, root, format, CHUNK);
+    return SceneStore.setup(scene, root, CHUNK, block, halo, config);
+  }
+
+  private static long[] whole(TissueScene scene, PartitionConfig config) {
+    int[] labels = SceneStore.wholeVolume(scene, config).labels();
+    long[] out = new long[labels.length];
+    for (int i = 0; i < labels.length; i++) {
+      out[i] = labels[i];
+    }
+    return out;
+  }
+
+  @Test
+  void oneBlockCoveringTheVolumeEqualsTheWholeVolumePartition() {
+    TissueScene scene = TissueScene.small(3, SHAPE, MILD);
+    for (PartitionConfig config : List.of(MWS, MEAN)) {
+      StitchingSetup setup = stage(scene, "one-" + config.method(), StorageFormat.N5,
+          new int[] {64, 56, 20}, HALO, config);
+      assertEquals(1, setup.grid().blockCount());
+      GlobalSolve.Result result = InProcessRunner.run(setup);
+      assertEquals(0, result.report().nodeCount());
+      assertArrayEquals(whole(scene, config), SceneStore.readLabels(setup), config.toString());
+    }
+  }
+
+  @Test
+  void aHaloCoveringTheVolumeReproducesTheWholeMutexWatershed() {
+    // Every block then partitions the whole volume, so provisional segments are the whole
+    // result cut at the cores, and the solve must join exactly those pieces.
+    TissueScene scene = TissueScene.small(5, SHAPE, MILD);
+    StitchingSetup setup = stage(scene, "wide", StorageFormat.ZARR, BLOCK,
+        new int[] {64, 56, 20}, MWS);
+    GlobalSolve.Result result = InProcessRunner.run(setup);
+    assertTrue(result.report().nodeCount() > 50, result.report().toString());
+    assertEqualUpToRenaming(whole(scene, MWS), SceneStore.readLabels(setup));
+  }
+
+  @Test
+  void blockwiseResultIsCloseToTheWholeVolumeResult() {
+    TissueScene scene = TissueScene.small(9, SHAPE, MILD);
+    for (PartitionConfig config : List.of(MWS, MEAN)) {
+      int[] halo = config.isMutexWatershed() ? new int[] {9, 9, 6} : HALO;
+      StitchingSetup setup = stage(scene, "close-" + config.method(), StorageFormat.ZARR,
+          BLOCK, halo, config);
+      InProcessRunner.run(setup);
+      long[] blockwise = SceneStore.readLabels(setup);
+      long[] reference = whole(scene, config);
+      SegmentationScores vsWhole = score(reference, blockwise, false);
+      assertTrue(vsWhole.voi() <= 0.05, config + ": VOI to whole " + vsWhole.voi());
+      SegmentationScores truthBlockwise = score(scene.groundTruth, blockwise, true);
+      SegmentationScores truthWhole = score(scene.groundTruth, reference, true);
+      assertEquals(truthWhole.voi(), truthBlockwise.voi(), 0.02 * truthWhole.voi(),
+          config.toString());
+    }
+  }
+
+  @Test
+  void shuffledTaskOrderGivesTheSameBytes() throws IOException {
+    TissueScene scene = TissueScene.small(4, SHAPE, MILD);
+    StitchingSetup ordered = stage(scene, "ordered", StorageFormat.ZARR, BLOCK, HALO, MWS);
+    GlobalSolve.Result first = InProcessRunner.run(ordered);
+    StitchingSetup shuffled = stage(scene, "shuffled", StorageFormat.ZARR, BLOCK, HALO, MWS);
+    GlobalSolve.Result second = runShuffled(shuffled, new Random(13));
+    assertEquals(first.finalIds(), second.finalIds());
+    assertSameChunks(ordered, shuffled);
+  }
+
+  @Test
+  void relabellingTwiceEqualsRelabellingOnce() throws IOException {
+    TissueScene scene = TissueScene.small(4, SHAPE, MILD);
+    StitchingSetup once = stage(scene, "once", StorageFormat.N5, BLOCK, HALO, MEAN);
+    GlobalSolve.Result result = InProcessRunner.run(once);
+    StitchingSetup twice = stage(scene, "twice", StorageFormat.N5, BLOCK, HALO, MEAN);
+    InProcessRunner.run(twice);
+    BlockGrid grid = twice.grid();
+    long changed = 0;
+    for (long c = 0; c < grid.chunkCount(); c++) {
+      changed += RelabelTask.run(twice, grid.chunkPosition(c), result.finalIds());
+    }
+    assertEquals(0, changed);
+    assertSameChunks(once, twice);
+    for (long label : SceneStore.readLabels(twice)) {
+      assertTrue(label > 0 && label <= result.finalIds().finalIdCount());
+    }
+  }
+
+  @Test
+  void undegradedAffinitiesSplitNoObjectAtAFace() {
+    TissueScene scene = TissueScene.small(6, SHAPE, Degradation.none());
+    for (PartitionConfig config : List.of(MWS, MEAN)) {
+      StitchingSetup setup = stage(scene, "exact-" + config.method(), StorageFormat.ZARR,
+          BLOCK, HALO, config);
+      assertEquals(8, setup.grid().blockCount());
+      InProcessRunner.run(setup);
+      long[] labels = SceneStore.readLabels(setup);
+      int checked = 0;
+      for (Face face : setup.grid().faces()) {
+        checked += assertNoSplitAcross(face, scene, labels);
+      }
+      assertTrue(checked > 1000, "voxel pairs across faces checked: " + checked);
+      assertEqualUpToRenaming(scene.groundTruth, labels);
+    }
+  }
+
+  @Test
+  void undegradedResultIsTheConnectedComponentsOfEachObjectPerScipy() {
+    PythonReference.requireModules("zarr", "numpy", "scipy");
+    TissueScene scene = TissueScene.small(8, SHAPE, Degradation.none());
+    StitchingSetup setup = stage(scene, "scipy", StorageFormat.ZARR, BLOCK, HALO, MWS);
+    InProcessRunner.run(setup);
+    Container container = setup.openOutput();
+    Dataset truth = container.createDataset("ground-truth",
+        DatasetSpec.of(SHAPE, CHUNK, DataType.UINT64));
+    truth.write(ArrayImgs.unsignedLongs(scene.groundTruth.clone(), SHAPE), new long[3]);
+    // Reference: scipy.ndimage.label (6-connectivity) of every ground-truth object, checked
+    // first on an array with a known answer (two components).
+    String script = String.join("\n",
+        "import sys, zarr, numpy as np",
+        "from scipy import ndimage",
+        "known = np.array([[1, 1, 0, 1]])",
+        "assert ndimage.label(known)[1] == 2",
+        "root = zarr.open(sys.argv[1], mode='r')",
+        "gt = root['ground-truth'][:]",
+        "seg = root['" + SceneStore.LABELS + "'][:]",
+        "ref = np.zeros(gt.shape, dtype=np.int64)",
+        "next_id = 0",
+        "for label in np.unique(gt):",
+        "    if label == 0: continue",
+        "    comp, n = ndimage.label(gt == label)",
+        "    ref[comp > 0] = comp[comp > 0] + next_id",
+        "    next_id += n",
+        "mask = gt > 0",
+        "pairs = set(zip(ref[mask].tolist(), seg[mask].tolist()))",
+        "print(len(pairs), len(set(ref[mask].tolist())), len(set(seg[mask].tolist())))");
+    String out = PythonReference.runChecked(script, container.root().toString()).strip();
+    String[] counts = out.split(" ");
+    assertEquals(counts[1], counts[0], "pairs vs reference components: " + out);
+    assertEquals(counts[2], counts[0], "pairs vs segments: " + out);
+  }
+
+  private static int assertNoSplitAcross(Face face, TissueScene scene, long[] labels) {
+    int[] s = scene.shape;
+    int axis = face.axis();
+    long[] min = face.lateralMin();
+    long[] max = face.lateralMax();
+    int stride = axis == 0 ? 1 : axis == 1 ? s[0] : s[0] * s[1];
+    int checked = 0;
+    for (long z = min[2]; z <= max[2]; z++) {
+      for (long y = min[1]; y <= max[1]; y++) {
+        for (long x = min[0]; x <= max[0]; x++) {
+          int upper = (int) (x + s[0] * (y + (long) s[1] * z));
+          int lower = upper - stride;
+          long gt = scene.groundTruth[upper];
+          if (gt != 0 && gt == scene.groundTruth[lower]) {
+            assertEquals(labels[lower], labels[upper], "object " + gt + " split at " + face);
+            checked++;
+          }
+        }
+      }
+    }
+    return checked;
+  }
+
+  private static GlobalSolve.Result runShuffled(StitchingSetup setup, Random random) {
+    setup.validateInputs();
+    setup.createLabels();
+    BlockGrid grid = setup.grid();
+    List<Integer> blocks = indices(grid.blockCount(), random);
+    List<BlockSummary> summaries = new ArrayList<>();
+    for (int b : blocks) {
+      summaries.add(PartitionTask.run(setup, b));
+    }
+    List<SeamEdges> seams = new ArrayList<>();
+    for (int f : indices(grid.faceCount(), random)) {
+      seams.add(SeamTask.run(setup, f));
+    }
+    Collections.shuffle(summaries, random);
+    Collections.shuffle(seams, random);
+    GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
+    for (int c : indices((int) grid.chunkCount(), random)) {
+      RelabelTask.run(setup, grid.chunkPosition(c), result.finalIds());
+    }
+    return result;
+  }
+
+  private static List<Integer> indices(int n, Random random) {
+    List<Integer> list = new ArrayList<>();
+    for (int i = 0; i < n; i++) {
+      list.add(i);
+    }
+    Collections.shuffle(list, random);
+    return list;
+  }
+
+  private static void assertSameChunks(StitchingSetup a, StitchingSetup b) throws IOException {
+    Dataset da = a.openLabels();
+    Dataset db = b.openLabels();
+    BlockGrid grid = a.grid();
+    for (long c = 0; c < grid.chunkCount(); c++) {
+      long[] position = grid.chunkPosition(c);
+      assertArrayEquals(Files.readAllBytes(da.chunkFile(position)),
+          Files.readAllBytes(db.chunkFile(position)), "chunk " + c);
+    }
+  }
+
+  static void assertEqualUpToRenaming(long[] expected, long[] actual) {
+    ContingencyTable table = new ContingencyTable();
+    table.add(expected, actual);
+    SegmentationScores scores = score(expected, actual, false);
+    assertEquals(0, scores.voiSplit(), 1e-12, "split VOI " + scores.worstSplits());
+    assertEquals(0, scores.voiMerge(), 1e-12, "merge VOI " + scores.worstMerges());
+  }
+
+  static SegmentationScores score(long[] reference, long[] labels, boolean ignoreZero) {
+    ContingencyTable table = new ContingencyTable();
+    table.add(reference, labels);
+    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(ignoreZero)).score(table);
+  }
+}
