@@ -46,11 +46,11 @@ public final class Container {
       throw new StoreException(ErrorKind.INVALID_INPUT, "container " + absolute
           + " does not exist or is not a directory; expected an N5 or Zarr container");
     }
-    if (ZARR.isRoot(absolute)) {
-      return new Container(absolute, ZARR);
-    }
-    if (N5.isRoot(absolute)) {
-      return new Container(absolute, N5);
+    for (ContainerLayout layout : new ContainerLayout[] {ZARR, N5}) {
+      if (layout.isRoot(absolute)) {
+        layout.checkRoot(absolute);
+        return new Container(absolute, layout);
+      }
     }
     throw new StoreException(ErrorKind.INVALID_INPUT, "container " + absolute
         + " holds neither .zgroup/.zarray (Zarr) nor attributes.json (N5)");
@@ -77,6 +77,9 @@ public final class Container {
     } catch (IOException e) {
       throw new StoreException(ErrorKind.STORAGE, "cannot create container directory "
           + absolute + ": " + e.getMessage(), e);
+    }
+    if (layout.isRoot(absolute)) {
+      layout.checkRoot(absolute);
     }
     layout.createRoot(absolute);
     return new Container(absolute, layout);

@@ -15,6 +15,9 @@ interface ContainerLayout {
   /** Whether {@code root} holds this format's root metadata. */
   boolean isRoot(Path root);
 
+  /** Checks the root metadata's format version; throws {@link StoreException} if unsupported. */
+  void checkRoot(Path root);
+
   /** Writes the root group metadata if it is absent. */
   void createRoot(Path root);
 

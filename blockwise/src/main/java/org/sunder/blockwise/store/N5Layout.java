@@ -35,6 +35,24 @@ final class N5Layout implements ContainerLayout {
   }
 
   @Override
+  public void checkRoot(Path root) {
+    Path file = root.resolve(ATTRIBUTES);
+    Map<String, Object> attributes = JsonFiles.readOrEmpty(file);
+    Object version = attributes.get(VERSION_KEY);
+    if (version == null) {
+      return;
+    }
+    String text = version instanceof String s ? s : "";
+    int dot = text.indexOf('.');
+    String major = dot < 0 ? text : text.substring(0, dot);
+    if (!major.matches("[0-9]+") || Integer.parseInt(major) > 4) {
+      throw new StoreException(ErrorKind.INVALID_INPUT, file + ": key '" + VERSION_KEY + "' is "
+          + JsonFields.describe(version) + "; expected an N5 version of major 4 or older, such"
+          + " as \"4.0.0\" or \"2.0.0\"");
+    }
+  }
+
+  @Override
   public void createRoot(Path root) {
     Map<String, Object> attributes = JsonFiles.readOrEmpty(root.resolve(ATTRIBUTES));
     if (!attributes.containsKey(VERSION_KEY)) {

@@ -36,6 +36,16 @@ final class ZarrLayout implements ContainerLayout {
   }
 
   @Override
+  public void checkRoot(Path root) {
+    Path file = root.resolve(isDataset(root) ? ZARRAY : ZGROUP);
+    JsonFields fields = new JsonFields(JsonFiles.readOrEmpty(file), file);
+    long format = fields.longValue("zarr_format");
+    if (format != 2) {
+      throw fields.invalid("zarr_format", String.valueOf(format), "2");
+    }
+  }
+
+  @Override
   public void createRoot(Path root) {
     if (!isRoot(root)) {
       createGroup(root);

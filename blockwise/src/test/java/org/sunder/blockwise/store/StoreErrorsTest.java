@@ -61,6 +61,18 @@ class StoreErrorsTest {
   }
 
   @Test
+  void unsupportedFormatVersionsAreNamed() throws IOException {
+    Path n5 = Files.createDirectories(tmp.resolve("n5"));
+    Files.writeString(n5.resolve("attributes.json"), "{\"n5\": \"5.1.0\"}");
+    assertStoreError(ErrorKind.INVALID_INPUT, () -> Container.open(n5), "attributes.json",
+        "'n5'", "\"5.1.0\"", "major 4");
+    Path zarr = Files.createDirectories(tmp.resolve("zarr"));
+    Files.writeString(zarr.resolve(".zgroup"), "{\"zarr_format\": 3}");
+    assertStoreError(ErrorKind.INVALID_INPUT, () -> Container.open(zarr), ".zgroup",
+        "'zarr_format'", "expected 2");
+  }
+
+  @Test
   void containerOfTheOtherFormatIsAConflict() {
     Container.create(tmp.resolve("c"), StorageFormat.N5);
     assertStoreError(ErrorKind.CONFLICT, () -> Container.create(tmp.resolve("c"),
