@@ -156,6 +156,7 @@ final class BloscCodec implements Codec {
         boolean shuffled = ((flags & FLAG_SHUFFLE) != 0 && typesize > 1)
             || (flags & FLAG_BITSHUFFLE) != 0;
         byte[] tmp = shuffled ? new byte[blocksize] : null;
+        byte[] scratch = (flags & FLAG_BITSHUFFLE) != 0 ? new byte[blocksize] : null;
         ByteBuffer starts = ByteBuffer.wrap(src, base + HEADER, 4 * nblocks)
             .order(ByteOrder.LITTLE_ENDIAN);
         for (int j = 0; j < nblocks; j++) {
@@ -172,7 +173,7 @@ final class BloscCodec implements Codec {
             if ((flags & FLAG_SHUFFLE) != 0) {
               Shuffle.byteUnshuffle(typesize, tmp, 0, out, at, bsize);
             } else {
-              Shuffle.bitUnshuffle(typesize, tmp, 0, out, at, bsize);
+              Shuffle.bitUnshuffle(typesize, tmp, 0, out, at, bsize, scratch);
             }
           } else {
             decodeBlock((int) start, bsize, last, out, at, j);
@@ -301,6 +302,7 @@ final class BloscCodec implements Codec {
     byte[] out = new byte[limit];
     int op = HEADER + 4 * nblocks < limit ? HEADER + 4 * nblocks : -1;
     byte[] tmp = shuffleFlag() != 0 ? new byte[blocksize] : null;
+    byte[] scratch = shuffle == CodecSpec.BIT_SHUFFLE ? new byte[blocksize] : null;
     BlockCompressor compressor = new BlockCompressor(cname, format, clevel);
     try {
       for (int j = 0; j < nblocks && op >= 0; j++) {
@@ -313,7 +315,7 @@ final class BloscCodec implements Codec {
           if (shuffle == CodecSpec.BYTE_SHUFFLE) {
             Shuffle.byteShuffle(typeSize, data, blockOff, tmp, 0, bsize);
           } else {
-            Shuffle.bitShuffle(typeSize, data, blockOff, tmp, 0, bsize);
+            Shuffle.bitShuffle(typeSize, data, blockOff, tmp, 0, bsize, scratch);
           }
           blockSource = tmp;
           blockOff = 0;

@@ -1,5 +1,9 @@
 package org.sunder.blockwise.store.codec;
 
+import java.lang.invoke.MethodHandles;
+import java.lang.invoke.VarHandle;
+import java.nio.ByteOrder;
+
 /**
  * Blosc's byte shuffle and bit shuffle of one block, and their inverses.
  *
@@ -9,19 +13,28 @@ package org.sunder.blockwise.store.codec;
  * <p>Bit shuffle (the bitshuffle algorithm as blosc 1 embeds it, {@code bshuf_trans_bit_elem}):
  * for {@code n} elements, a multiple of 8, bit {@code k} of byte {@code b} of element {@code e}
  * goes to bit {@code e % 8} of byte {@code (b * 8 + k) * n / 8 + e / 8}. Blosc 1 copies blocks
- * whose element count is not a multiple of 8 unchanged.
+ * whose element count is not a multiple of 8 unchanged. Computed as a byte shuffle plus an 8x8
+ * bit transpose of every 8 bytes of each byte plane; both passes read and write sequentially.
  */
 final class Shuffle {
+  private static final VarHandle LONGS =
+      MethodHandles.byteArrayViewVarHandle(long[].class, ByteOrder.LITTLE_ENDIAN);
+
   private Shuffle() {}
 
   static void byteShuffle(int typeSize, byte[] src, int srcOff, byte[] dst, int dstOff,
       int blockSize) {
     int n = blockSize / typeSize;
-    for (int j = 0; j < typeSize; j++) {
-      int to = dstOff + j * n;
-      int from = srcOff + j;
-      for (int i = 0; i < n; i++) {
-        dst[to + i] = src[from + i * typeSize];
+    switch (typeSize) {
+      case 2 -> shuffle2(src, srcOff, dst, dstOff, n);
+      case 4 -> shuffle4(src, srcOff, dst, dstOff, n);
+      default -> {
+        int from = srcOff;
+        for (int i = 0; i < n; i++) {
+          for (int j = 0; j < typeSize; j++) {
+            dst[dstOff + j * n + i] = src[from++];
+          }
+        }
       }
     }
     int whole = n * typeSize;
@@ -31,43 +44,95 @@ final class Shuffle {
   static void byteUnshuffle(int typeSize, byte[] src, int srcOff, byte[] dst, int dstOff,
       int blockSize) {
     int n = blockSize / typeSize;
-    for (int j = 0; j < typeSize; j++) {
-      int from = srcOff + j * n;
-      int to = dstOff + j;
-      for (int i = 0; i < n; i++) {
-        dst[to + i * typeSize] = src[from + i];
+    switch (typeSize) {
+      case 2 -> unshuffle2(src, srcOff, dst, dstOff, n);
+      case 4 -> unshuffle4(src, srcOff, dst, dstOff, n);
+      case 8 -> unshuffle8(src, srcOff, dst, dstOff, n);
+      default -> {
+        int to = dstOff;
+        for (int i = 0; i < n; i++) {
+          for (int j = 0; j < typeSize; j++) {
+            dst[to++] = src[srcOff + j * n + i];
+          }
+        }
       }
     }
     int whole = n * typeSize;
     System.arraycopy(src, srcOff + whole, dst, dstOff + whole, blockSize - whole);
   }
 
+  private static void shuffle2(byte[] src, int s, byte[] dst, int d, int n) {
+    int d1 = d + n;
+    for (int i = 0; i < n; i++) {
+      dst[d + i] = src[s++];
+      dst[d1 + i] = src[s++];
+    }
+  }
+
+  private static void shuffle4(byte[] src, int s, byte[] dst, int d, int n) {
+    int d1 = d + n;
+    int d2 = d1 + n;
+    int d3 = d2 + n;
+    for (int i = 0; i < n; i++) {
+      dst[d + i] = src[s++];
+      dst[d1 + i] = src[s++];
+      dst[d2 + i] = src[s++];
+      dst[d3 + i] = src[s++];
+    }
+  }
+
+  private static void unshuffle2(byte[] src, int s, byte[] dst, int d, int n) {
+    for (int i = 0; i < n; i++) {
+      dst[d++] = src[s + i];
+      dst[d++] = src[s + n + i];
+    }
+  }
+
+  private static void unshuffle4(byte[] src, int s, byte[] dst, int d, int n) {
+    int s1 = s + n;
+    int s2 = s1 + n;
+    int s3 = s2 + n;
+    for (int i = 0; i < n; i++) {
+      dst[d++] = src[s + i];
+      dst[d++] = src[s1 + i];
+      dst[d++] = src[s2 + i];
+      dst[d++] = src[s3 + i];
+    }
+  }
+
+  private static void unshuffle8(byte[] src, int s, byte[] dst, int d, int n) {
+    for (int i = 0; i < n; i++) {
+      for (int j = 0; j < 8; j++) {
+        dst[d++] = src[s + j * n + i];
+      }
+    }
+  }
+
+  /** Bit shuffle; {@code scratch} holds at least {@code blockSize} bytes. */
   static void bitShuffle(int typeSize, byte[] src, int srcOff, byte[] dst, int dstOff,
-      int blockSize) {
+      int blockSize, byte[] scratch) {
     int n = blockSize / typeSize;
     if (n % 8 != 0) {
       System.arraycopy(src, srcOff, dst, dstOff, blockSize);
       return;
     }
+    byteShuffle(typeSize, src, srcOff, scratch, 0, n * typeSize);
     int row = n / 8;
     for (int b = 0; b < typeSize; b++) {
+      int plane = b * n;
+      int to = dstOff + b * 8 * row;
       for (int group = 0; group < row; group++) {
-        long x = 0;
-        int from = srcOff + group * 8 * typeSize + b;
-        for (int j = 0; j < 8; j++) {
-          x |= (src[from + j * typeSize] & 0xffL) << (8 * j);
-        }
-        x = transpose8x8(x);
-        int to = dstOff + b * 8 * row + group;
+        long x = transpose8x8((long) LONGS.get(scratch, plane + 8 * group));
         for (int k = 0; k < 8; k++) {
-          dst[to + k * row] = (byte) (x >>> (8 * k));
+          dst[to + k * row + group] = (byte) (x >>> (8 * k));
         }
       }
     }
   }
 
+  /** Inverse of {@link #bitShuffle}; {@code scratch} holds at least {@code blockSize} bytes. */
   static void bitUnshuffle(int typeSize, byte[] src, int srcOff, byte[] dst, int dstOff,
-      int blockSize) {
+      int blockSize, byte[] scratch) {
     int n = blockSize / typeSize;
     if (n % 8 != 0) {
       System.arraycopy(src, srcOff, dst, dstOff, blockSize);
@@ -75,19 +140,17 @@ final class Shuffle {
     }
     int row = n / 8;
     for (int b = 0; b < typeSize; b++) {
+      int plane = b * n;
+      int from = srcOff + b * 8 * row;
       for (int group = 0; group < row; group++) {
         long x = 0;
-        int from = srcOff + b * 8 * row + group;
         for (int k = 0; k < 8; k++) {
-          x |= (src[from + k * row] & 0xffL) << (8 * k);
+          x |= (src[from + k * row + group] & 0xffL) << (8 * k);
         }
-        x = transpose8x8(x);
-        int to = dstOff + group * 8 * typeSize + b;
-        for (int j = 0; j < 8; j++) {
-          dst[to + j * typeSize] = (byte) (x >>> (8 * j));
-        }
+        LONGS.set(scratch, plane + 8 * group, transpose8x8(x));
       }
     }
+    byteUnshuffle(typeSize, scratch, 0, dst, dstOff, n * typeSize);
   }
 
   /**

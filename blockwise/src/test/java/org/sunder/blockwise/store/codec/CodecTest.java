@@ -220,7 +220,7 @@ class CodecTest {
         assertEquals(in[typeSize * 5 + typeSize - 1], shuffled[(typeSize - 1) * n + 5]);
         Shuffle.byteUnshuffle(typeSize, shuffled, 0, back, 0, size);
         assertArrayEquals(in, back);
-        Shuffle.bitShuffle(typeSize, in, 0, shuffled, 0, size);
+        Shuffle.bitShuffle(typeSize, in, 0, shuffled, 0, size, new byte[size]);
         if (n % 8 == 0) {
           int e = 13 % n;
           int b = typeSize - 1;
@@ -232,7 +232,7 @@ class CodecTest {
         } else {
           assertArrayEquals(in, shuffled, "blosc 1 leaves such blocks as they are");
         }
-        Shuffle.bitUnshuffle(typeSize, shuffled, 0, back, 0, size);
+        Shuffle.bitUnshuffle(typeSize, shuffled, 0, back, 0, size, new byte[size]);
         assertArrayEquals(in, back);
       }
     }
