@@ -15,9 +15,14 @@ import java.util.Objects;
  * index order, neighbours in axis order (−x, +x, −y, +y, −z, +z), so the result is a function of
  * the inputs alone. In-mask voxels that no seed reaches (cut off by the mask) are flooded from
  * new seeds placed at their first voxel in index order, numbered after the largest given label.
- * Masked voxels get 0. Time {@code O(n log n)}, memory {@code O(n)}.
+ * Masked voxels get 0. Time {@code O(n log n)} with a binary heap; {@code O(n + L)} with a
+ * bucket queue when the map has at most {@value #MAX_LEVELS} distinct values {@code L} (as 8-bit
+ * affinities give), in the same order. Memory {@code O(n)}.
  */
 public final class SeededWatershed {
+  /** Up to this many distinct boundary values, a bucket queue replaces the heap. */
+  static final int MAX_LEVELS = 4096;
+
   private SeededWatershed() {}
 
   /**
@@ -29,6 +34,12 @@ public final class SeededWatershed {
    */
   public static int[] flood(float[] boundary, int[] shape, int[] markers, byte[] mask,
       int sliceAxis) {
+    return flood(boundary, shape, markers, mask, sliceAxis, true);
+  }
+
+  /** As above; {@code buckets = false} forces the binary heap (for tests). */
+  static int[] flood(float[] boundary, int[] shape, int[] markers, byte[] mask, int sliceAxis,
+      boolean buckets) {
     Objects.requireNonNull(boundary, "boundary");
     Objects.requireNonNull(markers, "markers");
     int n = VoxelBox.size(shape);
@@ -36,13 +47,16 @@ public final class SeededWatershed {
       throw new IllegalArgumentException("arrays do not match the box " + Arrays.toString(shape));
     }
     int[] labels = new int[n];
-    VoxelQueue queue = new VoxelQueue(n / 4);
+    FloodQueue queue = buckets ? LevelQueue.forPriorities(boundary, MAX_LEVELS) : null;
+    if (queue == null) {
+      queue = new VoxelQueue(boundary, n / 4);
+    }
     int largest = 0;
     for (int i = 0; i < n; i++) {
       if (markers[i] > 0 && (mask == null || mask[i] != 0)) {
         labels[i] = markers[i];
         largest = Math.max(largest, markers[i]);
-        queue.push(boundary[i], i);
+        queue.push(i);
       }
     }
     Flood flood = new Flood(boundary, shape, mask, sliceAxis, labels);
@@ -50,7 +64,7 @@ public final class SeededWatershed {
     for (int i = 0; i < n; i++) {
       if (labels[i] == 0 && (mask == null || mask[i] != 0)) {
         labels[i] = ++largest;
-        queue.push(boundary[i], i);
+        queue.push(i);
         flood.run(queue);
       }
     }
@@ -77,7 +91,7 @@ public final class SeededWatershed {
       this.coordinate = new int[shape.length];
     }
 
-    void run(VoxelQueue queue) {
+    void run(FloodQueue queue) {
       int dims = shape.length;
       while (!queue.isEmpty()) {
         int i = queue.pop();
@@ -101,10 +115,10 @@ public final class SeededWatershed {
       }
     }
 
-    private void visit(VoxelQueue queue, int j, int label) {
+    private void visit(FloodQueue queue, int j, int label) {
       if (labels[j] == 0 && (mask == null || mask[j] != 0)) {
         labels[j] = label;
-        queue.push(boundary[j], j);
+        queue.push(j);
       }
     }
   }

@@ -4,30 +4,35 @@ import java.util.Arrays;
 
 /**
  * Binary min-heap of voxels keyed by (priority, insertion order): equal priorities leave in the
- * order they came in. Primitive arrays only; grows by doubling.
+ * order they came in. Primitive arrays only; grows by doubling. {@code O(log size)} per
+ * operation.
  */
-final class VoxelQueue {
+final class VoxelQueue implements FloodQueue {
+  private final float[] priority;
   private long[] keys;
   private int[] voxels;
   private int size;
   private int age;
 
-  VoxelQueue(int capacity) {
+  /** A queue ordered by {@code priority[voxel]} (no NaN). */
+  VoxelQueue(float[] priority, int capacity) {
+    this.priority = priority;
     keys = new long[Math.max(16, capacity)];
     voxels = new int[keys.length];
   }
 
-  boolean isEmpty() {
+  @Override
+  public boolean isEmpty() {
     return size == 0;
   }
 
-  /** Adds {@code voxel} with a priority that is not NaN. */
-  void push(float priority, int voxel) {
+  @Override
+  public void push(int voxel) {
     if (size == keys.length) {
       keys = Arrays.copyOf(keys, size * 2);
       voxels = Arrays.copyOf(voxels, size * 2);
     }
-    long key = ((long) sortable(priority) << 32) | (age++ & 0xffffffffL);
+    long key = ((long) sortable(priority[voxel]) << 32) | (age++ & 0xffffffffL);
     int i = size++;
     while (i > 0) {
       int parent = (i - 1) >>> 1;
@@ -42,8 +47,8 @@ final class VoxelQueue {
     voxels[i] = voxel;
   }
 
-  /** Removes and returns the voxel with the least key. */
-  int pop() {
+  @Override
+  public int pop() {
     int top = voxels[0];
     size--;
     if (size > 0) {

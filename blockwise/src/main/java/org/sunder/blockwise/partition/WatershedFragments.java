@@ -11,7 +11,8 @@ import java.util.Objects;
  *   <li>{@link DistanceTransform} of the interior (exact Euclidean, voxel size honoured),
  *       optionally smoothed by a Gaussian;</li>
  *   <li>seeds = {@link RegionalMaxima} of that distance inside the interior;</li>
- *   <li>{@link SeededWatershed} flood of the boundary map from the seeds.</li>
+ *   <li>{@link SeededWatershed} flood of the boundary map, rounded to {@value #LEVELS} levels,
+ *       from the seeds.</li>
  * </ol>
  * With {@link FragmentOptions#perSlice()} every step stays inside the planes of the slowest
  * axis. Labels are 1..count (consecutive, in order of first voxel), 0 for masked voxels.
@@ -28,7 +29,8 @@ public final class WatershedFragments {
   public int[] label(float[] boundary, int[] shape, byte[] mask) {
     FragmentOptions fitted = options.forDimension(shape.length);
     int[] seeds = seeds(boundary, shape, mask);
-    int[] labels = SeededWatershed.flood(boundary, shape, seeds, mask, fitted.sliceAxis());
+    int[] labels = SeededWatershed.flood(rounded(boundary), shape, seeds, mask,
+        fitted.sliceAxis());
     return consecutive(labels);
   }
 
@@ -70,6 +72,23 @@ public final class WatershedFragments {
     }
     return RegionalMaxima.label(distance, interior, shape, sliceAxis);
   }
+
+  /**
+   * The boundary map rounded to multiples of {@code 1 / (LEVELS − 1)}: fragments need no finer
+   * order, and with few distinct values the flood runs on a linear-time bucket queue. Values of
+   * 8-bit affinities ({@code k / 255}) are far apart and keep their order.
+   */
+  static float[] rounded(float[] boundary) {
+    float[] out = new float[boundary.length];
+    float scale = LEVELS - 1;
+    for (int i = 0; i < boundary.length; i++) {
+      out[i] = Math.round(boundary[i] * scale) / scale;
+    }
+    return out;
+  }
+
+  /** Number of boundary levels the flood distinguishes. */
+  static final int LEVELS = 4096;
 
   /** Renumbers positive labels 1..k in order of first appearance; keeps 0. */
   static int[] consecutive(int[] labels) {

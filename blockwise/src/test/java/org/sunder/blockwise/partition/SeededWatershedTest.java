@@ -49,6 +49,23 @@ class SeededWatershedTest {
   }
 
   @Test
+  void bucketQueueAndHeapFloodAlike() {
+    Random random = new Random(13);
+    int[] shape = {21, 14, 9};
+    int n = VoxelBox.size(shape);
+    for (int trial = 0; trial < 12; trial++) {
+      float[] boundary = randomBoundary(random, n, trial % 2 == 0 ? 7 : 0);
+      int[] markers = randomMarkers(random, n, 0.02);
+      byte[] mask = trial % 3 == 0 ? randomMask(random, n) : null;
+      int sliceAxis = trial % 4 == 1 ? 2 : -1;
+      assertArrayEquals(SeededWatershed.flood(boundary, shape, markers, mask, sliceAxis, false),
+          SeededWatershed.flood(boundary, shape, markers, mask, sliceAxis, true),
+          "trial " + trial);
+    }
+    assertTrue(LevelQueue.forPriorities(randomBoundary(random, 5000, 0), 4096) == null);
+  }
+
+  @Test
   void tiesFollowInsertionOrder() {
     float[] boundary = new float[6];
     int[] markers = {1, 0, 0, 0, 0, 2};
@@ -85,7 +102,8 @@ class SeededWatershedTest {
       ReferenceFiles.write(dir, "b" + c, k.boundary);
       ReferenceFiles.write(dir, "m" + c, k.markers);
       ReferenceFiles.write(dir, "k" + c, k.mask == null ? ones(k.boundary.length) : k.mask);
-      ours.add(SeededWatershed.flood(k.boundary, k.shape, k.markers, k.mask, k.sliceAxis));
+      ours.add(SeededWatershed.flood(k.boundary, k.shape, k.markers, k.mask, k.sliceAxis,
+          c % 2 == 0));
       StringBuilder line = new StringBuilder(c + " " + (k.sliceAxis >= 0 ? 1 : 0));
       for (int d = k.shape.length - 1; d >= 0; d--) {
         line.append(' ').append(k.shape[d]);

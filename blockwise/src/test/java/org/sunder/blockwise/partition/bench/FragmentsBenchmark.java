@@ -26,7 +26,6 @@ import org.sunder.blockwise.partition.Multicut;
 import org.sunder.blockwise.partition.MulticutResult;
 import org.sunder.blockwise.partition.MutexWatershedPartitioner;
 import org.sunder.blockwise.partition.Partitioner;
-import org.sunder.blockwise.partition.SeededWatershed;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.WatershedFragments;
 
@@ -37,7 +36,8 @@ import org.sunder.blockwise.partition.WatershedFragments;
  * Prints voxels per second on one thread (from the thread's CPU time, so that other load on the
  * machine does not count; wall time printed beside it), bytes allocated per voxel, peak heap above the input
  * per voxel, and the seconds of each sub-step; the Mutex Watershed on the same block is the
- * baseline measured in the same run. Run with one core, e.g.
+ * baseline measured in the same run (float affinities); the fragment methods also run on the
+ * same affinities quantized to 8 bits. Run with one core, e.g.
  * {@code java -XX:ActiveProcessorCount=1 -XX:+UseSerialGC -Xmx3g -cp ... FragmentsBenchmark}.
  */
 public final class FragmentsBenchmark {
@@ -68,6 +68,11 @@ public final class FragmentsBenchmark {
         new Agglomeration(Linkage.MEAN, false), logit, none));
     methods.put("fragments + multicut",
         new FragmentsMulticutPartitioner(options, Linkage.SUM, logit, none));
+    byte[] quantized = new byte[values.length];
+    for (int i = 0; i < values.length; i++) {
+      quantized[i] = (byte) Math.round(values[i] * 255);
+    }
+    AffinityBlock bytes = AffinityBlock.ofBytes(quantized, shape, new long[3], OFFSETS, null);
     double baseline = 0;
     for (Map.Entry<String, Partitioner> method : methods.entrySet()) {
       Measurement m = measure(method.getValue(), block);
@@ -79,6 +84,14 @@ public final class FragmentsBenchmark {
           + " input; %d segments%n", method.getKey(), m.seconds, m.cpuSeconds,
           n / m.cpuSeconds, n / m.cpuSeconds / baseline, m.allocated / (double) n,
           m.peak / (double) n, m.segments);
+      if (baseline != n / m.cpuSeconds) {
+        Measurement q = measure(method.getValue(), bytes);
+        System.out.printf("%-28s wall %6.3f s, thread cpu %6.3f s: %,11.0f voxels/s per core"
+            + " (%.3f x baseline); %6.1f bytes/voxel allocated, %6.1f bytes/voxel peak heap"
+            + " above input; %d segments%n", "  same, 8-bit affinities", q.seconds, q.cpuSeconds,
+            n / q.cpuSeconds, n / q.cpuSeconds / baseline, q.allocated / (double) n,
+            q.peak / (double) n, q.segments);
+      }
     }
     subSteps(block, shape, options, logit, none);
   }
@@ -123,12 +136,13 @@ public final class FragmentsBenchmark {
       lines.add(step("boundary map", t));
       t = cpuNanos();
       WatershedFragments fragments = new WatershedFragments(options.forDimension(3));
-      int[] seeds = fragments.seeds(boundary, shape, null);
-      lines.add(step("seeds (distance transform, smoothing, maxima)", t));
+      fragments.seeds(boundary, shape, null);
+      lines.add(step("seeds alone (distance transform, smoothing, maxima)", t));
       t = cpuNanos();
-      int[] labels = SeededWatershed.flood(boundary, shape, seeds, null, -1);
+      int[] labels = fragments.label(boundary, shape, null);
       int count = Arrays.stream(labels).max().orElse(0);
-      lines.add(step("watershed flood (" + count + " fragments)", t));
+      lines.add(step("fragments: seeds + flood of the rounded map (" + count + " fragments)",
+          t));
       t = cpuNanos();
       EdgeStatistics stats = RegionGraph.of(labels, GridGraph.of(block, logit, none))
           .statistics();
