@@ -7,7 +7,7 @@ import org.sunder.blockwise.graph.EdgeStatistics;
 /**
  * Merges every segment smaller than a voxel count into the adjacent segment of strongest
  * attraction (largest {@link Linkage} value of the statistics between them, ties to the smaller
- * segment label), smallest segment first (ties by label), until no segment below the size is
+ * segment id), smallest segment first (ties by label), until no segment below the size is
  * left that has a neighbour it may join. A pair flagged cannot-link is never joined; flags and
  * statistics are combined as segments merge, so a constraint between parts holds for the whole.
  * A small segment with no neighbour, or only cannot-link ones, stays. Masked voxels (label 0)

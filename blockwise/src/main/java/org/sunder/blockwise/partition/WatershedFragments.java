@@ -16,7 +16,9 @@ import java.util.Objects;
  * </ol>
  * With {@link FragmentOptions#perSlice()} every step stays inside the planes of the slowest
  * axis. Labels are 1..count (consecutive, in order of first voxel), 0 for masked voxels.
- * Time {@code O(n log n)}; about 30 bytes per voxel of working memory.
+ * Time {@code O(n)} apart from the {@code O(n · 3^d)} maxima search (the rounded map lets the
+ * flood use a bucket queue); working memory about 30 bytes per voxel (boundary copy, distance
+ * map, seeds, labels, queue links).
  */
 public final class WatershedFragments {
   private final FragmentOptions options;
