@@ -1,6 +1,8 @@
 package org.sunder.blockwise.metrics.bench;
 
 import java.io.IOException;
+import java.lang.management.ManagementFactory;
+import java.lang.management.ThreadMXBean;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -32,13 +34,17 @@ import org.sunder.blockwise.synth.SyntheticVolume;
  * scorer, in memory and from an N5 container) and of the synthetic generator (ground truth,
  * exact affinities, degradation), each the best of a few repetitions on one thread, beside
  * baselines measured in the same run: one pass summing the label arrays (memory speed) and a
- * boxed {@code HashMap} contingency count (the naive way).
+ * boxed {@code HashMap} contingency count (the naive way). Each line gives wall time and the
+ * measuring thread's CPU time (meaningful on a shared machine); the 2-thread evaluator line
+ * gives wall time only.
  *
  * <p>Run: {@code java -cp <test classpath> org.sunder.blockwise.metrics.bench.MetricsBenchmark
  * [x y z]} (default 192 160 64 voxels).
  */
 public final class MetricsBenchmark {
   private static final int REPEATS = 3;
+  private static final ThreadMXBean THREADS = ManagementFactory.getThreadMXBean();
+  private static double lastCpu;
 
   private MetricsBenchmark() {}
 
@@ -67,19 +73,20 @@ public final class MetricsBenchmark {
       exact[0] = ExactAffinities.compute(gt, shape, offsets);
       return exact[0].length;
     });
-    report("generator: exact affinities (" + offsets.length + " channels)", n, affSeconds);
+    report("generator: exact affinities, " + offsets.length + " channels", n, affSeconds);
     Degradation moderate = Degradation.moderate(7);
     double degradeSeconds = best(() -> moderate.apply(gt, shape, spec.voxelSize(), offsets,
         exact[0]).length);
-    report("generator: degradation " + moderate, n, degradeSeconds);
+    report("generator: degradation (moderate, all five kinds)", n, degradeSeconds);
+    System.out.println("    " + moderate);
     exact[0] = null;
 
     long[] typical = splitsAndMerges(gt, shape);
     long[] noise = noiseLabels(n, 100_000);
     double memory = best(() -> sum(gt, typical));
-    report("baseline: one pass summing both label arrays", n, memory);
-    for (Map.Entry<String, long[]> c : Map.of("typical segmentation (runs of equal pairs)",
-        typical, "random segmentation (10^5 labels, no runs)", noise).entrySet().stream()
+    report("baseline: one pass over both label arrays", n, memory);
+    for (Map.Entry<String, long[]> c : Map.of("typical segmentation",
+        typical, "random segmentation (10^5 labels)", noise).entrySet().stream()
         .sorted(Map.Entry.comparingByKey(Comparator.reverseOrder())).toList()) {
       scoreBenchmark(c.getKey(), gt, c.getValue(), n, memory);
     }
@@ -94,12 +101,15 @@ public final class MetricsBenchmark {
       table[0].add(gt, seg);
       return table[0].pairCount();
     });
+    double addCpu = lastCpu;
     Scorer scorer = new Scorer(ScoreOptions.DEFAULT);
     SegmentationScores[] scores = new SegmentationScores[1];
     double score = best(() -> {
       scores[0] = scorer.score(table[0]);
       return scores[0].segmentCount();
     });
+    double cpu = addCpu + lastCpu;
+    lastCpu = cpu;
     report("scores, " + name, n, add + score);
     System.out.printf("    table %.3f s (%d pairs), scorer %.3f s; %.1fx the memory pass;"
         + " VOI split %.4f merge %.4f ARE %.4f ARI %.4f%n", add, table[0].pairCount(), score,
@@ -132,7 +142,10 @@ public final class MetricsBenchmark {
         Evaluator evaluator = new Evaluator(g, s, EvaluationRegion.whole(), null);
         double seconds = best(() -> evaluator.evaluate(ScoreOptions.DEFAULT, threads)
             .segmentCount());
-        report("evaluator, N5 zstd chunks 64x64x32, " + threads + " thread(s)", n, seconds);
+        if (threads > 1) {
+          lastCpu = Double.NaN;
+        }
+        report("evaluator, N5 zstd 64x64x32 chunks, " + threads + " thread(s)", n, seconds);
       }
     } finally {
       try (var files = Files.walk(dir)) {
@@ -177,13 +190,19 @@ public final class MetricsBenchmark {
     return table.size();
   }
 
+  /** Best wall time of a few runs, in seconds; the CPU time of that run goes to lastCpu. */
   private static double best(LongSupplier run) {
     double best = Double.MAX_VALUE;
     long sink = 0;
     for (int r = 0; r < REPEATS; r++) {
+      long c0 = THREADS.getCurrentThreadCpuTime();
       long t0 = System.nanoTime();
       sink += run.getAsLong();
-      best = Math.min(best, (System.nanoTime() - t0) / 1e9);
+      double wall = (System.nanoTime() - t0) / 1e9;
+      if (wall < best) {
+        best = wall;
+        lastCpu = (THREADS.getCurrentThreadCpuTime() - c0) / 1e9;
+      }
     }
     if (sink == Long.MIN_VALUE) {
       System.out.println(sink);
@@ -192,6 +211,11 @@ public final class MetricsBenchmark {
   }
 
   private static void report(String what, long voxels, double seconds) {
-    System.out.printf("%-72s %8.3f s  %,14.0f voxels/s%n", what, seconds, voxels / seconds);
+    if (Double.isNaN(lastCpu)) {
+      System.out.printf("%-58s wall %7.3f s %,13.0f voxels/s%n", what, seconds, voxels / seconds);
+      return;
+    }
+    System.out.printf("%-58s wall %7.3f s %,13.0f voxels/s | this thread's CPU %7.3f s"
+        + " %,13.0f voxels/s%n", what, seconds, voxels / seconds, lastCpu, voxels / lastCpu);
   }
 }
