@@ -16,7 +16,7 @@ import org.sunder.blockwise.graph.SignedGraph;
  * later grow into) from merging; stops when every remaining linkage is 0. With
  * {@link Linkage#ABS_MAX} and constraints this gives the Mutex Watershed's partition.
  *
- * <p>Ties: equal priorities are taken negative first, then by edge index; an edge formed by
+ * <p>Ties: equal priorities are taken positive first, then by edge index; an edge formed by
  * combining two keeps the smaller index. Edge indices follow the canonical order of
  * {@link EdgeStatistics} (or ascending grid edge id), so the result does not depend on the order
  * in which edges were supplied.

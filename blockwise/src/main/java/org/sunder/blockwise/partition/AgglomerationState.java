@@ -119,7 +119,7 @@ final class AgglomerationState {
     return switch (linkage) {
       case SUM, MAX, MIN -> a[e];
       case MEAN -> a[e] / b[e];
-      case ABS_MAX -> Math.abs(a[e]) > Math.abs(b[e]) ? a[e] : b[e];
+      case ABS_MAX -> Math.abs(a[e]) >= Math.abs(b[e]) ? a[e] : b[e];
     };
   }
 
@@ -185,7 +185,7 @@ final class AgglomerationState {
   private void setPriority(int e, double[] priority, byte[] tie) {
     double value = value(e);
     priority[e] = constraints ? Math.abs(value) : value;
-    tie[e] = (byte) (value < 0 ? 0 : 1);
+    tie[e] = (byte) (value > 0 ? 0 : 1);
   }
 
   private boolean isCandidate(int e, double[] priority) {

@@ -20,7 +20,7 @@ public enum Linkage {
   MAX("max"),
   /** Smallest weight (complete linkage of similarities). */
   MIN("min"),
-  /** Whichever of max and min has the larger magnitude; on a tie, min. */
+  /** Whichever of max and min has the larger magnitude; on a tie, max. */
   ABS_MAX("abs-max");
 
   private final String jsonName;
@@ -54,7 +54,7 @@ public enum Linkage {
       case MEAN -> sum / count;
       case MAX -> max;
       case MIN -> min;
-      case ABS_MAX -> Math.abs(max) > Math.abs(min) ? max : min;
+      case ABS_MAX -> Math.abs(max) >= Math.abs(min) ? max : min;
     };
   }
 }

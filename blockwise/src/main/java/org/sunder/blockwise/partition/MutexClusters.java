@@ -9,8 +9,10 @@ import java.util.Arrays;
  *
  * <p>Each cluster owns a list of constraint entries (a node inside each constrained partner
  * cluster) and a set holds every constrained pair of list owners, so a check is one hash lookup.
- * On a union the shorter list is walked and moved into the longer one, re-keying its pairs
- * (smaller into larger: every entry moves {@code O(log m)} times). Not thread-safe.
+ * On a union the shorter list is walked and moved into the longer one, adding its pairs under
+ * the longer list's owner (smaller into larger: every entry moves {@code O(log m)} times). The
+ * pairs of the absorbed owner stay in the set: that owner is never asked about again, and
+ * leaving them costs less than deleting them. Not thread-safe.
  */
 final class MutexClusters {
   private final int[] parent;
@@ -94,7 +96,6 @@ final class MutexClusters {
     for (int e = head[small]; e >= 0; ) {
       int following = entryNext[e];
       int partner = owner[find(entryNode[e])];
-      pairs.remove(PairSet.pair(small, partner));
       if (pairs.add(PairSet.pair(large, partner))) {
         entryNext[e] = head[large];
         head[large] = e;

@@ -12,17 +12,19 @@ import org.sunder.blockwise.graph.WeightRule;
  * edge joins its two clusters unless a mutual-exclusion constraint separates them, a repulsive
  * edge adds such a constraint unless they are already one. Edges of weight 0 are skipped.
  *
- * <p>Order, ties included: descending {@code |weight|}, then repulsive before attractive, then
+ * <p>Order, ties included: descending {@code |weight|}, then attractive before repulsive, then
  * ascending edge id ({@code voxel + k * voxelCount} on the grid, the edge index on a
  * {@link SignedGraph}); so the grid and its {@link GridGraph#toSignedGraph()} copy give the same
  * partition, and 8-bit affinities give the same partition as their float values {@code b / 255}.
  *
- * <p>Sorting: 8-bit affinities by counting sort over the at most {@code 256 * offsetCount}
- * distinct weights ({@code O(E)}, one {@code int} per edge); float weights by an in-place radix
- * sort of one packed {@code long} per edge ({@code O(E)}); sparse graphs by a stable radix sort.
- * Then {@code O(E α(N))} union-find work plus the constraint bookkeeping of
- * {@link MutexClusters}. Memory on the grid: 8 (float) or 4 (8-bit) bytes per edge slot plus
- * 20 bytes per voxel plus the constraints. Thread-safe (no state).
+ * <p>Sorting without boxing: 8-bit affinities by a counting sort over the at most
+ * {@code 256 * offsetCount} distinct weights ({@code O(E)}, one {@code int} per edge); float
+ * weights by a 32-bit key per edge slot, a stable counting sort on the key's top 16 bits and an
+ * exact sort inside each bucket whose keys differ (linear in practice, {@code O(E log E)} at
+ * worst); sparse graphs by a stable LSD radix sort of 64-bit keys. Then {@code O(E α(N))}
+ * union-find work plus the constraint bookkeeping of {@link MutexClusters}. Memory on the grid:
+ * 4 bytes per edge slot plus 4 per present edge (float) or 4 per present edge (8-bit), plus 20
+ * bytes per voxel plus the constraints. Thread-safe (no state).
  */
 public final class MutexWatershed implements Partitioner {
   private final WeightRule rule;
@@ -65,7 +67,7 @@ public final class MutexWatershed implements Partitioner {
       double w = graph.weight(e);
       if (w != 0) {
         long magnitude = Long.MAX_VALUE - Double.doubleToLongBits(Math.abs(w));
-        keys[i] = (magnitude << 1) | (w > 0 ? 1 : 0);
+        keys[i] = (magnitude << 1) | (w > 0 ? 0 : 1);
         ids[i++] = e;
       }
     }
@@ -73,7 +75,7 @@ public final class MutexWatershed implements Partitioner {
     MutexClusters clusters = new MutexClusters(graph.nodeCount());
     for (int j = 0; j < kept; j++) {
       int e = ids[j];
-      if ((keys[j] & 1) != 0) {
+      if ((keys[j] & 1) == 0) {
         clusters.attract(graph.edgeU(e), graph.edgeV(e));
       } else {
         clusters.repel(graph.edgeU(e), graph.edgeV(e));
@@ -87,31 +89,122 @@ public final class MutexWatershed implements Partitioner {
     return Math.max(1, 32 - Integer.numberOfLeadingZeros(nodeCount - 1));
   }
 
+  /** Absent slot in the key array of {@link #runFloat}. */
+  private static final int NO_EDGE = -1;
+
+  /**
+   * Float weights: a 32-bit key per edge slot (inverted magnitude, then attractive before
+   * repulsive), a stable counting sort of the present slots by the key's top 16 bits, and an
+   * exact sort of each bucket whose keys differ. Ties keep ascending slot (= edge id) order.
+   */
   private static void runFloat(GridGraph graph, MutexClusters clusters) {
-    int bits = voxelBits(graph.nodeCount());
-    long[] packed = new long[graph.edgeSlotCount()];
-    int[] count = new int[1];
+    int n = graph.nodeCount();
+    int[] key = new int[graph.edgeSlotCount()];
+    java.util.Arrays.fill(key, NO_EDGE);
     graph.forEachEdge((source, target, k, w) -> {
       if (w != 0) {
-        long magnitude = 0x7FFFFFFFL - Float.floatToRawIntBits(Math.abs(w));
-        long id = ((long) k << bits) | source;
-        packed[count[0]++] = (magnitude << 33) | (w > 0 ? 1L << 32 : 0) | id;
+        key[source + k * n] = floatKey(w);
       }
     });
-    int m = count[0];
-    RadixSort.sortUnsigned(packed, 0, m);
-    int voxelMask = (1 << bits) - 1;
-    int[] delta = deltas(graph);
-    for (int i = 0; i < m; i++) {
-      long x = packed[i];
-      int id = (int) x;
-      int source = id & voxelMask;
-      int target = source + delta[id >>> bits];
-      if ((x & (1L << 32)) != 0) {
-        clusters.attract(source, target);
-      } else {
-        clusters.repel(source, target);
+    long min = minimumKey(key);
+    float scale = (BUCKETS - 1) / magnitudeOf((int) min);
+    int buckets = BUCKETS;
+    int[] start = new int[buckets + 1];
+    for (int x : key) {
+      if (x != NO_EDGE) {
+        start[bucketOf(x, scale) + 1]++;
       }
+    }
+    for (int b = 0; b < buckets; b++) {
+      start[b + 1] += start[b];
+    }
+    int[] sorted = new int[start[buckets]];
+    int[] next = java.util.Arrays.copyOf(start, buckets);
+    for (int slot = 0; slot < key.length; slot++) {
+      int x = key[slot];
+      if (x != NO_EDGE) {
+        sorted[next[bucketOf(x, scale)]++] = slot;
+      }
+    }
+    next = null;
+    int[] delta = deltas(graph);
+    long[] scratch = new long[64];
+    for (int b = 0; b < buckets; b++) {
+      int from = start[b];
+      int to = start[b + 1];
+      if (to - from > 1 && !sameKeys(key, sorted, from, to)) {
+        if (scratch.length < to - from) {
+          scratch = new long[Math.max(to - from, scratch.length * 2)];
+        }
+        sortBucket(key, sorted, from, to, scratch, min);
+      }
+      for (int i = from; i < to; i++) {
+        int slot = sorted[i];
+        int k = slot / n;
+        int source = slot - k * n;
+        if ((key[slot] & 1) == 0) {
+          clusters.attract(source, source + delta[k]);
+        } else {
+          clusters.repel(source, source + delta[k]);
+        }
+      }
+    }
+  }
+
+  /** Buckets of the counting sort of float keys. */
+  private static final int BUCKETS = 1 << 20;
+
+  /** The smallest present key, as an unsigned value. */
+  private static long minimumKey(int[] key) {
+    long min = 0xFFFFFFFFL;
+    for (int x : key) {
+      if (x != NO_EDGE) {
+        min = Math.min(min, x & 0xFFFFFFFFL);
+      }
+    }
+    return min;
+  }
+
+  /** The weight magnitude a key was made from. */
+  private static float magnitudeOf(int key) {
+    return Float.intBitsToFloat(0x7FFFFFFF - (key >>> 1));
+  }
+
+  /**
+   * Counting-sort bucket of a key: linear in the magnitude, largest magnitude in bucket 0;
+   * monotone in the key, so the buckets in order hold the keys in order.
+   */
+  private static int bucketOf(int key, float scale) {
+    return BUCKETS - 1 - (int) Math.min(BUCKETS - 1, magnitudeOf(key) * scale);
+  }
+
+  /** Key of a non-zero weight: ascending key = descending magnitude, attractive first. */
+  private static int floatKey(float w) {
+    int magnitude = 0x7FFFFFFF - Float.floatToRawIntBits(Math.abs(w));
+    return (magnitude << 1) | (w > 0 ? 0 : 1);
+  }
+
+  private static boolean sameKeys(int[] key, int[] sorted, int from, int to) {
+    int first = key[sorted[from]];
+    for (int i = from + 1; i < to; i++) {
+      if (key[sorted[i]] != first) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /** Sorts one bucket by (key, slot), packing {@code key - min < 2^32} above the slot. */
+  private static void sortBucket(int[] key, int[] sorted, int from, int to, long[] scratch,
+      long min) {
+    int count = to - from;
+    for (int i = 0; i < count; i++) {
+      int slot = sorted[from + i];
+      scratch[i] = (((key[slot] & 0xFFFFFFFFL) - min) << 31) | slot;
+    }
+    java.util.Arrays.sort(scratch, 0, count);
+    for (int i = 0; i < count; i++) {
+      sorted[from + i] = (int) (scratch[i] & 0x7FFFFFFFL);
     }
   }
 
@@ -165,7 +258,7 @@ public final class MutexWatershed implements Partitioner {
 
   /**
    * Dense ranks of the non-zero entries of {@code table} in processing order (descending
-   * magnitude, repulsive first); zero weights get rank -1. Returns the number of ranks.
+   * magnitude, attractive first); zero weights get rank -1. Returns the number of ranks.
    */
   private static int rankWeights(float[] table, int[] rankOf) {
     long[] keys = new long[table.length];
@@ -176,7 +269,7 @@ public final class MutexWatershed implements Partitioner {
       float w = table[j];
       if (w != 0) {
         long magnitude = 0x7FFFFFFFL - Float.floatToRawIntBits(Math.abs(w));
-        keys[count] = (magnitude << 1) | (w > 0 ? 1 : 0);
+        keys[count] = (magnitude << 1) | (w > 0 ? 0 : 1);
         ids[count++] = j;
       }
     }

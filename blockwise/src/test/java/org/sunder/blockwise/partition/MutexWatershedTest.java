@@ -30,12 +30,17 @@ class MutexWatershedTest {
 
   @Test
   void tiesFollowTheDocumentedOrder() {
-    // equal magnitudes: the repulsive edge (0,2) is taken before the attractive path 0-1-2
+    // equal magnitudes: the attractive path 0-1-2 is taken before the repulsive edge (0,2)
     SignedGraph g = SignedGraph.of(3, new int[] {0, 1, 0}, new int[] {1, 2, 2},
         new double[] {0.5, 0.5, -0.5});
     Clustering c = MutexWatershed.partition(g);
     assertTrue(c.together(0, 1));
-    assertTrue(!c.together(1, 2));
+    assertTrue(c.together(1, 2));
+    // equal magnitudes between attractive edges: the smaller edge index first
+    SignedGraph h = SignedGraph.of(3, new int[] {0, 1, 0}, new int[] {2, 2, 1},
+        new double[] {0.5, -0.7, 0.5});
+    Clustering d = MutexWatershed.partition(h);
+    assertTrue(d.together(0, 2) && !d.together(0, 1));
     assertEquals(ReferenceMutexWatershed.partition(g), c);
   }
 

@@ -22,7 +22,7 @@ final class ReferenceMutexWatershed {
       if (c != 0) {
         return c;
       }
-      c = Boolean.compare(g.weight(x) > 0, g.weight(y) > 0);
+      c = Boolean.compare(g.weight(y) > 0, g.weight(x) > 0);
       return c != 0 ? c : Integer.compare(x, y);
     });
     int n = g.nodeCount();
