@@ -16,8 +16,10 @@ import org.sunder.blockwise.partition.PartitionConfig;
  * seams' content, not on their order.
  *
  * <p>Methods: {@code mutex-watershed} continues as absolute-maximum linkage with constraints,
- * keeping each block's separations (see {@link AgglomerativeSolver}); {@code agglomeration}
- * continues with the configured linkage, constraints and threshold. Cost: O(p log p) for p
+ * keeping each block's separations (see {@link AgglomerativeSolver}); {@code agglomeration} and
+ * {@code fragments-agglomeration} continue with the configured linkage, constraints and
+ * threshold; {@code fragments-multicut} solves the multicut of the reduced graph on the
+ * linkage values (summed weights by default; see {@link MulticutSolver}). Cost: O(p log p) for p
  * reduced-graph pairs plus the agglomeration's O(p log p); memory about 100 bytes per pair.
  */
 public final class GlobalSolve {
@@ -56,6 +58,9 @@ public final class GlobalSolve {
     if (config.isMutexWatershed()) {
       return new AgglomerativeSolver(Linkage.ABS_MAX, true, 0, true,
           "mutex-watershed (abs-max linkage with constraints)");
+    }
+    if (config.method() == PartitionConfig.Method.FRAGMENTS_MULTICUT) {
+      return new MulticutSolver(config.linkage());
     }
     return new AgglomerativeSolver(config.linkage(), config.constraints(), config.threshold(),
         false, "agglomeration " + config.linkage().jsonName()

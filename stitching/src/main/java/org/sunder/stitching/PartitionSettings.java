@@ -3,6 +3,7 @@ package org.sunder.stitching;
 import java.io.Serializable;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
+import org.sunder.blockwise.partition.FragmentOptions;
 import org.sunder.blockwise.partition.Linkage;
 import org.sunder.blockwise.partition.PartitionConfig;
 
@@ -15,18 +16,22 @@ import org.sunder.blockwise.partition.PartitionConfig;
  * @param threshold the agglomeration's merge threshold
  * @param weights how affinities become weights
  * @param subsampling which long-range edges are kept
+ * @param fragments the fragment options of the fragment methods, else null
+ * @param minSegmentSize the size filter's threshold (1 = off)
  */
 public record PartitionSettings(PartitionConfig.Method method, Linkage linkage,
-    boolean constraints, double threshold, WeightRule weights, Subsampling subsampling)
-    implements Serializable {
+    boolean constraints, double threshold, WeightRule weights, Subsampling subsampling,
+    FragmentOptions fragments, int minSegmentSize) implements Serializable {
 
   static PartitionSettings of(PartitionConfig config) {
     return new PartitionSettings(config.method(), config.linkage(), config.constraints(),
-        config.threshold(), config.weights(), config.subsampling());
+        config.threshold(), config.weights(), config.subsampling(), config.fragments(),
+        config.minSegmentSize());
   }
 
   /** The configuration again (validated by its constructor). */
   public PartitionConfig toConfig() {
-    return new PartitionConfig(method, linkage, constraints, threshold, weights, subsampling);
+    return new PartitionConfig(method, linkage, constraints, threshold, weights, subsampling,
+        fragments, minSegmentSize);
   }
 }

@@ -40,6 +40,8 @@ class BlockwiseRunTest {
   private static final PartitionConfig MWS = PartitionConfig.mutexWatershed(null, null);
   private static final PartitionConfig MEAN =
       PartitionConfig.agglomeration(Linkage.MEAN, false, null, null);
+  private static final PartitionConfig MULTICUT = new PartitionConfig(
+      PartitionConfig.Method.FRAGMENTS_MULTICUT, null, null, null, null, null, null, null);
 
   @TempDir
   Path dir;
@@ -63,7 +65,7 @@ class BlockwiseRunTest {
   @Test
   void oneBlockCoveringTheVolumeEqualsTheWholeVolumePartition() {
     TissueScene scene = TissueScene.small(3, SHAPE, MILD);
-    for (PartitionConfig config : List.of(MWS, MEAN)) {
+    for (PartitionConfig config : List.of(MWS, MEAN, MULTICUT)) {
       StitchingSetup setup = stage(scene, "one-" + config.method(), StorageFormat.N5,
           new int[] {64, 56, 20}, HALO, config);
       assertEquals(1, setup.grid().blockCount());
