@@ -287,23 +287,37 @@ final class BloscCodec implements Codec {
     }
     int nbytes = data.length;
     int blocksize = blockSize(nbytes);
-    int format = formatCode();
-    int flags = (format << 5) | shuffleFlag();
-    boolean splitting = format != 4;
-    if (!splitting) {
-      flags |= FLAG_DONT_SPLIT;
+    int flags = (formatCode() << 5) | shuffleFlag() | (splits() ? 0 : FLAG_DONT_SPLIT);
+    byte[] out = new byte[nbytes + HEADER];
+    int end = nbytes == 0 ? -1 : encodeBlocks(data, blocksize, out);
+    if (end < 0) {
+      System.arraycopy(header(flags | FLAG_MEMCPYED, nbytes, blocksize, nbytes + HEADER), 0,
+          out, 0, HEADER);
+      System.arraycopy(data, 0, out, HEADER, nbytes);
+      return out;
     }
-    if (nbytes == 0) {
-      return header(flags | FLAG_MEMCPYED, 0, blocksize, HEADER);
-    }
+    System.arraycopy(header(flags, nbytes, blocksize, end), 0, out, 0, HEADER);
+    return Arrays.copyOf(out, end);
+  }
+
+  /** Like c-blosc 1: every internal compressor but zstd gets one stream per element byte. */
+  private boolean splits() {
+    return !cname.equals("zstd");
+  }
+
+  /**
+   * Writes the block offsets and blocks after the header; returns the frame's end, or -1 if
+   * the frame would not be smaller than the data stored raw.
+   */
+  private int encodeBlocks(byte[] data, int blocksize, byte[] out) {
+    int nbytes = data.length;
     int nblocks = (nbytes + blocksize - 1) / blocksize;
     int leftover = nbytes % blocksize;
-    int limit = nbytes + HEADER;
-    byte[] out = new byte[limit];
+    int limit = out.length;
     int op = HEADER + 4 * nblocks < limit ? HEADER + 4 * nblocks : -1;
     byte[] tmp = shuffleFlag() != 0 ? new byte[blocksize] : null;
     byte[] scratch = shuffle == CodecSpec.BIT_SHUFFLE ? new byte[blocksize] : null;
-    BlockCompressor compressor = new BlockCompressor(cname, format, clevel);
+    BlockCompressor compressor = new BlockCompressor(cname, formatCode(), clevel);
     try {
       for (int j = 0; j < nblocks && op >= 0; j++) {
         writeIntLe(out, HEADER + 4 * j, op);
@@ -312,15 +326,15 @@ final class BloscCodec implements Codec {
         byte[] blockSource = data;
         int blockOff = j * blocksize;
         if (tmp != null) {
-          if (shuffle == CodecSpec.BYTE_SHUFFLE) {
-            Shuffle.byteShuffle(typeSize, data, blockOff, tmp, 0, bsize);
-          } else {
+          if (shuffle == CodecSpec.BIT_SHUFFLE) {
             Shuffle.bitShuffle(typeSize, data, blockOff, tmp, 0, bsize, scratch);
+          } else {
+            Shuffle.byteShuffle(typeSize, data, blockOff, tmp, 0, bsize);
           }
           blockSource = tmp;
           blockOff = 0;
         }
-        boolean split = splitting && typeSize <= MAX_SPLITS
+        boolean split = splits() && typeSize <= MAX_SPLITS
             && bsize / typeSize >= MIN_BUFFERSIZE && !last;
         op = encodeBlock(compressor, blockSource, blockOff, bsize, split ? typeSize : 1, out, op,
             limit);
@@ -328,15 +342,7 @@ final class BloscCodec implements Codec {
     } finally {
       compressor.close();
     }
-    if (op < 0) {
-      byte[] raw = header(flags | FLAG_MEMCPYED, nbytes, blocksize, nbytes + HEADER);
-      raw = Arrays.copyOf(raw, nbytes + HEADER);
-      System.arraycopy(data, 0, raw, HEADER, nbytes);
-      return raw;
-    }
-    byte[] head = header(flags, nbytes, blocksize, op);
-    System.arraycopy(head, 0, out, 0, HEADER);
-    return Arrays.copyOf(out, op);
+    return op;
   }
 
   /** Writes one block's streams at {@code op}; returns the new end, or -1 if it overflows. */
