@@ -22,13 +22,14 @@ import org.sunder.blockwise.store.StorageFormat;
  * Write and read throughput of whole volumes through {@link Dataset} per codec, single-threaded,
  * on a 256x256x256 uint8 volume and a 3x128x256x256 float32 one (zyx + channel; memory order
  * [256, 256, 128, 3]) of smooth value noise, in a Zarr container. The baseline is reading the
- * same uncompressed bytes, one plain file per chunk, in the same run. Files are hot in the page
- * cache, so this measures codec and copy cost, not the disk. MB = 10^6 bytes of voxel data.
+ * same uncompressed bytes, one plain file per chunk, timed alternately with each codec in the
+ * same run (best of {@value #REPEATS}). Files are hot in the page cache, so this measures codec
+ * and copy cost, not the disk. MB = 10^6 bytes of voxel data.
  *
  * <p>Usage: {@code StorageBenchmark [work-dir]} (default: a temporary directory, deleted after).
  */
 public final class StorageBenchmark {
-  private static final int REPEATS = 3;
+  private static final int REPEATS = 4;
 
   private StorageBenchmark() {}
 
@@ -59,19 +60,19 @@ public final class StorageBenchmark {
       int[] chunks, List<CodecSpec> codecs) throws IOException {
     long[] shape = volume.dimensionsAsLongArray();
     double megabytes = volume.size() * type.bytes() / 1e6;
-    double plain = plainFileReadSeconds(dir.resolve("plain"), volume, type, chunks);
+    PlainFiles plain = PlainFiles.write(dir.resolve("plain"), volume.size() * type.bytes(),
+        chunkBytes(type, chunks));
     System.out.printf(Locale.ROOT, "%n%s (%.1f MB)%n", title, megabytes);
-    System.out.printf(Locale.ROOT, "baseline: plain files, one per chunk, read %.0f MB/s%n",
-        megabytes / plain);
-    System.out.printf(Locale.ROOT, "%-32s %10s %10s %10s %12s%n", "codec", "write MB/s",
-        "read MB/s", "stored %", "read/plain");
+    System.out.printf(Locale.ROOT, "%-32s %10s %10s %10s %11s %11s%n", "codec", "write MB/s",
+        "read MB/s", "stored %", "plain MB/s", "read/plain");
     for (CodecSpec codec : codecs) {
       Container container = Container.create(dir.resolve(codec.name()), StorageFormat.ZARR);
       double write = Double.MAX_VALUE;
       double read = Double.MAX_VALUE;
+      double baseline = Double.MAX_VALUE;
       for (int r = 0; r < REPEATS; r++) {
-        String path = "v" + r;
-        Dataset dataset = container.createDataset(path,
+        baseline = Math.min(baseline, plain.readSeconds());
+        Dataset dataset = container.createDataset("v" + r,
             DatasetSpec.of(shape, chunks, type).withCodec(codec));
         long t0 = System.nanoTime();
         dataset.write(volume, new long[shape.length]);
@@ -85,40 +86,41 @@ public final class StorageBenchmark {
         read = Math.min(read, (t2 - t1) / 1e9);
       }
       double stored = directoryBytes(dir.resolve(codec.name()).resolve("v0"));
-      System.out.printf(Locale.ROOT, "%-32s %10.0f %10.0f %10.1f %12.2f%n", codec,
-          megabytes / write, megabytes / read, 100 * stored / (megabytes * 1e6), plain / read);
+      System.out.printf(Locale.ROOT, "%-32s %10.0f %10.0f %10.1f %11.0f %11.2f%n", codec,
+          megabytes / write, megabytes / read, 100 * stored / (megabytes * 1e6),
+          megabytes / baseline, baseline / read);
     }
   }
 
-  /** Best-of time to read the uncompressed chunk bytes back from one plain file per chunk. */
-  private static double plainFileReadSeconds(Path dir, ArrayImg<?, ?> volume, DataType type,
-      int[] chunks) throws IOException {
-    Files.createDirectories(dir);
-    long bytes = volume.size() * type.bytes();
-    long chunkBytes = (long) type.bytes();
+  private static long chunkBytes(DataType type, int[] chunks) {
+    long bytes = type.bytes();
     for (int c : chunks) {
-      chunkBytes *= c;
+      bytes *= c;
     }
-    int files = (int) ((bytes + chunkBytes - 1) / chunkBytes);
-    byte[] content = new byte[(int) chunkBytes];
-    new Random(7).nextBytes(content);
-    for (int f = 0; f < files; f++) {
-      Files.write(dir.resolve("c" + f), content);
+    return bytes;
+  }
+
+  /** The uncompressed bytes of a volume as one plain file per chunk: the baseline. */
+  private record PlainFiles(Path dir, int files) {
+    static PlainFiles write(Path dir, long totalBytes, long chunkBytes) throws IOException {
+      Files.createDirectories(dir);
+      int files = (int) ((totalBytes + chunkBytes - 1) / chunkBytes);
+      byte[] content = new byte[(int) chunkBytes];
+      new Random(7).nextBytes(content);
+      for (int f = 0; f < files; f++) {
+        Files.write(dir.resolve("c" + f), content);
+      }
+      return new PlainFiles(dir, files);
     }
-    double best = Double.MAX_VALUE;
-    long checksum = 0;
-    for (int r = 0; r < REPEATS; r++) {
+
+    /** Seconds to read every file once. */
+    double readSeconds() throws IOException {
       long t0 = System.nanoTime();
       for (int f = 0; f < files; f++) {
-        byte[] read = Files.readAllBytes(dir.resolve("c" + f));
-        checksum += read[read.length - 1];
+        Files.readAllBytes(dir.resolve("c" + f));
       }
-      best = Math.min(best, (System.nanoTime() - t0) / 1e9);
+      return (System.nanoTime() - t0) / 1e9;
     }
-    if (checksum == Long.MIN_VALUE) {
-      System.out.println(checksum);
-    }
-    return best;
   }
 
   /** Trilinear value noise on a grid of spacing 16, quantized to 0..250. */
