@@ -25,7 +25,8 @@ import picocli.CommandLine.Command;
         "and check it, then run it:   sunder plan run.json   and   sunder run run.json",
         "",
         "Automated segmentations contain errors: proofread before drawing scientific conclusions."},
-    subcommands = {PlanCommand.class, EvaluateCommand.class, InspectCommand.class},
+    subcommands = {RunCommand.class, StageCommand.class, PlanCommand.class, DemoCommand.class,
+        EvaluateCommand.class, InspectCommand.class},
     footer = {"", "Exit codes: 0 success, 2 invalid configuration or option, 3 invalid input data,",
         "4 storage failure, 5 conflict with an existing output or work dir, 70 internal error."})
 public final class SunderCli implements Runnable {

@@ -13,4 +13,4 @@ package org.sunder.spark.evaluate;
  */
 public record EvaluationTarget(String segmentationContainer, String segmentation,
     String truthContainer, String truth, String maskContainer, String mask,
-    boolean ignoreBackground) {}
+    boolean ignoreBackground) implements java.io.Serializable {}

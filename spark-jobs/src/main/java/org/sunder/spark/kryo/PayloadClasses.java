@@ -17,5 +17,10 @@ public final class PayloadClasses {
       org.sunder.spark.run.RunSettings.class, org.sunder.spark.run.TaskHooks.class,
       org.sunder.blockwise.graph.EdgeStatistics.class,
       org.sunder.blockwise.grid.IdLayout.class,
-      org.sunder.blockwise.metrics.ContingencyTable.Pairs.class);
+      org.sunder.blockwise.metrics.ContingencyTable.Pairs.class,
+      org.sunder.stitching.BlockSummary.class,
+      org.sunder.stitching.SeamEdges.class,
+      org.sunder.stitching.FinalIdMap.class,
+      org.sunder.stitching.SolveReport.class,
+      org.sunder.stitching.GlobalSolve.Result.class);
 }

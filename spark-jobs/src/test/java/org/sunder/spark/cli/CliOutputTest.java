@@ -83,4 +83,19 @@ class CliOutputTest {
     assertTrue(out.contains("work dir   " + dir.resolve("v.n5.sunder-work/segmentation")), out);
     assertTrue(!Files.exists(dir.resolve("v.n5.sunder-work")), "plan writes nothing");
   }
+
+  @Test
+  void helpNamesEveryCommandAndStatesDefaults() {
+    CliRun top = CliRun.withoutSpark("--help");
+    assertEquals(0, top.exitCode());
+    for (String command : new String[] {"run", "stage", "plan", "demo", "evaluate", "inspect"}) {
+      assertTrue(Pattern.compile("^\\s+" + command + "\\s", Pattern.MULTILINE)
+          .matcher(top.out()).find(), command + " missing from\n" + top.out());
+    }
+    CliRun demo = CliRun.withoutSpark("demo", "--help");
+    assertTrue(demo.out().contains("default: sunder-demo"), demo.out());
+    assertTrue(demo.out().contains("default: 40,112,128"), demo.out());
+    CliRun run = CliRun.withoutSpark("run", "--help");
+    assertTrue(run.out().contains("default: local[*]"), run.out());
+  }
 }

@@ -7,9 +7,9 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.spark.SparkContextSource;
 
 /** Runs the command line in this JVM and keeps what it printed. */
-record CliRun(int exitCode, String out, String err) {
+public record CliRun(int exitCode, String out, String err) {
   /** With a Spark source that fails if a command asks for Spark. */
-  static CliRun withoutSpark(String... args) {
+  public static CliRun withoutSpark(String... args) {
     return with(new SparkContextSource() {
       @Override
       public JavaSparkContext open(String defaultMaster) {
@@ -21,7 +21,7 @@ record CliRun(int exitCode, String out, String err) {
     }, args);
   }
 
-  static CliRun with(SparkContextSource spark, String... args) {
+  public static CliRun with(SparkContextSource spark, String... args) {
     ByteArrayOutputStream out = new ByteArrayOutputStream();
     ByteArrayOutputStream err = new ByteArrayOutputStream();
     int code = new SunderCli(spark, new PrintStream(out, true, StandardCharsets.UTF_8),

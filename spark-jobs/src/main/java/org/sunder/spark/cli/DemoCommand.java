@@ -1,0 +1,97 @@
+package org.sunder.spark.cli;
+
+import java.nio.file.Path;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.spark.config.ConfigException;
+import org.sunder.spark.demo.DemoScenario;
+import org.sunder.spark.run.PreparedRun;
+import org.sunder.spark.run.RunLoader;
+import org.sunder.spark.run.RunReport;
+import org.sunder.spark.stage.Pipeline;
+import org.sunder.spark.stage.Stage;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.ParentCommand;
+
+/** {@code sunder demo}. */
+@Command(name = "demo", mixinStandardHelpOptions = true,
+    description = {"See Sunder work end to end on this machine: generate a synthetic tissue"
+        + " volume with known ground truth and imperfect affinities, segment it with Spark in"
+        + " local mode, score the result against the ground truth, and print where everything"
+        + " is. Rerunning reuses the volume and the finished run."})
+final class DemoCommand implements Callable<Integer> {
+  @ParentCommand
+  SunderCli cli;
+
+  @Option(names = "--dir", paramLabel = "DIR", defaultValue = "sunder-demo",
+      description = "Where the volume, configuration and results go (default: ${DEFAULT-VALUE}).")
+  Path dir;
+
+  @Option(names = "--format", paramLabel = "FORMAT", defaultValue = "zarr",
+      description = "Container format, zarr or n5 (default: ${DEFAULT-VALUE}).")
+  String format;
+
+  @Option(names = "--shape", paramLabel = "Z,Y,X", defaultValue = "40,112,128",
+      description = "Volume shape in voxels, slowest axis first (default: ${DEFAULT-VALUE}).")
+  String shapeText;
+
+  @Option(names = "--seed", defaultValue = "13",
+      description = "Seed of the synthetic volume (default: ${DEFAULT-VALUE}).")
+  long seed;
+
+  @Option(names = "--fresh", description = "Redo the run from scratch (default: resume).")
+  boolean fresh;
+
+  @Mixin
+  SparkOptions spark;
+
+  private long[] shape() {
+    String[] parts = shapeText.split(",");
+    long[] shape = new long[parts.length];
+    try {
+      for (int i = 0; i < parts.length; i++) {
+        shape[i] = Long.parseLong(parts[i].trim());
+      }
+    } catch (NumberFormatException e) {
+      shape = new long[0];
+    }
+    if (shape.length != 3 || shape[0] < 8 || shape[1] < 16 || shape[2] < 16) {
+      throw new ConfigException("--shape: expected Z,Y,X with Z >= 8 and Y, X >= 16, got '"
+          + shapeText + "'");
+    }
+    return shape;
+  }
+
+  @Override
+  public Integer call() {
+    StorageFormat storage = switch (format.toLowerCase(java.util.Locale.ROOT)) {
+      case "zarr" -> StorageFormat.ZARR;
+      case "n5" -> StorageFormat.N5;
+      default -> throw new ConfigException("--format: expected zarr or n5, got '" + format + "'");
+    };
+    long[] shape = shape();
+    cli.out().println("demo: preparing a synthetic volume in " + dir.toAbsolutePath().normalize());
+    Path config = DemoScenario.prepare(dir, storage, shape, seed);
+    PreparedRun run = RunLoader.prepare(config, null, fresh);
+    JavaSparkContext sc = cli.spark().open(spark.master);
+    RunReport report;
+    try {
+      report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
+          .run(run, List.of(Stage.values()));
+    } finally {
+      cli.spark().release(sc);
+    }
+    report.print(cli.out());
+    cli.out().println();
+    cli.out().println("The demo volume is synthetic; automated segmentations of real data contain"
+        + " errors and need proofreading.");
+    cli.out().println("configuration: " + config);
+    cli.out().println("look inside:   sunder inspect " + run.settings().outputContainer());
+    cli.out().println("rerun:         sunder run " + config + "   (finished work is skipped)");
+    return 0;
+  }
+}

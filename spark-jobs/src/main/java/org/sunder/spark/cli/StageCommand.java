@@ -1,0 +1,50 @@
+package org.sunder.spark.cli;
+
+import java.nio.file.Path;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.sunder.spark.run.PreparedRun;
+import org.sunder.spark.run.RunLoader;
+import org.sunder.spark.run.RunReport;
+import org.sunder.spark.stage.Pipeline;
+import org.sunder.spark.stage.Stage;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.ParentCommand;
+
+/** {@code sunder stage NAME CONFIG}: one stage of a run. */
+@Command(name = "stage", mixinStandardHelpOptions = true,
+    description = {"Run one stage of a configured run; the stages before it must have finished.",
+        "Stages in order: partition, seams, solve, relabel, evaluate."})
+final class StageCommand implements Callable<Integer> {
+  @ParentCommand
+  SunderCli cli;
+
+  @Parameters(index = "0", paramLabel = "STAGE",
+      description = "partition, seams, solve, relabel or evaluate.")
+  String stage;
+
+  @Parameters(index = "1", paramLabel = "CONFIG", description = "Run configuration (JSON).")
+  Path config;
+
+  @Mixin
+  SparkOptions spark;
+
+  @Override
+  public Integer call() {
+    Stage chosen = Stage.parse(stage);
+    PreparedRun run = RunLoader.prepare(config, null, false);
+    Pipeline.requireEarlierFinished(run, chosen);
+    JavaSparkContext sc = cli.spark().open(spark.master);
+    try {
+      RunReport report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
+          .run(run, List.of(chosen));
+      report.print(cli.out());
+      return 0;
+    } finally {
+      cli.spark().release(sc);
+    }
+  }
+}

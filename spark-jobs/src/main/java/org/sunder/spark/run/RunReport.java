@@ -1,0 +1,42 @@
+package org.sunder.spark.run;
+
+import java.io.PrintStream;
+import java.util.List;
+import java.util.Locale;
+import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.spark.evaluate.ScoreReport;
+import org.sunder.spark.stage.StageReport;
+import org.sunder.stitching.SolveReport;
+
+/**
+ * What a run did: per stage the tasks skipped and run and the time taken, the solve's figures,
+ * the scores (when evaluated) and where the output is.
+ *
+ * @param solve the solve's figures, or {@code null} if the solve has not run yet
+ * @param scores the scores, or {@code null} without evaluation
+ * @param seconds wall time of this run's stages
+ */
+public record RunReport(RunSettings settings, List<StageReport> stages, SolveReport solve,
+    SegmentationScores scores, double seconds) {
+  public RunReport {
+    stages = List.copyOf(stages);
+  }
+
+  public void print(PrintStream out) {
+    for (StageReport stage : stages) {
+      out.println(stage.line());
+    }
+    if (solve != null) {
+      out.println(String.format(Locale.ROOT, "reduced graph: %d nodes, %d edges (%s), solved in"
+          + " %.3f s; %d provisional segments -> %d final ids", solve.nodeCount(),
+          solve.edgeCount(), solve.method(), solve.solveSeconds(), solve.segmentCount(),
+          solve.finalIdCount()));
+    }
+    if (scores != null) {
+      ScoreReport.print(scores, settings.ignoreBackground(), out);
+    }
+    out.println(String.format(Locale.ROOT, "segmentation: %s  dataset %s  (%.2f s)",
+        settings.outputContainer(), settings.outputDataset(), seconds));
+    out.println("work dir: " + settings.workDir());
+  }
+}

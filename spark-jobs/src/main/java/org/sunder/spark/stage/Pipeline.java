@@ -1,0 +1,147 @@
+package org.sunder.spark.stage;
+
+import java.io.PrintStream;
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.List;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.apache.spark.broadcast.Broadcast;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.metrics.ContingencyTable;
+import org.sunder.blockwise.metrics.ScoreOptions;
+import org.sunder.blockwise.metrics.Scorer;
+import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.spark.config.ConfigException;
+import org.sunder.spark.kryo.PayloadCodec;
+import org.sunder.spark.progress.ProgressListener;
+import org.sunder.spark.progress.ProgressPrinter;
+import org.sunder.spark.progress.ProgressTracker;
+import org.sunder.spark.run.PreparedRun;
+import org.sunder.spark.run.RunReport;
+import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.FinalIdMap;
+import org.sunder.stitching.GlobalSolve;
+
+/**
+ * Runs the stages of a prepared run on Spark, in order: partition (per block), seams (per
+ * face), solve (on the driver), relabel (per block's chunks), evaluate (per block, when a ground
+ * truth is configured). Settings are broadcast once; tasks read and write the containers
+ * themselves; finished tasks are skipped. Progress goes to {@code progress}, results to
+ * {@code out}.
+ */
+public final class Pipeline {
+  private final JavaSparkContext sc;
+  private final PrintStream out;
+  private final PrintStream progress;
+  private final boolean terminal;
+  private final PayloadCodec codec = new PayloadCodec();
+
+  public Pipeline(JavaSparkContext sc, PrintStream out, PrintStream progress, boolean terminal) {
+    this.sc = sc;
+    this.out = out;
+    this.progress = progress;
+    this.terminal = terminal;
+  }
+
+  /** Runs {@code stages} (in pipeline order); a single stage needs the earlier ones finished. */
+  public RunReport run(PreparedRun run, List<Stage> stages) {
+    for (String note : run.notes()) {
+      out.println(note);
+    }
+    RunSettings settings = run.settings();
+    ProgressTracker tracker = new ProgressTracker(System::nanoTime);
+    ProgressListener listener = new ProgressListener(tracker,
+        new ProgressPrinter(tracker, progress, terminal, 10, System::nanoTime));
+    sc.sc().addSparkListener(listener);
+    try {
+      return stages(run, settings, stages);
+    } finally {
+      sc.sc().removeSparkListener(listener);
+    }
+  }
+
+  private RunReport stages(PreparedRun run, RunSettings settings, List<Stage> stages) {
+    long start = System.nanoTime();
+    Broadcast<RunSettings> broadcast = sc.broadcast(settings);
+    WorkDir work = run.workDir();
+    StageRunner runner = new StageRunner(sc, broadcast, work, out);
+    BlockGrid grid = settings.grid();
+    List<StageReport> reports = new ArrayList<>();
+    GlobalSolve.Result solved = null;
+    SegmentationScores scores = null;
+    boolean single = stages.size() == 1;
+    for (Stage stage : Stage.values()) {
+      if (!stages.contains(stage)) {
+        continue;
+      }
+      if (single) {
+        requireEarlierFinished(run, stage);
+      }
+      switch (stage) {
+        case PARTITION -> reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Partition()));
+        case SEAMS -> reports.add(runner.run(stage, grid.faceCount(), new StageBodies.Seams()));
+        case SOLVE -> solved = new SolveStep(sc, work, out).run(settings, reports);
+        case RELABEL -> {
+          if (solved == null) {
+            solved = new SolveStep(sc, work, out).recorded();
+          }
+          Broadcast<FinalIdMap> map = sc.broadcast(solved.finalIds());
+          reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Relabel(map)));
+          map.destroy();
+        }
+        case EVALUATE -> {
+          if (settings.evaluates()) {
+            reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Evaluate()));
+            scores = scores(work, grid.blockCount(), settings.ignoreBackground());
+          } else if (single) {
+            throw new ConfigException("stage evaluate needs evaluate.groundTruth in the"
+                + " configuration: the ground-truth dataset to score against");
+          }
+        }
+        default -> throw new IllegalStateException("stage " + stage);
+      }
+    }
+    broadcast.destroy();
+    if (solved == null && work.ledger(Stage.SOLVE).isFinished(0)) {
+      solved = new SolveStep(sc, work, out).recorded();
+    }
+    return new RunReport(settings, reports, solved == null ? null : solved.report(), scores,
+        (System.nanoTime() - start) / 1e9);
+  }
+
+  private SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
+    ContingencyTable table = new ContingencyTable();
+    for (int b = 0; b < blocks; b++) {
+      ContingencyTable.Pairs pairs = codec.decode(work.ledger(Stage.EVALUATE).read(b),
+          ContingencyTable.Pairs.class, "evaluate record " + b);
+      for (int i = 0; i < pairs.size(); i++) {
+        table.add(pairs.groundTruth()[i], pairs.segment()[i], pairs.count()[i]);
+      }
+    }
+    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(ignoreBackground))
+        .score(table);
+  }
+
+  /** Throws unless every stage before {@code stage} has finished all its tasks. */
+  public static void requireEarlierFinished(PreparedRun run, Stage stage) {
+    WorkDir work = run.workDir();
+    BlockGrid grid = run.settings().grid();
+    for (Stage earlier : Stage.values()) {
+      if (earlier.ordinal() >= stage.ordinal() || earlier == Stage.EVALUATE) {
+        continue;
+      }
+      int total = switch (earlier) {
+        case PARTITION, RELABEL -> grid.blockCount();
+        case SEAMS -> grid.faceCount();
+        default -> 1;
+      };
+      BitSet done = work.ledger(earlier).finished();
+      if (done.cardinality() < total) {
+        throw new ConfigException("stage " + stage.cliName() + " needs stage " + earlier.cliName()
+            + " to finish first (" + done.cardinality() + " of " + total + " tasks done);"
+            + " run 'sunder stage " + earlier.cliName() + " CONFIG' or 'sunder run CONFIG'");
+      }
+    }
+  }
+}

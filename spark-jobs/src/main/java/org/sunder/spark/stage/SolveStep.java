@@ -1,0 +1,89 @@
+package org.sunder.spark.stage;
+
+import java.io.PrintStream;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.stream.IntStream;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.spark.config.ConfigException;
+import org.sunder.spark.kryo.PayloadCodec;
+import org.sunder.spark.progress.ProgressListener;
+import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.StageLedger;
+import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.BlockSummary;
+import org.sunder.stitching.GlobalSolve;
+import org.sunder.stitching.SeamEdges;
+import org.sunder.stitching.StitchingSetup;
+
+/**
+ * The solve stage on the driver: checks the reduced graph's size against
+ * {@code solve.maxDriverEdges} (counted on the executors), loads the block summaries and seam
+ * edges, solves, and records the final id map as the stage's single task.
+ */
+final class SolveStep {
+  private final JavaSparkContext sc;
+  private final WorkDir work;
+  private final PrintStream out;
+  private final PayloadCodec codec = new PayloadCodec();
+
+  SolveStep(JavaSparkContext sc, WorkDir work, PrintStream out) {
+    this.sc = sc;
+    this.work = work;
+    this.out = out;
+  }
+
+  /** The recorded result, running the solve first if no earlier run recorded it. */
+  GlobalSolve.Result run(RunSettings settings, List<StageReport> reports) {
+    StageLedger ledger = work.ledger(Stage.SOLVE);
+    if (ledger.isFinished(0)) {
+      out.println("solve: finished in an earlier run, skipped");
+      reports.add(new StageReport(Stage.SOLVE, 1, 1, 0, 0));
+      return recorded();
+    }
+    long start = System.nanoTime();
+    settings.hooks().beforeTask(Stage.SOLVE.cliName(), 0, work.root());
+    BlockGrid grid = settings.grid();
+    long edges = countEdges(grid);
+    if (edges > settings.maxDriverEdges()) {
+      throw new ConfigException("the reduced graph has up to " + edges + " edges, more than"
+          + " solve.maxDriverEdges = " + settings.maxDriverEdges() + " allows on the driver"
+          + " (about 100 bytes each); raise solve.maxDriverEdges if the driver has the memory,"
+          + " or use larger blocks (blocks.shape) for fewer boundary segments");
+    }
+    StitchingSetup setup = StitchingSetups.of(settings);
+    List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
+    for (int b = 0; b < grid.blockCount(); b++) {
+      summaries.add(codec.decode(work.ledger(Stage.PARTITION).read(b), BlockSummary.class,
+          "partition record " + b));
+    }
+    List<SeamEdges> seams = new ArrayList<>(grid.faceCount());
+    for (int f = 0; f < grid.faceCount(); f++) {
+      seams.add(codec.decode(work.ledger(Stage.SEAMS).read(f), SeamEdges.class,
+          "seams record " + f));
+    }
+    GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
+    ledger.record(0, codec.encode(result));
+    reports.add(new StageReport(Stage.SOLVE, 1, 0, 1, (System.nanoTime() - start) / 1e9));
+    return result;
+  }
+
+  GlobalSolve.Result recorded() {
+    return codec.decode(work.ledger(Stage.SOLVE).read(0), GlobalSolve.Result.class,
+        "solve record");
+  }
+
+  private long countEdges(BlockGrid grid) {
+    int tasks = grid.blockCount() + grid.faceCount();
+    List<Integer> indices = IntStream.range(0, tasks).boxed().toList();
+    sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, "solve");
+    try {
+      return sc.parallelize(indices, Math.max(1, Math.min(tasks, sc.defaultParallelism() * 4)))
+          .mapPartitions(new RecordSizes(work.root().toString(), grid.blockCount()))
+          .reduce(Long::sum);
+    } finally {
+      sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, null);
+    }
+  }
+}

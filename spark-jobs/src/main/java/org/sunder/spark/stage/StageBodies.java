@@ -1,0 +1,79 @@
+package org.sunder.spark.stage;
+
+import java.util.List;
+import org.apache.spark.broadcast.Broadcast;
+import org.sunder.blockwise.grid.Block;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.spark.evaluate.BlockContingency;
+import org.sunder.spark.evaluate.EvaluationTarget;
+import org.sunder.spark.run.RunSettings;
+import org.sunder.stitching.FinalIdMap;
+import org.sunder.stitching.PartitionTask;
+import org.sunder.stitching.RelabelTask;
+import org.sunder.stitching.SeamTask;
+import org.sunder.stitching.StitchingSetup;
+
+/** The task bodies of the distributed stages: thin calls into the stitching task functions. */
+final class StageBodies {
+  private StageBodies() {}
+
+  /** Partition: block index -> provisional ids written, {@code BlockSummary} returned. */
+  static final class Partition implements TaskBody {
+    private static final long serialVersionUID = 1L;
+
+    @Override
+    public Object run(RunSettings settings, int block) {
+      return PartitionTask.run(StitchingSetups.of(settings), block);
+    }
+  }
+
+  /** Seams: face index -> {@code SeamEdges}. */
+  static final class Seams implements TaskBody {
+    private static final long serialVersionUID = 1L;
+
+    @Override
+    public Object run(RunSettings settings, int face) {
+      return SeamTask.run(StitchingSetups.of(settings), face);
+    }
+  }
+
+  /** Relabel: every chunk of one block's core rewritten with final ids; returns voxels changed. */
+  static final class Relabel implements TaskBody {
+    private static final long serialVersionUID = 1L;
+    private final Broadcast<FinalIdMap> map;
+
+    Relabel(Broadcast<FinalIdMap> map) {
+      this.map = map;
+    }
+
+    @Override
+    public Object run(RunSettings settings, int block) {
+      StitchingSetup setup = StitchingSetups.of(settings);
+      FinalIdMap ids = map.value();
+      long changed = 0;
+      List<long[]> chunks = setup.grid().chunkPositionsOf(block);
+      for (long[] chunk : chunks) {
+        changed += RelabelTask.run(setup, chunk, ids);
+      }
+      return changed;
+    }
+  }
+
+  /** Evaluate: the contingency table of one block's core. */
+  static final class Evaluate implements TaskBody {
+    private static final long serialVersionUID = 1L;
+
+    @Override
+    public Object run(RunSettings settings, int block) {
+      BlockGrid grid = settings.grid();
+      Block b = grid.block(block);
+      return BlockContingency.count(target(settings), b.coreMin(), b.coreMax());
+    }
+  }
+
+  static EvaluationTarget target(RunSettings s) {
+    return new EvaluationTarget(s.outputContainer(), s.outputDataset(), s.truthContainer(),
+        s.groundTruth(), s.mask() == null ? null : s.inputContainer(), s.mask(),
+        s.ignoreBackground());
+  }
+}
