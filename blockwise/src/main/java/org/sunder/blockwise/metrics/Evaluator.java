@@ -25,9 +25,9 @@ import org.sunder.blockwise.store.Dataset;
  * callers (Spark) that distribute the blocks and {@link ContingencyTable#merge} the results.
  *
  * <p>Inputs are checked up front: both label datasets (and a mask) must have integer types and
- * equal shapes, boxes must lie inside the volume; an empty mask or box list is reported once
- * the region turns out to select no voxel. All as {@link SunderException} with
- * {@link ErrorKind#INVALID_INPUT} naming the dataset and what was expected. Thread-safe.
+ * equal shapes, the box list must be non-empty and every box inside the volume; a mask with no
+ * non-zero voxel is reported once the blocks have been read. All as {@link SunderException}
+ * with {@link ErrorKind#INVALID_INPUT} naming the dataset and what was expected. Thread-safe.
  */
 public final class Evaluator {
   private final Dataset groundTruth;
