@@ -161,6 +161,12 @@ final class JavaWrites {
     }
     entry.put("shape", zarrShape);
     entry.put("spec", dataset.spec().toString());
+    Map<String, Object> attributes = new LinkedHashMap<>();
+    attributes.put("axes", "zyx");
+    attributes.put("offsets", List.of(List.of(-1, 0, 0), List.of(0, -3, 0)));
+    container.mergeAttributes(path, attributes);
+    container.mergeAttributes(path, Map.of("resolution", List.of(40.0, 4.0, 4.5), "axes", "ZYX"));
+    entry.put("attrs", container.readAttributes(path));
     if (container.format() == StorageFormat.ZARR) {
       entry.put("order", spec.chunkOrder().name());
       entry.put("byteorder", type.bytes() == 1 ? "|="

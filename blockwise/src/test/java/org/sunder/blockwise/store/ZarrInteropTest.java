@@ -32,7 +32,10 @@ class ZarrInteropTest {
   @TempDir
   Path tmp;
 
-  /** Arrays written by zarr/numcodecs with every codec, dtype and layout read back equal. */
+  /**
+   * Arrays written by zarr/numcodecs with every codec, dtype and layout read back equal, and so
+   * do their user attributes.
+   */
   @Test
   void arraysWrittenByPythonReadEqual() throws IOException {
     PythonReference.requireModules("zarr", "numcodecs", "numpy");
@@ -52,7 +55,10 @@ class ZarrInteropTest {
         + String.join("\n", failures));
   }
 
-  /** Arrays written here with every codec, dtype and layout read back equal by zarr. */
+  /**
+   * Arrays written here with every codec, dtype and layout read back equal by zarr, and so do
+   * the attributes merged in two steps.
+   */
   @Test
   void arraysWrittenByJavaReadEqualInPython() throws IOException {
     PythonReference.requireModules("zarr", "numcodecs", "numpy");
@@ -95,6 +101,10 @@ class ZarrInteropTest {
     }
     if (!Arrays.equals(shape, dataset.shape())) {
       return "shape " + Arrays.toString(dataset.shape()) + ", expected " + Arrays.toString(shape);
+    }
+    Object attributes = container.readAttributes((String) entry.get("path"));
+    if (!attributes.equals(entry.get("attrs"))) {
+      return "attributes " + attributes + ", expected " + entry.get("attrs");
     }
     byte[] actual;
     try {

@@ -32,6 +32,9 @@ for entry in manifest:
             problems.append("order %s, expected %s" % (z.order, entry["order"]))
         if "byteorder" in entry and z.dtype.byteorder not in entry["byteorder"]:
             problems.append("byte order %s, expected %s" % (z.dtype.byteorder, entry["byteorder"]))
+        attrs = z.attrs.asdict()
+        if attrs != entry["attrs"]:
+            problems.append("attributes %r, expected %r" % (attrs, entry["attrs"]))
         if "fill" in entry:
             want, got = entry["fill"], z.fill_value
             same = (want is None and got is None) or (

@@ -36,13 +36,16 @@ def content(shape, dtype, kind):
 
 
 def record(fmt, container, path, array, note):
+    array.attrs.update({"axes": "zyx", "index": len(manifest), "scale": [40.0, 4.0, 4.0],
+                        "nested": {"ok": True, "name": path}})
     back = array[...]
     le = back.astype(back.dtype.newbyteorder("<"), copy=False)
     name = "%s-%d" % (fmt, len(manifest))
     with open(os.path.join(root, "expected", name + ".bin"), "wb") as f:
         f.write(np.ascontiguousarray(le).tobytes(order="C"))
     manifest.append({"name": name, "format": fmt, "container": container, "path": path,
-                     "dtype": back.dtype.name, "shape": list(back.shape), "note": note})
+                     "dtype": back.dtype.name, "shape": list(back.shape), "note": note,
+                     "attrs": array.attrs.asdict()})
 
 
 def zarr_array(path, shape, chunks, dtype, compressor, order="C", sep=".", fill=0,
