@@ -123,7 +123,7 @@ public final class MutexWatershed implements Partitioner {
     for (int slot = 0; slot < key.length; slot++) {
       int x = key[slot];
       if (x != NO_EDGE) {
-        sorted[next[bucketOf(x, scale)]++] = slot;
+        sorted[next[bucketOf(x, scale)]++] = slot | (x << 31);
       }
     }
     next = null;
@@ -139,10 +139,11 @@ public final class MutexWatershed implements Partitioner {
         sortBucket(key, sorted, from, to, scratch, min);
       }
       for (int i = from; i < to; i++) {
-        int slot = sorted[i];
+        int entry = sorted[i];
+        int slot = entry & 0x7FFFFFFF;
         int k = slot / n;
         int source = slot - k * n;
-        if ((key[slot] & 1) == 0) {
+        if (entry >= 0) {
           clusters.attract(source, source + delta[k]);
         } else {
           clusters.repel(source, source + delta[k]);
@@ -185,26 +186,30 @@ public final class MutexWatershed implements Partitioner {
   }
 
   private static boolean sameKeys(int[] key, int[] sorted, int from, int to) {
-    int first = key[sorted[from]];
+    int first = key[sorted[from] & 0x7FFFFFFF];
     for (int i = from + 1; i < to; i++) {
-      if (key[sorted[i]] != first) {
+      if (key[sorted[i] & 0x7FFFFFFF] != first) {
         return false;
       }
     }
     return true;
   }
 
-  /** Sorts one bucket by (key, slot), packing {@code key - min < 2^32} above the slot. */
+  /**
+   * Sorts one bucket by (key, slot), packing {@code key - min < 2^32} above the slot; entries
+   * are slots with the repulsive flag (the key's lowest bit) in bit 31.
+   */
   private static void sortBucket(int[] key, int[] sorted, int from, int to, long[] scratch,
       long min) {
     int count = to - from;
     for (int i = 0; i < count; i++) {
-      int slot = sorted[from + i];
+      int slot = sorted[from + i] & 0x7FFFFFFF;
       scratch[i] = (((key[slot] & 0xFFFFFFFFL) - min) << 31) | slot;
     }
     java.util.Arrays.sort(scratch, 0, count);
     for (int i = 0; i < count; i++) {
-      sorted[from + i] = (int) (scratch[i] & 0x7FFFFFFFL);
+      long repulsive = ((scratch[i] >>> 31) + min) & 1;
+      sorted[from + i] = (int) (scratch[i] & 0x7FFFFFFFL) | (int) (repulsive << 31);
     }
   }
 
