@@ -120,6 +120,28 @@ final class MutexClusters {
     entries++;
   }
 
+  /**
+   * The final segmentation: clusters numbered from 1 in order of first node, 0 where
+   * {@code mask} is 0. Uses the constraint arrays as scratch, so call it once, last.
+   */
+  Segmentation segmentation(byte[] maskOrNull) {
+    int[] labelOfRoot = head;
+    java.util.Arrays.fill(labelOfRoot, 0);
+    int[] labels = new int[parent.length];
+    int next = 0;
+    for (int i = 0; i < labels.length; i++) {
+      if (maskOrNull != null && maskOrNull[i] == 0) {
+        continue;
+      }
+      int r = find(i);
+      if (labelOfRoot[r] == 0) {
+        labelOfRoot[r] = ++next;
+      }
+      labels[i] = labelOfRoot[r];
+    }
+    return new Segmentation(labels, next);
+  }
+
   /** Root of every node, written into a fresh array. */
   int[] roots() {
     int[] r = new int[parent.length];

@@ -48,7 +48,7 @@ public final class MutexWatershed implements Partitioner {
     } else {
       runFloat(graph, clusters);
     }
-    return Segmentation.fromClusters(clusters.roots(), graph.block().maskOrNull());
+    return clusters.segmentation(graph.block().maskOrNull());
   }
 
   /** The Mutex Watershed of a sparse signed graph. */
