@@ -15,8 +15,9 @@ import org.sunder.blockwise.partition.PartitionConfig;
  * the graph and simply get the next final id. The result depends only on the summaries' and
  * seams' content, not on their order.
  *
- * <p>Methods: {@code mutex-watershed} continues as absolute-maximum linkage with constraints,
- * keeping each block's separations (see {@link AgglomerativeSolver}); {@code agglomeration} and
+ * <p>Methods: {@code mutex-watershed} continues as the Mutex Watershed of the reduced graph
+ * (absolute-maximum linkage with constraints), keeping each block's separations (see
+ * {@link MutexWatershedSolver}); {@code agglomeration} and
  * {@code fragments-agglomeration} continue with the configured linkage, constraints and
  * threshold; {@code fragments-multicut} solves the multicut of the reduced graph on the
  * linkage values (summed weights by default; see {@link MulticutSolver}). Cost: O(p log p) for p
@@ -56,14 +57,13 @@ public final class GlobalSolve {
 
   static ReducedGraphSolver solverFor(PartitionConfig config) {
     if (config.isMutexWatershed()) {
-      return new AgglomerativeSolver(Linkage.ABS_MAX, true, 0, true,
-          "mutex-watershed (abs-max linkage with constraints)");
+      return new MutexWatershedSolver();
     }
     if (config.method() == PartitionConfig.Method.FRAGMENTS_MULTICUT) {
       return new MulticutSolver(config.linkage());
     }
     return new AgglomerativeSolver(config.linkage(), config.constraints(), config.threshold(),
-        false, "agglomeration " + config.linkage().jsonName()
+        "agglomeration " + config.linkage().jsonName()
             + (config.constraints() ? " with constraints" : ""));
   }
 }
