@@ -14,6 +14,8 @@ import java.util.Random;
 import net.imglib2.img.array.ArrayImgs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
 import org.sunder.blockwise.metrics.ContingencyTable;
@@ -112,6 +114,39 @@ class BlockwiseRunTest {
       SegmentationScores truthWhole = score(scene.groundTruth, reference, true);
       assertEquals(truthWhole.voi(), truthBlockwise.voi(),
           (mws ? 0.05 : 0.02) * truthWhole.voi(), config.toString());
+    }
+  }
+
+  @Test
+  void maskedVoxelsStayBackgroundAndMatchTheWholeVolumeWithOneBlock() {
+    TissueScene scene = TissueScene.small(10, SHAPE, MILD);
+    byte[] mask = new byte[scene.voxelCount()];
+    int[] p = new int[3];
+    for (int i = 0; i < mask.length; i++) {
+      TissueScene.position(i, scene.shape, p);
+      mask[i] = (byte) (p[0] + 2 * p[2] < 30 ? 0 : 1);
+    }
+    for (int[] block : List.of(new int[] {64, 56, 20}, BLOCK)) {
+      Path root = dir.resolve("mask-" + block[0]);
+      SceneStore.write(scene, root, StorageFormat.ZARR, CHUNK);
+      Container.open(root).createDataset("mask", DatasetSpec.of(SHAPE, CHUNK, DataType.UINT8))
+          .write(ArrayImgs.unsignedBytes(mask.clone(), SHAPE), new long[3]);
+      StitchingSetup plain = SceneStore.setup(scene, root, CHUNK, block, HALO, MWS);
+      StitchingSetup setup = new StitchingSetup(plain.inputRoot(), plain.affinitiesPath(),
+          "mask", plain.outputRoot(), plain.labelsPath(), plain.grid(), plain.offsets(),
+          plain.partition());
+      InProcessRunner.run(setup);
+      long[] labels = SceneStore.readLabels(setup);
+      for (int i = 0; i < mask.length; i++) {
+        assertEquals(mask[i] == 0, labels[i] == 0, "voxel " + i);
+      }
+      if (block[0] == 64) {
+        int[] expected = MWS.create().partition(AffinityBlock.ofFloats(scene.affinities,
+            scene.shape, new long[3], Offsets.of(scene.offsets), mask)).labels();
+        for (int i = 0; i < mask.length; i++) {
+          assertEquals(expected[i], labels[i]);
+        }
+      }
     }
   }
 
