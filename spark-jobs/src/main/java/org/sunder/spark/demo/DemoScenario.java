@@ -44,6 +44,7 @@ public final class DemoScenario {
     root.putObject("input").put("container", container.toString())
         .put("affinities", SyntheticScenario.AFFINITIES);
     root.putObject("output").put("dataset", "segmentation");
+    root.putObject("blocks").set("shape", JSON.valueToTree(blockShape(zyx)));
     root.putObject("partition").put("method", "mutex-watershed");
     root.putObject("evaluate").put("groundTruth", SyntheticScenario.GROUND_TRUTH);
     try {
@@ -55,6 +56,17 @@ public final class DemoScenario {
     return config;
   }
 
+  /** One chunk per block, so that even the small demo volume is stitched from several blocks. */
+  static int[] blockShape(long[] zyx) {
+    int[] xyz = chunks(new long[] {zyx[2], zyx[1], zyx[0]});
+    return new int[] {xyz[2], xyz[1], xyz[0]};
+  }
+
+  private static int[] chunks(long[] xyz) {
+    return new int[] {(int) Math.min(64, xyz[0]), (int) Math.min(64, xyz[1]),
+        (int) Math.min(16, xyz[2])};
+  }
+
   private static void write(Path root, StorageFormat format, long[] zyx, long seed) {
     long voxels = zyx[0] * zyx[1] * zyx[2];
     long[] xyz = {zyx[2], zyx[1], zyx[0]};
@@ -62,8 +74,7 @@ public final class DemoScenario {
     SynthSpec small = SynthSpec.small(seed);
     SynthSpec spec = small.withShape(xyz).withCounts((int) Math.max(8, Math.round(30 * scale)),
         (int) Math.max(1, Math.round(4 * scale)), (int) Math.max(1, Math.round(scale)));
-    int[] chunks = {(int) Math.min(64, xyz[0]), (int) Math.min(64, xyz[1]),
-        (int) Math.min(16, xyz[2])};
+    int[] chunks = chunks(xyz);
     ScenarioOptions options = ScenarioOptions.defaults()
         .withDegradation(Degradation.moderate(seed)).withChunkShape(chunks);
     SyntheticScenario.write(Container.create(root, format), spec, options);
