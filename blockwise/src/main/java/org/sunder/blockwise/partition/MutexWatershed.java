@@ -19,12 +19,13 @@ import org.sunder.blockwise.graph.WeightRule;
  *
  * <p>Sorting without boxing: 8-bit affinities by a counting sort over the at most
  * {@code 256 * offsetCount} distinct weights ({@code O(E)}, one {@code int} per edge); float
- * weights by a 32-bit key per edge slot, a stable counting sort on the key's top 16 bits and an
- * exact sort inside each bucket whose keys differ (linear in practice, {@code O(E log E)} at
- * worst); sparse graphs by a stable LSD radix sort of 64-bit keys. Then {@code O(E α(N))}
- * union-find work plus the constraint bookkeeping of {@link MutexClusters}. Memory on the grid:
- * 4 bytes per edge slot plus 4 per present edge (float) or 4 per present edge (8-bit), plus 20
- * bytes per voxel plus the constraints. Thread-safe (no state).
+ * weights by a 32-bit key per edge slot, a stable counting sort into 2^20 buckets linear in the
+ * magnitude and an exact in-place sort of the 64-bit (key, edge id) entries inside each bucket
+ * whose keys differ (linear in practice, {@code O(E log E)} at worst); sparse graphs by a stable
+ * LSD radix sort of 64-bit keys. Then {@code O(E α(N))} union-find work plus the constraint
+ * bookkeeping of {@link MutexClusters}. Memory on the grid: 4 bytes per edge slot plus 8 per
+ * present edge (float) or 4 per present edge (8-bit), plus 20 bytes per voxel plus the
+ * constraints. Thread-safe (no state).
  */
 public final class MutexWatershed implements Partitioner {
   private final WeightRule rule;
@@ -94,8 +95,11 @@ public final class MutexWatershed implements Partitioner {
 
   /**
    * Float weights: a 32-bit key per edge slot (inverted magnitude, then attractive before
-   * repulsive), a stable counting sort of the present slots by the key's top 16 bits, and an
-   * exact sort of each bucket whose keys differ. Ties keep ascending slot (= edge id) order.
+   * repulsive), a stable counting sort of the present slots into buckets linear in the
+   * magnitude, and an exact sort of each bucket whose keys differ. A sorted entry holds the key
+   * with its top bit flipped (so signed order is unsigned key order) above the slot (= edge id,
+   * below 2^31), so sorting a bucket's entries gives exactly (key, edge id) order, in place and
+   * without looking keys up again.
    */
   private static void runFloat(GridGraph graph, MutexClusters clusters) {
     int n = graph.nodeCount();
@@ -118,32 +122,27 @@ public final class MutexWatershed implements Partitioner {
     for (int b = 0; b < buckets; b++) {
       start[b + 1] += start[b];
     }
-    int[] sorted = new int[start[buckets]];
+    long[] sorted = new long[start[buckets]];
     int[] next = java.util.Arrays.copyOf(start, buckets);
     for (int slot = 0; slot < key.length; slot++) {
       int x = key[slot];
       if (x != NO_EDGE) {
-        sorted[next[bucketOf(x, scale)]++] = slot | (x << 31);
+        sorted[next[bucketOf(x, scale)]++] = ((long) (x ^ Integer.MIN_VALUE) << 32) | slot;
       }
     }
-    next = null;
     int[] delta = deltas(graph);
-    long[] scratch = new long[64];
     for (int b = 0; b < buckets; b++) {
       int from = start[b];
       int to = start[b + 1];
-      if (to - from > 1 && !sameKeys(key, sorted, from, to)) {
-        if (scratch.length < to - from) {
-          scratch = new long[Math.max(to - from, scratch.length * 2)];
-        }
-        sortBucket(key, sorted, from, to, scratch, min);
+      if (to - from > 1 && !sameKeys(sorted, from, to)) {
+        java.util.Arrays.sort(sorted, from, to);
       }
       for (int i = from; i < to; i++) {
-        int entry = sorted[i];
-        int slot = entry & 0x7FFFFFFF;
+        long entry = sorted[i];
+        int slot = (int) entry;
         int k = slot / n;
         int source = slot - k * n;
-        if (entry >= 0) {
+        if ((entry & (1L << 32)) == 0) {
           clusters.attract(source, source + delta[k]);
         } else {
           clusters.repel(source, source + delta[k]);
@@ -185,32 +184,14 @@ public final class MutexWatershed implements Partitioner {
     return (magnitude << 1) | (w > 0 ? 0 : 1);
   }
 
-  private static boolean sameKeys(int[] key, int[] sorted, int from, int to) {
-    int first = key[sorted[from] & 0x7FFFFFFF];
+  private static boolean sameKeys(long[] sorted, int from, int to) {
+    int first = (int) (sorted[from] >>> 32);
     for (int i = from + 1; i < to; i++) {
-      if (key[sorted[i] & 0x7FFFFFFF] != first) {
+      if ((int) (sorted[i] >>> 32) != first) {
         return false;
       }
     }
     return true;
-  }
-
-  /**
-   * Sorts one bucket by (key, slot), packing {@code key - min < 2^32} above the slot; entries
-   * are slots with the repulsive flag (the key's lowest bit) in bit 31.
-   */
-  private static void sortBucket(int[] key, int[] sorted, int from, int to, long[] scratch,
-      long min) {
-    int count = to - from;
-    for (int i = 0; i < count; i++) {
-      int slot = sorted[from + i] & 0x7FFFFFFF;
-      scratch[i] = (((key[slot] & 0xFFFFFFFFL) - min) << 31) | slot;
-    }
-    java.util.Arrays.sort(scratch, 0, count);
-    for (int i = 0; i < count; i++) {
-      long repulsive = ((scratch[i] >>> 31) + min) & 1;
-      sorted[from + i] = (int) (scratch[i] & 0x7FFFFFFFL) | (int) (repulsive << 31);
-    }
   }
 
   private static void runQuantized(GridGraph graph, MutexClusters clusters) {
