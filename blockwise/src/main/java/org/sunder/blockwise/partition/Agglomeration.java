@@ -21,6 +21,13 @@ import org.sunder.blockwise.graph.SignedGraph;
  * {@link EdgeStatistics} (or ascending grid edge id), so the result does not depend on the order
  * in which edges were supplied.
  *
+ * <p>{@link Linkage#ABS_MAX} with constraints follows the Mutex Watershed's order instead, ties
+ * included: descending {@code |linkage|}, positive first, then the id of the edge the linkage
+ * comes from (the smallest id among the pair's edges at that value). Ids are the edge index of a
+ * {@link SignedGraph} (whose edges are then added one by one, parallel ones combined), the grid
+ * edge id, or the index in {@link EdgeStatistics}; so on a graph or grid the partition equals
+ * {@link MutexWatershed}'s exactly, and like it depends on the edge order only through ties.
+ *
  * <p>Implementation: one aggregated edge per adjacent cluster pair, found through a hash map of
  * cluster pairs; the adjacency of the cluster with fewer edges is merged into the other's
  * (smaller into larger); an indexed binary heap holds the candidate edges. {@code O(m log m)}
@@ -96,14 +103,26 @@ public final class Agglomeration {
             + nodeCount + ")");
       }
       state.addEdge((int) u, (int) v, statistics.sum(i), statistics.count(i),
-          statistics.min(i), statistics.max(i));
+          statistics.min(i), statistics.max(i), i);
     }
     return state.run();
   }
 
-  /** Clusters a sparse graph (parallel edges are aggregated first). */
+  /**
+   * Clusters a sparse graph (parallel edges are aggregated first; under ABS_MAX with constraints
+   * they are combined edge by edge, keeping each edge's index for the tie order).
+   */
   public Result run(SignedGraph graph) {
-    return run(graph.nodeCount(), graph.statistics());
+    if (!followsMutexOrder()) {
+      return run(graph.nodeCount(), graph.statistics());
+    }
+    int m = graph.edgeCount();
+    AgglomerationState state = new AgglomerationState(this, graph.nodeCount(), m);
+    for (int e = 0; e < m; e++) {
+      double w = graph.weight(e);
+      state.addEdge(graph.edgeU(e), graph.edgeV(e), w, 1, w, w, e);
+    }
+    return state.run();
   }
 
   /** Clusters the voxels of a grid graph, each voxel edge starting as its own statistic. */
@@ -111,8 +130,13 @@ public final class Agglomeration {
     long present = graph.presentEdgeCount();
     AgglomerationState state = new AgglomerationState(this, graph.nodeCount(),
         Math.toIntExact(present));
-    graph.forEachEdge((s, t, k, w) -> state.addEdge(s, t, w, 1, w, w));
+    int[] id = new int[1];
+    graph.forEachEdge((s, t, k, w) -> state.addEdge(s, t, w, 1, w, w, id[0]++));
     return state.run();
+  }
+
+  private boolean followsMutexOrder() {
+    return linkage == Linkage.ABS_MAX && constraints;
   }
 
   boolean recordsTree() {

@@ -2,7 +2,14 @@ package org.sunder.blockwise.partition;
 
 import java.util.Arrays;
 
-/** The working arrays of one {@link Agglomeration} run; see there for the contract. */
+/**
+ * The working arrays of one {@link Agglomeration} run; see there for the contract.
+ *
+ * <p>With {@link Linkage#ABS_MAX} and constraints each aggregated edge also keeps the id of the
+ * edge holding its max and of the edge holding its min (the smallest id among equal values);
+ * the heap breaks ties by the id on the side the linkage takes, which is where the Mutex
+ * Watershed's order puts the pair's first edge.
+ */
 final class AgglomerationState {
   private static final byte ALIVE = 0;
   private static final byte CONSTRAINED = 1;
@@ -18,6 +25,8 @@ final class AgglomerationState {
   private double[] a;
   private double[] b;
   private byte[] state;
+  private int[] maxId;
+  private int[] minId;
   private final int[] head;
   private final int[] degree;
   private int[] next;
@@ -30,6 +39,7 @@ final class AgglomerationState {
   private int[] second;
   private double[] heights;
   private int merges;
+  private int[] order;
 
   AgglomerationState(Agglomeration options, int nodeCount, int expectedEdges) {
     this.linkage = options.linkage();
@@ -42,6 +52,10 @@ final class AgglomerationState {
     ev = new int[m];
     a = new double[m];
     b = needsSecond() ? new double[m] : null;
+    if (linkage == Linkage.ABS_MAX && constraints) {
+      maxId = new int[m];
+      minId = new int[m];
+    }
     state = new byte[m];
     next = new int[2 * m];
     entryEdge = new int[2 * m];
@@ -59,15 +73,18 @@ final class AgglomerationState {
     return linkage == Linkage.MEAN || linkage == Linkage.ABS_MAX;
   }
 
-  /** Adds statistics between nodes {@code u != v}; a pair seen before is combined. */
-  void addEdge(int u, int v, double sum, long count, double min, double max) {
+  /**
+   * Adds statistics between nodes {@code u != v}; a pair seen before is combined. {@code id}
+   * orders ties under ABS_MAX with constraints (ascending; distinct per call).
+   */
+  void addEdge(int u, int v, double sum, long count, double min, double max, int id) {
     if (u == v) {
       throw new IllegalArgumentException("edge from node " + u + " to itself");
     }
     long key = PairSet.pair(u, v);
     int e = pairs.get(key);
     if (e >= 0) {
-      combine(e, first(sum, min, max), second(count, min));
+      combine(e, first(sum, min, max), second(count, min), id, id);
       return;
     }
     if (edgeCount == eu.length) {
@@ -79,6 +96,10 @@ final class AgglomerationState {
     a[e] = first(sum, min, max);
     if (b != null) {
       b[e] = second(count, min);
+    }
+    if (maxId != null) {
+      maxId[e] = id;
+      minId[e] = id;
     }
     pairs.put(key, e);
     link(u, e, 2 * e);
@@ -99,7 +120,10 @@ final class AgglomerationState {
     return linkage == Linkage.MEAN ? count : min;
   }
 
-  private void combine(int into, double first, double second) {
+  private void combine(int into, double first, double second, int firstId, int secondId) {
+    if (maxId != null) {
+      combineIds(into, first, second, firstId, secondId);
+    }
     switch (linkage) {
       case SUM -> a[into] += first;
       case MEAN -> {
@@ -113,6 +137,24 @@ final class AgglomerationState {
         b[into] = Math.min(b[into], second);
       }
     }
+  }
+
+  /** Keeps the smallest id among the edges at the max and at the min; before {@link #combine}. */
+  private void combineIds(int into, double max, double min, int idOfMax, int idOfMin) {
+    if (max > a[into] || (max == a[into] && idOfMax < maxId[into])) {
+      maxId[into] = idOfMax;
+    }
+    if (min < b[into] || (min == b[into] && idOfMin < minId[into])) {
+      minId[into] = idOfMin;
+    }
+  }
+
+  /** The tie-breaking rank of edge {@code e}: its index, or its representative edge's id. */
+  private int rank(int e) {
+    if (maxId == null) {
+      return e;
+    }
+    return Math.abs(a[e]) >= Math.abs(b[e]) ? maxId[e] : minId[e];
   }
 
   private double value(int e) {
@@ -138,6 +180,10 @@ final class AgglomerationState {
       b = Arrays.copyOf(b, m);
     }
     state = Arrays.copyOf(state, m);
+    if (maxId != null) {
+      maxId = Arrays.copyOf(maxId, m);
+      minId = Arrays.copyOf(minId, m);
+    }
     next = Arrays.copyOf(next, 2 * m);
     entryEdge = Arrays.copyOf(entryEdge, 2 * m);
   }
@@ -145,12 +191,13 @@ final class AgglomerationState {
   Agglomeration.Result run() {
     double[] priority = new double[edgeCount];
     byte[] tie = new byte[edgeCount];
+    order = new int[edgeCount];
     boolean[] candidate = new boolean[edgeCount];
     for (int e = 0; e < edgeCount; e++) {
       setPriority(e, priority, tie);
       candidate[e] = isCandidate(e, priority);
     }
-    EdgeHeap heap = new EdgeHeap(priority, tie, edgeCount);
+    EdgeHeap heap = new EdgeHeap(priority, tie, order, edgeCount);
     heap.build(candidate);
     candidate = null;
     if (recordTree) {
@@ -186,6 +233,7 @@ final class AgglomerationState {
     double value = value(e);
     priority[e] = constraints ? Math.abs(value) : value;
     tie[e] = (byte) (value > 0 ? 0 : 1);
+    order[e] = rank(e);
   }
 
   private boolean isCandidate(int e, double[] priority) {
@@ -244,7 +292,8 @@ final class AgglomerationState {
     int keep = Math.min(f, g);
     int drop = Math.max(f, g);
     byte constrained = state[f] == CONSTRAINED || state[g] == CONSTRAINED ? CONSTRAINED : ALIVE;
-    combine(keep, a[drop], b == null ? 0 : b[drop]);
+    combine(keep, a[drop], b == null ? 0 : b[drop], maxId == null ? 0 : maxId[drop],
+        minId == null ? 0 : minId[drop]);
     state[drop] = DEAD;
     heap.remove(drop);
     state[keep] = constrained;

@@ -4,20 +4,22 @@ import java.util.Arrays;
 
 /**
  * An indexed binary max-heap of edge ids {@code 0..m-1} by {@code priority[e]} (descending),
- * then {@code tie[e]} (ascending), then {@code e} (ascending). The arrays are the caller's; after
- * changing an entry's priority call {@link #update}. {@code O(log m)} per change, {@code O(m)}
+ * then {@code tie[e]} (ascending), then {@code order[e]} (ascending), then {@code e}. The arrays
+ * are the caller's; after changing an entry's priority, tie or order call {@link #update}. {@code O(log m)} per change, {@code O(m)}
  * to build. Not thread-safe.
  */
 final class EdgeHeap {
   private final double[] priority;
   private final byte[] tie;
+  private final int[] order;
   private final int[] heap;
   private final int[] position;
   private int size;
 
-  EdgeHeap(double[] priority, byte[] tie, int capacity) {
+  EdgeHeap(double[] priority, byte[] tie, int[] order, int capacity) {
     this.priority = priority;
     this.tie = tie;
+    this.order = order;
     this.heap = new int[capacity];
     this.position = new int[capacity];
     Arrays.fill(position, -1);
@@ -93,6 +95,9 @@ final class EdgeHeap {
     }
     if (tie[a] != tie[b]) {
       return tie[a] < tie[b];
+    }
+    if (order[a] != order[b]) {
+      return order[a] < order[b];
     }
     return a < b;
   }

@@ -39,6 +39,73 @@ class AgglomerationTest {
     }
   }
 
+  /**
+   * Heavy ties: weights from a few levels, grids of 8-bit affinities and of float affinities
+   * clamped to 0 and 1. The agglomeration must follow the Mutex Watershed's order exactly
+   * (descending {@code |w|}, attractive first, then ascending edge id), also across parallel edges.
+   */
+  @Test
+  void absMaxWithConstraintsEqualsMutexWatershedOnTiedWeights() {
+    Random random = new Random(13);
+    double[] levels = {0.25, 0.5, 1.0};
+    Agglomeration absMax = new Agglomeration(Linkage.ABS_MAX, true);
+    for (int trial = 0; trial < 80; trial++) {
+      int nodes = 5 + random.nextInt(60);
+      SignedGraph base = trial % 2 == 0
+          ? PartitionFixtures.randomGraph(random, nodes, random.nextInt(3 * nodes), 0.5)
+          : withParallelEdges(PartitionFixtures.randomGraph(random, nodes, 2 * nodes, 0.5),
+              random);
+      double[] w = new double[base.edgeCount()];
+      for (int e = 0; e < w.length; e++) {
+        int level = random.nextInt(levels.length + 1);
+        double magnitude = level == levels.length ? 0 : levels[level];
+        w[e] = random.nextBoolean() ? magnitude : -magnitude;
+      }
+      SignedGraph g = base.withWeights(w);
+      assertEquals(MutexWatershed.partition(g), absMax.run(g).clustering(), "graph " + trial);
+    }
+    int[] shape = {7, 5, 4};
+    int n = 7 * 5 * 4;
+    int channels = PartitionFixtures.OFFSETS.count();
+    byte[] fewBytes = {0, 64, (byte) 128, (byte) 191, (byte) 255};
+    float[] fewFloats = {0f, 0.25f, 0.5f, 0.75f, 1f};
+    WeightRule[] rules = {WeightRule.byChannelRole(),
+        WeightRule.byValue(WeightRule.Transform.CENTERED, null)};
+    for (int trial = 0; trial < 12; trial++) {
+      byte[] bytes = new byte[n * channels];
+      float[] floats = new float[n * channels];
+      for (int i = 0; i < bytes.length; i++) {
+        bytes[i] = trial % 3 == 0 ? (byte) random.nextInt(256) : fewBytes[random.nextInt(5)];
+        floats[i] = fewFloats[random.nextInt(5)];
+      }
+      WeightRule rule = rules[trial % 2];
+      for (AffinityBlock block : new AffinityBlock[] {
+          AffinityBlock.ofBytes(bytes, shape, new long[3], PartitionFixtures.OFFSETS, null),
+          AffinityBlock.ofFloats(floats, shape, new long[3], PartitionFixtures.OFFSETS, null)}) {
+        GridGraph grid = GridGraph.of(block, rule, Subsampling.none());
+        Segmentation mws = MutexWatershed.partition(grid);
+        Clustering agg = absMax.run(grid).clustering();
+        assertEquals(mws, Segmentation.fromClusters(agg.clusterOf(), null), "grid " + trial);
+        assertEquals(agg, absMax.run(grid.toSignedGraph()).clustering(), "grid copy " + trial);
+      }
+    }
+  }
+
+  /** The graph plus a copy of about a third of its edges, appended in a shuffled order. */
+  private static SignedGraph withParallelEdges(SignedGraph g, Random random) {
+    int m = g.edgeCount();
+    int[] order = PartitionFixtures.permutation(random, m);
+    int extra = m / 3;
+    int[] u = new int[m + extra];
+    int[] v = new int[m + extra];
+    for (int e = 0; e < m + extra; e++) {
+      int from = e < m ? e : order[e - m];
+      u[e] = g.edgeU(from);
+      v[e] = g.edgeV(from);
+    }
+    return SignedGraph.of(g.nodeCount(), u, v, new double[m + extra]);
+  }
+
   @Test
   void constraintsAreNeverViolatedAndUnconstrainedRunsStopAtNoPositiveLinkage() {
     Random random = new Random(13);
