@@ -9,8 +9,8 @@ import picocli.CommandLine.ParentCommand;
 
 /** {@code sunder inspect CONTAINER [PATH]}. */
 @Command(name = "inspect", mixinStandardHelpOptions = true,
-    description = {"Show what an N5 or Zarr container holds: groups and datasets with shape,",
-        "chunks (slowest axis first), data type, codec and attributes. Reads no chunk data."})
+    description = {"Show what an N5 or Zarr container holds: groups and datasets with shape,"
+        + " chunks (slowest axis first), data type, codec and attributes. Reads no chunk data."})
 final class InspectCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;

@@ -16,8 +16,8 @@ import picocli.CommandLine.ParentCommand;
 
 /** {@code sunder stage NAME CONFIG}: one stage of a run. */
 @Command(name = "stage", mixinStandardHelpOptions = true,
-    description = {"Run one stage of a configured run; the stages before it must have finished.",
-        "Stages in order: partition, seams, solve, relabel, evaluate."})
+    description = {"Run one stage of a configured run; the stages before it must have finished."
+        + " Stages in order: partition, seams, solve, relabel, evaluate."})
 final class StageCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;
