@@ -12,14 +12,20 @@ import java.util.Arrays;
  * On a union the shorter list is walked and moved into the longer one, adding its pairs under
  * the longer list's owner (smaller into larger: every entry moves {@code O(log m)} times). The
  * pairs of the absorbed owner stay in the set: that owner is never asked about again, and
- * leaving them costs less than deleting them. Not thread-safe.
+ * leaving them costs less than deleting them.
+ *
+ * <p>Edges come in weight order, so roots are visited at random: what a root needs (size, list
+ * owner, list length, list head) sits in one 16-byte record, one cache line per root visited.
+ * Not thread-safe.
  */
 final class MutexClusters {
+  private static final int SIZE = 0;
+  private static final int OWNER = 1;
+  private static final int LENGTH = 2;
+  private static final int HEAD = 3;
   private final int[] parent;
-  private final int[] size;
-  private final int[] owner;
-  private final int[] head;
-  private final int[] listSize;
+  /** Per root {@code r}: {@code record[4 r + SIZE | OWNER | LENGTH | HEAD]}. */
+  private final int[] record;
   private int[] entryNode;
   private int[] entryNext;
   private int entries;
@@ -27,16 +33,13 @@ final class MutexClusters {
 
   MutexClusters(int nodeCount) {
     parent = new int[nodeCount];
-    size = new int[nodeCount];
-    owner = new int[nodeCount];
-    head = new int[nodeCount];
-    listSize = new int[nodeCount];
+    record = new int[4 * nodeCount];
     for (int i = 0; i < nodeCount; i++) {
       parent[i] = i;
-      owner[i] = i;
+      record[4 * i + SIZE] = 1;
+      record[4 * i + OWNER] = i;
+      record[4 * i + HEAD] = -1;
     }
-    Arrays.fill(size, 1);
-    Arrays.fill(head, -1);
     int guess = Math.max(16, nodeCount / 4);
     entryNode = new int[guess];
     entryNext = new int[guess];
@@ -69,64 +72,65 @@ final class MutexClusters {
     if (ru == rv) {
       return;
     }
-    int a = owner[ru];
-    int b = owner[rv];
-    if (pairs.add(PairSet.pair(a, b))) {
-      append(a, rv);
-      append(b, ru);
+    if (pairs.add(PairSet.pair(record[4 * ru + OWNER], record[4 * rv + OWNER]))) {
+      append(ru, rv);
+      append(rv, ru);
     }
   }
 
   private boolean constrained(int ru, int rv) {
-    int a = owner[ru];
-    int b = owner[rv];
-    return listSize[a] != 0 && listSize[b] != 0 && pairs.contains(PairSet.pair(a, b));
+    int[] r = record;
+    return r[4 * ru + LENGTH] != 0 && r[4 * rv + LENGTH] != 0
+        && pairs.contains(PairSet.pair(r[4 * ru + OWNER], r[4 * rv + OWNER]));
   }
 
   private void union(int ru, int rv) {
-    int winner = size[ru] >= size[rv] ? ru : rv;
+    int[] r = record;
+    int winner = r[4 * ru + SIZE] >= r[4 * rv + SIZE] ? ru : rv;
     int loser = winner == ru ? rv : ru;
     parent[loser] = winner;
-    size[winner] += size[loser];
-    int a = owner[ru];
-    int b = owner[rv];
-    int large = listSize[a] >= listSize[b] ? a : b;
-    int small = large == a ? b : a;
-    owner[winner] = large;
-    for (int e = head[small]; e >= 0; ) {
+    r[4 * winner + SIZE] += r[4 * loser + SIZE];
+    int large = r[4 * ru + LENGTH] >= r[4 * rv + LENGTH] ? ru : rv;
+    int small = large == ru ? rv : ru;
+    int owner = r[4 * large + OWNER];
+    int head = r[4 * large + HEAD];
+    int length = r[4 * large + LENGTH];
+    for (int e = r[4 * small + HEAD]; e >= 0; ) {
       int following = entryNext[e];
-      int partner = owner[find(entryNode[e])];
-      if (pairs.add(PairSet.pair(large, partner))) {
-        entryNext[e] = head[large];
-        head[large] = e;
-        listSize[large]++;
+      int partner = r[4 * find(entryNode[e]) + OWNER];
+      if (pairs.add(PairSet.pair(owner, partner))) {
+        entryNext[e] = head;
+        head = e;
+        length++;
       }
       e = following;
     }
-    head[small] = -1;
-    listSize[small] = 0;
+    r[4 * winner + OWNER] = owner;
+    r[4 * winner + HEAD] = head;
+    r[4 * winner + LENGTH] = length;
   }
 
-  private void append(int list, int node) {
+  /** Adds a constraint entry for {@code node} to the list of root {@code root}. */
+  private void append(int root, int node) {
     if (entries == entryNode.length) {
       int capacity = entries + (entries >> 1) + 16;
       entryNode = Arrays.copyOf(entryNode, capacity);
       entryNext = Arrays.copyOf(entryNext, capacity);
     }
     entryNode[entries] = node;
-    entryNext[entries] = head[list];
-    head[list] = entries;
-    listSize[list]++;
+    entryNext[entries] = record[4 * root + HEAD];
+    record[4 * root + HEAD] = entries;
+    record[4 * root + LENGTH]++;
     entries++;
   }
 
   /**
    * The final segmentation: clusters numbered from 1 in order of first node, 0 where
-   * {@code mask} is 0. Uses the constraint arrays as scratch, so call it once, last.
+   * {@code mask} is 0. Uses the root records as scratch, so call it once, last.
    */
   Segmentation segmentation(byte[] maskOrNull) {
-    int[] labelOfRoot = head;
-    java.util.Arrays.fill(labelOfRoot, 0);
+    int[] labelOfRoot = record;
+    Arrays.fill(labelOfRoot, 0);
     int[] labels = new int[parent.length];
     int next = 0;
     for (int i = 0; i < labels.length; i++) {

@@ -19,13 +19,12 @@ import org.sunder.blockwise.graph.WeightRule;
  *
  * <p>Sorting without boxing: 8-bit affinities by a counting sort over the at most
  * {@code 256 * offsetCount} distinct weights ({@code O(E)}, one {@code int} per edge); float
- * weights by a 32-bit key per edge slot, a stable counting sort into 2^20 buckets linear in the
- * magnitude and an exact in-place sort of the 64-bit (key, edge id) entries inside each bucket
- * whose keys differ (linear in practice, {@code O(E log E)} at worst); sparse graphs by a stable
- * LSD radix sort of 64-bit keys. Then {@code O(E α(N))} union-find work plus the constraint
- * bookkeeping of {@link MutexClusters}. Memory on the grid: 4 bytes per edge slot plus 8 per
- * present edge (float) or 4 per present edge (8-bit), plus 20 bytes per voxel plus the
- * constraints. Thread-safe (no state).
+ * weights by a 32-bit key per edge slot and a radix sort of the 64-bit (key, edge id) entries,
+ * stable and {@code O(E)}; sparse graphs by a stable LSD radix sort of 64-bit keys. Then
+ * {@code O(E α(N))} union-find work plus the constraint bookkeeping of {@link MutexClusters}.
+ * Memory on the grid: 4 bytes per edge slot plus 8 per present edge (float; plus a scratch as
+ * large as the largest bucket out of order), or 4 per present edge (8-bit); plus 1 byte per
+ * edge slot and 20 per voxel, plus the constraints. Thread-safe (no state).
  */
 public final class MutexWatershed implements Partitioner {
   private final WeightRule rule;
@@ -95,88 +94,127 @@ public final class MutexWatershed implements Partitioner {
 
   /**
    * Float weights: a 32-bit key per edge slot (inverted magnitude, then attractive before
-   * repulsive), a stable counting sort of the present slots into buckets linear in the
-   * magnitude, and an exact sort of each bucket whose keys differ. A sorted entry holds the key
-   * with its top bit flipped (so signed order is unsigned key order) above the slot (= edge id,
-   * below 2^31), so sorting a bucket's entries gives exactly (key, edge id) order, in place and
-   * without looking keys up again.
+   * repulsive) and a most-significant-digit radix sort of the present slots: a stable counting
+   * sort by the top {@code 32 - LOW_BITS} key bits (exponent and top mantissa bits; few enough
+   * buckets for the scatter to stay in cache), then, inside each bucket that is not already in
+   * order, a stable least-significant-digit radix sort of the low {@code LOW_BITS} bits in two
+   * passes through a scratch array. A sorted entry holds the key with its top bit flipped (so
+   * signed order is unsigned key order) above the packed edge id {@code (k << bits) | voxel}
+   * (same order as the edge id, and decoded without a division). Stable passes over entries
+   * generated in edge id order give exactly (key, edge id) order.
    */
   private static void runFloat(GridGraph graph, MutexClusters clusters) {
     int n = graph.nodeCount();
-    int[] key = new int[graph.edgeSlotCount()];
-    java.util.Arrays.fill(key, NO_EDGE);
-    graph.forEachEdge((source, target, k, w) -> {
-      if (w != 0) {
-        key[source + k * n] = floatKey(w);
-      }
-    });
-    long min = minimumKey(key);
-    float scale = (BUCKETS - 1) / magnitudeOf((int) min);
-    int buckets = BUCKETS;
-    int[] start = new int[buckets + 1];
-    for (int x : key) {
-      if (x != NO_EDGE) {
-        start[bucketOf(x, scale) + 1]++;
-      }
-    }
-    for (int b = 0; b < buckets; b++) {
-      start[b + 1] += start[b];
-    }
-    long[] sorted = new long[start[buckets]];
-    int[] next = java.util.Arrays.copyOf(start, buckets);
-    for (int slot = 0; slot < key.length; slot++) {
-      int x = key[slot];
-      if (x != NO_EDGE) {
-        sorted[next[bucketOf(x, scale)]++] = ((long) (x ^ Integer.MIN_VALUE) << 32) | slot;
-      }
-    }
-    int[] delta = deltas(graph);
-    for (int b = 0; b < buckets; b++) {
-      int from = start[b];
-      int to = start[b + 1];
-      if (to - from > 1 && !sameKeys(sorted, from, to)) {
-        java.util.Arrays.sort(sorted, from, to);
-      }
-      for (int i = from; i < to; i++) {
-        long entry = sorted[i];
-        int slot = (int) entry;
-        int k = slot / n;
-        int source = slot - k * n;
-        if ((entry & (1L << 32)) == 0) {
-          clusters.attract(source, source + delta[k]);
-        } else {
-          clusters.repel(source, source + delta[k]);
+    byte[] present = graph.presentSlots();
+    int[] key = new int[present.length];
+    int[] start = new int[HIGH_BUCKETS + 1];
+    for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
+      for (int v = 0; v < n; v++, slot++) {
+        float w = present[slot] == 0 ? 0 : graph.weight(v, k);
+        int x = w == 0 ? NO_EDGE : floatKey(w);
+        key[slot] = x;
+        if (x != NO_EDGE) {
+          start[(x >>> LOW_BITS) + 1]++;
         }
       }
     }
-  }
-
-  /** Buckets of the counting sort of float keys. */
-  private static final int BUCKETS = 1 << 20;
-
-  /** The smallest present key, as an unsigned value. */
-  private static long minimumKey(int[] key) {
-    long min = 0xFFFFFFFFL;
-    for (int x : key) {
-      if (x != NO_EDGE) {
-        min = Math.min(min, x & 0xFFFFFFFFL);
+    for (int c = 0; c < HIGH_BUCKETS; c++) {
+      start[c + 1] += start[c];
+    }
+    long[] sorted = new long[start[HIGH_BUCKETS]];
+    int[] next = java.util.Arrays.copyOf(start, HIGH_BUCKETS);
+    int bits = voxelBits(n);
+    for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
+      for (int v = 0; v < n; v++, slot++) {
+        int x = key[slot];
+        if (x != NO_EDGE) {
+          sorted[next[x >>> LOW_BITS]++] = entry(x, (k << bits) | v);
+        }
       }
     }
-    return min;
-  }
-
-  /** The weight magnitude a key was made from. */
-  private static float magnitudeOf(int key) {
-    return Float.intBitsToFloat(0x7FFFFFFF - (key >>> 1));
+    int[] delta = deltas(graph);
+    long[] scratch = new long[0];
+    int[] count = new int[DIGIT_BUCKETS];
+    for (int c = 0; c < HIGH_BUCKETS; c++) {
+      int from = start[c];
+      int to = start[c + 1];
+      if (!inOrder(sorted, from, to)) {
+        if (scratch.length < to - from) {
+          scratch = new long[to - from];
+        }
+        digitPass(sorted, from, to, scratch, 0, 0, count);
+        digitPass(scratch, 0, to - from, sorted, from, DIGIT_BITS, count);
+      }
+      process(sorted, from, to, bits, delta, clusters);
+    }
   }
 
   /**
-   * Counting-sort bucket of a key: linear in the magnitude, largest magnitude in bucket 0;
-   * monotone in the key, so the buckets in order hold the keys in order.
+   * One stable counting-sort pass of {@code source[from, to)} into {@code target} from
+   * {@code at}, by the key digit {@code (key >>> shift) & (DIGIT_BUCKETS - 1)}.
    */
-  private static int bucketOf(int key, float scale) {
-    return BUCKETS - 1 - (int) Math.min(BUCKETS - 1, magnitudeOf(key) * scale);
+  private static void digitPass(long[] source, int from, int to, long[] target, int at,
+      int shift, int[] count) {
+    java.util.Arrays.fill(count, 0);
+    for (int i = from; i < to; i++) {
+      count[(keyOf(source[i]) >>> shift) & (DIGIT_BUCKETS - 1)]++;
+    }
+    int sum = at;
+    for (int d = 0; d < DIGIT_BUCKETS; d++) {
+      int c = count[d];
+      count[d] = sum;
+      sum += c;
+    }
+    for (int i = from; i < to; i++) {
+      long e = source[i];
+      target[count[(keyOf(e) >>> shift) & (DIGIT_BUCKETS - 1)]++] = e;
+    }
   }
+
+  /** Runs the entries {@code [from, to)}, each holding a packed edge id {@code (k << bits) | voxel}. */
+  private static void process(long[] entries, int from, int to, int bits, int[] delta,
+      MutexClusters clusters) {
+    int voxelMask = (1 << bits) - 1;
+    for (int i = from; i < to; i++) {
+      long entry = entries[i];
+      int id = (int) entry;
+      int source = id & voxelMask;
+      int target = source + delta[id >>> bits];
+      if ((entry & (1L << 32)) == 0) {
+        clusters.attract(source, target);
+      } else {
+        clusters.repel(source, target);
+      }
+    }
+  }
+
+  /**
+   * Sorted entry of a key and a packed edge id: signed entry order is (unsigned key, unsigned
+   * id) order, and packed ids are in edge id order.
+   */
+  private static long entry(int key, int packedId) {
+    return ((long) (key ^ Integer.MIN_VALUE) << 32) | (packedId & 0xFFFFFFFFL);
+  }
+
+  private static int keyOf(long entry) {
+    return (int) (entry >>> 32) ^ Integer.MIN_VALUE;
+  }
+
+  private static boolean inOrder(long[] entries, int from, int to) {
+    for (int i = from + 1; i < to; i++) {
+      if (entries[i - 1] > entries[i]) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /** Key bits sorted inside a top-level bucket: two digits of {@link #DIGIT_BITS}. */
+  private static final int LOW_BITS = 20;
+  private static final int DIGIT_BITS = LOW_BITS / 2;
+  private static final int DIGIT_BUCKETS = 1 << DIGIT_BITS;
+  /** Top-level buckets of the float sort, one per value of the top key bits. */
+  private static final int HIGH_BUCKETS = 1 << (32 - LOW_BITS);
 
   /** Key of a non-zero weight: ascending key = descending magnitude, attractive first. */
   private static int floatKey(float w) {
@@ -184,16 +222,10 @@ public final class MutexWatershed implements Partitioner {
     return (magnitude << 1) | (w > 0 ? 0 : 1);
   }
 
-  private static boolean sameKeys(long[] sorted, int from, int to) {
-    int first = (int) (sorted[from] >>> 32);
-    for (int i = from + 1; i < to; i++) {
-      if ((int) (sorted[i] >>> 32) != first) {
-        return false;
-      }
-    }
-    return true;
-  }
-
+  /**
+   * 8-bit affinities: a stable counting sort of the packed edge ids of the present slots by the
+   * rank of their weight among the distinct weights.
+   */
   private static void runQuantized(GridGraph graph, MutexClusters clusters) {
     float[] table = graph.byteWeightTableOrNull();
     int[] rankOf = new int[table.length];
@@ -206,25 +238,30 @@ public final class MutexWatershed implements Partitioner {
     }
     byte[] bytes = graph.block().byteValuesOrNull();
     int n = graph.nodeCount();
+    byte[] present = graph.presentSlots();
     int[] start = new int[ranks + 1];
-    graph.forEachEdge((source, target, k, w) -> {
-      int r = rankOf[(k << 8) + (bytes[source + k * n] & 0xff)];
-      if (r >= 0) {
-        start[r + 1]++;
+    for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
+      for (int v = 0; v < n; v++, slot++) {
+        int r = present[slot] == 0 ? -1 : rankOf[(k << 8) + (bytes[slot] & 0xff)];
+        if (r >= 0) {
+          start[r + 1]++;
+        }
       }
-    });
+    }
     for (int r = 0; r < ranks; r++) {
       start[r + 1] += start[r];
     }
     int bits = voxelBits(n);
     int[] sorted = new int[start[ranks]];
     int[] next = java.util.Arrays.copyOf(start, ranks);
-    graph.forEachEdge((source, target, k, w) -> {
-      int r = rankOf[(k << 8) + (bytes[source + k * n] & 0xff)];
-      if (r >= 0) {
-        sorted[next[r]++] = (k << bits) | source;
+    for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
+      for (int v = 0; v < n; v++, slot++) {
+        int r = present[slot] == 0 ? -1 : rankOf[(k << 8) + (bytes[slot] & 0xff)];
+        if (r >= 0) {
+          sorted[next[r]++] = (k << bits) | v;
+        }
       }
-    });
+    }
     int voxelMask = (1 << bits) - 1;
     int[] delta = deltas(graph);
     for (int r = 0; r < ranks; r++) {

@@ -63,6 +63,34 @@ class MutexWatershedTest {
   }
 
   @Test
+  void floatSortKeepsExactOrderOverWideMagnitudesTiesAndLargeBuckets() {
+    // mixture of exact ties, continuous values and magnitudes down to 1e-30 (top-level buckets
+    // of every size, in order and out of order); the plain transcription sorts with a comparator
+    Random random = new Random(17);
+    int[] shape = {20, 15, 12};
+    int n = 20 * 15 * 12;
+    float[] a = new float[n * PartitionFixtures.OFFSETS.count()];
+    for (int i = 0; i < a.length; i++) {
+      switch (random.nextInt(5)) {
+        case 0 -> a[i] = random.nextBoolean() ? 1f : 0f;
+        case 1 -> a[i] = 0.5f + (random.nextBoolean() ? 1 : -1) * (float) Math.pow(10,
+            -1 - random.nextInt(30));
+        case 2 -> a[i] = random.nextInt(4) / 4f;
+        default -> a[i] = random.nextFloat();
+      }
+    }
+    AffinityBlock block = AffinityBlock.ofFloats(a, shape, new long[3], PartitionFixtures.OFFSETS,
+        null);
+    for (WeightRule rule : new WeightRule[] {WeightRule.byChannelRole(),
+        WeightRule.byValue(WeightRule.Transform.CENTERED, null)}) {
+      GridGraph graph = GridGraph.of(block, rule, Subsampling.none());
+      Clustering expected = ReferenceMutexWatershed.partition(graph.toSignedGraph());
+      assertEquals(Segmentation.fromClusters(expected.clusterOf(), null),
+          MutexWatershed.partition(graph));
+    }
+  }
+
+  @Test
   void eightBitAffinitiesGiveTheSamePartitionAsTheirFloatValues() {
     Random random = new Random(13);
     int[] shape = {11, 6, 4};
