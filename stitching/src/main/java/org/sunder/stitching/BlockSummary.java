@@ -12,14 +12,16 @@ import org.sunder.blockwise.grid.BlockGrid;
  *
  * <p>A segment is a <em>boundary segment</em> when it has a voxel closer to a face than the
  * longest offset along the face's axis, i.e. when some voxel edge can join it to another block's
- * core. Only boundary segments enter the global solve.
+ * core, or when it is an unsettled piece of the block's partition (see
+ * {@link org.sunder.blockwise.partition.SettledPartition}). Only boundary segments enter the
+ * global solve.
  *
  * @param block the block index
  * @param segmentSizes voxels in the core per local id ({@code segmentSizes[k - 1]})
  * @param boundaryLocalIds the local ids of the boundary segments, ascending
  * @param boundarySides per boundary segment, a bit mask of the block's sides it is near:
  *     bit {@code 2 * axis} the lower side along {@code axis}, bit {@code 2 * axis + 1} the upper
- *     side (sides on the volume border never count)
+ *     side (sides on the volume border never count); 0 for an unsettled piece far from faces
  * @param innerEdges statistics of the edges with both ends in this block's core between two
  *     different boundary segments, keyed by provisional id
  * @param separatedU with {@code separatedV}: the pairs of boundary segments (provisional ids,

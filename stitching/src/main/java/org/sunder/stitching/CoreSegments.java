@@ -8,14 +8,20 @@ import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.SettledPartition;
 
 /**
  * From the partition of a block's extended box to its core: provisional labels and the
  * {@link BlockSummary}.
  *
- * <p>Local ids are the partition's labels present in the core, renumbered from 1 in ascending
- * order of the partition label; when the core is the whole extended box (one block covering the
- * volume) local ids equal the partition's labels.
+ * <p>The partition comes as a {@link SettledPartition} whose open voxels are those with edges
+ * leaving the extended box ({@link #openVoxels}): the core's segments are its pieces, so a merge
+ * the block made on the strength of its halo is left to the global solve, which sees all the
+ * edges. Boundary segments are the pieces near a face and the unsettled pieces.
+ *
+ * <p>Local ids are the pieces present in the core, renumbered from 1 in ascending order of the
+ * piece label; when the core is the whole extended box (one block covering the volume) local ids
+ * equal the partition's labels.
  *
  * <p>Inner edges count only edges with <em>both</em> ends in the core; edges reaching into the
  * halo are left to the block that owns the other end or to the face that owns them (see
@@ -23,12 +29,13 @@ import org.sunder.blockwise.partition.Segmentation;
  * graph's statistics are those of the whole volume's region graph of the provisional labels,
  * restricted to boundary segments.
  *
- * <p>Separated pairs: pairs of boundary segments joined by at least one repulsive edge
+ * <p>Separated pairs: pairs of settled boundary segments joined by at least one repulsive edge
  * (weight {@code < 0}) anywhere in the extended box. For the Mutex Watershed these are exactly
  * the pairs the block kept apart by a mutual exclusion (every repulsive edge between two final
- * clusters adds one); touching segments without such an edge were merely not connected inside
- * the box, and the solve may still join them through another block. O(extended voxels *
- * offsets).
+ * clusters adds one) on the strength of its core alone; touching segments without such an edge
+ * were merely not connected inside the box, and the solve may still join them through another
+ * block. Unsettled pieces have no separated pairs: the solve decides them from their edges.
+ * O(extended voxels * offsets).
  */
 final class CoreSegments {
   private CoreSegments() {}
@@ -36,8 +43,60 @@ final class CoreSegments {
   /** The provisional labels of the core (core order) and the block's summary. */
   record Result(long[] provisionalLabels, BlockSummary summary) {}
 
+  /**
+   * The open voxels of a block's extended box (memory order): those closer to a side of the box
+   * that lies inside the volume than the longest offset along that axis, so that some of their
+   * edges leave the box. None when the extended box is the whole volume.
+   */
+  static byte[] openVoxels(BlockGrid grid, Block block, Offsets offsets) {
+    int n = grid.numDimensions();
+    int[] shape = block.extendedShape();
+    int[] reach = reach(offsets, n);
+    int[] lowEnd = new int[n];
+    int[] highStart = new int[n];
+    long[] min = block.extendedMin();
+    long[] max = block.extendedMax();
+    for (int d = 0; d < n; d++) {
+      lowEnd[d] = min[d] > 0 ? reach[d] : 0;
+      highStart[d] = max[d] < grid.volumeShape()[d] - 1 ? shape[d] - reach[d] : Integer.MAX_VALUE;
+    }
+    int voxels = 1;
+    for (int extent : shape) {
+      voxels *= extent;
+    }
+    byte[] open = new byte[voxels];
+    int[] p = new int[n];
+    for (int i = 0; i < voxels; i++) {
+      for (int d = 0; d < n; d++) {
+        if (p[d] < lowEnd[d] || p[d] >= highStart[d]) {
+          open[i] = 1;
+          break;
+        }
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < shape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return open;
+  }
+
+  /** The longest offset along each axis. */
+  private static int[] reach(Offsets offsets, int n) {
+    int[] depth = new int[n];
+    for (int k = 0; k < offsets.count(); k++) {
+      for (int d = 0; d < n; d++) {
+        depth[d] = Math.max(depth[d], Math.abs(offsets.component(k, d)));
+      }
+    }
+    return depth;
+  }
+
   static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
-      Segmentation segmentation, GridGraph extendedGraph) {
+      SettledPartition partition, GridGraph extendedGraph) {
+    Segmentation segmentation = partition.pieces();
     int[] extShape = block.extendedShape();
     int[] coreShape = block.coreShape();
     int[] coreIndex = BoxIndex.subBoxIndices(extShape,
@@ -62,21 +121,28 @@ final class CoreSegments {
       }
     }
     int[] sides = boundarySides(grid, block, offsets, coreShape, coreLocal, localCount);
+    boolean[] boundary = new boolean[localCount + 1];
+    boolean[] unsettled = new boolean[localCount + 1];
     int boundaryCount = 0;
-    for (int k = 1; k <= localCount; k++) {
-      boundaryCount += sides[k] != 0 ? 1 : 0;
+    for (int label = 1; label < localOf.length; label++) {
+      int local = localOf[label];
+      if (local != 0) {
+        unsettled[local] = partition.unsettled()[label];
+        boundary[local] = sides[local] != 0 || unsettled[local];
+        boundaryCount += boundary[local] ? 1 : 0;
+      }
     }
     int[] boundaryIds = new int[boundaryCount];
     int[] boundarySides = new int[boundaryCount];
     int next = 0;
     for (int k = 1; k <= localCount; k++) {
-      if (sides[k] != 0) {
+      if (boundary[k]) {
         boundaryIds[next] = k;
         boundarySides[next++] = sides[k];
       }
     }
-    Inner inner = innerEdges(layout, block.index(), labels, localOf, coreIndex, sides,
-        extendedGraph);
+    Inner inner = innerEdges(layout, block.index(), labels, localOf, coreIndex, boundary,
+        unsettled, extendedGraph);
     long[] provisional = new long[coreLocal.length];
     for (int i = 0; i < coreLocal.length; i++) {
       int local = coreLocal[i];
@@ -94,12 +160,7 @@ final class CoreSegments {
   private static int[] boundarySides(BlockGrid grid, Block block, Offsets offsets,
       int[] coreShape, int[] coreLocal, int localCount) {
     int n = coreShape.length;
-    int[] depth = new int[n];
-    for (int k = 0; k < offsets.count(); k++) {
-      for (int d = 0; d < n; d++) {
-        depth[d] = Math.max(depth[d], Math.abs(offsets.component(k, d)));
-      }
-    }
+    int[] depth = reach(offsets, n);
     int[] lowEnd = new int[n];
     int[] highStart = new int[n];
     for (int d = 0; d < n; d++) {
@@ -138,12 +199,12 @@ final class CoreSegments {
   private record Inner(EdgeStatistics edges, long[] separatedU, long[] separatedV) {}
 
   private static Inner innerEdges(IdLayout layout, int block, int[] labels, int[] localOf,
-      int[] coreIndex, int[] sides, GridGraph extendedGraph) {
+      int[] coreIndex, boolean[] boundary, boolean[] unsettled, GridGraph extendedGraph) {
     int[] boundaryOf = new int[localOf.length];
     boolean any = false;
     for (int label = 1; label < localOf.length; label++) {
       int local = localOf[label];
-      if (local != 0 && sides[local] != 0) {
+      if (local != 0 && boundary[local]) {
         boundaryOf[label] = local;
         any = true;
       }
@@ -166,7 +227,7 @@ final class CoreSegments {
       if (inCore[s] && inCore[t]) {
         core.add(a, b, w);
       }
-      if (w < 0) {
+      if (w < 0 && !unsettled[a] && !unsettled[b]) {
         repulsive.add(a, b, w);
       }
     });

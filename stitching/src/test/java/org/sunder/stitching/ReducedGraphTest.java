@@ -20,6 +20,7 @@ import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.SettledPartition;
 
 /**
  * The central bookkeeping property: inner edges of all blocks plus seam edges of all faces are
@@ -64,8 +65,13 @@ class ReducedGraphTest {
       AffinityBlock ext = crop(affinities, shape, offsets, block.extendedMin(),
           block.extendedMax());
       Segmentation segmentation = blobs(ext, block.index());
-      CoreSegments.Result result = CoreSegments.of(grid, layout, block, offsets, segmentation,
-          GridGraph.of(ext, rule, subsampling));
+      // some pieces unsettled: they enter the solve wherever they lie
+      boolean[] unsettled = new boolean[segmentation.segmentCount() + 1];
+      for (int label = 1; label < unsettled.length; label++) {
+        unsettled[label] = random.nextInt(4) == 0;
+      }
+      CoreSegments.Result result = CoreSegments.of(grid, layout, block, offsets,
+          new SettledPartition(segmentation, unsettled), GridGraph.of(ext, rule, subsampling));
       paste(result.provisionalLabels(), block.coreMin(), block.coreShape(), provisional, shape);
       summaries.add(result.summary());
     }

@@ -30,6 +30,10 @@ final class MutexClusters {
   private int[] entryNext;
   private int entries;
   private final PairSet pairs;
+  /** 1 for an open node; null unless merges are held back. */
+  private byte[] open;
+  /** Union-find of the merges made by edges between two nodes that are not open. */
+  private int[] pieceParent;
 
   MutexClusters(int nodeCount) {
     parent = new int[nodeCount];
@@ -44,6 +48,20 @@ final class MutexClusters {
     entryNode = new int[guess];
     entryNext = new int[guess];
     pairs = new PairSet(guess / 2);
+  }
+
+  /**
+   * Holds back, from {@link #pieceRoots()}, every merge made by an edge with an open end
+   * ({@code open[node] != 0}), so that open nodes stay single and the pieces are the clusters'
+   * merge forests cut at the open nodes (see {@link SettledPartition}). Call before the first
+   * edge; {@code openNodes} is not copied.
+   */
+  void holdBack(byte[] openNodes) {
+    open = openNodes;
+    pieceParent = new int[parent.length];
+    for (int i = 0; i < pieceParent.length; i++) {
+      pieceParent[i] = i;
+    }
   }
 
   int find(int x) {
@@ -62,6 +80,9 @@ final class MutexClusters {
     int rv = find(v);
     if (ru != rv && !constrained(ru, rv)) {
       union(ru, rv);
+      if (open != null && open[u] == 0 && open[v] == 0) {
+        pieceParent[findPiece(u)] = findPiece(v);
+      }
     }
   }
 
@@ -144,6 +165,25 @@ final class MutexClusters {
       labels[i] = labelOfRoot[r];
     }
     return new Segmentation(labels, next);
+  }
+
+  private int findPiece(int x) {
+    int[] p = pieceParent;
+    while (p[x] != x) {
+      int up = p[p[x]];
+      p[x] = up;
+      x = up;
+    }
+    return x;
+  }
+
+  /** Piece root of every node; needs {@link #holdBack}. */
+  int[] pieceRoots() {
+    int[] r = new int[pieceParent.length];
+    for (int i = 0; i < r.length; i++) {
+      r[i] = findPiece(i);
+    }
+    return r;
   }
 
   /** Root of every node, written into a fresh array. */

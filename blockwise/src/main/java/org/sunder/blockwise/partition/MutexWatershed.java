@@ -40,6 +40,11 @@ public final class MutexWatershed implements Partitioner {
     return partition(GridGraph.of(block, rule, subsampling));
   }
 
+  @Override
+  public SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
+    return partitionSettled(GridGraph.of(block, rule, subsampling), open);
+  }
+
   /** The Mutex Watershed of a voxel grid graph; masked voxels get label 0. */
   public static Segmentation partition(GridGraph graph) {
     MutexClusters clusters = new MutexClusters(graph.nodeCount());
@@ -49,6 +54,23 @@ public final class MutexWatershed implements Partitioner {
       runFloat(graph, clusters);
     }
     return clusters.segmentation(graph.block().maskOrNull());
+  }
+
+  /**
+   * The Mutex Watershed of a voxel grid graph with the merges that lean on open voxels held
+   * back (see {@link SettledPartition}); {@code open} has one flag per voxel.
+   */
+  public static SettledPartition partitionSettled(GridGraph graph, byte[] open) {
+    SettledPartition.checkOpen(open, graph.nodeCount());
+    MutexClusters clusters = new MutexClusters(graph.nodeCount());
+    clusters.holdBack(open);
+    if (graph.block().isQuantized()) {
+      runQuantized(graph, clusters);
+    } else {
+      runFloat(graph, clusters);
+    }
+    return SettledPartition.of(clusters.roots(), clusters.pieceRoots(), open,
+        graph.block().maskOrNull());
   }
 
   /** The Mutex Watershed of a sparse signed graph. */

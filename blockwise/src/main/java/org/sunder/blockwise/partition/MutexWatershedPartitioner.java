@@ -13,4 +13,9 @@ public record MutexWatershedPartitioner(WeightRule weights, Subsampling subsampl
   public Segmentation partition(AffinityBlock block) {
     return MutexWatershed.partition(GridGraph.of(block, weights, subsampling));
   }
+
+  @Override
+  public SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
+    return MutexWatershed.partitionSettled(GridGraph.of(block, weights, subsampling), open);
+  }
 }

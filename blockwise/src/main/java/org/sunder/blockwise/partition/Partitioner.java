@@ -10,4 +10,16 @@ import org.sunder.blockwise.graph.AffinityBlock;
 public interface Partitioner {
   /** The segmentation of {@code block}: labels 1..n in order of first voxel, 0 = masked. */
   Segmentation partition(AffinityBlock block);
+
+  /**
+   * The partition of {@code block} with the merges that lean on its open voxels ({@code open[i]
+   * != 0}, one flag per voxel) held back; see {@link SettledPartition}. The Mutex Watershed
+   * holds merges back; the other methods return their partition with every segment settled
+   * (cutting an agglomeration's clusters at open voxels changes the order in which the solve
+   * would continue it, and measured worse), and blockwise runs then rely on the halo alone.
+   */
+  default SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
+    SettledPartition.checkOpen(open, block.voxelCount());
+    return SettledPartition.whole(partition(block));
+  }
 }

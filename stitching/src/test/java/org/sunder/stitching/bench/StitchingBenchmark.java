@@ -49,7 +49,7 @@ import org.sunder.stitching.StitchingSetup;
  * <p>Arguments (optional): {@code x y z} volume shape (default 192 192 48), seed (11),
  * degradation: {@code mild} (default: the synth package's moderate mix without corrupted
  * slices), {@code moderate} or {@code none}; halo as a multiple of the longest offset per axis
- * (default 1).
+ * (default 1); methods, comma-separated ({@code mutex-watershed,mean}, the default).
  */
 public final class StitchingBenchmark {
   private static final ThreadMXBean CPU = ManagementFactory.getThreadMXBean();
@@ -91,8 +91,13 @@ public final class StitchingBenchmark {
     PartitionConfig[] configs = {PartitionConfig.mutexWatershed(null, null),
         PartitionConfig.agglomeration(Linkage.MEAN, false, null, null)};
     String[] names = {"mutex-watershed", "mean"};
+    List<String> chosen = List.of((args.length >= 7 ? args[6] : String.join(",", names))
+        .split(","));
     for (int m = 0; m < configs.length; m++) {
       PartitionConfig config = configs[m];
+      if (!chosen.contains(names[m])) {
+        continue;
+      }
       long start = CPU.getCurrentThreadCpuTime();
       long[] whole = wholeVolume(root, shape, offsets, config, "whole-" + names[m]);
       double wholeSeconds = (CPU.getCurrentThreadCpuTime() - start) / 1e9;
