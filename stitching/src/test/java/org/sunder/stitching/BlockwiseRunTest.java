@@ -90,30 +90,30 @@ class BlockwiseRunTest {
   }
 
   /**
-   * Mean linkage meets the target (variation of information to the whole-volume result at most
-   * 0.05 bits, scores against ground truth within 2% of the whole-volume scores) with a halo of
-   * the longest offset; the Mutex Watershed, whose decisions depend on mutual exclusions from far
-   * away, gets a wider halo and is held to 0.1 bits and 5% here (the benchmark reports its
-   * figures).
+   * The target (variation of information to the whole-volume result at most 0.05 bits, scores
+   * against ground truth within 2% of the whole-volume scores): mean linkage with a halo of the
+   * longest offset, the Mutex Watershed, whose decisions depend on mutual exclusions from
+   * further away, with twice that (measured here: 0.018 and 0.009 bits; the benchmark reports
+   * larger volumes).
    */
   @Test
   void blockwiseResultIsCloseToTheWholeVolumeResult() {
     TissueScene scene = TissueScene.small(9, SHAPE, MILD);
     for (PartitionConfig config : List.of(MWS, MEAN)) {
-      boolean mws = config.isMutexWatershed();
-      int[] halo = mws ? new int[] {9, 9, 6} : HALO;
+      int[] halo = config.isMutexWatershed() ? new int[] {6, 6, 4} : HALO;
       StitchingSetup setup = stage(scene, "close-" + config.method(), StorageFormat.ZARR,
           BLOCK, halo, config);
       InProcessRunner.run(setup);
       long[] blockwise = SceneStore.readLabels(setup);
       long[] reference = whole(scene, config);
       SegmentationScores vsWhole = score(reference, blockwise, false);
-      assertTrue(vsWhole.voi() <= (mws ? 0.1 : 0.05),
-          config + ": VOI to whole " + vsWhole.voi());
+      assertTrue(vsWhole.voi() <= 0.05, config + ": VOI to whole " + vsWhole.voi());
       SegmentationScores truthBlockwise = score(scene.groundTruth, blockwise, true);
       SegmentationScores truthWhole = score(scene.groundTruth, reference, true);
-      assertEquals(truthWhole.voi(), truthBlockwise.voi(),
-          (mws ? 0.05 : 0.02) * truthWhole.voi(), config.toString());
+      assertEquals(truthWhole.voi(), truthBlockwise.voi(), 0.02 * truthWhole.voi(),
+          config.toString());
+      assertEquals(truthWhole.adaptedRandError(), truthBlockwise.adaptedRandError(),
+          0.02 * truthWhole.adaptedRandError(), config.toString());
     }
   }
 
