@@ -47,13 +47,7 @@ public final class MutexWatershed implements Partitioner {
 
   /** The Mutex Watershed of a voxel grid graph; masked voxels get label 0. */
   public static Segmentation partition(GridGraph graph) {
-    MutexClusters clusters = new MutexClusters(graph.nodeCount());
-    if (graph.block().isQuantized()) {
-      runQuantized(graph, clusters);
-    } else {
-      runFloat(graph, clusters);
-    }
-    return clusters.segmentation(graph.block().maskOrNull());
+    return run(graph, null).segmentation(graph.block().maskOrNull());
   }
 
   /**
@@ -62,15 +56,22 @@ public final class MutexWatershed implements Partitioner {
    */
   public static SettledPartition partitionSettled(GridGraph graph, byte[] open) {
     SettledPartition.checkOpen(open, graph.nodeCount());
+    MutexClusters clusters = run(graph, open);
+    return SettledPartition.of(clusters.roots(), clusters.pieceRoots(), open,
+        graph.block().maskOrNull());
+  }
+
+  private static MutexClusters run(GridGraph graph, byte[] openOrNull) {
     MutexClusters clusters = new MutexClusters(graph.nodeCount());
-    clusters.holdBack(open);
+    if (openOrNull != null) {
+      clusters.holdBack(openOrNull);
+    }
     if (graph.block().isQuantized()) {
       runQuantized(graph, clusters);
     } else {
       runFloat(graph, clusters);
     }
-    return SettledPartition.of(clusters.roots(), clusters.pieceRoots(), open,
-        graph.block().maskOrNull());
+    return clusters;
   }
 
   /** The Mutex Watershed of a sparse signed graph. */

@@ -84,6 +84,26 @@ class GridGraphTest {
   }
 
   @Test
+  void presentSlotsMarkExactlyTheVisitedEdgesUnderMaskAndSubsampling() {
+    Random random = new Random(21);
+    int[] shape = {9, 6, 5};
+    int n = 270;
+    byte[] mask = new byte[n];
+    for (int i = 0; i < n; i++) {
+      mask[i] = (byte) (random.nextInt(4) == 0 ? 0 : 1);
+    }
+    AffinityBlock block = AffinityBlock.ofFloats(randomAffinities(n, 6, random), shape,
+        new long[] {3, 1, 4}, OFFSETS, mask);
+    for (Subsampling sub : new Subsampling[] {Subsampling.none(), Subsampling.hash(0.4, 9),
+        Subsampling.stride(2, 1, 2)}) {
+      GridGraph graph = GridGraph.of(block, WeightRule.byChannelRole(), sub);
+      byte[] expected = new byte[graph.edgeSlotCount()];
+      graph.forEachEdge((s, t, k, w) -> expected[s + k * n] = 1);
+      assertTrue(java.util.Arrays.equals(expected, graph.presentSlots()), sub.toString());
+    }
+  }
+
+  @Test
   void channelRoleWeights() {
     float[] a = new float[3 * 2 * 6];
     for (int i = 0; i < a.length; i++) {
