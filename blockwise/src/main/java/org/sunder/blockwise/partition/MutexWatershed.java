@@ -22,9 +22,9 @@ import org.sunder.blockwise.graph.WeightRule;
  * weights by a 32-bit key per edge slot and a radix sort of the 64-bit (key, edge id) entries,
  * stable and {@code O(E)}; sparse graphs by a stable LSD radix sort of 64-bit keys. Then
  * {@code O(E α(N))} union-find work plus the constraint bookkeeping of {@link MutexClusters}.
- * Memory on the grid: 4 bytes per edge slot plus 8 per present edge (float; plus a scratch as
- * large as the largest bucket out of order), or 4 per present edge (8-bit); plus 1 byte per
- * edge slot and 20 per voxel, plus the constraints. Thread-safe (no state).
+ * Memory on the grid: 4 bytes per present edge plus 1 byte per edge slot and 20 per voxel,
+ * plus the constraints; float weights add 4 bytes per edge slot, 4 more per edge in a bucket
+ * out of order and a scratch of 8 bytes per edge of the largest such bucket. Thread-safe (no state).
  */
 public final class MutexWatershed implements Partitioner {
   private final WeightRule rule;
@@ -117,58 +117,104 @@ public final class MutexWatershed implements Partitioner {
 
   /**
    * Float weights: a 32-bit key per edge slot (inverted magnitude, then attractive before
-   * repulsive) and a most-significant-digit radix sort of the present slots: a stable counting
-   * sort by the top {@code 32 - LOW_BITS} key bits (exponent and top mantissa bits; few enough
-   * buckets for the scatter to stay in cache), then, inside each bucket that is not already in
-   * order, a stable least-significant-digit radix sort of the low {@code LOW_BITS} bits in two
-   * passes through a scratch array. A sorted entry holds the key with its top bit flipped (so
-   * signed order is unsigned key order) above the packed edge id {@code (k << bits) | voxel}
-   * (same order as the edge id, and decoded without a division). Stable passes over entries
-   * generated in edge id order give exactly (key, edge id) order.
+   * repulsive) and a most-significant-digit radix sort of the present slots' packed edge ids
+   * {@code (k << bits) | voxel} (same order as the edge id, decoded without a division): a
+   * stable counting sort by the top {@code 32 - LOW_BITS} key bits (exponent and top mantissa
+   * bits; few enough buckets for the scatter to stay in cache). A bucket whose keys ascend with
+   * the edge id (ties, typically; the key pass notes which) holds bare ids and runs as it is.
+   * Any other bucket holds 64-bit entries, the key with its top bit flipped (so signed order is
+   * unsigned key order) above the id, sorted by a stable least-significant-digit radix sort of
+   * the low {@code LOW_BITS} bits in two passes. Stable passes over ids generated in ascending
+   * order give exactly (key, edge id) order.
    */
   private static void runFloat(GridGraph graph, MutexClusters clusters) {
     int n = graph.nodeCount();
     byte[] present = graph.presentSlots();
     int[] key = new int[present.length];
-    int[] start = new int[HIGH_BUCKETS + 1];
+    int[] size = new int[HIGH_BUCKETS];
+    int[] last = new int[HIGH_BUCKETS];
+    java.util.Arrays.fill(last, Integer.MIN_VALUE);
+    boolean[] disordered = new boolean[HIGH_BUCKETS];
     for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
       for (int v = 0; v < n; v++, slot++) {
         float w = present[slot] == 0 ? 0 : graph.weight(v, k);
         int x = w == 0 ? NO_EDGE : floatKey(w);
         key[slot] = x;
         if (x != NO_EDGE) {
-          start[(x >>> LOW_BITS) + 1]++;
+          int b = x >>> LOW_BITS;
+          size[b]++;
+          int ordered = x ^ Integer.MIN_VALUE;
+          disordered[b] |= ordered < last[b];
+          last[b] = ordered;
         }
       }
     }
-    for (int c = 0; c < HIGH_BUCKETS; c++) {
-      start[c + 1] += start[c];
+    int[] start = new int[HIGH_BUCKETS];
+    int idCount = 0;
+    int entryCount = 0;
+    int largest = 0;
+    for (int b = 0; b < HIGH_BUCKETS; b++) {
+      if (disordered[b]) {
+        start[b] = entryCount;
+        entryCount += size[b];
+        largest = Math.max(largest, size[b]);
+      } else {
+        start[b] = idCount;
+        idCount += size[b];
+      }
     }
-    long[] sorted = new long[start[HIGH_BUCKETS]];
-    int[] next = java.util.Arrays.copyOf(start, HIGH_BUCKETS);
+    int[] ids = new int[idCount];
+    long[] entries = new long[entryCount];
+    int[] next = start.clone();
     int bits = voxelBits(n);
     for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
       for (int v = 0; v < n; v++, slot++) {
         int x = key[slot];
         if (x != NO_EDGE) {
-          sorted[next[x >>> LOW_BITS]++] = entry(x, (k << bits) | v);
+          int b = x >>> LOW_BITS;
+          int id = (k << bits) | v;
+          if (disordered[b]) {
+            entries[next[b]++] = entry(x, id);
+          } else {
+            ids[next[b]++] = id;
+          }
         }
       }
     }
     int[] delta = deltas(graph);
-    long[] scratch = new long[0];
+    long[] scratch = new long[largest];
     int[] count = new int[DIGIT_BUCKETS];
-    for (int c = 0; c < HIGH_BUCKETS; c++) {
-      int from = start[c];
-      int to = start[c + 1];
-      if (!inOrder(sorted, from, to)) {
-        if (scratch.length < to - from) {
-          scratch = new long[to - from];
-        }
-        digitPass(sorted, from, to, scratch, 0, 0, count);
-        digitPass(scratch, 0, to - from, sorted, from, DIGIT_BITS, count);
+    for (int b = 0; b < HIGH_BUCKETS; b++) {
+      int from = start[b];
+      int to = from + size[b];
+      if (disordered[b]) {
+        digitPass(entries, from, to, scratch, 0, 0, count);
+        digitPass(scratch, 0, to - from, entries, from, DIGIT_BITS, count);
+        process(entries, from, to, bits, delta, clusters);
+      } else {
+        processIds(key, ids, from, to, bits, n, delta, clusters);
       }
-      process(sorted, from, to, bits, delta, clusters);
+    }
+  }
+
+  /** The edge slot {@code voxel + k * n} of a packed edge id {@code (k << bits) | voxel}. */
+  private static int slotOf(int id, int bits, int n) {
+    return (id >>> bits) * n + (id & ((1 << bits) - 1));
+  }
+
+  /** Runs packed edge ids already in (key, edge id) order; the key gives each edge's sign. */
+  private static void processIds(int[] key, int[] ids, int from, int to, int bits, int n,
+      int[] delta, MutexClusters clusters) {
+    int voxelMask = (1 << bits) - 1;
+    for (int i = from; i < to; i++) {
+      int id = ids[i];
+      int source = id & voxelMask;
+      int target = source + delta[id >>> bits];
+      if ((key[slotOf(id, bits, n)] & 1) == 0) {
+        clusters.attract(source, target);
+      } else {
+        clusters.repel(source, target);
+      }
     }
   }
 
@@ -221,15 +267,6 @@ public final class MutexWatershed implements Partitioner {
 
   private static int keyOf(long entry) {
     return (int) (entry >>> 32) ^ Integer.MIN_VALUE;
-  }
-
-  private static boolean inOrder(long[] entries, int from, int to) {
-    for (int i = from + 1; i < to; i++) {
-      if (entries[i - 1] > entries[i]) {
-        return false;
-      }
-    }
-    return true;
   }
 
   /** Key bits sorted inside a top-level bucket: two digits of {@link #DIGIT_BITS}. */
