@@ -30,6 +30,11 @@ final class MutexClusters {
   private int[] entryNext;
   private int entries;
   private final PairSet pairs;
+  /**
+   * The pair last found in or added to {@link #pairs} (pairs are never removed): consecutive
+   * edges of one offset in a tie often join the same two clusters, and this spares their lookup.
+   */
+  private long lastPair = -1;
   /** 1 for an open node; null unless merges are held back. */
   private byte[] open;
   /** Union-find of the merges made by edges between two nodes that are not open. */
@@ -93,16 +98,28 @@ final class MutexClusters {
     if (ru == rv) {
       return;
     }
-    if (pairs.add(PairSet.pair(record[4 * ru + OWNER], record[4 * rv + OWNER]))) {
+    long pair = PairSet.pair(record[4 * ru + OWNER], record[4 * rv + OWNER]);
+    if (pair != lastPair && pairs.add(pair)) {
       append(ru, rv);
       append(rv, ru);
     }
+    lastPair = pair;
   }
 
   private boolean constrained(int ru, int rv) {
     int[] r = record;
-    return r[4 * ru + LENGTH] != 0 && r[4 * rv + LENGTH] != 0
-        && pairs.contains(PairSet.pair(r[4 * ru + OWNER], r[4 * rv + OWNER]));
+    if (r[4 * ru + LENGTH] == 0 || r[4 * rv + LENGTH] == 0) {
+      return false;
+    }
+    long pair = PairSet.pair(r[4 * ru + OWNER], r[4 * rv + OWNER]);
+    if (pair == lastPair) {
+      return true;
+    }
+    if (pairs.contains(pair)) {
+      lastPair = pair;
+      return true;
+    }
+    return false;
   }
 
   private void union(int ru, int rv) {
