@@ -51,7 +51,7 @@ final class CoreSegments {
   static byte[] openVoxels(BlockGrid grid, Block block, Offsets offsets) {
     int n = grid.numDimensions();
     int[] shape = block.extendedShape();
-    int[] reach = reach(offsets, n);
+    int[] reach = offsets.reach();
     int[] lowEnd = new int[n];
     int[] highStart = new int[n];
     long[] min = block.extendedMin();
@@ -81,17 +81,6 @@ final class CoreSegments {
       }
     }
     return open;
-  }
-
-  /** The longest offset along each axis. */
-  private static int[] reach(Offsets offsets, int n) {
-    int[] depth = new int[n];
-    for (int k = 0; k < offsets.count(); k++) {
-      for (int d = 0; d < n; d++) {
-        depth[d] = Math.max(depth[d], Math.abs(offsets.component(k, d)));
-      }
-    }
-    return depth;
   }
 
   static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
@@ -160,7 +149,7 @@ final class CoreSegments {
   private static int[] boundarySides(BlockGrid grid, Block block, Offsets offsets,
       int[] coreShape, int[] coreLocal, int localCount) {
     int n = coreShape.length;
-    int[] depth = reach(offsets, n);
+    int[] depth = offsets.reach();
     int[] lowEnd = new int[n];
     int[] highStart = new int[n];
     for (int d = 0; d < n; d++) {

@@ -26,11 +26,9 @@ final class SeamExtraction {
     long[] volume = grid.volumeShape();
     long[] min = face.lateralMin();
     long[] max = face.lateralMax();
+    int[] longest = offsets.reach();
     for (int d = 0; d < n; d++) {
-      int reach = 0;
-      for (int k = 0; k < offsets.count(); k++) {
-        reach = Math.max(reach, Math.abs(offsets.component(k, d)));
-      }
+      int reach = longest[d];
       if (d == face.axis()) {
         min[d] = Math.max(0, face.position() - Math.max(1, reach));
         max[d] = Math.min(volume[d] - 1, face.position() + Math.max(1, reach) - 1);

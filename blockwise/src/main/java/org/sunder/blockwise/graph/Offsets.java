@@ -98,6 +98,17 @@ public record Offsets(int[][] vectors) implements Serializable {
     return vectors[k][d];
   }
 
+  /** The longest offset along each axis: {@code max_k |component(k, d)|} per axis {@code d}. */
+  public int[] reach() {
+    int[] reach = new int[dimension()];
+    for (int[] vector : vectors) {
+      for (int d = 0; d < reach.length; d++) {
+        reach[d] = Math.max(reach[d], Math.abs(vector[d]));
+      }
+    }
+    return reach;
+  }
+
   /** True unless offset {@code k} is a unit step along one axis. */
   public boolean isLongRange(int k) {
     int nonZero = 0;

@@ -1,10 +1,7 @@
 package org.sunder.blockwise.partition;
 
-import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.SignedGraph;
-import org.sunder.blockwise.graph.Subsampling;
-import org.sunder.blockwise.graph.WeightRule;
 
 /**
  * The Mutex Watershed, after "The Mutex Watershed and its Objective: Efficient, Parameter-Free
@@ -24,26 +21,11 @@ import org.sunder.blockwise.graph.WeightRule;
  * {@code O(E α(N))} union-find work plus the constraint bookkeeping of {@link MutexClusters}.
  * Memory on the grid: 4 bytes per present edge plus 1 byte per edge slot and 20 per voxel,
  * plus the constraints; float weights add 4 bytes per edge slot, 4 more per edge in a bucket
- * out of order and a scratch of 8 bytes per edge of the largest such bucket. Thread-safe (no state).
+ * out of order and a scratch of 8 bytes per edge of the largest such bucket. Static functions,
+ * thread-safe (no state); {@link MutexWatershedPartitioner} is the configured method.
  */
-public final class MutexWatershed implements Partitioner {
-  private final WeightRule rule;
-  private final Subsampling subsampling;
-
-  public MutexWatershed(WeightRule rule, Subsampling subsampling) {
-    this.rule = rule;
-    this.subsampling = subsampling;
-  }
-
-  @Override
-  public Segmentation partition(AffinityBlock block) {
-    return partition(GridGraph.of(block, rule, subsampling));
-  }
-
-  @Override
-  public SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
-    return partitionSettled(GridGraph.of(block, rule, subsampling), open);
-  }
+public final class MutexWatershed {
+  private MutexWatershed() {}
 
   /** The Mutex Watershed of a voxel grid graph; masked voxels get label 0. */
   public static Segmentation partition(GridGraph graph) {

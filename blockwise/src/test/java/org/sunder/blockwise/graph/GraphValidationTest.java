@@ -1,5 +1,6 @@
 package org.sunder.blockwise.graph;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -33,6 +34,7 @@ class GraphValidationTest {
     assertEquals(-1, o.toZyx()[0][0]);
     assertTrue(o.isLongRange(1));
     assertTrue(!o.isLongRange(0));
+    assertArrayEquals(new int[] {9, 0, 1}, o.reach());
   }
 
   @Test

@@ -58,7 +58,7 @@ class MutexWatershedTest {
       assertTrue(PartitionFixtures.isValid(grid, block.maskOrNull()));
       Clustering sparse = ReferenceMutexWatershed.partition(graph.toSignedGraph());
       assertEquals(Segmentation.fromClusters(sparse.clusterOf(), block.maskOrNull()), grid);
-      assertEquals(grid, new MutexWatershed(rule, sub).partition(block));
+      assertEquals(grid, new MutexWatershedPartitioner(rule, sub).partition(block));
     }
   }
 

@@ -18,7 +18,7 @@ class SettledPartitionTest {
   private static Partitioner[] methods() {
     return new Partitioner[] {
         new MutexWatershedPartitioner(WeightRule.byChannelRole(), Subsampling.none()),
-        new MutexWatershed(WeightRule.byValue(WeightRule.Transform.CENTERED, null),
+        new MutexWatershedPartitioner(WeightRule.byValue(WeightRule.Transform.CENTERED, null),
             Subsampling.hash(0.5, 3))};
   }
 

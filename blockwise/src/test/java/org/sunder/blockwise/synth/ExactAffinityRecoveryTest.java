@@ -13,7 +13,7 @@ import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
-import org.sunder.blockwise.partition.MutexWatershed;
+import org.sunder.blockwise.partition.MutexWatershedPartitioner;
 import org.sunder.blockwise.partition.Segmentation;
 
 /** Exact affinities plus the Mutex Watershed give back the ground truth: VOI 0. */
@@ -31,7 +31,8 @@ class ExactAffinityRecoveryTest {
     long[] s = v.shape();
     int[] shape = {(int) s[0], (int) s[1], (int) s[2]};
     AffinityBlock block = AffinityBlock.ofFloats(affinities, shape, new long[3], offsets, null);
-    Segmentation segmentation = new MutexWatershed(rule, Subsampling.none()).partition(block);
+    Segmentation segmentation =
+        new MutexWatershedPartitioner(rule, Subsampling.none()).partition(block);
     long[] labels = Arrays.stream(segmentation.labels()).asLongStream().toArray();
     ContingencyTable table = new ContingencyTable();
     table.add(v.labels(), labels);
