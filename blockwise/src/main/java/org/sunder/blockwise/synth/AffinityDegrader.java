@@ -1,6 +1,7 @@
 package org.sunder.blockwise.synth;
 
 import java.util.SplittableRandom;
+import org.sunder.blockwise.graph.Offsets;
 
 /** Applies one {@link Degradation} to one affinity array; see there for what each kind does. */
 final class AffinityDegrader {
@@ -8,6 +9,9 @@ final class AffinityDegrader {
   private static final long FALSE_BOUNDARY_STREAM = 0xBB67AE8584CAA73BL;
   private static final long NOISE_STREAM = 0x3C6EF372FE94F82BL;
   private static final long SLICE_STREAM = 0xA54FF53A5F1D36F1L;
+  private static final long WIDENING_STREAM = 0x510E527FADE682D1L;
+  private static final long FIELD_STREAM = 0x9B05688C2B3E6C1FL;
+  private static final long MISSING_STREAM = 0x1F83D9ABFB41BD6BL;
 
   private final Degradation degradation;
   private final long[] labels;
@@ -18,6 +22,8 @@ final class AffinityDegrader {
   private final double[] size;
   private final double finest;
   private final int[][] offsets;
+  /** Per channel: true when the offset is not a unit step along one axis. */
+  private final boolean[] longRange;
 
   AffinityDegrader(Degradation degradation, long[] labels, long[] shape, double[] voxelSize,
       int[][] offsets) {
@@ -34,6 +40,11 @@ final class AffinityDegrader {
     this.size = voxelSize.clone();
     this.finest = Math.min(size[0], Math.min(size[1], size[2]));
     this.offsets = offsets;
+    Offsets vectors = Offsets.of(offsets);
+    this.longRange = new boolean[offsets.length];
+    for (int k = 0; k < offsets.length; k++) {
+      longRange[k] = vectors.isLongRange(k);
+    }
   }
 
   float[] degrade(float[] exact) {
@@ -42,6 +53,9 @@ final class AffinityDegrader {
           + n + " voxels x " + offsets.length + " channels");
     }
     float[] a = exact.clone();
+    if (degradation.boundaryWidening() > 0) {
+      widenBoundaries(a);
+    }
     if (degradation.gapRate() > 0) {
       gaps(a);
     }
@@ -51,11 +65,14 @@ final class AffinityDegrader {
     if (degradation.blurSigma() > 0) {
       blur(a);
     }
-    if (degradation.noiseSigma() > 0) {
+    if (degradation.noiseSigma() > 0 || degradation.correlatedNoiseSigma() > 0) {
       noise(a);
     }
     if (degradation.corruptSliceProbability() > 0) {
       corruptSlices(a);
+    }
+    if (degradation.missingSliceProbability() > 0) {
+      missingSlices(a);
     }
     return a;
   }
@@ -70,12 +87,105 @@ final class AffinityDegrader {
     for (int i = 0; i < n; i++) {
       if (labels[i] != 0 && touchesOtherObject(i) && random.nextDouble() < degradation.gapRate()) {
         forEdgesInBall(i, radius, (p, q, k) -> {
-          if (labels[q] != 0 && labels[p] != 0 && labels[p] != labels[q]) {
-            a[k * n + p] = (float) (0.85 + 0.15 * random.nextDouble());
+          if (labels[q] != 0 && labels[p] != 0) {
+            double high = 0.85 + 0.15 * random.nextDouble();
+            a[k * n + p] = (float) (labels[p] != labels[q] && longRange[k]
+                ? high * degradation.gapLongRangeStrength() : high);
           }
         });
       }
     }
+  }
+
+  private void widenBoundaries(float[] a) {
+    int width = degradation.boundaryWidening();
+    byte[] depth = surfaceDepth(width);
+    SplittableRandom random = stream(WIDENING_STREAM);
+    for (int k = 0; k < offsets.length; k++) {
+      if (longRange[k]) {
+        continue;
+      }
+      int[] d = offsets[k];
+      for (int z = 0; z < nz; z++) {
+        for (int y = 0; y < ny; y++) {
+          for (int x = 0; x < nx; x++) {
+            int qx = x + d[0];
+            int qy = y + d[1];
+            int qz = z + d[2];
+            if (qx < 0 || qy < 0 || qz < 0 || qx >= nx || qy >= ny || qz >= nz) {
+              continue;
+            }
+            int p = x + nx * (y + ny * z);
+            int q = qx + nx * (qy + ny * qz);
+            if (labels[p] != 0 && labels[p] == labels[q] && Math.min(depth[p], depth[q]) < width) {
+              a[k * n + p] = (float) (0.2 * random.nextDouble());
+            }
+          }
+        }
+      }
+    }
+  }
+
+  /**
+   * Steps from each labelled voxel to its object's surface, counted up to {@code limit}
+   * (deeper voxels get {@code limit}); steps go along the axes of the finest voxel size only.
+   * A breadth-first flood from the surface voxels, {@code O(n)}.
+   */
+  private byte[] surfaceDepth(int limit) {
+    byte[] depth = new byte[n];
+    java.util.Arrays.fill(depth, (byte) limit);
+    int[] frontier = new int[n];
+    int count = 0;
+    for (int i = 0; i < n; i++) {
+      if (labels[i] != 0 && touchesOtherLabelAlongFinestAxes(i)) {
+        depth[i] = 0;
+        frontier[count++] = i;
+      }
+    }
+    int[] next = new int[n];
+    int[] steps = {1, nx, nx * ny};
+    int[] extent = {nx, ny, nz};
+    for (int level = 1; level < limit && count > 0; level++) {
+      int nextSize = 0;
+      for (int f = 0; f < count; f++) {
+        int i = frontier[f];
+        int[] at = {i % nx, (i / nx) % ny, i / (nx * ny)};
+        for (int axis = 0; axis < 3; axis++) {
+          if (this.size[axis] != finest) {
+            continue;
+          }
+          for (int sign = -1; sign <= 1; sign += 2) {
+            int c = at[axis] + sign;
+            int j = i + sign * steps[axis];
+            if (c >= 0 && c < extent[axis] && labels[j] == labels[i] && depth[j] > level) {
+              depth[j] = (byte) level;
+              next[nextSize++] = j;
+            }
+          }
+        }
+      }
+      int[] swap = frontier;
+      frontier = next;
+      next = swap;
+      count = nextSize;
+    }
+    return depth;
+  }
+
+  private boolean touchesOtherLabelAlongFinestAxes(int i) {
+    int[] at = {i % nx, (i / nx) % ny, i / (nx * ny)};
+    int[] extent = {nx, ny, nz};
+    int[] steps = {1, nx, nx * ny};
+    for (int axis = 0; axis < 3; axis++) {
+      if (size[axis] != finest) {
+        continue;
+      }
+      if ((at[axis] > 0 && labels[i - steps[axis]] != labels[i])
+          || (at[axis] < extent[axis] - 1 && labels[i + steps[axis]] != labels[i])) {
+        return true;
+      }
+    }
+    return false;
   }
 
   private void falseBoundaries(float[] a) {
@@ -161,23 +271,29 @@ final class AffinityDegrader {
   }
 
   private void blur(float[] a) {
+    for (int k = 0; k < offsets.length; k++) {
+      blurChannel(a, k * n, degradation.blurSigma());
+    }
+  }
+
+  /** Blurs the {@code n} values from {@code base} with σ = {@code sigma} finest voxels. */
+  private void blurChannel(float[] a, int base, double sigma) {
     int[] extent = {nx, ny, nz};
     int[] stride = {1, nx, nx * ny};
-    float[] source = new float[n];
+    float[] source = null;
     for (int axis = 0; axis < 3; axis++) {
-      double sigma = degradation.blurSigma() * finest / size[axis];
-      int radius = (int) Math.ceil(3 * sigma);
+      double axisSigma = sigma * finest / size[axis];
+      int radius = (int) Math.ceil(3 * axisSigma);
       if (radius == 0 || extent[axis] == 1) {
         continue;
       }
-      double[] kernel = gaussianKernel(sigma, radius);
-      for (int k = 0; k < offsets.length; k++) {
-        if (axis == 0) {
-          blurRows(a, k * n, kernel, radius);
-        } else {
-          System.arraycopy(a, k * n, source, 0, n);
-          blurAcrossRows(source, a, k * n, stride[axis], extent[axis], kernel, radius);
-        }
+      double[] kernel = gaussianKernel(axisSigma, radius);
+      if (axis == 0) {
+        blurRows(a, base, kernel, radius);
+      } else {
+        source = source != null ? source : new float[n];
+        System.arraycopy(a, base, source, 0, n);
+        blurAcrossRows(source, a, base, stride[axis], extent[axis], kernel, radius);
       }
     }
   }
@@ -240,11 +356,38 @@ final class AffinityDegrader {
 
   private void noise(float[] a) {
     SplittableRandom random = stream(NOISE_STREAM);
-    double sigma = degradation.noiseSigma();
-    for (int i = 0; i < a.length; i++) {
-      double v = a[i] + sigma * gaussian(random);
-      a[i] = (float) (v < 0 ? 0 : (v > 1 ? 1 : v));
+    float[] field = degradation.correlatedNoiseSigma() > 0 ? smoothField() : null;
+    for (int k = 0; k < offsets.length; k++) {
+      double factor = longRange[k] ? degradation.longRangeNoiseFactor() : 1;
+      double sigma = degradation.noiseSigma() * factor;
+      double fieldSigma = degradation.correlatedNoiseSigma() * factor;
+      for (int i = 0, at = k * n; i < n; i++, at++) {
+        double v = a[at] + sigma * gaussian(random) + (field != null ? fieldSigma * field[i] : 0);
+        a[at] = (float) (v < 0 ? 0 : (v > 1 ? 1 : v));
+      }
     }
+  }
+
+  /** White noise blurred to the correlation length, rescaled to unit sample variance. */
+  private float[] smoothField() {
+    SplittableRandom random = stream(FIELD_STREAM);
+    float[] field = new float[n];
+    for (int i = 0; i < n; i++) {
+      field[i] = (float) gaussian(random);
+    }
+    blurChannel(field, 0, Degradation.NOISE_CORRELATION_VOXELS);
+    double sum = 0;
+    double squares = 0;
+    for (float v : field) {
+      sum += v;
+      squares += (double) v * v;
+    }
+    double mean = sum / n;
+    double sd = Math.sqrt(Math.max(squares / n - mean * mean, 1e-30));
+    for (int i = 0; i < n; i++) {
+      field[i] = (float) ((field[i] - mean) / sd);
+    }
+    return field;
   }
 
   private void corruptSlices(float[] a) {
@@ -258,6 +401,33 @@ final class AffinityDegrader {
         int base = k * n + z * plane;
         for (int i = 0; i < plane; i++) {
           a[base + i] = (float) random.nextDouble();
+        }
+      }
+    }
+  }
+
+  private void missingSlices(float[] a) {
+    SplittableRandom random = stream(MISSING_STREAM);
+    boolean[] missing = new boolean[nz];
+    boolean any = false;
+    for (int z = 0; z < nz; z++) {
+      missing[z] = random.nextDouble() < degradation.missingSliceProbability();
+      any |= missing[z];
+    }
+    if (!any) {
+      return;
+    }
+    int plane = nx * ny;
+    for (int k = 0; k < offsets.length; k++) {
+      int dz = offsets[k][2];
+      for (int z = 0; z < nz; z++) {
+        int qz = z + dz;
+        if (!missing[z] && (qz < 0 || qz >= nz || !missing[qz])) {
+          continue;
+        }
+        int base = k * n + z * plane;
+        for (int i = 0; i < plane; i++) {
+          a[base + i] = (float) (0.3 + 0.2 * random.nextDouble());
         }
       }
     }

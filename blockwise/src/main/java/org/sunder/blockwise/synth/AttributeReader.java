@@ -39,6 +39,16 @@ final class AttributeReader {
     return number(key).doubleValue();
   }
 
+  /** The integer at {@code key}, or {@code fallback} when the key is absent. */
+  int intValueOr(String key, int fallback) {
+    return map.containsKey(key) ? intValue(key) : fallback;
+  }
+
+  /** The number at {@code key}, or {@code fallback} when the key is absent. */
+  double doubleValueOr(String key, double fallback) {
+    return map.containsKey(key) ? doubleValue(key) : fallback;
+  }
+
   boolean booleanValue(String key) {
     Object v = map.get(key);
     if (!(v instanceof Boolean b)) {

@@ -59,6 +59,36 @@ public final class SyntheticVolume {
     return new SyntheticVolume(spec, pieces.labels(), kinds);
   }
 
+  /**
+   * This volume with an empty region: every voxel whose centre lies within {@code radius} (nm)
+   * of the z-parallel line through ({@code centreX}, {@code centreY}) (nm) becomes background,
+   * like the lumen of a vessel crossing the tissue. Objects are then made connected and
+   * renumbered as {@link #generate} does (a piece the cut leaves below
+   * {@link SynthSpec#minObjectVoxels()} joins its most-touching neighbour or becomes
+   * background), so every object stays one 6-connected piece. {@code O(n)}.
+   */
+  public SyntheticVolume withEmptyCylinder(double centreX, double centreY, double radius) {
+    long[] shape = spec.shape();
+    int nx = (int) shape[0];
+    int ny = (int) shape[1];
+    int nz = (int) shape[2];
+    double[] size = spec.voxelSize();
+    int[] objects = new int[labels.length];
+    for (int i = 0; i < labels.length; i++) {
+      double dx = (i % nx + 0.5) * size[0] - centreX;
+      double dy = ((i / nx) % ny + 0.5) * size[1] - centreY;
+      objects[i] = dx * dx + dy * dy <= radius * radius ? 0 : (int) labels[i];
+    }
+    ConnectedPieces.Result pieces = ConnectedPieces.of(objects, nx, ny, nz,
+        spec.minObjectVoxels(), true);
+    int[] objectOf = pieces.objectOfLabel();
+    ObjectKind[] kinds = new ObjectKind[objectOf.length];
+    for (int label = 1; label < objectOf.length; label++) {
+      kinds[label] = kindOfLabel[objectOf[label]];
+    }
+    return new SyntheticVolume(spec, pieces.labels(), kinds);
+  }
+
   public SynthSpec spec() {
     return spec;
   }
