@@ -31,11 +31,18 @@ import org.sunder.blockwise.graph.Offsets;
  * Labels are {@code 1..n} in order of each segment's first voxel (memory order). Every seed
  * component lies in exactly one segment and no segment holds two.
  *
+ * <p>Being a mean, the map dilutes a boundary that only one of a voxel's {@code d} stored edges
+ * crosses to {@code 1/d} of its strength: with exact affinities a voxel just across a flat face
+ * reads {@code b = 1/3} in 3D (1/2 in 2D), below the default threshold, so in 3D the seeds of
+ * touching objects join through their common faces unless the threshold is below {@code 1/d}.
+ * That weakness is part of what the yardstick stands for; the threshold is a parameter.
+ *
  * <p>Time {@code O(n · c)} for the map ({@code c} channels), {@code O(n)} for the seeds, and
  * {@code O(n log n)} for the flood with a binary heap, {@code O(n + L)} when {@code b} takes at
  * most {@value SeededWatershed#MAX_LEVELS} distinct values {@code L} (as 8-bit affinities
- * give: a bucket queue). Working memory about 16 bytes per voxel besides the queue (map, seeds,
- * labels). Immutable and thread-safe.
+ * give: a bucket queue). Working memory about 16 bytes per voxel (map, seeds, their search
+ * queue, labels) plus the flood's queue (12 bytes per queued voxel for the heap, 8 per voxel
+ * for the bucket queue). Immutable and thread-safe.
  */
 public final class BaselineWatershed {
   /** The seed threshold on {@code b} unless one is given. */
