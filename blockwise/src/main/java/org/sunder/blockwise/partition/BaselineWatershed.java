@@ -43,8 +43,12 @@ import org.sunder.blockwise.graph.Offsets;
  * give: a bucket queue). Working memory about 16 bytes per voxel (map, seeds, their search
  * queue, labels) plus the flood's queue (12 bytes per queued voxel for the heap, 8 per voxel
  * for the bucket queue). Immutable and thread-safe.
+ *
+ * <p>A {@link Partitioner}, so that benchmarks and evaluations run it beside Sunder's methods
+ * on the same blocks; it is not one of the methods {@link PartitionConfig} offers, and its
+ * {@link #partitionSettled} holds nothing back (the interface's default).
  */
-public final class BaselineWatershed {
+public final class BaselineWatershed implements Partitioner {
   /** The seed threshold on {@code b} unless one is given. */
   public static final double DEFAULT_THRESHOLD = 0.5;
 
@@ -74,7 +78,8 @@ public final class BaselineWatershed {
   }
 
   /** Segments a block (float or 8-bit affinities; its mask, if any, is honoured). */
-  public Segmentation segment(AffinityBlock block) {
+  @Override
+  public Segmentation partition(AffinityBlock block) {
     Objects.requireNonNull(block, "block");
     int[] shape = block.shape();
     float[] boundary = boundary(block);
@@ -96,10 +101,10 @@ public final class BaselineWatershed {
    *
    * @param maskOrNull 1 = inside, or null for no mask
    */
-  public Segmentation segment(float[] affinities, int[] shape, int[][] offsets,
+  public Segmentation partition(float[] affinities, int[] shape, int[][] offsets,
       byte[] maskOrNull) {
     Objects.requireNonNull(shape, "shape");
-    return segment(AffinityBlock.ofFloats(affinities, shape, new long[shape.length],
+    return partition(AffinityBlock.ofFloats(affinities, shape, new long[shape.length],
         Offsets.of(offsets), maskOrNull));
   }
 

@@ -76,11 +76,11 @@ class BaselineWatershedTest {
       BaselineWatershed baseline = new BaselineWatershed(threshold);
       AffinityBlock block = AffinityBlock.ofFloats(affinities, shape, new long[3],
           Offsets.of(OFFSETS), mask);
-      Segmentation segmentation = baseline.segment(block);
+      Segmentation segmentation = baseline.partition(block);
       String what = "trial " + trial;
       assertValidPartition(segmentation, shape, mask, what);
-      assertEquals(segmentation, baseline.segment(block), what + ": second run differs");
-      assertEquals(segmentation, baseline.segment(affinities.clone(), shape, OFFSETS,
+      assertEquals(segmentation, baseline.partition(block), what + ": second run differs");
+      assertEquals(segmentation, baseline.partition(affinities.clone(), shape, OFFSETS,
           mask == null ? null : mask.clone()), what + ": raw overload differs");
       int[] seeds = definitionSeeds(BaselineWatershed.boundary(block), shape, mask, threshold);
       assertEachSeedComponentInItsOwnSegment(seeds, segmentation.labels(), what);
@@ -102,10 +102,10 @@ class BaselineWatershedTest {
     }
     byte[] mask = randomMask(random, n);
     BaselineWatershed baseline = new BaselineWatershed();
-    Segmentation fromBytes = baseline.segment(AffinityBlock.ofBytes(bytes, shape, new long[3],
+    Segmentation fromBytes = baseline.partition(AffinityBlock.ofBytes(bytes, shape, new long[3],
         Offsets.of(OFFSETS), mask));
     assertValidPartition(fromBytes, shape, mask, "bytes");
-    assertEquals(baseline.segment(floats, shape, OFFSETS, mask), fromBytes);
+    assertEquals(baseline.partition(floats, shape, OFFSETS, mask), fromBytes);
     assertTrue(fromBytes.segmentCount() > 1, "a smooth field gives several basins");
   }
 
@@ -121,7 +121,7 @@ class BaselineWatershedTest {
         affinities[12 + y * 6 + x] = 0.9f;
       }
     }
-    Segmentation s = new BaselineWatershed().segment(affinities, shape,
+    Segmentation s = new BaselineWatershed().partition(affinities, shape,
         new int[][] {{-1, 0}, {0, -1}}, null);
     assertArrayEquals(new int[] {1, 1, 1, 2, 2, 2, 1, 1, 1, 2, 2, 2}, s.labels());
     assertEquals(2, s.segmentCount());
@@ -151,9 +151,9 @@ class BaselineWatershedTest {
     float[] b = BaselineWatershed.boundary(AffinityBlock.ofFloats(affinities, shape,
         new long[3], Offsets.of(offsets), null));
     assertEquals(1f / 3, b[3 + strides[1] + strides[2]], 1e-7f);
-    assertEquals(1, new BaselineWatershed().segment(affinities, shape, offsets, null)
+    assertEquals(1, new BaselineWatershed().partition(affinities, shape, offsets, null)
         .segmentCount());
-    Segmentation apart = new BaselineWatershed(0.3).segment(affinities, shape, offsets, null);
+    Segmentation apart = new BaselineWatershed(0.3).partition(affinities, shape, offsets, null);
     assertEquals(2, apart.segmentCount());
     for (int i = 0; i < n; i++) {
       int x = i % shape[0];
@@ -167,7 +167,7 @@ class BaselineWatershedTest {
   void seedlessVolumeIsOneSegmentAndSeedlessMaskRegionsAreTheirOwn() {
     int[] shape = {4, 3};
     float[] allBoundary = new float[24];
-    Segmentation all = new BaselineWatershed().segment(allBoundary, shape,
+    Segmentation all = new BaselineWatershed().partition(allBoundary, shape,
         new int[][] {{-1, 0}, {0, -1}}, null);
     assertEquals(1, all.segmentCount());
     // Column x = 1 masked out: left column (x = 0) and right part (x = 2, 3) are cut apart.
@@ -175,7 +175,7 @@ class BaselineWatershedTest {
     for (int i = 0; i < 12; i++) {
       mask[i] = (byte) (i % 4 == 1 ? 0 : 1);
     }
-    Segmentation cut = new BaselineWatershed().segment(allBoundary, shape,
+    Segmentation cut = new BaselineWatershed().partition(allBoundary, shape,
         new int[][] {{-1, 0}, {0, -1}}, mask);
     assertArrayEquals(new int[] {1, 0, 2, 2, 1, 0, 2, 2, 1, 0, 2, 2}, cut.labels());
   }
@@ -189,10 +189,10 @@ class BaselineWatershedTest {
       assertTrue(e.getMessage().contains("threshold " + t), e.getMessage());
     }
     GraphInputException e = assertThrows(GraphInputException.class,
-        () -> new BaselineWatershed().segment(new float[8], new int[] {2, 2},
+        () -> new BaselineWatershed().partition(new float[8], new int[] {2, 2},
             new int[][] {{-2, 0}, {0, -2}}, null));
     assertTrue(e.getMessage().contains("nearest-neighbour"), e.getMessage());
-    assertThrows(GraphInputException.class, () -> new BaselineWatershed().segment(
+    assertThrows(GraphInputException.class, () -> new BaselineWatershed().partition(
         new float[7], new int[] {2, 2}, new int[][] {{-1, 0}, {0, -1}}, null));
   }
 
@@ -227,7 +227,7 @@ class BaselineWatershedTest {
         boundary = BaselineWatershed.boundary(AffinityBlock.ofFloats(affinities, shape,
             new long[3], Offsets.of(OFFSETS), null));
       } while (!allDistinct(boundary));
-      ours.add(new BaselineWatershed(threshold).segment(affinities, shape, OFFSETS, mask));
+      ours.add(new BaselineWatershed(threshold).partition(affinities, shape, OFFSETS, mask));
       boundaries.add(boundary);
       masks.add(mask);
       ReferenceFiles.write(dir, "a" + c, affinities);
