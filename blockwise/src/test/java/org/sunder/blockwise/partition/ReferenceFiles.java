@@ -44,6 +44,13 @@ final class ReferenceFiles {
     return values;
   }
 
+  static float[] readFloats(Path file) {
+    ByteBuffer buffer = ByteBuffer.wrap(readAll(file)).order(ByteOrder.LITTLE_ENDIAN);
+    float[] values = new float[buffer.remaining() / 4];
+    buffer.asFloatBuffer().get(values);
+    return values;
+  }
+
   static int[] readInts(Path file) {
     ByteBuffer buffer = ByteBuffer.wrap(readAll(file)).order(ByteOrder.LITTLE_ENDIAN);
     int[] values = new int[buffer.remaining() / 4];
