@@ -43,8 +43,16 @@ public record SeamAudit(boolean withGroundTruth, int facePlanes, long objectsCro
   public static final int MIN_PAIRS = 4;
   /** Objects cut at faces beyond the control count that are still tolerated. */
   public static final int OBJECT_TOLERANCE = 2;
-  /** Relative excess of the face boundary share over the control share that is tolerated. */
-  public static final double SHARE_MARGIN = 0.25;
+  /**
+   * Relative excess of the face boundary share over the control share that is tolerated.
+   * Measured: with the ground truth itself as segmentation (no seam at all) on synthetic tissue
+   * of 64 x 56 x 20 voxels, 40 seeds times blocks 16 x 14 x 10, 32 x 28 x 10 and 8 x 8 x 4 (x y z),
+   * the face share exceeded the control share by more than 25 % in 8 of 120 cases, by more than
+   * 50 % in 1 (by 69 %, on 3 face planes); boundaries lying in a plane are correlated, so small
+   * volumes scatter widely. A block face that cuts every object raises the share about
+   * five-fold.
+   */
+  public static final double SHARE_MARGIN = 0.5;
 
   /**
    * Audits a whole volume held in memory: {@code new SeamTally(...)}, {@link SeamTally#addVolume},

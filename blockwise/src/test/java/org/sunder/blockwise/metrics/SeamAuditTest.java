@@ -36,7 +36,7 @@ class SeamAuditTest {
    * beyond (its 4 face pairs are all cut, none of its control pairs); object 2 is 20 except 21 at
    * z = 0 for x >= 2 (2 of its 4 control pairs are cut, exactly half, none of its face pairs).
    * So 1 object is cut at faces and 1 at control planes (both cross both planes); the face
-   * boundary share is 4 / 8 = 0.5 and the control share 2 / 8 = 0.25. 0.5 > 0.25 * 1.25, but the
+   * boundary share is 4 / 8 = 0.5 and the control share 2 / 8 = 0.25. 0.5 > 0.25 * 1.5, but the
    * faces hold only 4 - 0.25 * 8 = 2 boundary pairs more than the control share predicts, fewer
    * than 4: not worse. Masking (segment 0) voxel (4, 0, 0) leaves object 1 with 3 face pairs,
    * fewer than 4: no longer cut; the faces then have 7 pairs, 3 of them boundaries.
