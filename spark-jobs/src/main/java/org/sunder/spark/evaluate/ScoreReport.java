@@ -73,7 +73,8 @@ public final class ScoreReport {
     String reason = a.withGroundTruth() ? objects : shares;
     if (a.worseThanControl()) {
       out.println("  SEAMS WORSE THAN THE CONTROL: " + reason
-          + "; objects are cut on block faces, a stitching defect");
+          + "; objects are cut on block faces more than elsewhere, the mark of a stitching"
+          + " defect");
     } else {
       out.println("  seams no worse than the control: " + reason);
     }
