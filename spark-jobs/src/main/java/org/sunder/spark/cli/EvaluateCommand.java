@@ -1,13 +1,22 @@
 package org.sunder.spark.cli;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.Optional;
 import java.util.concurrent.Callable;
 import org.apache.spark.api.java.JavaSparkContext;
+import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.evaluate.EvaluateJob;
 import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.evaluate.ScoreReport;
+import org.sunder.spark.evaluate.SeamAuditJob;
+import org.sunder.spark.run.RunResolver;
+import org.sunder.spark.workdir.Manifest;
+import org.sunder.spark.workdir.WorkDir;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -18,7 +27,10 @@ import picocli.CommandLine.ParentCommand;
     description = {"Score a segmentation against a ground truth: variation of information"
         + " (split, merge), adapted Rand error with precision and recall, adjusted Rand index,"
         + " and the worst splits and merges. Both are label datasets of the same shape, given as"
-        + " CONTAINER:DATASET. (A run with evaluate.groundTruth in its configuration scores"
+        + " CONTAINER:DATASET. Then a seam audit: ground-truth objects cut exactly at block"
+        + " faces, and the share of label boundaries there, against control planes half a block"
+        + " away; it needs the block shape (--block-shape, or the manifest of the run that wrote"
+        + " the segmentation). (A run with evaluate.groundTruth in its configuration scores"
         + " itself.)"})
 final class EvaluateCommand implements Callable<Integer> {
   @ParentCommand
@@ -40,8 +52,22 @@ final class EvaluateCommand implements Callable<Integer> {
       + " label is 0 (default: they are ignored).")
   boolean keepBackground;
 
+  @Option(names = "--block-shape", split = ",", paramLabel = "Z,Y,X",
+      description = "Block core shape of the run that wrote the segmentation, in --axes order,"
+          + " for the seam audit (default: blocks.shape from the manifest in"
+          + " CONTAINER.sunder-work/DATASET when that run wrote this dataset; without either,"
+          + " no seam audit).")
+  int[] blockShape;
+
+  @Option(names = "--axes", defaultValue = "zyx", paramLabel = "AXES",
+      description = "Axis order of --block-shape, slowest first (default: ${DEFAULT-VALUE}).")
+  String axes;
+
   @Mixin
   SparkOptions spark;
+
+  /** A block core shape in memory order and as the user writes it. */
+  record Blocks(int[] memoryOrder, String text) {}
 
   @Override
   public Integer call() {
@@ -50,10 +76,19 @@ final class EvaluateCommand implements Callable<Integer> {
     String[] m = mask == null ? new String[] {null, null} : split(mask, "--mask");
     EvaluationTarget target = new EvaluationTarget(seg[0], seg[1], gt[0], gt[1], m[0], m[1],
         !keepBackground);
+    Optional<Blocks> blocks = blocks(seg[0], seg[1]);
     JavaSparkContext sc = cli.spark().open(spark.master);
     try {
       SegmentationScores scores = EvaluateJob.score(sc, target);
       ScoreReport.print(scores, !keepBackground, cli.out());
+      if (blocks.isPresent()) {
+        SeamAudit audit = SeamAuditJob.audit(sc, target, blocks.get().memoryOrder());
+        ScoreReport.printSeamAudit(audit, blocks.get().text(), cli.out());
+      } else {
+        cli.out().println("seam audit: skipped, no block shape: give --block-shape, or evaluate"
+            + " the output of a run whose work dir is " + RunResolver.defaultWorkDir(
+                Path.of(seg[0]), seg[1]));
+      }
       return 0;
     } finally {
       cli.spark().release(sc);
@@ -67,5 +102,55 @@ final class EvaluateCommand implements Callable<Integer> {
     }
     return new String[] {Path.of(value.substring(0, colon)).toAbsolutePath().normalize().toString(),
         value.substring(colon + 1)};
+  }
+
+  /** The block shape from --block-shape, else from the manifest of the run that wrote it. */
+  private Optional<Blocks> blocks(String container, String dataset) {
+    if (blockShape != null) {
+      AxisOrder order = axesOption();
+      if (blockShape.length != order.dimensions()) {
+        throw new ConfigException("--block-shape: expected " + order.dimensions() + " sizes in "
+            + order + " order, got " + Arrays.toString(blockShape));
+      }
+      for (int size : blockShape) {
+        if (size <= 0) {
+          throw new ConfigException("--block-shape: expected sizes > 0, got "
+              + Arrays.toString(blockShape));
+        }
+      }
+      return Optional.of(new Blocks(order.toMemory(blockShape),
+          Arrays.toString(blockShape) + " (" + order + ")"));
+    }
+    WorkDir work = new WorkDir(RunResolver.defaultWorkDir(Path.of(container), dataset));
+    Optional<Manifest> manifest = work.manifest();
+    if (manifest.isEmpty() || manifest.get().config() == null) {
+      return Optional.empty();
+    }
+    JsonNode config = manifest.get().config();
+    JsonNode output = config.path("output");
+    JsonNode shape = config.path("blocks").path("shape");
+    if (!output.path("container").asText("").equals(container)
+        || !output.path("dataset").asText("").equals(dataset) || !shape.isArray()) {
+      return Optional.empty();
+    }
+    AxisOrder order = new AxisOrder(config.path("input").path("axes").asText("zyx"));
+    int[] fileOrder = new int[shape.size()];
+    for (int i = 0; i < fileOrder.length; i++) {
+      fileOrder[i] = shape.get(i).asInt();
+    }
+    if (fileOrder.length != order.dimensions()) {
+      throw new ConfigException("the manifest in " + work.root() + " has blocks.shape "
+          + Arrays.toString(fileOrder) + " for axes " + order + "; give --block-shape");
+    }
+    return Optional.of(new Blocks(order.toMemory(fileOrder), Arrays.toString(fileOrder) + " ("
+        + order + ", from the run's manifest in " + work.root() + ")"));
+  }
+
+  private AxisOrder axesOption() {
+    try {
+      return new AxisOrder(axes);
+    } catch (ConfigException e) {
+      throw new ConfigException("--axes: " + e.getMessage(), e);
+    }
   }
 }

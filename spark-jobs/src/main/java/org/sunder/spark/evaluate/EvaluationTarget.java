@@ -6,7 +6,7 @@ package org.sunder.spark.evaluate;
  * @param segmentationContainer container of the segmentation
  * @param segmentation segmentation dataset
  * @param truthContainer container of the ground truth
- * @param truth ground-truth dataset
+ * @param truth ground-truth dataset ({@code null} only for a seam audit without ground truth)
  * @param maskContainer container of the mask, or {@code null}
  * @param mask uint8 mask dataset (1 = evaluate), or {@code null}
  * @param ignoreBackground ignore ground-truth label 0

@@ -4,7 +4,8 @@ import java.util.List;
 
 /**
  * The classes Sunder's stages send through Spark, in a fixed order (Kryo numbers registered
- * classes by registration order, so driver and executors must agree on it).
+ * classes by registration order, so driver and executors must agree on it; new classes go at
+ * the end so that recorded task results keep their numbers).
  */
 public final class PayloadClasses {
   private PayloadClasses() {}
@@ -22,5 +23,7 @@ public final class PayloadClasses {
       org.sunder.stitching.SeamEdges.class,
       org.sunder.stitching.FinalIdMap.class,
       org.sunder.stitching.SolveReport.class,
-      org.sunder.stitching.GlobalSolve.Result.class);
+      org.sunder.stitching.GlobalSolve.Result.class,
+      org.sunder.blockwise.metrics.SeamPlanes.class,
+      org.sunder.blockwise.metrics.SeamTally.class);
 }

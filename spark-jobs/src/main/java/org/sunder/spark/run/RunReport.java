@@ -3,21 +3,25 @@ package org.sunder.spark.run;
 import java.io.PrintStream;
 import java.util.List;
 import java.util.Locale;
+import java.util.Arrays;
+import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.stage.StageReport;
 import org.sunder.stitching.SolveReport;
 
 /**
  * What a run did: per stage the tasks skipped and run and the time taken, the solve's figures,
- * the scores (when evaluated) and where the output is.
+ * the scores (when evaluated), the seam audit of the final segmentation and where the output is.
  *
  * @param solve the solve's figures, or {@code null} if the solve has not run yet
  * @param scores the scores, or {@code null} without evaluation
+ * @param seams the seam audit, or {@code null} before the relabel stage has finished
  * @param seconds wall time of this run's stages
  */
 public record RunReport(RunSettings settings, List<StageReport> stages, SolveReport solve,
-    SegmentationScores scores, double seconds) {
+    SegmentationScores scores, SeamAudit seams, double seconds) {
   public RunReport {
     stages = List.copyOf(stages);
   }
@@ -34,6 +38,11 @@ public record RunReport(RunSettings settings, List<StageReport> stages, SolveRep
     }
     if (scores != null) {
       ScoreReport.print(scores, settings.ignoreBackground(), out);
+    }
+    if (seams != null) {
+      AxisOrder axes = new AxisOrder(settings.axes());
+      ScoreReport.printSeamAudit(seams, Arrays.toString(axes.toFile(settings.blockShape())) + " ("
+          + axes + ")", out);
     }
     out.println(String.format(Locale.ROOT, "segmentation: %s  dataset %s  (%.2f s)",
         settings.outputContainer(), settings.outputDataset(), seconds));

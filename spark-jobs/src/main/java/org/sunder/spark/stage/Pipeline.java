@@ -9,9 +9,12 @@ import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.ScoreOptions;
+import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.ConfigException;
+import org.sunder.spark.evaluate.EvaluationTarget;
+import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
@@ -27,8 +30,10 @@ import org.sunder.stitching.GlobalSolve;
  * Runs the stages of a prepared run on Spark, in order: partition (per block), seams (per
  * face), solve (on the driver), relabel (per block's chunks), evaluate (per block, when a ground
  * truth is configured). Settings are broadcast once; tasks read and write the containers
- * themselves; finished tasks are skipped. Progress goes to {@code progress}, results to
- * {@code out}.
+ * themselves; finished tasks are skipped. When relabel or evaluate ran and the final segmentation
+ * is complete, a {@link SeamAudit} of it (per face, against the ground truth when configured)
+ * joins the report; it is not recorded, so a rerun audits again. Progress goes to
+ * {@code progress}, results to {@code out}.
  */
 public final class Pipeline {
   private final JavaSparkContext sc;
@@ -106,8 +111,20 @@ public final class Pipeline {
     if (solved == null && work.ledger(Stage.SOLVE).isFinished(0)) {
       solved = new SolveStep(sc, work, out).recorded();
     }
+    SeamAudit seams = null;
+    boolean complete = work.ledger(Stage.RELABEL).finished().cardinality() == grid.blockCount();
+    if (complete && (stages.contains(Stage.RELABEL) || stages.contains(Stage.EVALUATE))) {
+      seams = SeamAuditJob.audit(sc, auditTarget(settings), settings.blockShape());
+    }
     return new RunReport(settings, reports, solved == null ? null : solved.report(), scores,
-        (System.nanoTime() - start) / 1e9);
+        seams, (System.nanoTime() - start) / 1e9);
+  }
+
+  /** The final segmentation, with the ground truth when configured; masked voxels are 0 in it. */
+  private static EvaluationTarget auditTarget(RunSettings s) {
+    return new EvaluationTarget(s.outputContainer(), s.outputDataset(),
+        s.evaluates() ? s.truthContainer() : null, s.groundTruth(), null, null,
+        s.ignoreBackground());
   }
 
   private SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {

@@ -88,10 +88,14 @@ class PipelineIntegrationTest {
   @Test
   void undegradedAffinitiesGiveTheGroundTruthUpToRenaming(@TempDir Path dir) {
     Scenes.Scene scene = Scenes.write(dir, StorageFormat.ZARR, Degradation.none(), CHUNK_XYZ, MWS);
-    run("run", scene.config().toString());
+    String out = run("run", scene.config().toString());
     long[] seg = Scenes.labels(scene.container(), "segmentation");
     long[] gt = Scenes.labels(scene.container(), "ground-truth");
     assertTrue(Scenes.equalUpToRenaming(seg, gt), "segmentation differs from the ground truth");
+    assertTrue(out.contains("seam audit: blocks [10, 28, 32] (zyx), 3 face planes"), out);
+    assertTrue(out.contains("objects_cut_at_faces   0  (of "), out);
+    assertTrue(out.contains("seams no worse than the control: 0 objects cut at faces, 0 at"
+        + " control planes"), out);
   }
 
   @Test
