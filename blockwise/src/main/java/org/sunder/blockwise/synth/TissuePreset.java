@@ -117,7 +117,7 @@ public enum TissuePreset {
   public Degradation degradation(long seed) {
     double garbage = this == DENSE_NEURITES ? 0.01 : 0;
     double missing = this == DENSE_NEURITES ? 0.01 : 0;
-    return new Degradation(seed, 0.6, 0.08, 0.003, 0.0004, garbage, 1, 0.4, 2.0, 0.08, missing);
+    return new Degradation(seed, 0.6, 0.08, 0.001, 0.0004, garbage, 1, 0.4, 2.0, 0.08, missing);
   }
 
   /** Scenario options for writing this preset: its offsets and degradation, float32. */

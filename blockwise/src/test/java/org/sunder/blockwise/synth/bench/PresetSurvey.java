@@ -1,6 +1,5 @@
 package org.sunder.blockwise.synth.bench;
 
-import java.util.ArrayDeque;
 import java.util.Arrays;
 import java.util.Locale;
 import org.sunder.blockwise.graph.AffinityBlock;
@@ -8,8 +7,8 @@ import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.blockwise.partition.BaselineWatershed;
 import org.sunder.blockwise.partition.PartitionConfig;
-import org.sunder.blockwise.partition.SeededWatershed;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.ExactAffinities;
@@ -53,8 +52,11 @@ public final class PresetSurvey {
         AffinityBlock block = AffinityBlock.ofFloats(affinities, s, new long[3],
             TissuePreset.offsets(), null);
         long t3 = System.nanoTime();
-        int[] naive = naive(affinities, s);
-        report("naive watershed", volume, naive, System.nanoTime() - t3);
+        for (double threshold : new double[] {0.5, 0.3, 0.2, 0.1}) {
+          report("naive watershed " + threshold, volume,
+              new BaselineWatershed(threshold).partition(block).labels(), System.nanoTime() - t3);
+          t3 = System.nanoTime();
+        }
         for (String json : configs) {
           long t4 = System.nanoTime();
           Segmentation seg = PartitionConfig.fromJson(json).create().partition(block);
@@ -91,38 +93,5 @@ public final class PresetSurvey {
     System.out.printf(Locale.ROOT, "  %-60s ARE %.3f  VOI %.3f (split %.3f merge %.3f)  "
         + "%d segments  %.1f s%n", what, scores.adaptedRandError(), scores.voi(),
         scores.voiSplit(), scores.voiMerge(), max, nanos / 1e9);
-  }
-
-  private static int[] naive(float[] affinities, int[] shape) {
-    int n = shape[0] * shape[1] * shape[2];
-    float[] boundary = new float[n];
-    for (int i = 0; i < n; i++) {
-      boundary[i] = 1 - (affinities[i] + affinities[n + i] + affinities[2 * n + i]) / 3;
-    }
-    int[] markers = new int[n];
-    int next = 0;
-    ArrayDeque<Integer> queue = new ArrayDeque<>();
-    int[] step = {1, shape[0], shape[0] * shape[1]};
-    for (int i = 0; i < n; i++) {
-      if (boundary[i] < 0.5f && markers[i] == 0) {
-        markers[i] = ++next;
-        queue.add(i);
-        while (!queue.isEmpty()) {
-          int p = queue.poll();
-          int[] c = {p % shape[0], (p / shape[0]) % shape[1], p / step[2]};
-          for (int d = 0; d < 3; d++) {
-            for (int sgn = -1; sgn <= 1; sgn += 2) {
-              int cc = c[d] + sgn;
-              int q = p + sgn * step[d];
-              if (cc >= 0 && cc < shape[d] && markers[q] == 0 && boundary[q] < 0.5f) {
-                markers[q] = next;
-                queue.add(q);
-              }
-            }
-          }
-        }
-      }
-    }
-    return SeededWatershed.flood(boundary, shape, markers, null, -1);
   }
 }
