@@ -83,6 +83,51 @@ final class CoreSegments {
     return open;
   }
 
+  /**
+   * The voxels of a block's extended box (memory order) whose segments a per-block size filter
+   * must leave alone because the block sees only part of them: the halo, and the core's voxels
+   * closer to a face than the longest offset along its axis (those of boundary segments). The
+   * complement is where whole non-boundary segments lie. O(extended voxels).
+   */
+  static byte[] partialVoxels(BlockGrid grid, Block block, Offsets offsets) {
+    int n = grid.numDimensions();
+    int[] shape = block.extendedShape();
+    int[] reach = offsets.reach();
+    long[] extMin = block.extendedMin();
+    long[] coreMin = block.coreMin();
+    int[] coreShape = block.coreShape();
+    int[] lowEnd = new int[n];
+    int[] highStart = new int[n];
+    for (int d = 0; d < n; d++) {
+      int origin = (int) (coreMin[d] - extMin[d]);
+      boolean lowFace = grid.faceIndex(block.index(), d, false) >= 0;
+      boolean highFace = grid.faceIndex(block.index(), d, true) >= 0;
+      lowEnd[d] = origin + (lowFace ? reach[d] : 0);
+      highStart[d] = origin + coreShape[d] - (highFace ? reach[d] : 0);
+    }
+    int voxels = 1;
+    for (int extent : shape) {
+      voxels *= extent;
+    }
+    byte[] partial = new byte[voxels];
+    int[] p = new int[n];
+    for (int i = 0; i < voxels; i++) {
+      for (int d = 0; d < n; d++) {
+        if (p[d] < lowEnd[d] || p[d] >= highStart[d]) {
+          partial[i] = 1;
+          break;
+        }
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < shape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return partial;
+  }
+
   static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
       SettledPartition partition, GridGraph extendedGraph) {
     Segmentation segmentation = partition.pieces();

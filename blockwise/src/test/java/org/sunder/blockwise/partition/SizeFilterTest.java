@@ -3,13 +3,17 @@ package org.sunder.blockwise.partition;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.util.Arrays;
 import java.util.HashMap;
 import java.util.Map;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
+import org.opentest4j.AssertionFailedError;
 import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.partition.SizeFilter.Rule;
 
 class SizeFilterTest {
 
@@ -18,13 +22,121 @@ class SizeFilterTest {
     int[] labels = {1, 1, 1, 2, 3, 3, 3};
     EdgeStatistics stats = EdgeStatistics.ofEdges(new long[] {1, 2}, new long[] {2, 3},
         new double[] {0.2, 0.7});
-    Segmentation out = new SizeFilter(2, Linkage.MEAN).apply(new Segmentation(labels, 3), stats,
-        null);
+    Segmentation out = new SizeFilter(2, Linkage.MEAN, Rule.WITHIN_CONSTRAINTS)
+        .apply(new Segmentation(labels, 3), stats, null);
     assertArrayEquals(new int[] {1, 1, 1, 2, 2, 2, 2}, out.labels());
     assertEquals(2, out.segmentCount());
-    Segmentation blocked = new SizeFilter(2, Linkage.MEAN).apply(new Segmentation(labels, 3),
-        stats, new boolean[] {false, true});
+    Segmentation blocked = new SizeFilter(2, Linkage.MEAN, Rule.WITHIN_CONSTRAINTS)
+        .apply(new Segmentation(labels, 3), stats, new boolean[] {false, true});
     assertArrayEquals(new int[] {1, 1, 1, 1, 2, 2, 2}, blocked.labels());
+  }
+
+  @Test
+  void completeRuleCrossesAConstraintOnlyWhenNothingElseIsLeft() {
+    int[] labels = {1, 1, 1, 2, 3, 3, 3};
+    EdgeStatistics stats = EdgeStatistics.ofEdges(new long[] {1, 2}, new long[] {2, 3},
+        new double[] {0.2, -0.7});
+    Segmentation in = new Segmentation(labels, 3);
+    boolean[] bothConstrained = {true, true};
+    assertEquals(in, new SizeFilter(2, Linkage.MEAN, Rule.WITHIN_CONSTRAINTS).apply(in, stats,
+        bothConstrained), "the strict rule leaves a small segment boxed in by constraints");
+    assertArrayEquals(new int[] {1, 1, 1, 1, 2, 2, 2}, new SizeFilter(2, Linkage.MEAN,
+        Rule.COMPLETE).apply(in, stats, bothConstrained).labels(), "most attracted: 0.2 > -0.7");
+    assertArrayEquals(new int[] {1, 1, 1, 2, 2, 2, 2}, new SizeFilter(2, Linkage.MEAN,
+        Rule.COMPLETE).apply(in, stats, new boolean[] {true, false}).labels(),
+        "an unconstrained neighbour wins over a more attracted constrained one");
+  }
+
+  @Test
+  void segmentsOfExactlyTheThresholdAreNeverMergedAway() {
+    // 1 (4 voxels) | 2 (4) | 3 (1) | 4 (6), in a row; threshold 4: only 3 is small.
+    int[] labels = {1, 1, 1, 1, 2, 2, 2, 2, 3, 4, 4, 4, 4, 4, 4};
+    EdgeStatistics stats = EdgeStatistics.ofEdges(new long[] {1, 2, 3}, new long[] {2, 3, 4},
+        new double[] {0.9, 0.1, 0.3});
+    Segmentation in = new Segmentation(labels, 4);
+    for (Rule rule : Rule.values()) {
+      Segmentation out = new SizeFilter(4, Linkage.MEAN, rule).apply(in, stats, null);
+      assertArrayEquals(new int[] {1, 1, 1, 1, 2, 2, 2, 2, 3, 3, 3, 3, 3, 3, 3}, out.labels(),
+          rule + ": 3 joins 4 (0.3 > 0.1); 1 and 2 hold exactly 4 voxels and stay apart");
+      assertAtMostOneLargeInputPerOutput(in, out, 4);
+    }
+    // The property check catches a filter that treats "<= threshold" as small: that filter
+    // would join 1 and 2 (edge 0.9), two segments of exactly 4 voxels.
+    Segmentation wrong = new Segmentation(new int[] {1, 1, 1, 1, 1, 1, 1, 1, 2, 2, 2, 2, 2, 2,
+        2}, 2);
+    assertThrows(AssertionFailedError.class,
+        () -> assertAtMostOneLargeInputPerOutput(in, wrong, 4));
+  }
+
+  @Test
+  void completeRuleLeavesNoSmallSegmentThatTouchesAnother() {
+    Random random = new Random(17);
+    int[] shape = {13, 9, 6};
+    int n = VoxelBox.size(shape);
+    int exactSizes = 0;
+    for (int trial = 0; trial < 60; trial++) {
+      int[] labels = randomSegments(random, shape, 5 + random.nextInt(90));
+      byte[] mask = new byte[n];
+      for (int i = 0; i < n; i++) {
+        mask[i] = (byte) (random.nextDouble() < 0.85 ? 1 : 0);
+        if (mask[i] == 0) {
+          labels[i] = 0;
+        }
+      }
+      Segmentation input = Segmentation.fromClusters(labels, mask);
+      EdgeStatistics stats = faceStatistics(input.labels(), shape, random);
+      boolean[] flags = trial % 2 == 0 ? SizeFilter.repulsivePairs(stats)
+          : randomFlags(random, stats.size(), 0.5);
+      // The threshold is the exact size of some input segment, so segments of exactly the
+      // threshold occur in every trial.
+      long[] inputSizes = sizes(input);
+      int minSize = (int) Math.max(2, inputSizes[1 + random.nextInt(input.segmentCount())]);
+      for (int l = 1; l <= input.segmentCount(); l++) {
+        exactSizes += inputSizes[l] == minSize ? 1 : 0;
+      }
+      Segmentation out = new SizeFilter(minSize, Linkage.MEAN, Rule.COMPLETE).apply(input,
+          stats, flags);
+      int[] outOf = assertUnionOfInputSegments(input, out, mask);
+      assertAtMostOneLargeInputPerOutput(input, out, minSize);
+      long[] outSizes = sizes(out);
+      boolean[] touches = new boolean[out.segmentCount() + 1];
+      for (int r = 0; r < stats.size(); r++) {
+        int a = outOf[(int) stats.u(r)];
+        int b = outOf[(int) stats.v(r)];
+        if (a != b) {
+          touches[a] = true;
+          touches[b] = true;
+        }
+      }
+      for (int l = 1; l <= out.segmentCount(); l++) {
+        assertTrue(outSizes[l] >= minSize || !touches[l], "trial " + trial + ": segment " + l
+            + " of " + outSizes[l] + " voxels (< " + minSize + ") touches another");
+      }
+      assertEquals(out, new SizeFilter(minSize, Linkage.MEAN, Rule.COMPLETE).apply(input,
+          stats, flags), "deterministic");
+    }
+    assertTrue(exactSizes >= 60, "segments of exactly the threshold were tested");
+  }
+
+  @Test
+  void leftAloneSegmentsAreNeverMergedAwayButMayAbsorb() {
+    // 1 (1 voxel, left alone) | 2 (1) | 3 (5); threshold 3.
+    int[] labels = {1, 2, 3, 3, 3, 3, 3};
+    EdgeStatistics stats = EdgeStatistics.ofEdges(new long[] {1, 2}, new long[] {2, 3},
+        new double[] {0.8, 0.1});
+    Segmentation in = new Segmentation(labels, 3);
+    SizeFilter filter = new SizeFilter(3, Linkage.MEAN, Rule.COMPLETE);
+    assertArrayEquals(new int[] {1, 1, 2, 2, 2, 2, 2},
+        filter.apply(in, stats, null, new boolean[] {false, true, false, false}).labels(),
+        "2 joins the left-alone 1 (0.8 > 0.1); the pair, left alone, stays small");
+    assertArrayEquals(new int[] {1, 1, 1, 1, 1, 1, 1},
+        filter.apply(in, stats, null, null).labels(), "without it, 1+2 (2 voxels) joins 3");
+    int[] groups = filter.groups(new long[] {1, 1, 5}, stats, null, null);
+    assertTrue(groups[0] == groups[1] && groups[1] == groups[2],
+        "the graph form joins the same three: " + Arrays.toString(groups));
+    int[] alone = filter.groups(new long[] {1, 1, 5}, stats, null,
+        new boolean[] {true, false, false});
+    assertTrue(alone[0] == alone[1] && alone[1] != alone[2], Arrays.toString(alone));
   }
 
   @Test
@@ -49,7 +161,8 @@ class SizeFilterTest {
       }
       int minSize = 2 + random.nextInt(40);
       Linkage linkage = Linkage.values()[trial % Linkage.values().length];
-      Segmentation out = new SizeFilter(minSize, linkage).apply(input, stats, flags);
+      Segmentation out = new SizeFilter(minSize, linkage, Rule.WITHIN_CONSTRAINTS).apply(input,
+          stats, flags);
       int[] outOf = assertUnionOfInputSegments(input, out, mask);
       for (int r = 0; r < stats.size(); r++) {
         if (flags[r]) {
@@ -67,8 +180,44 @@ class SizeFilterTest {
     Segmentation s = new Segmentation(labels, 3);
     EdgeStatistics stats = EdgeStatistics.ofEdges(new long[] {1}, new long[] {2},
         new double[] {1});
-    assertEquals(s, new SizeFilter(1, Linkage.SUM).apply(s, stats, null));
-    assertEquals(s, new SizeFilter(0, Linkage.SUM).apply(s, stats, null));
+    assertEquals(s, new SizeFilter(1, Linkage.SUM, Rule.COMPLETE).apply(s, stats, null));
+    assertEquals(s, new SizeFilter(0, Linkage.SUM, Rule.COMPLETE).apply(s, stats, null));
+  }
+
+  /**
+   * Merges only ever join a segment below the threshold to another, so no output segment holds
+   * two input segments of at least {@code minSize} voxels.
+   */
+  private static void assertAtMostOneLargeInputPerOutput(Segmentation in, Segmentation out,
+      int minSize) {
+    long[] inSizes = sizes(in);
+    int[] largeInputs = new int[out.segmentCount() + 1];
+    boolean[] counted = new boolean[in.segmentCount() + 1];
+    for (int i = 0; i < in.labels().length; i++) {
+      int a = in.labels()[i];
+      if (a > 0 && !counted[a] && inSizes[a] >= minSize) {
+        counted[a] = true;
+        int b = out.labels()[i];
+        assertTrue(++largeInputs[b] <= 1, "output segment " + b + " joins two input segments "
+            + "of at least " + minSize + " voxels");
+      }
+    }
+  }
+
+  private static long[] sizes(Segmentation s) {
+    long[] sizes = new long[s.segmentCount() + 1];
+    for (int l : s.labels()) {
+      sizes[l]++;
+    }
+    return sizes;
+  }
+
+  private static boolean[] randomFlags(Random random, int count, double share) {
+    boolean[] flags = new boolean[count];
+    for (int r = 0; r < count; r++) {
+      flags[r] = random.nextDouble() < share;
+    }
+    return flags;
   }
 
   private static int[] assertUnionOfInputSegments(Segmentation in, Segmentation out,
