@@ -6,14 +6,20 @@ import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.HashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 import org.opentest4j.AssertionFailedError;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.partition.SizeFilter.Rule;
+import org.sunder.testing.PythonReference;
 
 class SizeFilterTest {
 
@@ -116,6 +122,134 @@ class SizeFilterTest {
           stats, flags), "deterministic");
     }
     assertTrue(exactSizes >= 60, "segments of exactly the threshold were tested");
+  }
+
+  /**
+   * External check: a plain Python transcription of the rule (numpy for the region adjacency,
+   * a naive loop that rescans all groups before every merge) on random segmentations with
+   * repulsive edges, for both rules. Weights are multiples of 1/4, so sums and means are exact
+   * in both languages and ties are frequent.
+   */
+  @Test
+  void agreesWithAPlainPythonTranscription(@TempDir Path dir) throws Exception {
+    PythonReference.requireModules("numpy");
+    Random random = new Random(29);
+    int[] shape = {9, 7, 5};
+    int n = VoxelBox.size(shape);
+    int[] strides = VoxelBox.strides(shape);
+    List<String> manifest = new ArrayList<>();
+    List<int[]> ours = new ArrayList<>();
+    int merges = 0;
+    boolean rulesDiffer = false;
+    for (int trial = 0; trial < 16; trial++) {
+      int[] labels = randomSegments(random, shape, 8 + random.nextInt(50));
+      byte[] mask = new byte[n];
+      for (int i = 0; i < n; i++) {
+        mask[i] = (byte) (random.nextDouble() < 0.9 ? 1 : 0);
+      }
+      Segmentation input = Segmentation.fromClusters(labels, mask);
+      double[] weights = new double[3 * n];
+      EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(64);
+      int[] c = new int[3];
+      for (int i = 0; i < n; i++) {
+        for (int d = 0; d < 3; d++) {
+          weights[d * n + i] = (random.nextInt(13) - 4) / 4.0;
+          int a = input.labels()[i];
+          if (c[d] > 0) {
+            int b = input.labels()[i - strides[d]];
+            if (a != b && a > 0 && b > 0) {
+              acc.add(a, b, weights[d * n + i]);
+            }
+          }
+        }
+        VoxelBox.advance(c, shape);
+      }
+      EdgeStatistics stats = acc.build();
+      Rule rule = Rule.values()[trial % 2];
+      int minSize = 2 + random.nextInt(30);
+      Segmentation filtered = new SizeFilter(minSize, Linkage.MEAN, rule).apply(input, stats,
+          SizeFilter.repulsivePairs(stats));
+      ours.add(filtered.labels());
+      merges += input.segmentCount() - filtered.segmentCount();
+      Rule other = Rule.values()[(trial + 1) % 2];
+      rulesDiffer |= !filtered.equals(new SizeFilter(minSize, Linkage.MEAN, other).apply(input,
+          stats, SizeFilter.repulsivePairs(stats)));
+      ReferenceFiles.write(dir, "labels" + trial, input.labels());
+      ReferenceFiles.write(dir, "weights" + trial, weights);
+      manifest.add(trial + " " + shape[0] + " " + shape[1] + " " + shape[2] + " " + minSize
+          + " " + rule.jsonName());
+    }
+    assertTrue(merges > 50 && rulesDiffer, "the cases exercise merging across repulsion");
+    Files.write(dir.resolve("manifest"), manifest);
+    String out = PythonReference.runChecked("""
+        import sys, numpy as np
+        d = sys.argv[1]
+        for line in open(d + '/manifest'):
+            t, sx, sy, sz, T, rule = line.split()
+            sx, sy, sz, T = int(sx), int(sy), int(sz), int(T)
+            lab = np.fromfile(f'{d}/labels{t}', '<i4').reshape(sz, sy, sx)
+            w = np.fromfile(f'{d}/weights{t}', '<f8').reshape(3, sz, sy, sx)
+            pairs = {}
+            for jd in range(3):  # memory axis jd is numpy axis 2 - jd
+                ax = 2 - jd
+                hi = [slice(None)] * 3; hi[ax] = slice(1, None)
+                lo = [slice(None)] * 3; lo[ax] = slice(None, -1)
+                a, b = lab[tuple(hi)].ravel(), lab[tuple(lo)].ravel()
+                ww = w[jd][tuple(hi)].ravel()
+                keep = (a != b) & (a > 0) & (b > 0)
+                for x, y, v in zip(a[keep], b[keep], ww[keep]):
+                    k = (min(x, y), max(x, y))
+                    s = pairs.setdefault(k, [0.0, 0, np.inf])
+                    s[0] += v; s[1] += 1; s[2] = min(s[2], v)
+            size = np.bincount(lab.ravel())
+            group = {l: {l} for l in range(1, len(size)) if size[l] > 0}
+            gsize = {l: int(size[l]) for l in group}
+            owner = {l: l for l in group}
+            def links(g):
+                out = {}
+                for (x, y), (s, c, m) in pairs.items():
+                    gx, gy = owner[x], owner[y]
+                    if gx == gy or g not in (gx, gy):
+                        continue
+                    h = gy if gx == g else gx
+                    o = out.setdefault(h, [0.0, 0, np.inf])
+                    o[0] += s; o[1] += c; o[2] = min(o[2], m)
+                return out
+            while True:
+                best = None
+                for g in sorted(group, key=lambda g: (gsize[g], min(group[g]))):
+                    if gsize[g] >= T:
+                        break
+                    options = [(m >= 0, s / c, -min(group[h]), h)
+                               for h, (s, c, m) in links(g).items()]
+                    if rule == 'within-constraints':
+                        options = [o for o in options if o[0]]
+                    if options:
+                        best = (g, max(options)[3])
+                        break
+                if best is None:
+                    break
+                g, h = best
+                group[g] |= group.pop(h)
+                gsize[g] += gsize.pop(h)
+                for l in group[g]:
+                    owner[l] = g
+            flat = lab.ravel()
+            result, names = [], {}
+            for l in flat:
+                if l == 0:
+                    result.append(0)
+                else:
+                    result.append(names.setdefault(owner[l], len(names) + 1))
+            print(' '.join(map(str, result)))
+        """, dir.toString());
+    String[] lines = out.strip().split("\n");
+    assertEquals(ours.size(), lines.length);
+    for (int t = 0; t < lines.length; t++) {
+      int[] reference = Arrays.stream(lines[t].trim().split(" ")).mapToInt(Integer::parseInt)
+          .toArray();
+      assertArrayEquals(reference, ours.get(t), "trial " + t + " (" + manifest.get(t) + ")");
+    }
   }
 
   @Test
