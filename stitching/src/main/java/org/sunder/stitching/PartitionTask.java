@@ -50,7 +50,7 @@ public final class PartitionTask {
         : partitioner.partitionSettled(affinities, open);
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
     return CoreSegments.of(setup.grid(), setup.idLayout(), block, setup.offsets(), partition,
-        graph);
+        graph, config.minSegmentSize() > 1);
   }
 
   private static byte[] union(byte[] a, byte[] b) {

@@ -243,13 +243,22 @@ public final class PartitionConfig {
     if (minSegmentSize <= 1) {
       return partitioner;
     }
-    SizeFilteredPartitioner.CannotLink cannotLink = method == Method.MUTEX_WATERSHED
-        ? SizeFilteredPartitioner.CannotLink.REPULSIVE_EDGE
+    return new SizeFilteredPartitioner(partitioner, createSizeFilter(), weights, subsampling,
+        sizeFilterCannotLink(), linkage);
+  }
+
+  /** The configured size filter (mean linkage), or null when {@code minSegmentSize <= 1}. */
+  public SizeFilter createSizeFilter() {
+    return minSegmentSize <= 1 ? null
+        : new SizeFilter(minSegmentSize, Linkage.MEAN, sizeFilter);
+  }
+
+  /** Which segment pairs the method kept apart by a constraint, for the size filter. */
+  @JsonIgnore
+  public SizeFilteredPartitioner.CannotLink sizeFilterCannotLink() {
+    return method == Method.MUTEX_WATERSHED ? SizeFilteredPartitioner.CannotLink.REPULSIVE_EDGE
         : constraints ? SizeFilteredPartitioner.CannotLink.NONZERO_LINKAGE
             : SizeFilteredPartitioner.CannotLink.NONE;
-    return new SizeFilteredPartitioner(partitioner,
-        new SizeFilter(minSegmentSize, Linkage.MEAN, sizeFilter), weights, subsampling,
-        cannotLink, linkage);
   }
 
   @JsonProperty("method")

@@ -90,11 +90,17 @@ public record SizeFilteredPartitioner(Partitioner inner, SizeFilter filter, Weig
       boolean[] leaveAloneOrNull) {
     EdgeStatistics statistics = RegionGraph.of(segmentation.labels(),
         GridGraph.of(block, weights, subsampling)).statistics();
-    boolean[] flags = switch (cannotLink) {
+    return filter.apply(segmentation, statistics,
+        cannotLinkFlags(cannotLink, statistics, methodLinkage), leaveAloneOrNull);
+  }
+
+  /** The cannot-link flags of {@code statistics}' rows, or null for {@link CannotLink#NONE}. */
+  public static boolean[] cannotLinkFlags(CannotLink cannotLink, EdgeStatistics statistics,
+      Linkage methodLinkage) {
+    return switch (cannotLink) {
       case NONE -> null;
       case REPULSIVE_EDGE -> SizeFilter.repulsivePairs(statistics);
       case NONZERO_LINKAGE -> SizeFilter.nonZeroLinkagePairs(statistics, methodLinkage);
     };
-    return filter.apply(segmentation, statistics, flags, leaveAloneOrNull);
   }
 }
