@@ -298,7 +298,7 @@ public final class PartitionConfig {
     return fragments;
   }
 
-  /** Segments with fewer voxels are merged away by a {@link SizeFilter}; 0 or 1 = off. */
+  /** Segments with fewer voxels are merged away (see the class comment); 0 or 1 = off. */
   @JsonProperty("minSegmentSize")
   public int minSegmentSize() {
     return minSegmentSize;
