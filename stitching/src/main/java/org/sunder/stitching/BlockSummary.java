@@ -28,10 +28,13 @@ import org.sunder.blockwise.grid.BlockGrid;
  *     {@code u < v}, ascending) joined by a repulsive edge in the block's extended box, which
  *     the block's partition therefore kept apart; the Mutex Watershed's solve keeps them apart
  * @param separatedV see {@code separatedU}
+ * @param interiorEdges with a size filter only (else empty): statistics of the core's edges
+ *     between a boundary segment and a segment that is not one, keyed by provisional id, so that
+ *     the filter after the global solve sees every neighbour of a final segment
  */
 public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalIds,
-    int[] boundarySides, EdgeStatistics innerEdges, long[] separatedU, long[] separatedV)
-    implements Serializable {
+    int[] boundarySides, EdgeStatistics innerEdges, long[] separatedU, long[] separatedV,
+    EdgeStatistics interiorEdges) implements Serializable {
 
   /** The number of segments (local ids) of the block. */
   public int segmentCount() {
@@ -57,7 +60,8 @@ public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalId
         && Arrays.equals(segmentSizes, s.segmentSizes)
         && Arrays.equals(boundaryLocalIds, s.boundaryLocalIds)
         && Arrays.equals(boundarySides, s.boundarySides) && innerEdges.equals(s.innerEdges)
-        && Arrays.equals(separatedU, s.separatedU) && Arrays.equals(separatedV, s.separatedV);
+        && Arrays.equals(separatedU, s.separatedU) && Arrays.equals(separatedV, s.separatedV)
+        && interiorEdges.equals(s.interiorEdges);
   }
 
   @Override

@@ -83,8 +83,57 @@ final class CoreSegments {
     return open;
   }
 
+  /**
+   * The voxels of a block's extended box (memory order) whose segments a per-block size filter
+   * must leave alone because the block sees only part of them: the halo, and the core's voxels
+   * closer to a face than the longest offset along its axis (those of boundary segments). The
+   * complement is where whole non-boundary segments lie. O(extended voxels).
+   */
+  static byte[] partialVoxels(BlockGrid grid, Block block, Offsets offsets) {
+    int n = grid.numDimensions();
+    int[] shape = block.extendedShape();
+    int[] reach = offsets.reach();
+    long[] extMin = block.extendedMin();
+    long[] coreMin = block.coreMin();
+    int[] coreShape = block.coreShape();
+    int[] lowEnd = new int[n];
+    int[] highStart = new int[n];
+    for (int d = 0; d < n; d++) {
+      int origin = (int) (coreMin[d] - extMin[d]);
+      boolean lowFace = grid.faceIndex(block.index(), d, false) >= 0;
+      boolean highFace = grid.faceIndex(block.index(), d, true) >= 0;
+      lowEnd[d] = origin + (lowFace ? reach[d] : 0);
+      highStart[d] = origin + coreShape[d] - (highFace ? reach[d] : 0);
+    }
+    int voxels = 1;
+    for (int extent : shape) {
+      voxels *= extent;
+    }
+    byte[] partial = new byte[voxels];
+    int[] p = new int[n];
+    for (int i = 0; i < voxels; i++) {
+      for (int d = 0; d < n; d++) {
+        if (p[d] < lowEnd[d] || p[d] >= highStart[d]) {
+          partial[i] = 1;
+          break;
+        }
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < shape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return partial;
+  }
+
+  /**
+   * @param withInteriorEdges whether to collect {@link BlockSummary#interiorEdges()} (for a size
+   *     filter after the solve)
+   */
   static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
-      SettledPartition partition, GridGraph extendedGraph) {
+      SettledPartition partition, GridGraph extendedGraph, boolean withInteriorEdges) {
     Segmentation segmentation = partition.pieces();
     int[] extShape = block.extendedShape();
     int[] coreShape = block.coreShape();
@@ -131,7 +180,7 @@ final class CoreSegments {
       }
     }
     Inner inner = innerEdges(layout, block.index(), labels, localOf, coreIndex, boundary,
-        unsettled, extendedGraph);
+        unsettled, extendedGraph, withInteriorEdges);
     long[] provisional = new long[coreLocal.length];
     for (int i = 0; i < coreLocal.length; i++) {
       int local = coreLocal[i];
@@ -139,7 +188,7 @@ final class CoreSegments {
     }
     return new Result(provisional,
         new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, inner.edges(),
-            inner.separatedU(), inner.separatedV()));
+            inner.separatedU(), inner.separatedV(), inner.interior()));
   }
 
   /**
@@ -185,10 +234,12 @@ final class CoreSegments {
   }
 
   /** Core-only statistics and separated pairs (extended box) of the boundary segments. */
-  private record Inner(EdgeStatistics edges, long[] separatedU, long[] separatedV) {}
+  private record Inner(EdgeStatistics edges, long[] separatedU, long[] separatedV,
+      EdgeStatistics interior) {}
 
   private static Inner innerEdges(IdLayout layout, int block, int[] labels, int[] localOf,
-      int[] coreIndex, boolean[] boundary, boolean[] unsettled, GridGraph extendedGraph) {
+      int[] coreIndex, boolean[] boundary, boolean[] unsettled, GridGraph extendedGraph,
+      boolean withInteriorEdges) {
     int[] boundaryOf = new int[localOf.length];
     boolean any = false;
     for (int label = 1; label < localOf.length; label++) {
@@ -199,7 +250,8 @@ final class CoreSegments {
       }
     }
     if (!any) {
-      return new Inner(EdgeStatistics.empty(), new long[0], new long[0]);
+      return new Inner(EdgeStatistics.empty(), new long[0], new long[0],
+          EdgeStatistics.empty());
     }
     boolean[] inCore = new boolean[labels.length];
     for (int i : coreIndex) {
@@ -207,9 +259,18 @@ final class CoreSegments {
     }
     EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
     EdgeStatistics.Accumulator repulsive = new EdgeStatistics.Accumulator(256);
+    EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(256);
     extendedGraph.forEachEdge((s, t, k, w) -> {
       int a = boundaryOf[labels[s]];
       int b = boundaryOf[labels[t]];
+      if (withInteriorEdges && (a == 0) != (b == 0) && inCore[s] && inCore[t]) {
+        int ls = localOf[labels[s]];
+        int lt = localOf[labels[t]];
+        if (ls != 0 && lt != 0) {
+          interior.add(ls, lt, w);
+        }
+        return;
+      }
       if (a == 0 || b == 0 || a == b) {
         return;
       }
@@ -220,16 +281,7 @@ final class CoreSegments {
         repulsive.add(a, b, w);
       }
     });
-    EdgeStatistics local = core.build();
-    int m = local.size();
-    long[] u = new long[m];
-    long[] v = new long[m];
-    for (int e = 0; e < m; e++) {
-      u[e] = layout.provisional(block, local.u(e));
-      v[e] = layout.provisional(block, local.v(e));
-    }
-    EdgeStatistics edges = EdgeStatistics.of(u, v, local.copySum(), local.copyCount(),
-        local.copyMin(), local.copyMax());
+    EdgeStatistics edges = provisional(layout, block, core.build());
     EdgeStatistics apart = repulsive.build();
     long[] su = new long[apart.size()];
     long[] sv = new long[apart.size()];
@@ -237,6 +289,19 @@ final class CoreSegments {
       su[e] = layout.provisional(block, apart.u(e));
       sv[e] = layout.provisional(block, apart.v(e));
     }
-    return new Inner(edges, su, sv);
+    return new Inner(edges, su, sv, provisional(layout, block, interior.build()));
+  }
+
+  /** {@code local} with local ids replaced by provisional ids. */
+  private static EdgeStatistics provisional(IdLayout layout, int block, EdgeStatistics local) {
+    int m = local.size();
+    long[] u = new long[m];
+    long[] v = new long[m];
+    for (int e = 0; e < m; e++) {
+      u[e] = layout.provisional(block, local.u(e));
+      v[e] = layout.provisional(block, local.v(e));
+    }
+    return EdgeStatistics.of(u, v, local.copySum(), local.copyCount(), local.copyMin(),
+        local.copyMax());
   }
 }

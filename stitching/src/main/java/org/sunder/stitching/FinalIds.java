@@ -1,5 +1,6 @@
 package org.sunder.stitching;
 
+import java.util.Arrays;
 import java.util.List;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
@@ -20,9 +21,24 @@ final class FinalIds {
    */
   static FinalIdMap assign(IdLayout layout, int blockCount, List<BlockSummary> summaries,
       ReducedGraph graph, int[] clusters) {
+    return assign(layout, blockCount, summaries, graph, clusters, new long[0], new int[0]);
+  }
+
+  /**
+   * As {@link #assign(IdLayout, int, List, ReducedGraph, int[])}, with segments outside the
+   * reduced graph that belong to a cluster too (a size filter joined them).
+   *
+   * @param joinedIds provisional ids of such segments, ascending
+   * @param joinedCluster per joined id, its cluster (numbered as {@code clusters})
+   */
+  static FinalIdMap assign(IdLayout layout, int blockCount, List<BlockSummary> summaries,
+      ReducedGraph graph, int[] clusters, long[] joinedIds, int[] joinedCluster) {
     requireComplete(blockCount, summaries);
     int maxCluster = -1;
     for (int c : clusters) {
+      maxCluster = Math.max(maxCluster, c);
+    }
+    for (int c : joinedCluster) {
       maxCluster = Math.max(maxCluster, c);
     }
     long[] finalOfCluster = new long[maxCluster + 1];
@@ -47,7 +63,17 @@ final class FinalIds {
           ids[local] = finalOfCluster[c];
           b++;
         } else {
-          ids[local] = next++;
+          int joined = joinedIds.length == 0 ? -1
+              : Arrays.binarySearch(joinedIds, layout.provisional(s.block(), local));
+          if (joined < 0) {
+            ids[local] = next++;
+          } else {
+            int c = joinedCluster[joined];
+            if (finalOfCluster[c] == 0) {
+              finalOfCluster[c] = next++;
+            }
+            ids[local] = finalOfCluster[c];
+          }
         }
       }
       finalIds[s.block()] = ids;
@@ -55,7 +81,7 @@ final class FinalIds {
     return new FinalIdMap(layout, finalIds, next - 1);
   }
 
-  private static void requireComplete(int blockCount, List<BlockSummary> summaries) {
+  static void requireComplete(int blockCount, List<BlockSummary> summaries) {
     if (summaries.size() != blockCount) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "the solve got " + summaries.size()
           + " block summaries for " + blockCount + " blocks; every block must be partitioned"

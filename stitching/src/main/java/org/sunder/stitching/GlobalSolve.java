@@ -20,7 +20,9 @@ import org.sunder.blockwise.partition.PartitionConfig;
  * {@link MutexWatershedSolver}); {@code agglomeration} and
  * {@code fragments-agglomeration} continue with the configured linkage, constraints and
  * threshold; {@code fragments-multicut} solves the multicut of the reduced graph on the
- * linkage values (summed weights by default; see {@link MulticutSolver}). Cost: O(p log p) for p
+ * linkage values (summed weights by default; see {@link MulticutSolver}). With a size filter
+ * ({@code minSegmentSize}) the filter then runs on the final segments that reach a face, by
+ * their size in the volume ({@link FinalSizeFilter}). Cost: O(p log p) for p
  * reduced-graph pairs plus the agglomeration's O(p log p); memory about 100 bytes per pair.
  */
 public final class GlobalSolve {
@@ -44,7 +46,16 @@ public final class GlobalSolve {
     ReducedGraph graph = ReducedGraph.assemble(layout, blocks, seams);
     ReducedGraphSolver solver = solverFor(config);
     int[] clusters = solver.clusters(graph);
-    FinalIdMap map = FinalIds.assign(layout, blockCount, blocks, graph, clusters);
+    FinalIdMap map;
+    if (config.minSegmentSize() > 1) {
+      FinalIds.requireComplete(blockCount, blocks);
+      FinalSizeFilter.Result filtered =
+          FinalSizeFilter.apply(layout, blocks, graph, clusters, config);
+      map = FinalIds.assign(layout, blockCount, blocks, graph, filtered.clusterOfNode(),
+          filtered.joinedIds(), filtered.joinedCluster());
+    } else {
+      map = FinalIds.assign(layout, blockCount, blocks, graph, clusters);
+    }
     double seconds = (System.nanoTime() - start) / 1e9;
     long segments = 0;
     for (BlockSummary s : blocks) {

@@ -5,13 +5,16 @@ import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.Partitioner;
 import org.sunder.blockwise.partition.SettledPartition;
+import org.sunder.blockwise.partition.SizeFilteredPartitioner;
 import org.sunder.blockwise.store.Dataset;
 
 /**
  * The partition stage's task for one block: read the extended box's affinities (and mask),
  * partition them with the configured method (merges that lean on the halo's open voxels held
- * back for the global solve, see {@link CoreSegments}), crop to the core, write the core's provisional ids
+ * back for the global solve, see {@link CoreSegments}; a size filter left to segments wholly in
+ * the core away from its faces), crop to the core, write the core's provisional ids
  * (whole chunks, so no other block's task touches them) and return the {@link BlockSummary}.
  * Deterministic: a rerun writes the same bytes. Nothing is written before the partition is
  * complete. Cost: the partition of the extended box plus one pass over its edges for the inner
@@ -40,9 +43,21 @@ public final class PartitionTask {
   static CoreSegments.Result partition(StitchingSetup setup, Block block,
       AffinityBlock affinities, PartitionConfig config) {
     byte[] open = CoreSegments.openVoxels(setup.grid(), block, setup.offsets());
-    SettledPartition partition = config.create().partitionSettled(affinities, open);
+    Partitioner partitioner = config.create();
+    SettledPartition partition = partitioner instanceof SizeFilteredPartitioner filtered
+        ? filtered.partitionSettled(affinities, open,
+            union(open, CoreSegments.partialVoxels(setup.grid(), block, setup.offsets())))
+        : partitioner.partitionSettled(affinities, open);
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
     return CoreSegments.of(setup.grid(), setup.idLayout(), block, setup.offsets(), partition,
-        graph);
+        graph, config.minSegmentSize() > 1);
+  }
+
+  private static byte[] union(byte[] a, byte[] b) {
+    byte[] either = new byte[a.length];
+    for (int i = 0; i < a.length; i++) {
+      either[i] = (byte) (a[i] | b[i]);
+    }
+    return either;
   }
 }

@@ -97,6 +97,56 @@ class BlockwiseRunTest {
    * larger volumes).
    */
   @Test
+  void sizeFilterLeavesNoSmallSegmentBesideAnotherAcrossBlocks() {
+    TissueScene scene = TissueScene.small(9, SHAPE, MILD);
+    int minSize = 30;
+    for (PartitionConfig plain : List.of(MWS, MEAN)) {
+      PartitionConfig config = new PartitionConfig(plain.method(), plain.linkage(),
+          plain.constraints(), null, null, null, null, minSize);
+      int[] halo = config.isMutexWatershed() ? new int[] {6, 6, 4} : HALO;
+      StitchingSetup unfiltered = stage(scene, "unfiltered-" + config.method(),
+          StorageFormat.ZARR, BLOCK, halo, plain);
+      InProcessRunner.run(unfiltered);
+      int smallBefore = smallSegmentsBesideAnother(SceneStore.readLabels(unfiltered), minSize);
+      assertTrue(smallBefore > 20, plain + ": the scene has small segments (" + smallBefore
+          + ")");
+      StitchingSetup setup = stage(scene, "filtered-" + config.method(), StorageFormat.ZARR,
+          BLOCK, halo, config);
+      assertEquals(8, setup.grid().blockCount());
+      InProcessRunner.run(setup);
+      long[] blockwise = SceneStore.readLabels(setup);
+      assertEquals(0, smallSegmentsBesideAnother(blockwise, minSize), config.toString());
+      SegmentationScores vsWhole = score(whole(scene, config), blockwise, false);
+      assertTrue(vsWhole.voi() <= 0.1, config + ": VOI to whole " + vsWhole.voi());
+    }
+  }
+
+  /** Final segments below {@code minSize} voxels with a face neighbour of another label. */
+  private static int smallSegmentsBesideAnother(long[] labels, int minSize) {
+    java.util.Map<Long, Integer> sizes = new java.util.HashMap<>();
+    for (long l : labels) {
+      sizes.merge(l, 1, Integer::sum);
+    }
+    java.util.Set<Long> beside = new java.util.HashSet<>();
+    int[] strides = {1, (int) SHAPE[0], (int) (SHAPE[0] * SHAPE[1])};
+    int[] p = new int[3];
+    for (int i = 0; i < labels.length; i++) {
+      TissueScene.position(i, new int[] {(int) SHAPE[0], (int) SHAPE[1], (int) SHAPE[2]}, p);
+      for (int d = 0; d < 3; d++) {
+        if (p[d] > 0 && labels[i] != labels[i - strides[d]]) {
+          beside.add(labels[i]);
+          beside.add(labels[i - strides[d]]);
+        }
+      }
+    }
+    int small = 0;
+    for (long l : beside) {
+      small += sizes.get(l) < minSize ? 1 : 0;
+    }
+    return small;
+  }
+
+  @Test
   void blockwiseResultIsCloseToTheWholeVolumeResult() {
     TissueScene scene = TissueScene.small(9, SHAPE, MILD);
     for (PartitionConfig config : List.of(MWS, MEAN)) {

@@ -40,7 +40,8 @@ class GlobalSolveTest {
     java.util.Arrays.fill(sizes, 10);
     int[] sides = new int[boundary.length];
     java.util.Arrays.fill(sides, 2);
-    return new BlockSummary(block, sizes, boundary, sides, inner, separatedU, separatedV);
+    return new BlockSummary(block, sizes, boundary, sides, inner, separatedU, separatedV,
+        EdgeStatistics.empty());
   }
 
   @Test

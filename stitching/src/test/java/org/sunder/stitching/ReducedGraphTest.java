@@ -71,7 +71,8 @@ class ReducedGraphTest {
         unsettled[label] = random.nextInt(4) == 0;
       }
       CoreSegments.Result result = CoreSegments.of(grid, layout, block, offsets,
-          new SettledPartition(segmentation, unsettled), GridGraph.of(ext, rule, subsampling));
+          new SettledPartition(segmentation, unsettled), GridGraph.of(ext, rule, subsampling),
+          true);
       paste(result.provisionalLabels(), block.coreMin(), block.coreShape(), provisional, shape);
       summaries.add(result.summary());
     }

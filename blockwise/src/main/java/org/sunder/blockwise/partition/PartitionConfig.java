@@ -33,10 +33,24 @@ import org.sunder.blockwise.graph.WeightRule;
  * {@code weights} (a {@link WeightRule}; default channel roles for the Mutex Watershed and
  * {@code logit} by value for agglomeration); {@code subsampling} (a {@link Subsampling}, default
  * none); {@code fragments} (fragment methods only: a {@link FragmentOptions}, defaults if
- * omitted); {@code minSegmentSize} (any method: segments with fewer voxels are merged by a
- * {@link SizeFilter} into their most attracted neighbour, never across the method's
- * constraints; default 0 = off). {@link #validate(Offsets)} checks them against the dataset's
+ * omitted); {@code minSegmentSize} (any method, default 0 = off; see below);
+ * {@code sizeFilter} (how {@code minSegmentSize} treats the method's constraints:
+ * {@code "complete"}, the default, or {@code "within-constraints"}; only with
+ * {@code minSegmentSize} above 1). {@link #validate(Offsets)} checks them against the dataset's
  * offsets.
+ *
+ * <p>The size filter ({@link SizeFilter}), applied after the method: smallest segment first, a
+ * segment with fewer than {@code minSegmentSize} voxels joins the adjacent segment it is most
+ * attracted to, ranked by the mean weight of the voxel edges between them (mean linkage; ties
+ * to the lower label), preferring neighbours the method did not keep apart by a constraint.
+ * With {@code "complete"} it joins a constrained neighbour (across repulsion) when it has no
+ * other, so afterwards no segment below the size remains unless it touches no other segment.
+ * With {@code "within-constraints"} it never crosses the method's constraints (the Mutex
+ * Watershed's repulsive edges, constrained agglomeration's constrained pairs), and a small
+ * segment with only constrained neighbours stays. Under both, two segments that each hold at
+ * least {@code minSegmentSize} voxels are never joined, and masked voxels stay 0. In a blockwise
+ * run each block filters only segments that lie wholly inside its core away from the faces;
+ * the rest is decided after the global solve (see the stitching module's {@code GlobalSolve}).
  *
  * <p>Extension point: a new method (for instance {@code "fragments-multicut"} and
  * {@code "fragments-agglomeration"}) adds a {@link Method} constant with its JSON name, its keys
@@ -87,11 +101,20 @@ public final class PartitionConfig {
   private final Subsampling subsampling;
   private final FragmentOptions fragments;
   private final int minSegmentSize;
+  private final SizeFilter.Rule sizeFilter;
 
   /** As the full constructor without fragment options and size filter. */
   public PartitionConfig(Method method, Linkage linkage, Boolean constraints, Double threshold,
       WeightRule weights, Subsampling subsampling) {
-    this(method, linkage, constraints, threshold, weights, subsampling, null, null);
+    this(method, linkage, constraints, threshold, weights, subsampling, null, null, null);
+  }
+
+  /** As the full constructor with the default size filter rule. */
+  public PartitionConfig(Method method, Linkage linkage, Boolean constraints, Double threshold,
+      WeightRule weights, Subsampling subsampling, FragmentOptions fragments,
+      Integer minSegmentSize) {
+    this(method, linkage, constraints, threshold, weights, subsampling, fragments,
+        minSegmentSize, null);
   }
 
   /** Null arguments take their defaults (see the class comment); {@code method} is required. */
@@ -103,7 +126,8 @@ public final class PartitionConfig {
       @JsonProperty("weights") WeightRule weights,
       @JsonProperty("subsampling") Subsampling subsampling,
       @JsonProperty("fragments") FragmentOptions fragments,
-      @JsonProperty("minSegmentSize") Integer minSegmentSize) {
+      @JsonProperty("minSegmentSize") Integer minSegmentSize,
+      @JsonProperty("sizeFilter") SizeFilter.Rule sizeFilter) {
     if (method == null) {
       throw invalid("method: missing; expected \"mutex-watershed\", \"agglomeration\", "
           + "\"fragments-multicut\" or \"fragments-agglomeration\"");
@@ -144,6 +168,11 @@ public final class PartitionConfig {
       throw invalid("minSegmentSize: " + minSegmentSize + "; expected an integer >= 0");
     }
     this.minSegmentSize = minSegmentSize != null ? minSegmentSize : 0;
+    if (sizeFilter != null && this.minSegmentSize <= 1) {
+      throw invalid("sizeFilter: \"" + sizeFilter.jsonName() + "\" without a size filter; "
+          + "set minSegmentSize above 1 or remove sizeFilter");
+    }
+    this.sizeFilter = sizeFilter != null ? sizeFilter : SizeFilter.Rule.COMPLETE;
   }
 
   public static PartitionConfig mutexWatershed(WeightRule weights, Subsampling subsampling) {
@@ -214,12 +243,22 @@ public final class PartitionConfig {
     if (minSegmentSize <= 1) {
       return partitioner;
     }
-    SizeFilteredPartitioner.CannotLink cannotLink = method == Method.MUTEX_WATERSHED
-        ? SizeFilteredPartitioner.CannotLink.REPULSIVE_EDGE
+    return new SizeFilteredPartitioner(partitioner, createSizeFilter(), weights, subsampling,
+        sizeFilterCannotLink(), linkage);
+  }
+
+  /** The configured size filter (mean linkage), or null when {@code minSegmentSize <= 1}. */
+  public SizeFilter createSizeFilter() {
+    return minSegmentSize <= 1 ? null
+        : new SizeFilter(minSegmentSize, Linkage.MEAN, sizeFilter);
+  }
+
+  /** Which segment pairs the method kept apart by a constraint, for the size filter. */
+  @JsonIgnore
+  public SizeFilteredPartitioner.CannotLink sizeFilterCannotLink() {
+    return method == Method.MUTEX_WATERSHED ? SizeFilteredPartitioner.CannotLink.REPULSIVE_EDGE
         : constraints ? SizeFilteredPartitioner.CannotLink.NONZERO_LINKAGE
             : SizeFilteredPartitioner.CannotLink.NONE;
-    return new SizeFilteredPartitioner(partitioner, new SizeFilter(minSegmentSize, linkage),
-        weights, subsampling, cannotLink);
   }
 
   @JsonProperty("method")
@@ -259,10 +298,17 @@ public final class PartitionConfig {
     return fragments;
   }
 
-  /** Segments with fewer voxels are merged away by a {@link SizeFilter}; 0 or 1 = off. */
+  /** Segments with fewer voxels are merged away (see the class comment); 0 or 1 = off. */
   @JsonProperty("minSegmentSize")
   public int minSegmentSize() {
     return minSegmentSize;
+  }
+
+  /** How the size filter treats the method's constraints; null when the filter is off. */
+  @JsonProperty("sizeFilter")
+  @JsonInclude(JsonInclude.Include.NON_NULL)
+  public SizeFilter.Rule sizeFilter() {
+    return minSegmentSize > 1 ? sizeFilter : null;
   }
 
   @JsonIgnore
@@ -275,13 +321,13 @@ public final class PartitionConfig {
     return o instanceof PartitionConfig c && method == c.method && linkage == c.linkage
         && constraints == c.constraints && threshold == c.threshold && weights.equals(c.weights)
         && subsampling.equals(c.subsampling) && Objects.equals(fragments, c.fragments)
-        && minSegmentSize == c.minSegmentSize;
+        && minSegmentSize == c.minSegmentSize && Objects.equals(sizeFilter(), c.sizeFilter());
   }
 
   @Override
   public int hashCode() {
     return Objects.hash(method, linkage, constraints, threshold, weights, subsampling, fragments,
-        minSegmentSize);
+        minSegmentSize, sizeFilter());
   }
 
   @Override
@@ -289,7 +335,8 @@ public final class PartitionConfig {
     return "PartitionConfig[" + method.jsonName() + (method != Method.MUTEX_WATERSHED
         ? " " + linkage.jsonName() + (constraints ? " constrained" : "") : "") + ", " + weights
         + ", " + subsampling + (fragments != null ? ", " + fragments : "")
-        + (minSegmentSize > 1 ? ", minSegmentSize " + minSegmentSize : "") + "]";
+        + (minSegmentSize > 1 ? ", minSegmentSize " + minSegmentSize + " "
+            + sizeFilter.jsonName() : "") + "]";
   }
 
   private static PartitionConfigException invalid(String message) {

@@ -1,35 +1,87 @@
 package org.sunder.blockwise.partition;
 
+import com.fasterxml.jackson.annotation.JsonCreator;
+import com.fasterxml.jackson.annotation.JsonValue;
 import java.util.Arrays;
 import java.util.Objects;
+import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.graph.EdgeStatistics;
 
 /**
- * Merges every segment smaller than a voxel count into the adjacent segment of strongest
- * attraction (largest {@link Linkage} value of the statistics between them, ties to the smaller
- * segment id), smallest segment first (ties by label), until no segment below the size is
- * left that has a neighbour it may join. A pair flagged cannot-link is never joined; flags and
- * statistics are combined as segments merge, so a constraint between parts holds for the whole.
- * A small segment with no neighbour, or only cannot-link ones, stays. Masked voxels (label 0)
- * stay 0. Output labels are 1..k in order of first voxel.
+ * Merges away every segment smaller than a voxel count. Smallest segment first, a small segment
+ * joins the adjacent segment it is most attracted to (largest {@link Linkage} value of the
+ * statistics between them), and the merged segment waits its turn again while it is still
+ * small. Ties, in both choices, go to the segment whose lowest original label is lower, so the
+ * result depends only on the input. Only a segment below the size is ever merged
+ * away: two segments that both hold at least {@code minSize} voxels are never joined.
+ *
+ * <p>Cannot-link flags mark the pairs the partition method kept apart; flags and statistics
+ * are combined as segments merge, so a constraint between parts holds for the whole. What a
+ * small segment with only constrained neighbours does depends on the {@link Rule}:
+ * {@link Rule#COMPLETE} (default) joins its most attracted constrained neighbour, so no segment
+ * below the size remains unless it touches no other segment at all;
+ * {@link Rule#WITHIN_CONSTRAINTS} leaves it. Under both rules an unconstrained neighbour is
+ * preferred over any constrained one.
+ *
+ * <p>Segments marked <em>left alone</em> (e.g. pieces cut by a block face, whose size in the
+ * block says nothing about their size in the volume) are never merged away as small ones, but
+ * may absorb a small neighbour; a segment that absorbed one stays left alone. Masked voxels
+ * (label 0) stay 0. Output labels are 1..k in order of first voxel.
  *
  * <p>Time {@code O((n + p) log p)} for {@code n} voxels and {@code p} segment pairs (adjacency
  * merged smaller into larger); memory {@code O(n + p)}. Immutable and thread-safe.
  */
 public final class SizeFilter {
+  /** What a small segment whose every neighbour is constrained does. */
+  public enum Rule {
+    /**
+     * Joins its most attracted neighbour anyway: no segment below the size remains unless it
+     * touches no other segment.
+     */
+    COMPLETE("complete"),
+    /** Stays: the filter never joins a constrained pair. */
+    WITHIN_CONSTRAINTS("within-constraints");
+
+    private final String jsonName;
+
+    Rule(String jsonName) {
+      this.jsonName = jsonName;
+    }
+
+    @JsonValue
+    public String jsonName() {
+      return jsonName;
+    }
+
+    /** The rule named {@code name}; {@link PartitionConfigException} naming the key if none. */
+    @JsonCreator
+    public static Rule fromName(String name) {
+      for (Rule r : values()) {
+        if (r.jsonName.equals(name)) {
+          return r;
+        }
+      }
+      throw new PartitionConfigException(ErrorKind.INVALID_CONFIG, "sizeFilter: unknown value \""
+          + name + "\"; expected \"complete\" or \"within-constraints\"");
+    }
+  }
+
   private final int minSize;
   private final Linkage linkage;
+  private final Rule rule;
 
   /**
    * @param minSize segments with fewer voxels are merged away; 0 or 1 keeps everything
    * @param linkage how the statistics between two segments rank their attraction
+   * @param rule whether a small segment may join a constrained neighbour
    */
-  public SizeFilter(int minSize, Linkage linkage) {
+  public SizeFilter(int minSize, Linkage linkage, Rule rule) {
     if (minSize < 0) {
       throw new IllegalArgumentException("minimum segment size " + minSize + " is negative");
     }
     this.minSize = minSize;
     this.linkage = Objects.requireNonNull(linkage, "linkage");
+    this.rule = Objects.requireNonNull(rule, "rule");
   }
 
   public int minSize() {
@@ -38,6 +90,10 @@ public final class SizeFilter {
 
   public Linkage linkage() {
     return linkage;
+  }
+
+  public Rule rule() {
+    return rule;
   }
 
   /** Cannot-link flags for pairs joined by at least one repulsive edge ({@code min < 0}). */
@@ -59,19 +115,30 @@ public final class SizeFilter {
     return flags;
   }
 
+  /** As {@link #apply(Segmentation, EdgeStatistics, boolean[], boolean[])}, none left alone. */
+  public Segmentation apply(Segmentation segmentation, EdgeStatistics statistics,
+      boolean[] cannotLinkOrNull) {
+    return apply(segmentation, statistics, cannotLinkOrNull, null);
+  }
+
   /**
    * The filtered segmentation.
    *
    * @param statistics edge statistics between segment labels (ids 1..segmentCount)
    * @param cannotLinkOrNull one flag per row of {@code statistics}, or null for none
+   * @param leaveAloneOrNull per label ({@code segmentCount + 1} entries, index 0 unused), the
+   *     segments never merged away as small ones; or null for none
    */
   public Segmentation apply(Segmentation segmentation, EdgeStatistics statistics,
-      boolean[] cannotLinkOrNull) {
+      boolean[] cannotLinkOrNull, boolean[] leaveAloneOrNull) {
     int[] labels = segmentation.labels();
     int count = segmentation.segmentCount();
-    if (cannotLinkOrNull != null && cannotLinkOrNull.length != statistics.size()) {
-      throw new IllegalArgumentException(cannotLinkOrNull.length + " cannot-link flags for "
-          + statistics.size() + " segment pairs");
+    if (leaveAloneOrNull != null && leaveAloneOrNull.length != count + 1) {
+      throw new IllegalArgumentException(leaveAloneOrNull.length + " leave-alone flags for "
+          + count + " segments (label 0 included)");
+    }
+    if (minSize <= 1 || count == 0) {
+      return segmentation;
     }
     long[] size = new long[count];
     for (int l : labels) {
@@ -79,16 +146,47 @@ public final class SizeFilter {
         size[l - 1]++;
       }
     }
-    if (minSize <= 1 || count == 0) {
-      return segmentation;
-    }
-    Merging merging = new Merging(count, statistics, cannotLinkOrNull, size);
-    int[] representative = merging.run();
+    boolean[] leaveAlone = leaveAloneOrNull == null ? null
+        : Arrays.copyOfRange(leaveAloneOrNull, 1, count + 1);
+    int[] representative = groups(size, statistics, cannotLinkOrNull, leaveAlone);
     int[] clusterOfVoxel = new int[labels.length];
     for (int i = 0; i < labels.length; i++) {
       clusterOfVoxel[i] = labels[i] > 0 ? representative[labels[i] - 1] + 1 : 0;
     }
     return relabel(clusterOfVoxel, count);
+  }
+
+  /**
+   * The filter on a graph of segments {@code 0..sizes.length-1}, e.g. the global solve's
+   * clusters: per segment, the index of the segment that represents its group (equal values are
+   * joined). Arrays are not modified.
+   *
+   * @param sizes voxels per segment; segments of size 0 are never merged away
+   * @param statistics edge statistics between segment ids {@code 1..sizes.length} (id = index
+   *     + 1)
+   * @param cannotLinkOrNull one flag per row of {@code statistics}, or null for none
+   * @param leaveAloneOrNull per segment index, never merged away as a small one; or null
+   */
+  public int[] groups(long[] sizes, EdgeStatistics statistics, boolean[] cannotLinkOrNull,
+      boolean[] leaveAloneOrNull) {
+    int count = sizes.length;
+    if (cannotLinkOrNull != null && cannotLinkOrNull.length != statistics.size()) {
+      throw new IllegalArgumentException(cannotLinkOrNull.length + " cannot-link flags for "
+          + statistics.size() + " segment pairs");
+    }
+    if (leaveAloneOrNull != null && leaveAloneOrNull.length != count) {
+      throw new IllegalArgumentException(leaveAloneOrNull.length + " leave-alone flags for "
+          + count + " segments");
+    }
+    if (minSize <= 1 || count == 0) {
+      int[] identity = new int[count];
+      for (int c = 0; c < count; c++) {
+        identity[c] = c;
+      }
+      return identity;
+    }
+    return new Merging(count, statistics, cannotLinkOrNull, sizes.clone(),
+        leaveAloneOrNull == null ? new boolean[count] : leaveAloneOrNull.clone()).run();
   }
 
   private static Segmentation relabel(int[] clusterOfVoxel, int count) {
@@ -117,9 +215,14 @@ public final class SizeFilter {
     private final ContractionGraph graph;
     private final ContractionGraph.EdgeMerge combine;
     private final int[] parent;
+    private final boolean[] leftAlone;
+    /** Per group representative, its lowest member index: the tie-breaker of both choices. */
+    private final int[] lowest;
 
-    Merging(int count, EdgeStatistics statistics, boolean[] flags, long[] size) {
+    Merging(int count, EdgeStatistics statistics, boolean[] flags, long[] size,
+        boolean[] leftAlone) {
       this.size = size;
+      this.leftAlone = leftAlone;
       int m = statistics.size();
       int[] u = new int[m];
       int[] v = new int[m];
@@ -141,8 +244,10 @@ public final class SizeFilter {
       };
       graph = ContractionGraph.build(count, u, v, combine);
       parent = new int[count];
+      lowest = new int[count];
       for (int i = 0; i < count; i++) {
         parent[i] = i;
+        lowest[i] = i;
       }
     }
 
@@ -157,8 +262,8 @@ public final class SizeFilter {
     int[] run() {
       MaxHeap small = new MaxHeap(64);
       for (int c = 0; c < size.length; c++) {
-        if (size[c] > 0 && size[c] < minSize) {
-          small.push(-size[c], c, c);
+        if (isSmall(c)) {
+          small.push(-size[c], lowest[c], c);
         }
       }
       IntList touched = new IntList(16);
@@ -180,14 +285,16 @@ public final class SizeFilter {
         parent[gone] = keep;
         size[keep] += size[gone];
         size[gone] = 0;
-        if (size[keep] < minSize) {
-          small.push(-size[keep], keep, keep);
+        leftAlone[keep] |= leftAlone[gone];
+        lowest[keep] = Math.min(lowest[keep], lowest[gone]);
+        if (isSmall(keep)) {
+          small.push(-size[keep], lowest[keep], keep);
         }
         for (int t = 0; t < touched.size(); t++) {
           int e = touched.get(t);
           int other = graph.endA(e) == keep ? graph.endB(e) : graph.endA(e);
-          if (size[other] < minSize) {
-            small.push(-size[other], other, other);
+          if (isSmall(other)) {
+            small.push(-size[other], lowest[other], other);
           }
         }
       }
@@ -202,41 +309,56 @@ public final class SizeFilter {
       return root;
     }
 
+    private boolean isSmall(int c) {
+      return size[c] > 0 && size[c] < minSize && !leftAlone[c];
+    }
+
+    /**
+     * The unconstrained neighbour of strongest attraction; without one, under
+     * {@link Rule#COMPLETE} the constrained neighbour of strongest attraction; else -1.
+     */
     private int strongestNeighbour(int c) {
       IntIntHashMap around = graph.neighbours(c);
-      int best = -1;
-      double bestValue = Double.NEGATIVE_INFINITY;
+      int free = -1;
+      double freeValue = Double.NEGATIVE_INFINITY;
+      int constrained = -1;
+      double constrainedValue = Double.NEGATIVE_INFINITY;
       for (int slot = 0; slot < around.capacity(); slot++) {
         int d = around.keyAt(slot);
         if (d < 0) {
           continue;
         }
         int e = around.valueAt(slot);
-        if (cannotLink[e]) {
-          continue;
-        }
         double value = linkage.value(sum[e], edges[e], min[e], max[e]);
-        if (value > bestValue || (value == bestValue && d < best)) {
-          best = d;
-          bestValue = value;
+        if (!cannotLink[e]) {
+          if (free < 0 || value > freeValue || (value == freeValue && lowest[d] < lowest[free])) {
+            free = d;
+            freeValue = value;
+          }
+        } else if (constrained < 0 || value > constrainedValue
+            || (value == constrainedValue && lowest[d] < lowest[constrained])) {
+          constrained = d;
+          constrainedValue = value;
         }
       }
-      return best;
+      return free >= 0 ? free : rule == Rule.COMPLETE ? constrained : -1;
     }
   }
 
   @Override
   public String toString() {
-    return "SizeFilter[" + minSize + " voxels, " + linkage.jsonName() + "]";
+    return "SizeFilter[" + minSize + " voxels, " + linkage.jsonName() + ", " + rule.jsonName()
+        + "]";
   }
 
   @Override
   public boolean equals(Object o) {
-    return o instanceof SizeFilter f && f.minSize == minSize && f.linkage == linkage;
+    return o instanceof SizeFilter f && f.minSize == minSize && f.linkage == linkage
+        && f.rule == rule;
   }
 
   @Override
   public int hashCode() {
-    return Arrays.hashCode(new Object[] {minSize, linkage});
+    return Arrays.hashCode(new Object[] {minSize, linkage, rule});
   }
 }

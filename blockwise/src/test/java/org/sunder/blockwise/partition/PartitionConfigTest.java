@@ -39,6 +39,33 @@ class PartitionConfigTest {
   }
 
   @Test
+  void sizeFilterRuleIsReadValidatedAndRoundTrips() throws Exception {
+    PartitionConfig strict = PartitionConfig.fromJson("{\"method\": \"mutex-watershed\","
+        + " \"minSegmentSize\": 30, \"sizeFilter\": \"within-constraints\"}");
+    assertEquals(SizeFilter.Rule.WITHIN_CONSTRAINTS, strict.sizeFilter());
+    assertEquals(SizeFilter.Rule.WITHIN_CONSTRAINTS,
+        ((SizeFilteredPartitioner) strict.create()).filter().rule());
+    PartitionConfig complete = PartitionConfig.fromJson("{\"method\": \"agglomeration\","
+        + " \"linkage\": \"max\", \"minSegmentSize\": 30}");
+    assertEquals(SizeFilter.Rule.COMPLETE, complete.sizeFilter(), "the default");
+    SizeFilteredPartitioner created = (SizeFilteredPartitioner) complete.create();
+    assertEquals(new SizeFilter(30, Linkage.MEAN, SizeFilter.Rule.COMPLETE), created.filter(),
+        "the filter ranks neighbours by mean weight whatever the method's linkage");
+    assertEquals(Linkage.MAX, created.methodLinkage());
+    assertEquals(null, PartitionConfig.fromJson("{\"method\": \"mutex-watershed\"}")
+        .sizeFilter(), "no rule without a filter");
+    ObjectMapper json = new ObjectMapper();
+    for (PartitionConfig c : new PartitionConfig[] {strict, complete}) {
+      assertEquals(c, PartitionConfig.fromJson(json.writeValueAsString(c)));
+    }
+    assertTrue(configError("{\"method\": \"mutex-watershed\", \"minSegmentSize\": 30,"
+        + " \"sizeFilter\": \"strict\"}").getMessage()
+        .startsWith("sizeFilter: unknown value \"strict\""));
+    assertTrue(configError("{\"method\": \"mutex-watershed\","
+        + " \"sizeFilter\": \"complete\"}").getMessage().startsWith("sizeFilter:"));
+  }
+
+  @Test
   void mistakesNameTheirKey() {
     assertTrue(configError("{\"method\": \"agglomeration\", \"linkage\": \"median\"}")
         .getMessage().contains("linkage: unknown value \"median\""));

@@ -33,8 +33,9 @@ final class RecordSizes implements FlatMapFunction<Iterator<Integer>, Long> {
     while (indices.hasNext()) {
       int i = indices.next();
       if (i < blockCount) {
-        edges += codec.decode(work.ledger(Stage.PARTITION).read(i), BlockSummary.class,
-            "partition record " + i).innerEdges().size();
+        BlockSummary summary = codec.decode(work.ledger(Stage.PARTITION).read(i),
+            BlockSummary.class, "partition record " + i);
+        edges += summary.innerEdges().size() + summary.interiorEdges().size();
       } else {
         int face = i - blockCount;
         edges += codec.decode(work.ledger(Stage.SEAMS).read(face), SeamEdges.class,
