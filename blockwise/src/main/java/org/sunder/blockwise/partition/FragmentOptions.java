@@ -87,6 +87,29 @@ public final class FragmentOptions implements Serializable {
     return new FragmentOptions(0.5, 1.0, null, false);
   }
 
+  /**
+   * The defaults fitted to data of this voxel size (memory order): the voxel size is used for
+   * the distance transform, and fragments are made per slice of the slowest axis when that axis
+   * is at least {@value #SLICE_ANISOTROPY} times coarser than the finest other axis (sections
+   * cut thicker than the in-plane resolution, where 3D flooding leaks between sections).
+   */
+  public static FragmentOptions fittedTo(double[] voxelSize) {
+    FragmentOptions checked = new FragmentOptions(0.5, 1.0, voxelSize, false);
+    return new FragmentOptions(0.5, 1.0, voxelSize, isSliced(checked.voxelSize));
+  }
+
+  /** Slowest axis over finest other axis at which {@link #fittedTo} floods per slice. */
+  public static final double SLICE_ANISOTROPY = 2.0;
+
+  private static boolean isSliced(double[] voxelSize) {
+    int slow = voxelSize.length - 1;
+    double finestOther = Double.POSITIVE_INFINITY;
+    for (int d = 0; d < slow; d++) {
+      finestOther = Math.min(finestOther, voxelSize[d]);
+    }
+    return slow > 0 && voxelSize[slow] >= SLICE_ANISOTROPY * finestOther;
+  }
+
   /** The same options with an explicit voxel size for {@code dims} axes. */
   public FragmentOptions forDimension(int dims) {
     if (voxelSize == null) {

@@ -175,6 +175,18 @@ public final class PartitionConfig {
     this.sizeFilter = sizeFilter != null ? sizeFilter : SizeFilter.Rule.COMPLETE;
   }
 
+  /**
+   * The method a run uses when its configuration names none: {@code fragments-multicut} with
+   * logit weights over every offset and fragments {@link FragmentOptions#fittedTo fitted} to the
+   * voxel size (memory order; null: isotropic unit voxels, 3D flooding). Chosen by measurement
+   * on the realistic tissue presets (README, "Choosing a method").
+   */
+  public static PartitionConfig robustDefault(double[] voxelSizeOrNull) {
+    return new PartitionConfig(Method.FRAGMENTS_MULTICUT, null, null, null, null, null,
+        voxelSizeOrNull == null ? FragmentOptions.defaults()
+            : FragmentOptions.fittedTo(voxelSizeOrNull), null);
+  }
+
   public static PartitionConfig mutexWatershed(WeightRule weights, Subsampling subsampling) {
     return new PartitionConfig(Method.MUTEX_WATERSHED, null, null, null, weights, subsampling);
   }
