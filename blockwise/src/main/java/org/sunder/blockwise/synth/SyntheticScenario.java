@@ -86,6 +86,18 @@ public final class SyntheticScenario {
    * @throws StoreException {@link ErrorKind#CONFLICT} if either dataset exists already
    */
   public static Written write(Container container, SynthSpec spec, ScenarioOptions options) {
+    return write(container, SyntheticVolume.generate(spec), options);
+  }
+
+  /**
+   * Writes a scenario from a volume already built (e.g. a {@link TissuePreset}'s, which carves
+   * an empty region after generation).
+   *
+   * @throws StoreException {@link ErrorKind#CONFLICT} if either dataset exists already
+   */
+  public static Written write(Container container, SyntheticVolume volume,
+      ScenarioOptions options) {
+    SynthSpec spec = volume.spec();
     String gtPath = join(options.group(), GROUND_TRUTH);
     String affPath = join(options.group(), AFFINITIES);
     for (String path : List.of(gtPath, affPath)) {
@@ -94,7 +106,6 @@ public final class SyntheticScenario {
             + path + "' exists in " + container + "; expected a free path");
       }
     }
-    SyntheticVolume volume = SyntheticVolume.generate(spec);
     long[] shape = volume.shape();
     int[][] offsets = options.offsets().vectors();
     float[] affinities = options.degradation().apply(volume.labels(), shape, spec.voxelSize(),

@@ -4,7 +4,10 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.apache.spark.api.java.JavaSparkContext;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.metrics.TunedBaseline;
 import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.demo.DemoScenario;
 import org.sunder.spark.run.PreparedRun;
@@ -35,7 +38,12 @@ final class DemoCommand implements Callable<Integer> {
       description = "Container format, zarr or n5 (default: ${DEFAULT-VALUE}).")
   String format;
 
-  @Option(names = "--shape", paramLabel = "Z,Y,X", defaultValue = "40,112,128",
+  @Option(names = "--tissue", paramLabel = "KIND", defaultValue = "compact-cells",
+      description = "Kind of synthetic tissue: compact-cells, dense-neurites or"
+          + " bodies-and-neurites (default: ${DEFAULT-VALUE}).")
+  String tissue;
+
+  @Option(names = "--shape", paramLabel = "Z,Y,X", defaultValue = "48,128,128",
       description = "Volume shape in voxels, slowest axis first (default: ${DEFAULT-VALUE}).")
   String shapeText;
 
@@ -75,7 +83,13 @@ final class DemoCommand implements Callable<Integer> {
     };
     long[] shape = shape();
     cli.out().println("demo: preparing a synthetic volume in " + dir.toAbsolutePath().normalize());
-    Path config = DemoScenario.prepare(dir, storage, shape, seed);
+    TissuePreset preset;
+    try {
+      preset = TissuePreset.named(tissue);
+    } catch (SunderException e) {
+      throw new ConfigException("--tissue: " + e.getMessage());
+    }
+    Path config = DemoScenario.prepare(dir, storage, preset, shape, seed);
     PreparedRun run = RunLoader.prepare(config, null, fresh);
     JavaSparkContext sc = cli.spark().open(spark.master);
     RunReport report;
@@ -86,6 +100,12 @@ final class DemoCommand implements Callable<Integer> {
       cli.spark().release(sc);
     }
     report.print(cli.out());
+    TunedBaseline naive = DemoScenario.baseline(DemoScenario.container(dir, storage));
+    cli.out().printf(java.util.Locale.ROOT, "yardstick: naive seeded watershed (threshold %.2f,"
+        + " the best of %s): adapted Rand error %.4f, VOI split %.4f, merge %.4f,"
+        + " %d segments%n", naive.threshold(), java.util.Arrays.toString(TunedBaseline.THRESHOLDS),
+        naive.scores().adaptedRandError(), naive.scores().voiSplit(),
+        naive.scores().voiMerge(), naive.segmentation().segmentCount());
     cli.out().println();
     cli.out().println("The demo volume is synthetic; automated segmentations of real data contain"
         + " errors and need proofreading.");

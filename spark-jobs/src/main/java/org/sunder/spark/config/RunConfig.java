@@ -28,7 +28,7 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
   /** Default name of the affinity dataset. */
   public static final String DEFAULT_AFFINITIES = "affinities";
   /** Partition method when the configuration names none: parameter-free. */
-  public static final String DEFAULT_METHOD = "mutex-watershed";
+  public static final String DEFAULT_METHOD = "fragments-multicut";
   /** Default bound on the reduced graph's edges gathered on the driver. */
   public static final long DEFAULT_MAX_DRIVER_EDGES = 20_000_000L;
 

@@ -10,15 +10,16 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.StorageFormat;
-import org.sunder.blockwise.synth.Degradation;
+import org.sunder.blockwise.metrics.TunedBaseline;
+import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.synth.ScenarioOptions;
-import org.sunder.blockwise.synth.SynthSpec;
 import org.sunder.blockwise.synth.SyntheticScenario;
+import org.sunder.blockwise.synth.TissuePreset;
 
 /**
- * The demo's input: a synthetic tissue volume (fibres, cells, a large body, all touching) with
- * its ground truth and moderately degraded affinities, written once into a container in the
- * demo directory, plus a run configuration that segments and scores it.
+ * The demo's input: a realistic synthetic prediction ({@link TissuePreset}) with its ground
+ * truth, written once into a container in the demo directory, plus a run configuration that
+ * segments it with the default method and scores it.
  */
 public final class DemoScenario {
   private static final ObjectMapper JSON = new ObjectMapper()
@@ -32,11 +33,11 @@ public final class DemoScenario {
    * @param zyx volume shape, slowest axis first
    * @return the configuration file
    */
-  public static Path prepare(Path dir, StorageFormat format, long[] zyx, long seed) {
-    Path container = dir.resolve(format == StorageFormat.N5 ? "volume.n5" : "volume.zarr")
-        .toAbsolutePath().normalize();
+  public static Path prepare(Path dir, StorageFormat format, TissuePreset tissue, long[] zyx,
+      long seed) {
+    Path container = container(dir, format);
     if (!Files.isDirectory(container.resolve(SyntheticScenario.AFFINITIES))) {
-      write(container, format, zyx, seed);
+      write(container, format, tissue, zyx, seed);
     }
     Path config = dir.resolve("demo-run.json").toAbsolutePath().normalize();
     ObjectNode root = JSON.createObjectNode();
@@ -45,7 +46,6 @@ public final class DemoScenario {
         .put("affinities", SyntheticScenario.AFFINITIES);
     root.putObject("output").put("dataset", "segmentation");
     root.putObject("blocks").set("shape", JSON.valueToTree(blockShape(zyx)));
-    root.putObject("partition").put("method", "mutex-watershed");
     root.putObject("evaluate").put("groundTruth", SyntheticScenario.GROUND_TRUTH);
     try {
       Files.createDirectories(dir);
@@ -54,6 +54,23 @@ public final class DemoScenario {
       throw new SunderException(ErrorKind.STORAGE, "cannot write " + config + ": " + e, e);
     }
     return config;
+  }
+
+  /** The container the demo volume lives in. */
+  public static Path container(Path dir, StorageFormat format) {
+    return dir.resolve(format == StorageFormat.N5 ? "volume.n5" : "volume.zarr")
+        .toAbsolutePath().normalize();
+  }
+
+  /**
+   * The naive watershed, tuned on the ground truth, of the demo volume in {@code container}:
+   * the yardstick printed beside the run's scores.
+   */
+  public static TunedBaseline baseline(Path container) {
+    Container c = Container.open(container);
+    Dataset affinities = c.openDataset(SyntheticScenario.AFFINITIES);
+    return TunedBaseline.of(affinities, TissuePreset.offsets(),
+        c.openDataset(SyntheticScenario.GROUND_TRUTH));
   }
 
   /** One chunk per block, so that even the small demo volume is stitched from several blocks. */
@@ -67,16 +84,10 @@ public final class DemoScenario {
         (int) Math.min(16, xyz[2])};
   }
 
-  private static void write(Path root, StorageFormat format, long[] zyx, long seed) {
-    long voxels = zyx[0] * zyx[1] * zyx[2];
+  private static void write(Path root, StorageFormat format, TissuePreset tissue, long[] zyx,
+      long seed) {
     long[] xyz = {zyx[2], zyx[1], zyx[0]};
-    double scale = voxels / (64.0 * 56 * 20);
-    SynthSpec small = SynthSpec.small(seed);
-    SynthSpec spec = small.withShape(xyz).withCounts((int) Math.max(8, Math.round(30 * scale)),
-        (int) Math.max(1, Math.round(4 * scale)), (int) Math.max(1, Math.round(scale)));
-    int[] chunks = chunks(xyz);
-    ScenarioOptions options = ScenarioOptions.defaults()
-        .withDegradation(Degradation.moderate(seed)).withChunkShape(chunks);
-    SyntheticScenario.write(Container.create(root, format), spec, options);
+    ScenarioOptions options = tissue.scenarioOptions(seed).withChunkShape(chunks(xyz));
+    SyntheticScenario.write(Container.create(root, format), tissue.volume(seed, xyz), options);
   }
 }

@@ -2,6 +2,8 @@ package org.sunder.spark.run;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -10,6 +12,7 @@ import java.util.Map;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.partition.FragmentOptions;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
@@ -85,7 +88,8 @@ public final class RunResolver {
             + "; expected integer labels");
       }
     }
-    String partitionJson = partitionJson(config, offsets);
+    String partitionJson = partitionJson(config, offsets,
+        voxelSize(input.readAttributes(affName), axes));
     RunSettings settings = new RunSettings(axes.letters(), inputPath.toString(), affName, offsets,
         mask, outputPath.toString(), outputDataset, workDir.toString(), volume, chunks,
         blockShape, halo, partitionJson, config.solve().maxDriverEdges(), truthPath.toString(),
@@ -93,11 +97,19 @@ public final class RunResolver {
     return settings;
   }
 
-  /** The partition section checked against the offsets, with every default written out. */
-  private static String partitionJson(RunConfig config, int[][] offsets) {
+  /**
+   * The partition section checked against the offsets. A fragment method without
+   * {@code fragments.voxelSize} or {@code fragments.perSlice} gets them fitted to the input's
+   * voxel size ({@link FragmentOptions#fittedTo}), written into the section so the manifest
+   * shows what ran.
+   */
+  private static String partitionJson(RunConfig config, int[][] offsets,
+      double[] voxelSizeSlowestFirst) {
     PartitionConfig partition;
     try {
-      String json = JSON.writeValueAsString(config.partition());
+      ObjectNode section = config.partition().deepCopy();
+      fitFragments(section, voxelSizeSlowestFirst);
+      String json = JSON.writeValueAsString(section);
       partition = PartitionConfig.fromJson(json);
       partition.validate(new Offsets(offsets));
       return json;
@@ -108,6 +120,63 @@ public final class RunResolver {
       throw new ConfigException(message.startsWith("partition") ? message
           : "partition." + message, e);
     }
+  }
+
+  private static void fitFragments(ObjectNode section, double[] voxelSizeSlowestFirst) {
+    String method = section.path("method").asText();
+    boolean fragmentMethod = method.equals(PartitionConfig.Method.FRAGMENTS_MULTICUT.jsonName())
+        || method.equals(PartitionConfig.Method.FRAGMENTS_AGGLOMERATION.jsonName());
+    if (!fragmentMethod || voxelSizeSlowestFirst == null
+        || (section.has("fragments") && !section.get("fragments").isObject())) {
+      return;
+    }
+    ObjectNode fragments = section.has("fragments") ? (ObjectNode) section.get("fragments")
+        : section.putObject("fragments");
+    if (fragments.has("voxelSize")) {
+      return;
+    }
+    ArrayNode size = fragments.putArray("voxelSize");
+    for (double v : voxelSizeSlowestFirst) {
+      size.add(v);
+    }
+    if (!fragments.has("perSlice")) {
+      double[] memoryOrder = reverse(voxelSizeSlowestFirst);
+      fragments.put("perSlice", FragmentOptions.fittedTo(memoryOrder).perSlice());
+    }
+  }
+
+  /**
+   * The input's voxel size from its {@code voxelSize} attribute (slowest axis first, in the
+   * dataset's {@code axes} order when it has one), in the configuration's axis order; null when
+   * absent, malformed or of other axes.
+   */
+  static double[] voxelSize(Map<String, Object> attributes, AxisOrder axes) {
+    if (!(attributes.get("voxelSize") instanceof List<?> values)
+        || values.size() != axes.dimensions()) {
+      return null;
+    }
+    String dataAxes = attributes.get("axes") instanceof String a ? a : axes.letters();
+    if (dataAxes.length() != values.size()) {
+      return null;
+    }
+    double[] size = new double[values.size()];
+    for (int d = 0; d < size.length; d++) {
+      int at = dataAxes.indexOf(axes.letters().charAt(d));
+      if (at < 0 || !(values.get(at) instanceof Number v) || !(v.doubleValue() > 0)
+          || Double.isInfinite(v.doubleValue())) {
+        return null;
+      }
+      size[d] = v.doubleValue();
+    }
+    return size;
+  }
+
+  private static double[] reverse(double[] values) {
+    double[] r = new double[values.length];
+    for (int i = 0; i < values.length; i++) {
+      r[i] = values[values.length - 1 - i];
+    }
+    return r;
   }
 
   /** {@code <container>.sunder-work/<dataset>} beside the output container. */
