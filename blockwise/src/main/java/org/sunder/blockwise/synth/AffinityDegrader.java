@@ -88,9 +88,13 @@ final class AffinityDegrader {
       if (labels[i] != 0 && touchesOtherObject(i) && random.nextDouble() < degradation.gapRate()) {
         forEdgesInBall(i, radius, (p, q, k) -> {
           if (labels[q] != 0 && labels[p] != 0) {
+            int at = k * n + p;
             double high = 0.85 + 0.15 * random.nextDouble();
-            a[k * n + p] = (float) (labels[p] != labels[q] && longRange[k]
-                ? high * degradation.gapLongRangeStrength() : high);
+            if (labels[p] != labels[q]) {
+              a[at] = (float) (longRange[k] ? high * degradation.gapLongRangeStrength() : high);
+            } else {
+              a[at] = Math.max(a[at], (float) high);
+            }
           }
         });
       }

@@ -21,10 +21,10 @@ import org.sunder.blockwise.SunderException;
  *   <li>gaps: each boundary voxel (a labelled voxel with a 6-neighbour of another non-zero
  *       label) becomes, with probability {@code gapRate}, the centre of a ball of radius
  *       {@value #GAP_RADIUS_VOXELS} finest voxels where the network saw no boundary: every
- *       edge between labelled voxels, both ends in the ball, gets a high affinity in [0.85, 1),
- *       except that edges between two different labels on the long-range channels get that
- *       value times {@code gapLongRangeStrength}: a false merge waiting to happen, which context
- *       sees less of;
+ *       edge between two different labels, both ends in the ball, gets a high affinity in
+ *       [0.85, 1) (times {@code gapLongRangeStrength} on the long-range channels), and an edge
+ *       inside one object is raised to such a value where widening lowered it: a false merge
+ *       waiting to happen, which context sees less of;
  *   <li>false boundaries: each object voxel becomes, with probability
  *       {@code falseBoundaryRate}, the centre of a disc (radius
  *       {@value #FALSE_BOUNDARY_RADIUS_VOXELS} finest voxels, random orientation); edges inside

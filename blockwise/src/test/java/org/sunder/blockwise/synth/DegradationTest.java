@@ -205,6 +205,167 @@ class DegradationTest {
     }
   }
 
+  private static Degradation realistic(int widening, double gapLongRange, double longRangeNoise,
+      double correlated, double missing) {
+    return new Degradation(13, 0, 0, 0, 0, 0, widening, gapLongRange, longRangeNoise, correlated,
+        missing);
+  }
+
+  private static boolean longRange(int k) {
+    return org.sunder.blockwise.graph.Offsets.of(OFFSETS).isLongRange(k);
+  }
+
+  @Test
+  void wideBoundariesLowerOnlyNearestNeighbourEdgesInsideAnObjectNextToItsSurface() {
+    float[] out = apply(realistic(1, 1, 1, 0, 0));
+    int nx = (int) shape[0];
+    int ny = (int) shape[1];
+    int changed = 0;
+    for (int i = 0; i < out.length; i++) {
+      if (out[i] != exact[i]) {
+        changed++;
+        int k = i / n;
+        int p = i % n;
+        int q = partner(p, k);
+        assertFalse(longRange(k), "long-range channel " + k + " changed");
+        assertTrue(q >= 0 && labels[p] != 0 && labels[p] == labels[q]);
+        assertTrue(out[i] >= 0f && out[i] < 0.2f, "widened value " + out[i]);
+        // width 1: one end is a surface voxel (another label beside it in-plane; z is coarser)
+        assertTrue(inPlaneSurface(p, nx, ny) || inPlaneSurface(q, nx, ny), "edge " + p + "-" + q);
+      }
+    }
+    assertTrue(changed > 100, "changed " + changed);
+  }
+
+  private static boolean inPlaneSurface(int p, int nx, int ny) {
+    int x = p % nx;
+    int y = (p / nx) % ny;
+    return (x > 0 && labels[p - 1] != labels[p]) || (x < nx - 1 && labels[p + 1] != labels[p])
+        || (y > 0 && labels[p - nx] != labels[p]) || (y < ny - 1 && labels[p + nx] != labels[p]);
+  }
+
+  @Test
+  void gapsAreWeakerOnLongRangeChannelsAndRestoreWidenedEdges() {
+    float[] widened = apply(realistic(1, 1, 1, 0, 0));
+    float[] out = apply(new Degradation(13, 0, 0, 0.05, 0, 0, 1, 0.4, 1, 0, 0));
+    int crossLongRange = 0;
+    int restored = 0;
+    for (int i = 0; i < out.length; i++) {
+      int k = i / n;
+      int p = i % n;
+      int q = partner(p, k);
+      if (q < 0 || labels[p] == 0 || labels[q] == 0 || out[i] == widened[i]) {
+        continue;
+      }
+      if (labels[p] != labels[q]) {
+        float low = longRange(k) ? 0.4f * 0.85f : 0.85f;
+        float high = longRange(k) ? 0.4f : 1f;
+        assertTrue(out[i] >= low - 1e-6f && out[i] < high, "gap value " + out[i] + " channel " + k);
+        crossLongRange += longRange(k) ? 1 : 0;
+      } else {
+        assertTrue(widened[i] < 0.2f && out[i] >= 0.85f, "raised " + widened[i] + " -> " + out[i]);
+        restored++;
+      }
+    }
+    assertTrue(crossLongRange > 20 && restored > 20, crossLongRange + " / " + restored);
+  }
+
+  @Test
+  void correlatedNoiseIsSmoothAsGaussianFilteredWhiteNoiseAndScaledOnLongRangeChannels() {
+    long[] big = {96, 96, 24};
+    int voxels = 96 * 96 * 24;
+    long[] oneObject = new long[voxels];
+    Arrays.fill(oneObject, 1);
+    float[] half = new float[voxels * OFFSETS.length];
+    Arrays.fill(half, 0.5f);
+    float[] out = realistic(0, 1, 2, 0.01, 0).apply(oneObject, big, new double[] {8, 8, 24},
+        OFFSETS, half);
+    // white noise filtered by a Gaussian of sigma s has autocorrelation exp(-lag^2 / (4 s^2))
+    // (textbook fact of linear filtering); s = 3 finest voxels in x, 3 * 8 / 24 = 1 voxel in z
+    assertEquals(Math.exp(-1 / 36.0), lagCorrelation(out, big, 0), 0.03);
+    assertEquals(Math.exp(-1 / 4.0), lagCorrelation(out, big, 2), 0.05);
+    int nearest = 0;
+    int far = 3;
+    for (int i = 0; i < voxels; i++) {
+      assertEquals(2 * (out[nearest * voxels + i] - 0.5), out[far * voxels + i] - 0.5, 1e-6);
+    }
+  }
+
+  /** Correlation of channel 0 between voxels one step apart along {@code axis}. */
+  private static double lagCorrelation(float[] values, long[] box, int axis) {
+    int nx = (int) box[0];
+    int ny = (int) box[1];
+    int nz = (int) box[2];
+    int step = axis == 0 ? 1 : axis == 1 ? nx : nx * ny;
+    double sxy = 0;
+    double sxx = 0;
+    double sx = 0;
+    int count = 0;
+    for (int z = 0; z < nz; z++) {
+      for (int y = 0; y < ny; y++) {
+        for (int x = 0; x < nx; x++) {
+          int[] at = {x, y, z};
+          if (at[axis] + 1 >= box[axis]) {
+            continue;
+          }
+          int i = x + nx * (y + ny * z);
+          double a = values[i] - 0.5;
+          double b = values[i + step] - 0.5;
+          sxy += a * b;
+          sxx += a * a;
+          sx += a;
+          count++;
+        }
+      }
+    }
+    double mean = sx / count;
+    return (sxy / count - mean * mean) / (sxx / count - mean * mean);
+  }
+
+  @Test
+  void missingSlicesMakeEveryEdgeTouchingThemUncertainAndNothingElse() {
+    float[] out = apply(realistic(0, 1, 1, 0, 0.3));
+    int nx = (int) shape[0];
+    int plane = nx * (int) shape[1];
+    boolean[] missing = new boolean[(int) shape[2]];
+    for (int z = 0; z < shape[2]; z++) {
+      // a missing slice changes its own values on the in-plane channels
+      missing[z] = out[z * plane] >= 0.3f && out[z * plane] < 0.5f && out[z * plane] != exact[z * plane];
+    }
+    int missingCount = 0;
+    for (boolean m : missing) {
+      missingCount += m ? 1 : 0;
+    }
+    assertTrue(missingCount >= 1 && missingCount < shape[2], "missing slices " + missingCount);
+    for (int i = 0; i < out.length; i++) {
+      int k = i / n;
+      int p = i % n;
+      int z = p / plane;
+      int qz = z + OFFSETS[k][2];
+      boolean touches = missing[z] || (qz >= 0 && qz < shape[2] && missing[qz]);
+      if (touches) {
+        assertTrue(out[i] >= 0.3f && out[i] < 0.5f, "value " + out[i] + " at slice " + z);
+      } else {
+        assertEquals(exact[i], out[i]);
+      }
+    }
+  }
+
+  @Test
+  void attributesRoundTripAndOlderAttributesReadAsNeutral() {
+    Degradation d = new Degradation(5, 0.5, 0.1, 0.01, 0.001, 0.1, 1, 0.4, 2, 0.05, 0.02);
+    assertEquals(d, Degradation.fromAttributes(d.toAttributes()));
+    java.util.Map<String, Object> older = new java.util.LinkedHashMap<>(
+        new Degradation(5, 0.5, 0.1, 0.01, 0.001, 0.1).toAttributes());
+    for (String key : new String[] {"boundaryWidening", "gapLongRangeStrength",
+        "longRangeNoiseFactor", "correlatedNoiseSigma", "missingSliceProbability"}) {
+      older.remove(key);
+    }
+    assertEquals(new Degradation(5, 0.5, 0.1, 0.01, 0.001, 0.1),
+        Degradation.fromAttributes(older));
+    assertThrows(SunderException.class, () -> realistic(4, 1, 1, 0, 0));
+  }
+
   @Test
   void rejectsStrengthsOutOfRangeNamingThem() {
     SunderException e = assertThrows(SunderException.class,

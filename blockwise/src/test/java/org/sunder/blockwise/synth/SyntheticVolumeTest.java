@@ -197,7 +197,7 @@ class SyntheticVolumeTest {
     return v[v.length / 2];
   }
 
-  private static long floodCount(long[] labels, long[] shape, int start) {
+  static long floodCount(long[] labels, long[] shape, int start) {
     int nx = (int) shape[0];
     int ny = (int) shape[1];
     int nz = (int) shape[2];
