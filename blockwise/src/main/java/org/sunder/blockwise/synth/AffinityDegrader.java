@@ -12,6 +12,8 @@ final class AffinityDegrader {
   private static final long WIDENING_STREAM = 0x510E527FADE682D1L;
   private static final long FIELD_STREAM = 0x9B05688C2B3E6C1FL;
   private static final long MISSING_STREAM = 0x1F83D9ABFB41BD6BL;
+  /** Least affinity inside a gap. */
+  private static final double GAP_LOW = 0.85;
 
   private final Degradation degradation;
   private final long[] labels;
@@ -87,14 +89,12 @@ final class AffinityDegrader {
     for (int i = 0; i < n; i++) {
       if (labels[i] != 0 && touchesOtherObject(i) && random.nextDouble() < degradation.gapRate()) {
         forEdgesInBall(i, radius, (p, q, k) -> {
-          if (labels[q] != 0 && labels[p] != 0) {
-            int at = k * n + p;
-            double high = 0.85 + 0.15 * random.nextDouble();
-            if (labels[p] != labels[q]) {
-              a[at] = (float) (longRange[k] ? high * degradation.gapLongRangeStrength() : high);
-            } else {
-              a[at] = Math.max(a[at], (float) high);
-            }
+          int at = k * n + p;
+          if (labels[q] != 0 && labels[p] != 0 && labels[p] != labels[q]) {
+            double high = GAP_LOW + 0.15 * random.nextDouble();
+            a[at] = (float) (longRange[k] ? high * degradation.gapLongRangeStrength() : high);
+          } else if (labels[p] != 0 && labels[p] == labels[q] && a[at] < GAP_LOW) {
+            a[at] = (float) (GAP_LOW + 0.15 * random.nextDouble());
           }
         });
       }
