@@ -19,6 +19,8 @@ import java.util.Arrays;
 import java.util.Comparator;
 import java.util.List;
 import java.util.Locale;
+import java.util.SortedSet;
+import java.util.TreeSet;
 import java.util.function.ToDoubleFunction;
 import java.util.stream.Stream;
 import org.sunder.blockwise.ErrorKind;
@@ -53,11 +55,11 @@ import org.sunder.stitching.StitchingSetup;
  * of {@link #TUNING_THRESHOLDS}. It is reported two ways: at the fixed threshold
  * {@value #FIXED_THRESHOLD} (its mean-based boundary map reads 1/3 across a face in 3D, so at
  * 0.5 it merges touching objects), and tuned: per volume, the threshold with the lowest ARE, an
- * oracle choice and so the strongest fair yardstick. The targets are judged against the tuned
- * baseline.
+ * oracle choice and so the strongest fair yardstick; its VOI is the VOI at that threshold. The
+ * targets are judged against the tuned baseline.
  *
- * <p>Summary, per tissue kind and averaged over seeds, for the first method given (the default
- * unless chosen otherwise) at the largest block count given: its figures, both baselines', and
+ * <p>Summary, per tissue kind and averaged over seeds, for each method given (the default
+ * first) at the largest block count given: its figures, both baselines', and
  * the targets: ARE at most 1/3 of the tuned baseline's, VOI at most 1/2 of it, objects cut at
  * faces at most the control + {@value SeamAudit#OBJECT_TOLERANCE}, blockwise against whole at
  * most {@value #MAX_VOI_VS_WHOLE} bits, segments between 1/2 and 2 times the objects. Ratios are
@@ -69,7 +71,9 @@ import org.sunder.stitching.StitchingSetup;
  * {@code fragments-agglomeration}, {@code mutex-watershed}, {@code mean}; default
  * {@code default}: the Mutex Watershed and voxel-level mean agglomeration take tens of seconds
  * to minutes per 6 M voxels), block counts (comma-separated cubes, default 1,8,27; 1 = the
- * whole volume, which is always run since the blockwise runs are compared with it).
+ * whole volume, which is always run since the blockwise runs are compared with it). Blocks are
+ * {@code ceil(shape / n)} rounded up to whole chunks ({@link BlockwiseRuns#blockShape}), so a
+ * short axis can hold fewer than {@code n} blocks; each line prints the grid actually used.
  */
 public final class QualityBenchmark {
   /** Chunks of the affinity and label datasets, memory order. */
@@ -91,9 +95,14 @@ public final class QualityBenchmark {
 
   private QualityBenchmark() {}
 
-  /** One run of a method, or of the naive watershed ({@code blocks} 1, no audit). */
+  /**
+   * One run of a method: {@code requestedBlocks} 1 for the whole volume (no audit, no VOI
+   * against it); {@code actualBlocks} may be fewer when an axis is short (see
+   * {@link BlockwiseRuns#blockShape}).
+   */
   private record Run(TissuePreset preset, long seed, String method, int requestedBlocks,
-      SegmentationScores scores, SeamAudit audit, double voiVsWhole, double cpuSeconds) {}
+      int actualBlocks, SegmentationScores scores, SeamAudit audit, double voiVsWhole,
+      double cpuSeconds) {}
 
   /** The naive watershed at its fixed threshold and tuned, on one volume. */
   private record Baselines(TissuePreset preset, long seed, SegmentationScores fixed,
@@ -149,7 +158,7 @@ public final class QualityBenchmark {
             PartitionConfig config = config(method, voxelSize);
             long start = cpuNanos();
             long[] whole = wholeVolume(root, shape, CHUNK, offsets, config, "whole-" + method);
-            Run wholeRun = new Run(preset, seed, method, 1, score(truth, whole, true), null,
+            Run wholeRun = new Run(preset, seed, method, 1, 1, score(truth, whole, true), null,
                 Double.NaN, (cpuNanos() - start) / 1e9);
             runs.add(wholeRun);
             print(wholeRun, null);
@@ -163,7 +172,7 @@ public final class QualityBenchmark {
                   "blockwise-" + method + "-" + blockCounts[i], grid, offsets, config);
               BlockwiseRuns.Stages stages = runStages(setup);
               long[] labels = read(setup.openLabels(), shape);
-              Run run = new Run(preset, seed, method, blockCounts[i],
+              Run run = new Run(preset, seed, method, blockCounts[i], grid.blockCount(),
                   score(truth, labels, true), SeamAudit.of(truth, labels, shape, block),
                   score(whole, labels, false).voi(), stages.total());
               runs.add(run);
@@ -175,7 +184,13 @@ public final class QualityBenchmark {
         }
       }
     }
-    summary(runs, baselines, methods.get(0), blockCounts[blockCounts.length - 1], seeds.length);
+    List<String> summarised = new ArrayList<>(methods);
+    if (summarised.remove("default")) {
+      summarised.add(0, "default");
+    }
+    for (String method : summarised) {
+      summary(runs, baselines, method, blockCounts[blockCounts.length - 1], seeds.length);
+    }
   }
 
   /** The configuration a method name stands for; fragments fitted to the voxel size. */
@@ -186,7 +201,8 @@ public final class QualityBenchmark {
           PartitionConfig.Method.FRAGMENTS_AGGLOMERATION, null, null, null, null, null,
           FragmentOptions.fittedTo(voxelSize), null);
       case "mutex-watershed" -> PartitionConfig.fromJson("{\"method\":\"mutex-watershed\"}");
-      case "mean" -> PartitionConfig.fromJson("{\"method\":\"agglomeration\",\"linkage\":\"mean\"}");
+      case "mean" ->
+          PartitionConfig.fromJson("{\"method\":\"agglomeration\",\"linkage\":\"mean\"}");
       default -> throw new SunderException(ErrorKind.INVALID_CONFIG, "method \"" + method
           + "\": unknown; expected one of " + METHODS);
     };
@@ -247,6 +263,7 @@ public final class QualityBenchmark {
         "cut faces", "control", "~whole bits", "segments", "objects", "seg / obj", "targets"};
     List<String[]> rows = new ArrayList<>();
     List<String[]> targets = new ArrayList<>();
+    SortedSet<Integer> actual = new TreeSet<>();
     List<String> verdicts = new ArrayList<>();
     for (TissuePreset preset : TissuePreset.values()) {
       List<Run> mine = runs.stream().filter(r -> r.preset == preset && r.method.equals(method)
@@ -255,6 +272,7 @@ public final class QualityBenchmark {
       if (mine.isEmpty()) {
         continue;
       }
+      actual.addAll(mine.stream().map(r -> r.actualBlocks).toList());
       double are = mean(mine, r -> r.scores.adaptedRandError());
       double voi = mean(mine, r -> r.scores.voi());
       double fixedAre = mean(base, b -> b.fixed.adaptedRandError());
@@ -293,8 +311,9 @@ public final class QualityBenchmark {
     }
     System.out.printf(Locale.ROOT, "%nsummary: method %s, %s, mean over %d seeds; naive"
         + " watershed on the whole volume at threshold %s and tuned (lowest ARE of %s per"
-        + " volume); VOI in bits%n", method, blocks == 1 ? "whole volume" : blocks + " blocks",
-        seedCount, FIXED_THRESHOLD, Arrays.toString(TUNING_THRESHOLDS));
+        + " volume); VOI in bits%n", method, blocks == 1 ? "whole volume"
+            : blocks + " blocks requested (grids of " + actual + " blocks)", seedCount,
+        FIXED_THRESHOLD, Arrays.toString(TUNING_THRESHOLDS));
     int[] widths = new int[header.length];
     for (int c = 0; c < header.length; c++) {
       widths[c] = header[c].length();
