@@ -1,42 +1,29 @@
 package org.sunder.stitching.bench;
 
+import static org.sunder.stitching.bench.BlockwiseRuns.AFFINITIES;
+import static org.sunder.stitching.bench.BlockwiseRuns.cpuNanos;
+import static org.sunder.stitching.bench.BlockwiseRuns.read;
+import static org.sunder.stitching.bench.BlockwiseRuns.runStages;
+import static org.sunder.stitching.bench.BlockwiseRuns.score;
+import static org.sunder.stitching.bench.BlockwiseRuns.toInts;
+import static org.sunder.stitching.bench.BlockwiseRuns.wholeVolume;
+import static org.sunder.stitching.bench.BlockwiseRuns.writeAffinities;
+
 import java.io.IOException;
-import java.lang.management.ManagementFactory;
-import java.lang.management.ThreadMXBean;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import net.imglib2.FinalInterval;
-import net.imglib2.img.array.ArrayImgs;
-import net.imglib2.img.basictypeaccess.array.LongArray;
-import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.metrics.ContingencyTable;
-import org.sunder.blockwise.metrics.ScoreOptions;
-import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.blockwise.partition.Linkage;
 import org.sunder.blockwise.partition.PartitionConfig;
-import org.sunder.blockwise.partition.Segmentation;
-import org.sunder.blockwise.store.CodecSpec;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.DataType;
-import org.sunder.blockwise.store.Dataset;
-import org.sunder.blockwise.store.DatasetSpec;
-import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.ExactAffinities;
 import org.sunder.blockwise.synth.SynthSpec;
 import org.sunder.blockwise.synth.SyntheticVolume;
-import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.GlobalSolve;
-import org.sunder.stitching.PartitionTask;
-import org.sunder.stitching.RelabelTask;
-import org.sunder.stitching.SeamEdges;
-import org.sunder.stitching.SeamTask;
 import org.sunder.stitching.StitchingSetup;
 
 /**
@@ -54,7 +41,6 @@ import org.sunder.stitching.StitchingSetup;
  * (default 1); methods, comma-separated ({@code mutex-watershed,mean}, the default).
  */
 public final class StitchingBenchmark {
-  private static final ThreadMXBean CPU = ManagementFactory.getThreadMXBean();
   private static final int[] CHUNK = {32, 32, 8};
   private static final int[][] OFFSETS = {{-1, 0, 0}, {0, -1, 0}, {0, 0, -1}, {-3, 0, 0},
       {0, -3, 0}, {0, 0, -2}, {-9, 0, 0}, {0, -9, 0}, {-4, -4, 0}};
@@ -83,7 +69,7 @@ public final class StitchingBenchmark {
     };
     float[] affinities = degradation.apply(truth, shape, spec.voxelSize(), OFFSETS, exact);
     Path root = Files.createTempDirectory("sunder-stitching-bench");
-    writeAffinities(root, shape, affinities);
+    writeAffinities(root, shape, CHUNK, OFFSETS.length, affinities);
     System.out.printf(Locale.ROOT, "volume %d x %d x %d (x y z) = %d voxels, %d objects,"
         + " %d offsets, degradation %s, chunks %d x %d x %d, halo %d x longest offset%n",
         shape[0], shape[1], shape[2], voxels, volume.objectCount(), OFFSETS.length, degradation,
@@ -100,35 +86,28 @@ public final class StitchingBenchmark {
       if (!chosen.contains(names[m])) {
         continue;
       }
-      long start = CPU.getCurrentThreadCpuTime();
-      long[] whole = wholeVolume(root, shape, offsets, config, "whole-" + names[m]);
-      double wholeSeconds = (CPU.getCurrentThreadCpuTime() - start) / 1e9;
+      long start = cpuNanos();
+      long[] whole = wholeVolume(root, shape, CHUNK, offsets, config, "whole-" + names[m]);
+      double wholeSeconds = (cpuNanos() - start) / 1e9;
       SegmentationScores wholeVsTruth = score(truth, whole, true);
       rows.add(String.format(Locale.ROOT, "%-16s %6s %8.2f %8s %9s %9s %7.4f %7.4f %9s %9s",
           names[m], "whole", wholeSeconds, "-", "-", "-", wholeVsTruth.voi(),
           wholeVsTruth.adaptedRandError(), "-", "-"));
       for (int g : new int[] {2, 3}) {
-        int[] block = new int[3];
-        int[] halo = new int[3];
-        for (int d = 0; d < 3; d++) {
-          int size = (int) ((shape[d] + g - 1) / g);
-          block[d] = (size + CHUNK[d] - 1) / CHUNK[d] * CHUNK[d];
-          for (int[] o : OFFSETS) {
-            halo[d] = Math.max(halo[d], haloFactor * Math.abs(o[d]));
-          }
-        }
+        int[] block = BlockwiseRuns.blockShape(shape, CHUNK, g);
+        int[] halo = BlockwiseRuns.halo(OFFSETS, haloFactor);
         BlockGrid grid = BlockGrid.of(shape, CHUNK, block, halo);
         String labels = "blockwise-" + names[m] + "-" + grid.blockCount();
-        StitchingSetup setup = StitchingSetup.of(root, "affinities", "", root, labels, grid,
+        StitchingSetup setup = StitchingSetup.of(root, AFFINITIES, "", root, labels, grid,
             offsets, config);
-        Stages stages = runStages(setup);
+        BlockwiseRuns.Stages stages = runStages(setup);
         long[] blockwise = read(setup.openLabels(), shape);
         SegmentationScores vsTruth = score(truth, blockwise, true);
         SegmentationScores vsWhole = score(whole, blockwise, false);
-        long naiveStart = CPU.getCurrentThreadCpuTime();
-        long[] naive = HaloOverlapJoin.run(grid, affinities, toInt(shape), offsets,
+        long naiveStart = cpuNanos();
+        long[] naive = HaloOverlapJoin.run(grid, affinities, toInts(shape), offsets,
             config.create());
-        double naiveSeconds = (CPU.getCurrentThreadCpuTime() - naiveStart) / 1e9;
+        double naiveSeconds = (cpuNanos() - naiveStart) / 1e9;
         SegmentationScores naiveVsTruth = score(truth, naive, true);
         SegmentationScores naiveVsWhole = score(whole, naive, false);
         double total = stages.total();
@@ -136,13 +115,13 @@ public final class StitchingBenchmark {
             + " %.2f s, solve %.3f s, relabel %.2f s, total %.2f s = %.3f x whole (%.2f s);"
             + " reduced graph %d nodes (%.5f per voxel), %d edges (%.5f per voxel) of %d"
             + " segments%n", names[m], grid.blockCount(), java.util.Arrays.toString(block),
-            java.util.Arrays.toString(halo), stages.partition, stages.seams, stages.solve,
-            stages.relabel, total, total / wholeSeconds, wholeSeconds,
-            stages.result.report().nodeCount(),
-            stages.result.report().nodeCount() / (double) voxels,
-            stages.result.report().edgeCount(),
-            stages.result.report().edgeCount() / (double) voxels,
-            stages.result.report().segmentCount());
+            java.util.Arrays.toString(halo), stages.partition(), stages.seams(), stages.solve(),
+            stages.relabel(), total, total / wholeSeconds, wholeSeconds,
+            stages.result().report().nodeCount(),
+            stages.result().report().nodeCount() / (double) voxels,
+            stages.result().report().edgeCount(),
+            stages.result().report().edgeCount() / (double) voxels,
+            stages.result().report().segmentCount());
         rows.add(String.format(Locale.ROOT, "%-16s %6d %8.2f %8.3f %9.4f %9.4f %7.4f %7.4f"
             + " %9.4f %9.4f", names[m], grid.blockCount(), total, total / wholeSeconds,
             vsWhole.voi(), vsWhole.adaptedRandError(), vsTruth.voi(),
@@ -164,84 +143,7 @@ public final class StitchingBenchmark {
         + " result; ~GT: against ground truth; dX~GT: (blockwise - whole) / whole");
   }
 
-  private record Stages(double partition, double seams, double solve, double relabel,
-      GlobalSolve.Result result) {
-    double total() {
-      return partition + seams + solve + relabel;
-    }
-  }
-
-  private static Stages runStages(StitchingSetup setup) {
-    setup.validateInputs();
-    setup.createLabels();
-    BlockGrid grid = setup.grid();
-    long t0 = CPU.getCurrentThreadCpuTime();
-    List<BlockSummary> summaries = new ArrayList<>();
-    for (int b = 0; b < grid.blockCount(); b++) {
-      summaries.add(PartitionTask.run(setup, b));
-    }
-    long t1 = CPU.getCurrentThreadCpuTime();
-    List<SeamEdges> seams = new ArrayList<>();
-    for (int f = 0; f < grid.faceCount(); f++) {
-      seams.add(SeamTask.run(setup, f));
-    }
-    long t2 = CPU.getCurrentThreadCpuTime();
-    GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
-    long t3 = CPU.getCurrentThreadCpuTime();
-    for (long c = 0; c < grid.chunkCount(); c++) {
-      RelabelTask.run(setup, grid.chunkPosition(c), result.finalIds());
-    }
-    long t4 = CPU.getCurrentThreadCpuTime();
-    return new Stages((t1 - t0) / 1e9, (t2 - t1) / 1e9, (t3 - t2) / 1e9, (t4 - t3) / 1e9,
-        result);
-  }
-
-  /** Reads the affinities, partitions the whole volume, writes the labels: the baseline. */
-  private static long[] wholeVolume(Path root, long[] shape, Offsets offsets,
-      PartitionConfig config, String name) {
-    Container container = Container.open(root);
-    long[] max = {shape[0] - 1, shape[1] - 1, shape[2] - 1, offsets.count() - 1};
-    AffinityBlock block = AffinityBlock.of(container.openDataset("affinities")
-        .read(new FinalInterval(new long[4], max)), new long[3], offsets, null);
-    Segmentation segmentation = config.create().partition(block);
-    int[] labels = segmentation.labels();
-    long[] out = new long[labels.length];
-    for (int i = 0; i < labels.length; i++) {
-      out[i] = labels[i];
-    }
-    container.createDataset(name, DatasetSpec.of(shape, CHUNK, DataType.UINT64))
-        .write(ArrayImgs.unsignedLongs(out, shape), new long[3]);
-    return out;
-  }
-
-  private static void writeAffinities(Path root, long[] shape, float[] affinities) {
-    Container container = Container.create(root, StorageFormat.ZARR);
-    long[] dims = {shape[0], shape[1], shape[2], OFFSETS.length};
-    int[] chunks = {CHUNK[0], CHUNK[1], CHUNK[2], OFFSETS.length};
-    // blosc-lz4 with byte shuffle: float affinities decode fast, and every block re-reads
-    // the chunks of its halo
-    container.createDataset("affinities", DatasetSpec.of(dims, chunks, DataType.FLOAT32)
-            .withCodec(CodecSpec.blosc("lz4", 5, 1)))
-        .write(ArrayImgs.floats(affinities, dims), new long[4]);
-  }
-
-  private static long[] read(Dataset dataset, long[] shape) {
-    long[] max = {shape[0] - 1, shape[1] - 1, shape[2] - 1};
-    return ((LongArray) dataset.read(new FinalInterval(new long[3], max)).update(null))
-        .getCurrentStorageArray();
-  }
-
-  private static SegmentationScores score(long[] reference, long[] labels, boolean truth) {
-    ContingencyTable table = new ContingencyTable();
-    table.add(reference, labels);
-    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(truth)).score(table);
-  }
-
   private static double relative(double value, double base) {
     return base == 0 ? (value == 0 ? 0 : Double.POSITIVE_INFINITY) : (value - base) / base;
-  }
-
-  private static int[] toInt(long[] shape) {
-    return new int[] {(int) shape[0], (int) shape[1], (int) shape[2]};
   }
 }
