@@ -82,12 +82,12 @@ public enum TissuePreset {
   /** The ground-truth parameters at {@link #STANDARD_SHAPE}. */
   public SynthSpec spec(long seed) {
     return switch (this) {
-      case DENSE_NEURITES -> new SynthSpec(seed, STANDARD_SHAPE, new double[] {8, 8, 32}, 200,
-          30, 80, 0.3, 0.03, 0, 60, 80, 0, 120, 150, true, 60, 40);
+      case DENSE_NEURITES -> new SynthSpec(seed, STANDARD_SHAPE, new double[] {8, 8, 32}, 160,
+          40, 90, 0.3, 0.03, 0, 60, 80, 0, 120, 150, true, 60, 40);
       case COMPACT_CELLS -> new SynthSpec(seed, STANDARD_SHAPE, new double[] {10, 10, 10}, 20,
           20, 40, 0.3, 0.02, 640, 110, 170, 0, 200, 300, false, 60, 60);
       case BODIES_AND_NEURITES -> new SynthSpec(seed, STANDARD_SHAPE,
-          new double[] {10, 10, 20}, 320, 18, 50, 0.3, 0.03, 0, 60, 80, 5, 350, 550, false, 60,
+          new double[] {10, 10, 20}, 200, 40, 90, 0.3, 0.03, 0, 60, 80, 5, 350, 550, false, 60,
           60);
     };
   }
