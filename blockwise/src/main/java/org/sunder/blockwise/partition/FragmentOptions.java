@@ -98,6 +98,11 @@ public final class FragmentOptions implements Serializable {
     return new FragmentOptions(0.5, 1.0, voxelSize, isSliced(checked.voxelSize));
   }
 
+  /** {@link #fittedTo} for a voxel size written slowest axis first, as configuration is. */
+  public static FragmentOptions fittedToZyx(double[] voxelSizeZyx) {
+    return fittedTo(reversed(voxelSizeZyx));
+  }
+
   /** Slowest axis over finest other axis at which {@link #fittedTo} floods per slice. */
   public static final double SLICE_ANISOTROPY = 2.0;
 

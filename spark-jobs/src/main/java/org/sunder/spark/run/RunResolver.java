@@ -140,8 +140,7 @@ public final class RunResolver {
       size.add(v);
     }
     if (!fragments.has("perSlice")) {
-      double[] memoryOrder = reverse(voxelSizeSlowestFirst);
-      fragments.put("perSlice", FragmentOptions.fittedTo(memoryOrder).perSlice());
+      fragments.put("perSlice", FragmentOptions.fittedToZyx(voxelSizeSlowestFirst).perSlice());
     }
   }
 
@@ -169,14 +168,6 @@ public final class RunResolver {
       size[d] = v.doubleValue();
     }
     return size;
-  }
-
-  private static double[] reverse(double[] values) {
-    double[] r = new double[values.length];
-    for (int i = 0; i < values.length; i++) {
-      r[i] = values[values.length - 1 - i];
-    }
-    return r;
   }
 
   /** {@code <container>.sunder-work/<dataset>} beside the output container. */

@@ -49,6 +49,33 @@ class RunResolverTest {
   }
 
   @Test
+  void theDefaultMethodFitsItsFragmentsToTheVoxelSize(@TempDir Path dir) throws Exception {
+    Path root = dir.resolve("v.zarr");
+    Container c = TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(40, 8, 8)));
+    com.fasterxml.jackson.databind.JsonNode p = new com.fasterxml.jackson.databind.ObjectMapper()
+        .readTree(resolve("{\"input\": {\"container\": \"" + root + "\"}}").partitionJson());
+    assertEquals("fragments-multicut", p.get("method").asText());
+    assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
+    assertTrue(p.get("fragments").get("perSlice").asBoolean(), "sections 5x coarser");
+
+    c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(8, 8, 8)));
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(
+        resolve("{\"input\": {\"container\": \"" + root + "\"}}").partitionJson());
+    assertTrue(!p.get("fragments").get("perSlice").asBoolean(), "isotropic: 3D fragments");
+
+    // what the user wrote stands; the dataset's axes attribute orders its voxel size
+    c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(8, 8, 40),
+        "axes", "xyz"));
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(resolve(
+        "{\"input\": {\"container\": \"" + root + "\"}, \"partition\": {\"fragments\": "
+            + "{\"perSlice\": false}}}").partitionJson());
+    assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
+    assertTrue(!p.get("fragments").get("perSlice").asBoolean());
+  }
+
+  @Test
   void explicitBlocksAndOffsetsAreInZyxOrder(@TempDir Path dir) {
     Path root = dir.resolve("v.n5");
     TestContainers.withAffinities(root, StorageFormat.N5, VOLUME, CHUNKS, new int[][] {
