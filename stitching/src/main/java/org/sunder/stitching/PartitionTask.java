@@ -12,7 +12,9 @@ import org.sunder.blockwise.store.Dataset;
  * The partition stage's task for one block: read the extended box's affinities (and mask),
  * partition them with the configured method (merges that lean on the halo's open voxels held
  * back for the global solve, see {@link CoreSegments}), crop to the core, write the core's provisional ids
- * (whole chunks, so no other block's task touches them) and return the {@link BlockSummary}.
+ * (whole chunks, so no other block's task touches them), for the fragment methods also the
+ * core's continuation flags ({@link StitchingSetup#continuationsPath()}), and return the
+ * {@link BlockSummary}.
  * Deterministic: a rerun writes the same bytes. Nothing is written before the partition is
  * complete. Cost: the partition of the extended box plus one pass over its edges for the inner
  * edges (see {@link CoreSegments}).
@@ -33,6 +35,10 @@ public final class PartitionTask {
     for (int d = 0; d < shape.length; d++) {
       dims[d] = shape[d];
     }
+    if (result.continuations() != null) {
+      setup.openContinuations().write(ArrayImgs.unsignedBytes(result.continuations(), dims),
+          block.coreMin());
+    }
     labels.write(ArrayImgs.unsignedLongs(result.provisionalLabels(), dims), block.coreMin());
     return result.summary();
   }
@@ -43,6 +49,6 @@ public final class PartitionTask {
     SettledPartition partition = config.create().partitionSettled(affinities, open);
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
     return CoreSegments.of(setup.grid(), setup.idLayout(), block, setup.offsets(), partition,
-        graph);
+        graph, setup.tracksContinuations());
   }
 }
