@@ -40,7 +40,8 @@ import org.sunder.stitching.StitchingSetup;
  * 128 128 48); blocks per axis (2); presets, comma-separated ({@code dense-neurites,
  * compact-cells}); seeds, comma-separated ({@code 1}); methods, comma-separated
  * ({@code fragments-agglomeration,fragments-multicut}); {@code exact} or {@code realistic}
- * (the default). Chunks are 32 × 32 × 8, the halo the longest offset per axis.
+ * (the default); the halo as a multiple of the longest offset per axis (1). Chunks are
+ * 32 × 32 × 8.
  */
 public final class SeamQualityBenchmark {
   private static final int[] CHUNK = {32, 32, 8};
@@ -57,9 +58,13 @@ public final class SeamQualityBenchmark {
     String[] methods = (args.length >= 7 ? args[6]
         : "fragments-agglomeration,fragments-multicut").split(",");
     boolean exact = args.length >= 8 && args[7].equals("exact");
+    int haloFactor = args.length >= 9 ? Integer.parseInt(args[8]) : 1;
     Offsets offsets = TissuePreset.offsets();
     int[] block = new int[3];
     int[] halo = offsets.reach();
+    for (int d = 0; d < 3; d++) {
+      halo[d] *= haloFactor;
+    }
     for (int d = 0; d < 3; d++) {
       int size = (int) ((shape[d] + perAxis - 1) / perAxis);
       block[d] = (size + CHUNK[d] - 1) / CHUNK[d] * CHUNK[d];
