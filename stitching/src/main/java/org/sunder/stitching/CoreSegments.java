@@ -40,8 +40,11 @@ import org.sunder.blockwise.partition.SettledPartition;
 final class CoreSegments {
   private CoreSegments() {}
 
-  /** The provisional labels of the core (core order) and the block's summary. */
-  record Result(long[] provisionalLabels, BlockSummary summary) {}
+  /**
+   * The provisional labels of the core (core order), the block's summary and, when asked for,
+   * the core's continuation flags (core order, see {@link #continuations}), else null.
+   */
+  record Result(long[] provisionalLabels, BlockSummary summary, byte[] continuations) {}
 
   /**
    * The open voxels of a block's extended box (memory order): those closer to a side of the box
@@ -131,9 +134,11 @@ final class CoreSegments {
   /**
    * @param withInteriorEdges whether to collect {@link BlockSummary#interiorEdges()} (for a size
    *     filter after the solve)
+   * @param markContinuations whether to compute {@link #continuations} (fragment methods)
    */
   static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
-      SettledPartition partition, GridGraph extendedGraph, boolean withInteriorEdges) {
+      SettledPartition partition, GridGraph extendedGraph, boolean withInteriorEdges,
+      boolean markContinuations) {
     Segmentation segmentation = partition.pieces();
     int[] extShape = block.extendedShape();
     int[] coreShape = block.coreShape();
@@ -188,7 +193,58 @@ final class CoreSegments {
     }
     return new Result(provisional,
         new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, inner.edges(),
-            inner.separatedU(), inner.separatedV(), inner.interior()));
+            inner.separatedU(), inner.separatedV(), inner.interior()),
+        markContinuations ? continuations(grid, block, labels, coreIndex) : null);
+  }
+
+  /**
+   * Per core voxel (core order), the sides across which its piece continues: bit
+   * {@code 2 * axis + upper} is set when the voxel lies in the core's outermost layer on that
+   * side, the side has a face, and the voxel just across it (in the halo) carries the same
+   * non-zero piece label. Where both blocks of a face mark a voxel pair, both saw one piece run
+   * through it; see {@link SeamEdges#continued()}. O(core voxels).
+   */
+  static byte[] continuations(BlockGrid grid, Block block, int[] pieceLabels, int[] coreIndex) {
+    int n = grid.numDimensions();
+    int[] extShape = block.extendedShape();
+    int[] coreShape = block.coreShape();
+    int[] origin = BoxIndex.origin(block.extendedMin(), block.coreMin());
+    int[] stride = new int[n];
+    boolean[] low = new boolean[n];
+    boolean[] high = new boolean[n];
+    int s = 1;
+    for (int d = 0; d < n; d++) {
+      stride[d] = s;
+      s *= extShape[d];
+      low[d] = grid.faceIndex(block.index(), d, false) >= 0 && origin[d] > 0;
+      high[d] = grid.faceIndex(block.index(), d, true) >= 0
+          && origin[d] + coreShape[d] < extShape[d];
+    }
+    byte[] flags = new byte[coreIndex.length];
+    int[] p = new int[n];
+    for (int i = 0; i < coreIndex.length; i++) {
+      int at = coreIndex[i];
+      int label = pieceLabels[at];
+      if (label != 0) {
+        int mask = 0;
+        for (int d = 0; d < n; d++) {
+          if (low[d] && p[d] == 0 && pieceLabels[at - stride[d]] == label) {
+            mask |= 1 << (2 * d);
+          }
+          if (high[d] && p[d] == coreShape[d] - 1 && pieceLabels[at + stride[d]] == label) {
+            mask |= 1 << (2 * d + 1);
+          }
+        }
+        flags[i] = (byte) mask;
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < coreShape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return flags;
   }
 
   /**

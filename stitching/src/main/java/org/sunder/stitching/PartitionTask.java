@@ -14,8 +14,10 @@ import org.sunder.blockwise.store.Dataset;
  * The partition stage's task for one block: read the extended box's affinities (and mask),
  * partition them with the configured method (merges that lean on the halo's open voxels held
  * back for the global solve, see {@link CoreSegments}; a size filter left to segments wholly in
- * the core away from its faces), crop to the core, write the core's provisional ids
- * (whole chunks, so no other block's task touches them) and return the {@link BlockSummary}.
+ * the core away from its faces), crop to the core, write the core's provisional ids (whole
+ * chunks, so no other block's task touches them), for the fragment methods also the core's
+ * continuation flags ({@link StitchingSetup#continuationsPath()}), and return the
+ * {@link BlockSummary}.
  * Deterministic: a rerun writes the same bytes. Nothing is written before the partition is
  * complete. Cost: the partition of the extended box plus one pass over its edges for the inner
  * edges (see {@link CoreSegments}).
@@ -36,6 +38,10 @@ public final class PartitionTask {
     for (int d = 0; d < shape.length; d++) {
       dims[d] = shape[d];
     }
+    if (result.continuations() != null) {
+      setup.openContinuations().write(ArrayImgs.unsignedBytes(result.continuations(), dims),
+          block.coreMin());
+    }
     labels.write(ArrayImgs.unsignedLongs(result.provisionalLabels(), dims), block.coreMin());
     return result.summary();
   }
@@ -50,7 +56,7 @@ public final class PartitionTask {
         : partitioner.partitionSettled(affinities, open);
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
     return CoreSegments.of(setup.grid(), setup.idLayout(), block, setup.offsets(), partition,
-        graph, config.minSegmentSize() > 1);
+        graph, config.minSegmentSize() > 1, setup.tracksContinuations());
   }
 
   private static byte[] union(byte[] a, byte[] b) {

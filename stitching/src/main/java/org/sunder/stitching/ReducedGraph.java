@@ -20,8 +20,17 @@ import org.sunder.blockwise.grid.IdLayout;
  * @param separatedU with {@code separatedV}: node pairs a block kept apart (see
  *     {@link BlockSummary#separatedU()}), ascending
  * @param separatedV see {@code separatedU}
+ * @param continued per node pair, the number of voxel pairs across faces through which both
+ *     blocks saw one piece continue (see {@link SeamEdges#continued()}); empty unless the run
+ *     tracks continuations
  */
-record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[] separatedV) {
+record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[] separatedV,
+    EdgeStatistics continued) {
+
+  /** A graph without continued pairs. */
+  ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[] separatedV) {
+    this(nodeIds, edges, separatedU, separatedV, EdgeStatistics.empty());
+  }
 
   int nodeCount() {
     return nodeIds.length;
@@ -46,8 +55,10 @@ record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[
     }
     List<SeamEdges> faces = new ArrayList<>(seams);
     faces.sort(Comparator.comparingInt(SeamEdges::face));
+    List<EdgeStatistics> continuedParts = new ArrayList<>();
     for (SeamEdges seam : faces) {
       parts.add(seam.edges());
+      continuedParts.add(seam.continued());
     }
     EdgeStatistics merged = EdgeStatistics.mergeAll(parts);
     long[] indices = new long[nodeCount];
@@ -69,7 +80,56 @@ record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[
         sv[row++] = node(nodeIds, s.separatedV()[i], layout);
       }
     }
-    return new ReducedGraph(nodeIds, edges, su, sv);
+    EdgeStatistics continued = EdgeStatistics.mergeAll(continuedParts);
+    requireNodes(continued, nodeIds, layout);
+    return new ReducedGraph(nodeIds, edges, su, sv, continued.relabel(nodeIds, indices));
+  }
+
+  /**
+   * Each node's representative after joining every pair with at least {@code minPairs}
+   * continued voxel pairs: the smallest node index of its group. O(n + p α(n)).
+   */
+  int[] continuationGroups(long minPairs) {
+    int[] parent = new int[nodeIds.length];
+    for (int i = 0; i < parent.length; i++) {
+      parent[i] = i;
+    }
+    for (int e = 0; e < continued.size(); e++) {
+      if (continued.count(e) >= minPairs) {
+        int a = root(parent, (int) continued.u(e));
+        int b = root(parent, (int) continued.v(e));
+        parent[Math.max(a, b)] = Math.min(a, b);
+      }
+    }
+    for (int i = 0; i < parent.length; i++) {
+      parent[i] = root(parent, i);
+    }
+    return parent;
+  }
+
+  /**
+   * The graph with each node's edges moved to its representative ({@code group[i]}, itself a
+   * node): pairs inside a group vanish, pairs between two groups merge their statistics. Node
+   * ids and separated pairs are kept (the solvers that use groups ignore the latter).
+   * O(p log p).
+   */
+  ReducedGraph joined(int[] group) {
+    long[] from = new long[group.length];
+    long[] to = new long[group.length];
+    for (int i = 0; i < group.length; i++) {
+      from[i] = i;
+      to[i] = group[i];
+    }
+    return new ReducedGraph(nodeIds, edges.relabel(from, to), separatedU, separatedV,
+        EdgeStatistics.empty());
+  }
+
+  private static int root(int[] parent, int x) {
+    while (parent[x] != x) {
+      parent[x] = parent[parent[x]];
+      x = parent[x];
+    }
+    return x;
   }
 
   private static int node(long[] nodeIds, long id, IdLayout layout) {

@@ -14,7 +14,23 @@ import org.sunder.blockwise.graph.EdgeStatistics;
  * corner of the grid (diagonal long-range offsets) are owned the same way, so nothing is counted
  * twice or lost.
  *
+ * <p>Continued pairs: a voxel pair straddling the face (nearest neighbours along its axis) is
+ * <em>continued</em> when both blocks saw one piece run through it: each block's partition of
+ * its extended box gave the two voxels the same piece (see
+ * {@link CoreSegments#continuations}). For the fragment methods such pieces are the two
+ * halves of one fragment that the face cut; the solve joins them before it continues the
+ * method.
+ *
  * @param face the face index
  * @param edges sum, count, min and max of the edge weights per pair of provisional ids
+ * @param continued per pair of provisional ids, the number of continued voxel pairs (as the
+ *     count; sum = count, min = max = 1); empty for methods that track no continuations
  */
-public record SeamEdges(int face, EdgeStatistics edges) implements Serializable {}
+public record SeamEdges(int face, EdgeStatistics edges, EdgeStatistics continued)
+    implements Serializable {
+
+  /** Seam edges without continued pairs. */
+  public SeamEdges(int face, EdgeStatistics edges) {
+    this(face, edges, EdgeStatistics.empty());
+  }
+}

@@ -45,6 +45,15 @@ final class SeamExtraction {
    * {@code slabGraph} (the grid graph of the slab's affinities).
    */
   static SeamEdges extract(BlockGrid grid, Face face, long[] labels, GridGraph slabGraph) {
+    return extract(grid, face, labels, null, slabGraph);
+  }
+
+  /**
+   * As {@link #extract(BlockGrid, Face, long[], GridGraph)}, and with {@code continuations}
+   * (the blocks' continuation flags over the slab, or null) the face's continued pairs.
+   */
+  static SeamEdges extract(BlockGrid grid, Face face, long[] labels, byte[] continuations,
+      GridGraph slabGraph) {
     int n = grid.numDimensions();
     long[] min = slabGraph.block().globalMin();
     int[] shape = slabGraph.block().shape();
@@ -68,7 +77,62 @@ final class SeamExtraction {
         acc.add(ls, lt, w);
       }
     });
-    return new SeamEdges(face.index(), acc.build());
+    EdgeStatistics continued = continuations == null ? EdgeStatistics.empty()
+        : continued(face, labels, continuations, min, shape);
+    return new SeamEdges(face.index(), acc.build(), continued);
+  }
+
+  /**
+   * Counts, per pair of provisional ids, the voxel pairs across the face that both blocks
+   * flagged as continuing (the lower voxel's upper-side bit and the upper voxel's lower-side
+   * bit along the face's axis). O(face area).
+   */
+  private static EdgeStatistics continued(Face face, long[] labels, byte[] flags, long[] min,
+      int[] shape) {
+    int n = shape.length;
+    int axis = face.axis();
+    int upperBit = 1 << (2 * axis + 1);
+    int lowerBit = 1 << (2 * axis);
+    long[] lateralMin = face.lateralMin();
+    long[] lateralMax = face.lateralMax();
+    int[] from = new int[n];
+    int[] to = new int[n];
+    int[] stride = new int[n];
+    int s = 1;
+    for (int d = 0; d < n; d++) {
+      stride[d] = s;
+      s *= shape[d];
+      from[d] = (int) (Math.max(lateralMin[d], min[d]) - min[d]);
+      to[d] = (int) (Math.min(lateralMax[d], min[d] + shape[d] - 1) - min[d]);
+    }
+    from[axis] = (int) (face.position() - min[axis]);
+    to[axis] = from[axis];
+    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(256);
+    if (from[axis] < 1 || from[axis] >= shape[axis]) {
+      return acc.build();
+    }
+    int[] p = from.clone();
+    while (true) {
+      int upper = 0;
+      for (int d = 0; d < n; d++) {
+        upper += p[d] * stride[d];
+      }
+      int lower = upper - stride[axis];
+      long a = labels[lower];
+      long b = labels[upper];
+      if (a != 0 && b != 0 && a != b && (flags[lower] & upperBit) != 0
+          && (flags[upper] & lowerBit) != 0) {
+        acc.add(a, b, 1);
+      }
+      int d = 0;
+      while (d < n && ++p[d] > to[d]) {
+        p[d] = from[d];
+        d++;
+      }
+      if (d == n) {
+        return acc.build();
+      }
+    }
   }
 
   /**

@@ -1,6 +1,7 @@
 package org.sunder.stitching;
 
 import net.imglib2.FinalInterval;
+import net.imglib2.img.basictypeaccess.array.ByteArray;
 import net.imglib2.img.basictypeaccess.array.LongArray;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
@@ -11,7 +12,8 @@ import org.sunder.blockwise.partition.PartitionConfig;
  * The seam stage's task for one face: read the provisional ids and the affinities of the face's
  * slab (as deep on each side as the longest offset along the face's axis) and aggregate every
  * voxel edge the face owns (all offsets, long-range ones with the partition's subsampling, which
- * is a function of global coordinates) into {@link SeamEdges}. Reads only; runs after every
+ * is a function of global coordinates) into {@link SeamEdges}; for the fragment methods also the
+ * pairs that continue across the face, from the continuation flags both blocks wrote. Reads only; runs after every
  * block of the partition stage. O(slab voxels * offsets).
  */
 public final class SeamTask {
@@ -26,6 +28,10 @@ public final class SeamTask {
         .read(new FinalInterval(slab.min(), slab.max())).update(null)).getCurrentStorageArray();
     PartitionConfig config = setup.partitionConfig();
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
-    return SeamExtraction.extract(setup.grid(), face, labels, graph);
+    byte[] continuations = setup.tracksContinuations()
+        ? ((ByteArray) setup.openContinuations().read(new FinalInterval(slab.min(), slab.max()))
+            .update(null)).getCurrentStorageArray()
+        : null;
+    return SeamExtraction.extract(setup.grid(), face, labels, continuations, graph);
   }
 }

@@ -71,6 +71,30 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
   }
 
   /**
+   * Whether the run records where pieces continue across faces: for the fragment methods, whose
+   * blocks give back the fragments of clusters they could not settle, so that the solve can
+   * first rejoin the halves of a fragment that a face cut (see {@link SeamEdges#continued()}).
+   */
+  public boolean tracksContinuations() {
+    return partition.method() == PartitionConfig.Method.FRAGMENTS_MULTICUT
+        || partition.method() == PartitionConfig.Method.FRAGMENTS_AGGLOMERATION;
+  }
+
+  /**
+   * The UINT8 dataset beside the labels, {@code <labels>-continuations}, that the partition
+   * stage writes and the seam stage reads when {@link #tracksContinuations()}: per voxel, the
+   * block sides across which its piece continues (bit {@code 2 * axis + upper}; non-zero only
+   * in a core's outermost layers).
+   */
+  public String continuationsPath() {
+    return labelsPath + "-continuations";
+  }
+
+  public Dataset openContinuations() {
+    return openOutput().openDataset(continuationsPath());
+  }
+
+  /**
    * Checks the input datasets against the grid and offsets, before anything is written.
    *
    * @throws SunderException INVALID_INPUT naming the dataset and what was expected
@@ -108,21 +132,39 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
    * @throws SunderException CONFLICT if a dataset of another shape or type is in the way
    */
   public Dataset createLabels() {
+    if (tracksContinuations()) {
+      createContinuations();
+    }
+    return create(labelsPath, DataType.UINT64, "label dataset");
+  }
+
+  /**
+   * Creates (or opens, as {@link #createLabels()} does) the continuation dataset
+   * ({@link #continuationsPath()}); {@link #createLabels()} calls it when the run tracks
+   * continuations.
+   *
+   * @throws SunderException CONFLICT if a dataset of another shape or type is in the way
+   */
+  public Dataset createContinuations() {
+    return create(continuationsPath(), DataType.UINT8, "continuation dataset");
+  }
+
+  private Dataset create(String path, DataType type, String what) {
     Container output = openOutput();
-    DatasetSpec spec = DatasetSpec.of(grid.volumeShape(), grid.chunkShape(), DataType.UINT64);
-    if (output.datasetExists(labelsPath)) {
-      Dataset existing = output.openDataset(labelsPath);
+    DatasetSpec spec = DatasetSpec.of(grid.volumeShape(), grid.chunkShape(), type);
+    if (output.datasetExists(path)) {
+      Dataset existing = output.openDataset(path);
       if (!Arrays.equals(existing.shape(), spec.shape())
           || !Arrays.equals(existing.chunkShape(), spec.chunkShape())
-          || existing.dataType() != DataType.UINT64) {
-        throw new SunderException(ErrorKind.CONFLICT, "label dataset '" + labelsPath + "' in "
+          || existing.dataType() != type) {
+        throw new SunderException(ErrorKind.CONFLICT, what + " '" + path + "' in "
             + outputRoot + " exists with shape " + Arrays.toString(existing.shape())
             + ", chunks " + Arrays.toString(existing.chunkShape()) + ", " + existing.dataType()
             + "; expected " + Arrays.toString(spec.shape()) + ", "
-            + Arrays.toString(spec.chunkShape()) + ", UINT64");
+            + Arrays.toString(spec.chunkShape()) + ", " + type);
       }
       return existing;
     }
-    return output.createDataset(labelsPath, spec);
+    return output.createDataset(path, spec);
   }
 }

@@ -67,6 +67,43 @@ class GlobalSolveTest {
     assertEquals(5, result.report().segmentCount());
   }
 
+  /**
+   * The trap the fragment methods fell into at faces: a face cuts objects A and B into halves,
+   * and a single strongly attractive voxel edge joins A's lower half to B's upper half. Mean
+   * linkage takes that pair first (13.8 against 6) and then cannot join the true halves. With
+   * the halves reported as continued (both blocks saw one fragment run through enough voxel
+   * pairs), the solve joins them first and separates A from B; with too few continued pairs it
+   * does not join them.
+   */
+  @Test
+  void continuedPiecesAreJoinedBeforeTheAgglomerationContinues() {
+    PartitionConfig fragmentsMean = new PartitionConfig(
+        PartitionConfig.Method.FRAGMENTS_AGGLOMERATION, null, null, null, null, null, null, null);
+    List<BlockSummary> blocks = new ArrayList<>();
+    for (int b = 0; b < 2; b++) {
+      EdgeStatistics inner = EdgeStatistics.of(new long[] {id(b, 1)}, new long[] {id(b, 2)},
+          new double[] {-7000}, new long[] {1000}, new double[] {-13.8}, new double[] {1});
+      blocks.add(summary(b, 2, new int[] {1, 2}, inner, new long[0], new long[0]));
+    }
+    EdgeStatistics across = EdgeStatistics.of(new long[] {id(0, 1), id(0, 2), id(0, 1)},
+        new long[] {id(1, 1), id(1, 2), id(1, 2)}, new double[] {600, 600, 13.8},
+        new long[] {100, 100, 1}, new double[] {1, 1, 13.8}, new double[] {13.8, 13.8, 13.8});
+    for (long continued : new long[] {0, GlobalSolve.MIN_CONTINUED_PAIRS - 1,
+        GlobalSolve.MIN_CONTINUED_PAIRS}) {
+      EdgeStatistics halves = continued == 0 ? EdgeStatistics.empty()
+          : EdgeStatistics.of(new long[] {id(0, 1), id(0, 2)}, new long[] {id(1, 1), id(1, 2)},
+              new double[] {continued, continued}, new long[] {continued, continued},
+              new double[] {1, 1}, new double[] {1, 1});
+      FinalIdMap map = GlobalSolve.solve(LAYOUT, 2, fragmentsMean, blocks,
+          List.of(new SeamEdges(0, across, halves))).finalIds();
+      boolean joined = continued >= GlobalSolve.MIN_CONTINUED_PAIRS;
+      assertEquals(joined, map.apply(id(0, 1)) == map.apply(id(1, 1)), "continued " + continued);
+      assertEquals(joined, map.apply(id(0, 2)) == map.apply(id(1, 2)), "continued " + continued);
+      assertEquals(!joined, map.apply(id(0, 1)) == map.apply(id(1, 2)), "continued " + continued);
+      assertNotEquals(map.apply(id(0, 1)), map.apply(id(0, 2)));
+    }
+  }
+
   @Test
   void mutexWatershedKeepsABlocksSeparationsWhileMeanLinkageMayUndoThem() {
     // Block 0 has boundary segments 1 and 2, separated inside the block by a repulsive edge

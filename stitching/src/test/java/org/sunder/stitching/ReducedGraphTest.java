@@ -49,9 +49,63 @@ class ReducedGraphTest {
           blockShape, halo);
       check(grid, shape, offsets, rule, subsampling, random);
     }
+    assertTrue(continuedPairs > 100, "continued voxel pairs seen: " + continuedPairs);
   }
 
-  private static void check(BlockGrid grid, int[] shape, Offsets offsets, WeightRule rule,
+  /**
+   * The continued pairs of a face straight from the definition: voxel pairs across it that
+   * both blocks' partitions of their extended boxes put in one piece, counted per pair of
+   * provisional ids.
+   */
+  private static EdgeStatistics continuedByDefinition(BlockGrid grid, Face face,
+      int[][] pieceLabels, long[] provisional, int[] shape) {
+    Block lower = grid.block(face.lowerBlock());
+    Block upper = grid.block(face.upperBlock());
+    long[] min = face.lateralMin();
+    long[] max = face.lateralMax();
+    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(16);
+    for (long z = min[2]; z <= max[2]; z++) {
+      for (long y = min[1]; y <= max[1]; y++) {
+        for (long x = min[0]; x <= max[0]; x++) {
+          long[] q = {x, y, z};
+          long[] p = q.clone();
+          p[face.axis()]--;
+          int lp = extendedIndex(lower, p);
+          int lq = extendedIndex(lower, q);
+          int up = extendedIndex(upper, p);
+          int uq = extendedIndex(upper, q);
+          if (lq < 0 || up < 0) {
+            continue;
+          }
+          int[] a = pieceLabels[lower.index()];
+          int[] b = pieceLabels[upper.index()];
+          if (a[lp] != 0 && a[lp] == a[lq] && b[up] != 0 && b[up] == b[uq]) {
+            acc.add(provisional[(int) (p[0] + shape[0] * (p[1] + (long) shape[1] * p[2]))],
+                provisional[(int) (q[0] + shape[0] * (q[1] + (long) shape[1] * q[2]))], 1);
+          }
+        }
+      }
+    }
+    return acc.build();
+  }
+
+  private static int extendedIndex(Block block, long[] global) {
+    long[] min = block.extendedMin();
+    long[] max = block.extendedMax();
+    int[] extent = block.extendedShape();
+    for (int d = 0; d < 3; d++) {
+      if (global[d] < min[d] || global[d] > max[d]) {
+        return -1;
+      }
+    }
+    return (int) ((global[0] - min[0])
+        + extent[0] * ((global[1] - min[1]) + (long) extent[1] * (global[2] - min[2])));
+  }
+
+  /** Continued voxel pairs seen over all trials, so that the comparison is not vacuous. */
+  private long continuedPairs;
+
+  private void check(BlockGrid grid, int[] shape, Offsets offsets, WeightRule rule,
       Subsampling subsampling, Random random) {
     int n = shape[0] * shape[1] * shape[2];
     float[] affinities = new float[n * offsets.count()];
@@ -60,6 +114,8 @@ class ReducedGraphTest {
     }
     IdLayout layout = IdLayout.forGrid(grid);
     long[] provisional = new long[n];
+    long[] continuations = new long[n];
+    int[][] pieceLabels = new int[grid.blockCount()][];
     List<BlockSummary> summaries = new ArrayList<>();
     for (Block block : grid.blocks()) {
       AffinityBlock ext = crop(affinities, shape, offsets, block.extendedMin(),
@@ -72,8 +128,14 @@ class ReducedGraphTest {
       }
       CoreSegments.Result result = CoreSegments.of(grid, layout, block, offsets,
           new SettledPartition(segmentation, unsettled), GridGraph.of(ext, rule, subsampling),
-          true);
+          true, true);
       paste(result.provisionalLabels(), block.coreMin(), block.coreShape(), provisional, shape);
+      long[] flags = new long[result.continuations().length];
+      for (int i = 0; i < flags.length; i++) {
+        flags[i] = result.continuations()[i];
+      }
+      paste(flags, block.coreMin(), block.coreShape(), continuations, shape);
+      pieceLabels[block.index()] = segmentation.labels();
       summaries.add(result.summary());
     }
     List<EdgeStatistics> parts = new ArrayList<>();
@@ -84,8 +146,18 @@ class ReducedGraphTest {
       SeamExtraction.Box slab = SeamExtraction.slab(grid, face, offsets);
       AffinityBlock slabAffinities = crop(affinities, shape, offsets, slab.min(), slab.max());
       long[] slabLabels = cut(provisional, shape, slab.min(), slab.max());
-      parts.add(SeamExtraction.extract(grid, face, slabLabels,
-          GridGraph.of(slabAffinities, rule, subsampling)).edges());
+      long[] slabFlags = cut(continuations, shape, slab.min(), slab.max());
+      byte[] flags = new byte[slabFlags.length];
+      for (int i = 0; i < flags.length; i++) {
+        flags[i] = (byte) slabFlags[i];
+      }
+      SeamEdges seam = SeamExtraction.extract(grid, face, slabLabels, flags,
+          GridGraph.of(slabAffinities, rule, subsampling));
+      parts.add(seam.edges());
+      EdgeStatistics continued = continuedByDefinition(grid, face, pieceLabels, provisional,
+          shape);
+      assertEquals(continued, seam.continued(), face.toString());
+      continuedPairs += continued.edgeCount();
     }
     EdgeStatistics assembled = EdgeStatistics.mergeAll(parts);
 

@@ -15,7 +15,7 @@ final class TissueScene {
   final float[] affinities;
   final int[][] offsets;
 
-  private TissueScene(int[] shape, long[] groundTruth, float[] affinities, int[][] offsets) {
+  TissueScene(int[] shape, long[] groundTruth, float[] affinities, int[][] offsets) {
     this.shape = shape;
     this.groundTruth = groundTruth;
     this.affinities = affinities;

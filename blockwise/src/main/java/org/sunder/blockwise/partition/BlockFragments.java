@@ -45,6 +45,47 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics)
     return new WatershedFragments(fitted).label(boundary, shape, block.maskOrNull());
   }
 
+  /**
+   * The clustering {@code clusterOfFragment} (cluster of fragment {@code f} at index
+   * {@code f − 1}, ids {@code >= 0}) as a {@link SettledPartition}: a cluster holding an open,
+   * unmasked voxel ({@code open[i] != 0}) is unsettled and its pieces are its fragments, so the
+   * global solve can continue the method from the fragment-level statistics (its merges leaned
+   * on edges the block could not see, and a merge order that ran through them cannot be undone
+   * later); every other cluster is one settled piece. O(voxels + fragments).
+   */
+  SettledPartition settled(int[] clusterOfFragment, byte[] open, byte[] mask) {
+    SettledPartition.checkOpen(open, labels.length);
+    int clusters = 0;
+    for (int c : clusterOfFragment) {
+      clusters = Math.max(clusters, c + 1);
+    }
+    int[] representative = new int[clusters];
+    java.util.Arrays.fill(representative, -1);
+    for (int f = 0; f < count; f++) {
+      int c = clusterOfFragment[f];
+      if (representative[c] < 0) {
+        representative[c] = f;
+      }
+    }
+    boolean[] clusterOpen = new boolean[clusters];
+    for (int i = 0; i < labels.length; i++) {
+      if (labels[i] > 0 && open[i] != 0 && (mask == null || mask[i] != 0)) {
+        clusterOpen[clusterOfFragment[labels[i] - 1]] = true;
+      }
+    }
+    int[] clusterOfVoxel = new int[labels.length];
+    int[] pieceOfVoxel = new int[labels.length];
+    for (int i = 0; i < labels.length; i++) {
+      if (labels[i] > 0) {
+        int fragment = labels[i] - 1;
+        int c = clusterOfFragment[fragment];
+        clusterOfVoxel[i] = representative[c];
+        pieceOfVoxel[i] = clusterOpen[c] ? fragment : representative[c];
+      }
+    }
+    return SettledPartition.of(clusterOfVoxel, pieceOfVoxel, open, mask);
+  }
+
   /** The voxel segmentation that gives fragment {@code f} the cluster {@code clusterOf[f−1]}. */
   Segmentation toSegmentation(int[] clusterOfFragment, byte[] mask) {
     int[] clusterOfVoxel = new int[labels.length];

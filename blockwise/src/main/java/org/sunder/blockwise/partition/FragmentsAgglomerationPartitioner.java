@@ -25,9 +25,24 @@ public record FragmentsAgglomerationPartitioner(FragmentOptions fragments,
   @Override
   public Segmentation partition(AffinityBlock block) {
     BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
+    return f.toSegmentation(clusterOfFragment(f), block.maskOrNull());
+  }
+
+  /**
+   * The agglomeration with every cluster that holds an open voxel given back as its fragments
+   * (unsettled pieces), so that the global solve continues the agglomeration from the
+   * fragment-level statistics; see {@link BlockFragments#settled}.
+   */
+  @Override
+  public SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
+    SettledPartition.checkOpen(open, block.voxelCount());
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
+    return f.settled(clusterOfFragment(f), open, block.maskOrNull());
+  }
+
+  private int[] clusterOfFragment(BlockFragments f) {
     int[] clusterOfNode = agglomeration.run(f.count() + 1, f.statistics()).clustering()
         .clusterOf();
-    return f.toSegmentation(Arrays.copyOfRange(clusterOfNode, 1, clusterOfNode.length),
-        block.maskOrNull());
+    return Arrays.copyOfRange(clusterOfNode, 1, clusterOfNode.length);
   }
 }

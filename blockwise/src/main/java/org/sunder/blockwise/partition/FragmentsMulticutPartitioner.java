@@ -30,6 +30,19 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
     return f.toSegmentation(cut.labels(), block.maskOrNull());
   }
 
+  /**
+   * The multicut with every cluster that holds an open voxel given back as its fragments
+   * (unsettled pieces), so that the global solve's multicut decides them from the
+   * fragment-level costs; see {@link BlockFragments#settled}.
+   */
+  @Override
+  public SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
+    SettledPartition.checkOpen(open, block.voxelCount());
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
+    return f.settled(solve(f.count(), f.statistics(), linkage).labels(), open,
+        block.maskOrNull());
+  }
+
   /** The multicut of nodes 0..count−1 with the statistics of ids 1..count as edge costs. */
   static MulticutResult solve(int count, EdgeStatistics statistics, Linkage linkage) {
     int m = statistics.size();

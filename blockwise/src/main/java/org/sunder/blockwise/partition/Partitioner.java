@@ -14,9 +14,11 @@ public interface Partitioner {
   /**
    * The partition of {@code block} with the merges that lean on its open voxels ({@code open[i]
    * != 0}, one flag per voxel) held back; see {@link SettledPartition}. The Mutex Watershed
-   * holds merges back; the other methods return their partition with every segment settled
-   * (cutting an agglomeration's clusters at open voxels changes the order in which the solve
-   * would continue it, and measured worse), and blockwise runs then rely on the halo alone.
+   * holds merges back; the fragment methods give back the clusters that hold an open voxel as
+   * their fragments, from which the solve continues the agglomeration or multicut. The other
+   * methods return their partition with every segment settled (cutting a voxel agglomeration's
+   * clusters at open voxels changes the order in which the solve would continue it, and
+   * measured worse), and blockwise runs then rely on the halo alone.
    */
   default SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
     SettledPartition.checkOpen(open, block.voxelCount());

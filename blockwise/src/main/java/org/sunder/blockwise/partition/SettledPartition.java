@@ -5,12 +5,14 @@ import java.util.Objects;
 /**
  * A block's partition that keeps apart what the block joined only through voxels it cannot
  * fully see. A voxel is <em>open</em> when some of its edges leave the box (a halo voxel near a
- * cut face). The method runs as usual, but a merge made by an edge with an open end is held back
- * from the {@code pieces}: open voxels stay single, and two parts of a cluster joined only
- * through open voxels are separate pieces. {@code unsettled[label]} is true for a piece whose
- * cluster in the method's full result holds an open voxel; such a piece waits for the global
- * solve, every other piece is a whole segment of the full result. Without open voxels, the
- * pieces are the method's partition and none is unsettled.
+ * cut face). The {@code pieces} refine the method's full result: for the Mutex Watershed, the
+ * method runs as usual but a merge made by an edge with an open end is held back (open voxels
+ * stay single, and two parts of a cluster joined only through open voxels are separate pieces);
+ * for the fragment methods, a cluster that holds an open voxel is given back as its fragments.
+ * {@code unsettled[label]} is true for a piece whose cluster in the method's full result holds
+ * an open voxel; such a piece waits for the global solve, every other piece is a whole segment
+ * of the full result. Without open voxels, the pieces are the method's partition and none is
+ * unsettled.
  */
 public record SettledPartition(Segmentation pieces, boolean[] unsettled) {
 

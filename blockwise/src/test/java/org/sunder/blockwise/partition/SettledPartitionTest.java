@@ -69,6 +69,69 @@ class SettledPartitionTest {
     }
   }
 
+  /**
+   * The fragment methods give back every cluster that holds an open voxel as its fragments
+   * (each unsettled piece is exactly one fragment) and every other cluster whole; without open
+   * voxels the pieces are the partition.
+   */
+  @Test
+  void fragmentMethodsGiveBackTheFragmentsOfClustersWithOpenVoxels() {
+    Random random = new Random(21);
+    FragmentOptions options = FragmentOptions.defaults();
+    Partitioner[] methods = {
+        PartitionConfig.fromJson("{\"method\": \"fragments-agglomeration\"}").create(),
+        PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}").create()};
+    int unsettledSeen = 0;
+    for (int trial = 0; trial < 6; trial++) {
+      for (Partitioner method : methods) {
+        AffinityBlock block = PartitionFixtures.randomBlock(random, SHAPE, trial % 2 == 0);
+        assertEquals(method.partition(block),
+            method.partitionSettled(block, new byte[block.voxelCount()]).pieces());
+        byte[] open = new byte[block.voxelCount()];
+        for (int i = 0; i < open.length; i++) {
+          open[i] = (byte) (i % SHAPE[0] < 2 ? 1 : 0);
+        }
+        Segmentation full = method.partition(block);
+        SettledPartition settled = method.partitionSettled(block, open);
+        int[] fragments = BlockFragments.label(block, options);
+        int[] f = full.labels();
+        int[] p = settled.pieces().labels();
+        assertTrue(PartitionFixtures.isValid(settled.pieces(), block.maskOrNull()));
+        Map<Integer, Integer> clusterOfPiece = new HashMap<>();
+        Map<Integer, Integer> fragmentOfPiece = new HashMap<>();
+        Map<Integer, Integer> pieceOfFragment = new HashMap<>();
+        Map<Integer, Integer> pieceOfSettledCluster = new HashMap<>();
+        boolean[] clusterOpen = new boolean[full.segmentCount() + 1];
+        for (int i = 0; i < f.length; i++) {
+          clusterOpen[f[i]] |= open[i] != 0 && f[i] != 0;
+        }
+        for (int i = 0; i < f.length; i++) {
+          if (p[i] == 0) {
+            assertEquals(0, f[i]);
+            continue;
+          }
+          int segment = f[i];
+          int piece = p[i];
+          int fragment = fragments[i];
+          assertEquals(segment, clusterOfPiece.computeIfAbsent(piece, k -> segment),
+              "a piece spans two segments");
+          assertEquals(clusterOpen[f[i]], settled.unsettled()[p[i]]);
+          if (clusterOpen[f[i]]) {
+            unsettledSeen++;
+            assertEquals(fragment, fragmentOfPiece.computeIfAbsent(piece, k -> fragment),
+                "an unsettled piece spans two fragments");
+            assertEquals(piece, pieceOfFragment.computeIfAbsent(fragment, k -> piece),
+                "a fragment of an unsettled cluster spans two pieces");
+          } else {
+            assertEquals(piece, pieceOfSettledCluster.computeIfAbsent(segment, k -> piece),
+                "a settled segment was split");
+          }
+        }
+      }
+    }
+    assertTrue(unsettledSeen > 0);
+  }
+
   private static void check(Segmentation full, SettledPartition settled, byte[] open,
       byte[] mask) {
     int[] f = full.labels();

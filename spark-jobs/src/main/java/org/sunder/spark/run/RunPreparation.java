@@ -19,10 +19,12 @@ import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.spark.SunderVersion;
 import org.sunder.spark.stage.Stage;
+import org.sunder.spark.stage.StitchingSetups;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.ResumeDecision;
 import org.sunder.spark.workdir.ResumePlanner;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.StitchingSetup;
 
 /**
  * Readies the work dir and the output dataset for a run, refusing before anything is written
@@ -92,6 +94,10 @@ public final class RunPreparation {
       current = RunIdentity.manifest(settings, runId);
     }
     createOutput(settings, outputRoot, output, dataset, runId);
+    StitchingSetup setup = StitchingSetups.of(settings);
+    if (setup.tracksContinuations()) {
+      setup.createContinuations();
+    }
     work.writeManifest(current);
     return new PreparedRun(settings, work, current, notes);
   }

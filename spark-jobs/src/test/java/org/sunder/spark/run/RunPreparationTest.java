@@ -50,6 +50,22 @@ class RunPreparationTest {
   }
 
   @Test
+  void fragmentMethodsGetAContinuationDatasetBesideTheLabels(@TempDir Path dir) {
+    Path root = input(dir);
+    RunPreparation.prepare(settings(root, ""), false);
+    assertFalse(Container.open(root).datasetExists("segmentation-continuations"));
+    for (String method : new String[] {"fragments-multicut", "fragments-agglomeration"}) {
+      Path other = input(dir.resolve(method));
+      RunPreparation.prepare(settings(other,
+          ", \"partition\": {\"method\": \"" + method + "\"}"), false);
+      Container c = Container.open(other);
+      assertTrue(c.datasetExists("segmentation-continuations"), method);
+      assertEquals(c.openDataset("segmentation").chunkShape().length,
+          c.openDataset("segmentation-continuations").chunkShape().length);
+    }
+  }
+
+  @Test
   void changedPartitionIsRefusedAndFreshStartsOver(@TempDir Path dir) {
     Path root = input(dir);
     PreparedRun first = RunPreparation.prepare(settings(root, ""), false);
