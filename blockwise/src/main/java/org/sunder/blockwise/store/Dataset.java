@@ -344,7 +344,7 @@ public final class Dataset {
       throw new StoreException(ErrorKind.INVALID_INPUT, description + ": " + what + " box min "
           + Arrays.toString(min) + " max " + Arrays.toString(max)
           + " is not inside the volume; expected " + n + " dimensions within [0, "
-          + Arrays.toString(spec.shape()) + ")");
+          + Arrays.toString(spec.shape()) + ") (every list fastest axis first)");
     }
   }
 
