@@ -19,6 +19,8 @@ import picocli.CommandLine;
 public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
   /** Exit code when the driver or a task ran out of memory. */
   public static final int OUT_OF_MEMORY = 6;
+  /** System property naming the log file that receives Spark's task failure reports. */
+  public static final String LOG_FILE_PROPERTY = "sunder.logFile";
 
   /** One exit code and what it means. */
   public record Code(int code, String meaning) {}
@@ -38,6 +40,9 @@ public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
           + " or choose smaller blocks"),
       new Code(ErrorKind.INTERNAL.exitCode(), "internal error (please report it)"));
 
+  private static final java.util.regex.Pattern TASK_TEXT = java.util.regex.Pattern.compile(
+      TaskOutOfMemory.class.getSimpleName() + ": ([^\n]+)");
+
   private final PrintStream err;
 
   ExitCodes(PrintStream err) {
@@ -54,6 +59,10 @@ public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
     SunderException known = find(e);
     if (known != null) {
       err.println("sunder " + command + ": " + known.getMessage());
+      String log = System.getProperty(LOG_FILE_PROPERTY);
+      if (log != null && known != e && viaSpark(e)) {
+        err.println("sunder " + command + ": Spark's report of the failed task: " + log);
+      }
       err.flush();
       return known.kind().exitCode();
     }
@@ -70,6 +79,16 @@ public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
     e.printStackTrace(err);
     err.flush();
     return ErrorKind.INTERNAL.exitCode();
+  }
+
+  /** Whether a Spark job failure wraps {@code e}'s cause. */
+  private static boolean viaSpark(Throwable e) {
+    for (Throwable t = e; t != null && t.getCause() != t; t = t.getCause()) {
+      if (t.getClass().getName().startsWith("org.apache.spark.")) {
+        return true;
+      }
+    }
+    return false;
   }
 
   /** The first {@link SunderException} in the cause chain, or {@code null}. */
@@ -99,7 +118,11 @@ public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
         return "the driver ran out of memory (" + oom.getMessage() + ")";
       }
       String text = String.valueOf(t.getMessage());
-      if (text.contains("TaskOutOfMemory") || text.contains("java.lang.OutOfMemoryError")
+      java.util.regex.Matcher task = TASK_TEXT.matcher(text);
+      if (task.find()) {
+        return task.group(1).trim();
+      }
+      if (text.contains("java.lang.OutOfMemoryError")
           || text.contains("exceeding memory limits")) {
         return "a task ran out of memory";
       }

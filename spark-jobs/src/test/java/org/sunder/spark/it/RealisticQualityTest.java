@@ -22,7 +22,7 @@ import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.SyntheticScenario;
 import org.sunder.blockwise.synth.TissuePreset;
-import org.sunder.spark.cli.SparkContextSource;
+import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.SunderCli;
 
 /**

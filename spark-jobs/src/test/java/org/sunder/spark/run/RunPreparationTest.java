@@ -60,7 +60,8 @@ class RunPreparationTest {
     SunderException e = assertThrows(SunderException.class, () -> RunPreparation.prepare(
         settings(root, ", \"partition\": {\"method\": \"agglomeration\"}"), false));
     assertEquals(ErrorKind.CONFLICT, e.kind());
-    assertTrue(e.getMessage().contains("partition.method: \"mutex-watershed\" -> \"agglomeration\""), e.getMessage());
+    assertTrue(e.getMessage().contains("partition.method: \"fragments-multicut\" -> \"agglomeration\""), e.getMessage());
+    assertFalse(e.getMessage().contains("maxDriverEdges"), e.getMessage());
     assertTrue(first.workDir().ledger(Stage.PARTITION).isFinished(0));
     PreparedRun fresh = RunPreparation.prepare(
         settings(root, ", \"partition\": {\"method\": \"agglomeration\"}"), true);
