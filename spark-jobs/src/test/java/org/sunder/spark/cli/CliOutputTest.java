@@ -94,7 +94,7 @@ class CliOutputTest {
     }
     CliRun demo = CliRun.withoutSpark("demo", "--help");
     assertTrue(demo.out().contains("default: sunder-demo"), demo.out());
-    assertTrue(demo.out().contains("default: 40,112,128"), demo.out());
+    assertTrue(demo.out().contains("default: 48,128,128"), demo.out());
     CliRun run = CliRun.withoutSpark("run", "--help");
     assertTrue(run.out().contains("default: local[*]"), run.out());
   }
