@@ -409,6 +409,27 @@ class BadInputBatteryTest {
     assertEquals(0, ok.exitCode(), ok.err());
   }
 
+  @Test
+  void resumingIntoAnOutputOfAnotherShapeNamesBothShapesInTheConfigurationsAxes()
+      throws IOException {
+    Path file = config("{\"axes\": \"xyz\", \"input\": {\"container\": \"" + input + "\","
+        + " \"offsets\": [[0, 0, -1], [0, -1, 0], [-1, 0, 0], [0, 0, -2], [0, -2, 0]]}}");
+    RunLoader.prepare(file, null, false).close();
+    deleteTree(input.resolve("affinities"));
+    org.sunder.spark.run.TestContainers.withAffinities(input, StorageFormat.ZARR,
+        new long[] {12, 20, 14}, CHUNKS, org.sunder.spark.run.TestContainers.OFFSETS_ZYX);
+    refused(ErrorKind.CONFLICT, List.of("run", file.toString()), "output dataset 'segmentation'",
+        "has shape [28, 20, 12]", "now has shape [14, 20, 12]", "(xyz)", "--fresh");
+  }
+
+  private static void deleteTree(Path root) throws IOException {
+    try (Stream<Path> walk = Files.walk(root)) {
+      for (Path p : walk.sorted(java.util.Comparator.reverseOrder()).toList()) {
+        Files.delete(p);
+      }
+    }
+  }
+
   // ------------------------------------------------------------ 10: stale temporaries
 
   @Test
