@@ -7,9 +7,9 @@ package org.sunder.blockwise;
 public enum ErrorKind {
   /** A configuration value or command-line option is missing, unknown or out of range. */
   INVALID_CONFIG(2),
-  /** An input container, dataset or array does not hold what was expected. */
+  /** An input container, dataset, array or chunk (corrupt, truncated) is not what was expected. */
   INVALID_INPUT(3),
-  /** Storage failed: an unreadable or corrupt chunk, a file that cannot be written. */
+  /** Storage failed: an I/O error such as missing permissions or a full disk. */
   STORAGE(4),
   /** The output or work dir belongs to another run, or was changed since. */
   CONFLICT(5),

@@ -2,6 +2,7 @@ package org.sunder.spark;
 
 import org.apache.spark.SparkConf;
 import org.apache.spark.api.java.JavaSparkContext;
+import org.sunder.spark.config.ConfigException;
 
 /**
  * Where a command gets its Spark context. The command line starts one per command (and stops
@@ -20,7 +21,19 @@ public interface SparkContextSource {
       @Override
       public JavaSparkContext open(String defaultMaster) {
         SparkConf conf = SparkSetup.configure(new SparkConf(), defaultMaster, "sunder");
-        JavaSparkContext context = new JavaSparkContext(conf);
+        JavaSparkContext context;
+        try {
+          context = new JavaSparkContext(conf);
+        } catch (Exception e) { // Scala code throws SparkException without declaring it
+          if (String.valueOf(e.getMessage()).contains("Master URL")) {
+            throw new ConfigException("--master: Spark cannot use master '"
+                + conf.get("spark.master") + "': " + e.getMessage(), e);
+          }
+          if (e instanceof RuntimeException runtime) {
+            throw runtime;
+          }
+          throw new IllegalStateException("cannot start Spark: " + e.getMessage(), e);
+        }
         context.setLogLevel("WARN");
         return context;
       }

@@ -18,6 +18,9 @@ import org.sunder.blockwise.ErrorKind;
  * sees the old content or the new, never a part; a failed write leaves no file behind.
  */
 final class AtomicWrites {
+  private static final java.util.regex.Pattern TEMPORARY =
+      java.util.regex.Pattern.compile("\\..+\\.[0-9a-z]{1,13}\\.tmp");
+
   private AtomicWrites() {}
 
   /** Writes {@code parts} one after the other to {@code target}, creating parent directories. */
@@ -62,6 +65,11 @@ final class AtomicWrites {
     } catch (IOException | RuntimeException ignored) {
       // the original failure is the one to report
     }
+  }
+
+  /** Whether {@code fileName} has the form of the temporaries {@link #write} creates. */
+  static boolean isTemporary(String fileName) {
+    return TEMPORARY.matcher(fileName).matches();
   }
 
   /** Reads a whole file, or returns null if it does not exist. */

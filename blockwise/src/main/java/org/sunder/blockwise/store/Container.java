@@ -98,6 +98,29 @@ public final class Container {
     return layout.isDataset(resolve(path));
   }
 
+  /**
+   * Why {@code path} is not a dataset although its metadata file holds some dataset keys (an N5
+   * {@code attributes.json} with {@code dimensions} but no {@code dataType}, say), or
+   * {@code null} when it is a dataset or holds no dataset metadata at all.
+   */
+  public String datasetProblem(String path) {
+    Path dir = resolve(normalize(path));
+    if (layout.isDataset(dir) || layout.format() != StorageFormat.N5) {
+      return null; // a Zarr dataset is recognised by its .zarray file alone
+    }
+    Map<String, Object> attributes = JsonFiles.readOrEmpty(dir.resolve(N5Layout.ATTRIBUTES));
+    if (java.util.stream.Stream.of("dimensions", "blockSize", "dataType", "compression")
+        .noneMatch(attributes::containsKey)) {
+      return null;
+    }
+    try {
+      layout.readDatasetMetadata(dir);
+      return null;
+    } catch (StoreException e) {
+      return e.getMessage();
+    }
+  }
+
   public boolean groupExists(String path) {
     Path dir = resolve(path);
     return Files.isDirectory(dir) && layout.isGroup(dir);

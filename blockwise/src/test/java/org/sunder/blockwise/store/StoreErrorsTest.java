@@ -1,5 +1,6 @@
 package org.sunder.blockwise.store;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
@@ -256,9 +257,9 @@ class StoreErrorsTest {
     long[] grid = {1, 2, 1};
     String[] all = Stream.concat(Stream.of("[1, 2, 1]", dataset.chunkFile(grid).toString(),
         "'d'"), Arrays.stream(fragments)).toArray(String[]::new);
-    assertStoreError(ErrorKind.STORAGE, () -> dataset.readChunk(grid), all);
-    assertStoreError(ErrorKind.STORAGE, () -> dataset.read(new FinalInterval(SHAPE)), all);
-    assertStoreError(ErrorKind.STORAGE, () -> dataset.write(ArrayImgs.unsignedShorts(2, 2, 2),
+    assertStoreError(ErrorKind.INVALID_INPUT, () -> dataset.readChunk(grid), all);
+    assertStoreError(ErrorKind.INVALID_INPUT, () -> dataset.read(new FinalInterval(SHAPE)), all);
+    assertStoreError(ErrorKind.INVALID_INPUT, () -> dataset.write(ArrayImgs.unsignedShorts(2, 2, 2),
         new long[] {9, 11, 4}), all);
   }
 
@@ -289,8 +290,8 @@ class StoreErrorsTest {
     rewrite(dataset.chunkFile(new long[] {1, 2, 1}), bytes -> Arrays.copyOf(bytes, 5));
     long[] neighbour = {0, 2, 1};
     assertFalse(dataset.chunkExists(neighbour));
-    assertStoreError(ErrorKind.STORAGE, () -> dataset.write(ArrayImgs.unsignedShorts(10, 2, 2),
-        new long[] {3, 11, 4}), "[1, 2, 1]");
+    assertStoreError(ErrorKind.INVALID_INPUT, () -> dataset.write(
+        ArrayImgs.unsignedShorts(10, 2, 2), new long[] {3, 11, 4}), "[1, 2, 1]");
     assertFalse(dataset.chunkExists(neighbour), "the whole write failed before any file changed");
   }
 
@@ -384,6 +385,25 @@ class StoreErrorsTest {
     try (Stream<Path> files = Files.walk(tmp.resolve("c/d"))) {
       assertEquals(List.of("attributes.json"), files.filter(Files::isRegularFile)
           .map(p -> p.getFileName().toString()).toList());
+    }
+  }
+
+  @Test
+  void staleTemporariesAreRemovedAndNothingElse() throws IOException {
+    for (StorageFormat format : StorageFormat.values()) {
+      Dataset dataset = datasetWithChunk(format, CodecSpec.raw());
+      Path chunk = dataset.chunkFile(new long[] {1, 2, 1});
+      Path stale = chunk.resolveSibling("." + chunk.getFileName() + ".k3x9q0a1b2.tmp");
+      Path userFile = chunk.resolveSibling(".notes.tmp.txt");
+      Files.write(stale, new byte[] {1, 2, 3});
+      Files.write(userFile, new byte[] {4});
+      byte[] before = Files.readAllBytes(chunk);
+      assertEquals(1, dataset.removeStaleTemporaries(), format.name());
+      assertFalse(Files.exists(stale));
+      assertTrue(Files.exists(userFile), "a file not of the temporary form stays");
+      assertArrayEquals(before, Files.readAllBytes(chunk));
+      assertEquals(0, dataset.removeStaleTemporaries());
+      deleteTree(tmp.resolve(format.name()));
     }
   }
 

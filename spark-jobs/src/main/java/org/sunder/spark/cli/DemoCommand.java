@@ -76,6 +76,7 @@ final class DemoCommand implements Callable<Integer> {
 
   @Override
   public Integer call() {
+    spark.requireValid();
     StorageFormat storage = switch (format.toLowerCase(java.util.Locale.ROOT)) {
       case "zarr" -> StorageFormat.ZARR;
       case "n5" -> StorageFormat.N5;
@@ -90,14 +91,17 @@ final class DemoCommand implements Callable<Integer> {
       throw new ConfigException("--tissue: " + e.getMessage());
     }
     Path config = DemoScenario.prepare(dir, storage, preset, shape, seed);
-    PreparedRun run = RunLoader.prepare(config, null, fresh);
-    JavaSparkContext sc = cli.spark().open(spark.master);
     RunReport report;
-    try {
-      report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
-          .run(run, List.of(Stage.values()));
-    } finally {
-      cli.spark().release(sc);
+    String output;
+    try (PreparedRun run = RunLoader.prepare(config, null, fresh)) {
+      output = run.settings().outputContainer();
+      JavaSparkContext sc = cli.spark().open(spark.master);
+      try {
+        report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
+            .run(run, List.of(Stage.values()));
+      } finally {
+        cli.spark().release(sc);
+      }
     }
     report.print(cli.out());
     TunedBaseline naive = DemoScenario.baseline(DemoScenario.container(dir, storage));
@@ -110,7 +114,7 @@ final class DemoCommand implements Callable<Integer> {
     cli.out().println("The demo volume is synthetic; automated segmentations of real data contain"
         + " errors and need proofreading.");
     cli.out().println("configuration: " + config);
-    cli.out().println("look inside:   sunder inspect " + run.settings().outputContainer());
+    cli.out().println("look inside:   sunder inspect " + output);
     cli.out().println("rerun:         sunder run " + config + "   (finished work is skipped)");
     return 0;
   }

@@ -10,6 +10,7 @@ import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ConfigException;
+import org.sunder.spark.evaluate.BlockContingency;
 import org.sunder.spark.evaluate.EvaluateJob;
 import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.evaluate.ScoreReport;
@@ -71,12 +72,14 @@ final class EvaluateCommand implements Callable<Integer> {
 
   @Override
   public Integer call() {
+    spark.requireValid();
     String[] seg = split(segmentation, "--segmentation");
     String[] gt = split(truth, "--truth");
     String[] m = mask == null ? new String[] {null, null} : split(mask, "--mask");
     EvaluationTarget target = new EvaluationTarget(seg[0], seg[1], gt[0], gt[1], m[0], m[1],
         !keepBackground);
     Optional<Blocks> blocks = blocks(seg[0], seg[1]);
+    BlockContingency.requireComparable(target);
     JavaSparkContext sc = cli.spark().open(spark.master);
     try {
       SegmentationScores scores = EvaluateJob.score(sc, target);

@@ -40,15 +40,17 @@ final class RunCommand implements Callable<Integer> {
 
   @Override
   public Integer call() {
-    PreparedRun run = RunLoader.prepare(config, workDir, fresh);
-    JavaSparkContext sc = cli.spark().open(spark.master);
-    try {
-      RunReport report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
-          .run(run, List.of(Stage.values()));
-      report.print(cli.out());
-      return 0;
-    } finally {
-      cli.spark().release(sc);
+    spark.requireValid();
+    try (PreparedRun run = RunLoader.prepare(config, workDir, fresh)) {
+      JavaSparkContext sc = cli.spark().open(spark.master);
+      try {
+        RunReport report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
+            .run(run, List.of(Stage.values()));
+        report.print(cli.out());
+        return 0;
+      } finally {
+        cli.spark().release(sc);
+      }
     }
   }
 }

@@ -35,16 +35,18 @@ final class StageCommand implements Callable<Integer> {
   @Override
   public Integer call() {
     Stage chosen = Stage.parse(stage);
-    PreparedRun run = RunLoader.prepare(config, null, false);
-    Pipeline.requireEarlierFinished(run, chosen);
-    JavaSparkContext sc = cli.spark().open(spark.master);
-    try {
-      RunReport report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
-          .run(run, List.of(chosen));
-      report.print(cli.out());
-      return 0;
-    } finally {
-      cli.spark().release(sc);
+    spark.requireValid();
+    try (PreparedRun run = RunLoader.prepare(config, null, false)) {
+      Pipeline.requireEarlierFinished(run, chosen);
+      JavaSparkContext sc = cli.spark().open(spark.master);
+      try {
+        RunReport report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
+            .run(run, List.of(chosen));
+        report.print(cli.out());
+        return 0;
+      } finally {
+        cli.spark().release(sc);
+      }
     }
   }
 }

@@ -26,9 +26,7 @@ import picocli.CommandLine.Command;
         "",
         "Automated segmentations contain errors: proofread before drawing scientific conclusions."},
     subcommands = {RunCommand.class, StageCommand.class, PlanCommand.class, DemoCommand.class,
-        EvaluateCommand.class, InspectCommand.class},
-    footer = {"", "Exit codes: 0 success, 2 invalid configuration or option, 3 invalid input data,",
-        "4 storage failure, 5 conflict with an existing output or work dir, 70 internal error."})
+        EvaluateCommand.class, InspectCommand.class})
 public final class SunderCli implements Runnable {
   private final SparkContextSource spark;
   private final PrintStream out;
@@ -69,9 +67,15 @@ public final class SunderCli implements Runnable {
     line.setUsageHelpWidth(100);
     line.setOut(new PrintWriter(out, true, StandardCharsets.UTF_8));
     line.setErr(new PrintWriter(err, true, StandardCharsets.UTF_8));
-    line.setExecutionExceptionHandler(new ExitCodes(err));
+    line.getCommandSpec().usageMessage().footer(ExitCodes.footer());
+    ExitCodes codes = new ExitCodes(err);
+    line.setExecutionExceptionHandler(codes);
     line.setParameterExceptionHandler(ExitCodes::usageError);
-    return line.execute(args);
+    try {
+      return line.execute(args);
+    } catch (OutOfMemoryError e) {
+      return codes.handle(e, args.length == 0 ? "" : args[0]);
+    }
   }
 
   public static void main(String[] args) {

@@ -37,8 +37,16 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
    * @param affinities affinity dataset inside it (default {@code affinities})
    * @param offsets one offset per channel, in {@code axes} order (default: the dataset's {@code "offsets"} attribute)
    * @param mask optional uint8 mask dataset in the same container, 1 = inside
+   * @param missingChunks {@value #MISSING_REFUSE} (default): a run refuses affinities with
+   *     missing chunk files; {@value #MISSING_FILL}: a missing chunk reads as the fill value
    */
-  public record InputSection(String container, String affinities, int[][] offsets, String mask) {}
+  public record InputSection(String container, String affinities, int[][] offsets, String mask,
+      String missingChunks) {}
+
+  /** {@code input.missingChunks}: refuse an affinity dataset with missing chunk files. */
+  public static final String MISSING_REFUSE = "refuse";
+  /** {@code input.missingChunks}: missing chunk files read as the fill value (usually 0). */
+  public static final String MISSING_FILL = "fill";
 
   /**
    * @param container container for the segmentation (default: the input container)
@@ -73,8 +81,13 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
           + " holding the affinities");
     }
     AxisOrder order = new AxisOrder(axes == null ? AxisOrder.ZYX.letters() : axes);
+    String missing = orDefault(input.missingChunks(), MISSING_REFUSE);
+    if (!missing.equals(MISSING_REFUSE) && !missing.equals(MISSING_FILL)) {
+      throw new ConfigException("input.missingChunks: expected \"" + MISSING_REFUSE + "\" or \""
+          + MISSING_FILL + "\", got \"" + missing + "\"");
+    }
     InputSection in = new InputSection(input.container(),
-        orDefault(input.affinities(), DEFAULT_AFFINITIES), input.offsets(), input.mask());
+        orDefault(input.affinities(), DEFAULT_AFFINITIES), input.offsets(), input.mask(), missing);
     OutputSection out = output == null ? new OutputSection(null, null) : output;
     out = new OutputSection(orDefault(out.container(), in.container()),
         orDefault(out.dataset(), DEFAULT_OUTPUT_DATASET));

@@ -8,6 +8,7 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
 
 /**
@@ -47,6 +48,22 @@ public final class BlockContingency {
           + "' has shape " + Arrays.toString(reverse(segmentation.shape())) + " but ground truth '"
           + target.truth() + "' has shape " + Arrays.toString(reverse(truth.shape()))
           + " (slowest axis first); they must be equal");
+    }
+    if (target.mask() != null) {
+      Dataset mask = open(target.maskContainer(), target.mask(), "mask");
+      if (mask.dataType() != DataType.UINT8) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, "mask '" + target.mask() + "' in "
+            + target.maskContainer() + " has data type " + mask.dataType().name()
+            .toLowerCase(java.util.Locale.ROOT) + "; a mask must be uint8 (non-zero = score"
+            + " this voxel)");
+      }
+      if (!Arrays.equals(segmentation.shape(), mask.shape())) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, "mask '" + target.mask() + "' in "
+            + target.maskContainer() + " has shape " + Arrays.toString(reverse(mask.shape()))
+            + " but segmentation '" + target.segmentation() + "' has shape "
+            + Arrays.toString(reverse(segmentation.shape()))
+            + " (slowest axis first); they must be equal");
+      }
     }
     return segmentation.shape();
   }

@@ -4,6 +4,7 @@ import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -15,21 +16,27 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.spark.SunderVersion;
+import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.stage.Stage;
 import org.sunder.spark.stage.StitchingSetups;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.ResumeDecision;
 import org.sunder.spark.workdir.ResumePlanner;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.spark.workdir.WorkDirLock;
 import org.sunder.stitching.StitchingSetup;
 
 /**
  * Readies the work dir and the output dataset for a run, refusing before anything is written
- * when the output belongs to something else or the work dir to another run. The output dataset
- * carries the attribute {@value #MARKER} with the run's id, which ties it to its work dir.
+ * when the output belongs to something else or the work dir to another run, and while another
+ * process holds the work dir's {@link WorkDirLock} (also with {@code --fresh}). The prepared run
+ * holds that lock until it is closed. The output dataset carries the attribute {@value #MARKER}
+ * with the run's id, which ties it to its work dir. Temporary chunk files that a killed run left
+ * in the output dataset are removed.
  */
 public final class RunPreparation {
   /** Attribute of the output dataset naming the run that owns it. */
@@ -41,18 +48,41 @@ public final class RunPreparation {
    * @param fresh discard an earlier run's work dir and output (both must be Sunder's)
    */
   public static PreparedRun prepare(RunSettings settings, boolean fresh) {
+    WorkDir work = new WorkDir(settings.workDirPath());
+    WorkDirLock.requireFree(work.root());
+    check(settings, work, fresh);
+    WorkDirLock lock = WorkDirLock.acquire(work.root());
+    try {
+      PreparedRun run = prepareLocked(settings, work, check(settings, work, fresh), fresh, lock);
+      lock.writeHolder();
+      return run;
+    } catch (RuntimeException e) {
+      lock.close();
+      throw e;
+    }
+  }
+
+  /** What is on disk before a run: the output container, its owner run, the work dir's manifest. */
+  private record Found(Optional<Container> output, String outputRun, Optional<Manifest> previous) {}
+
+  /** Reads what is there and refuses on a conflict; writes nothing. */
+  private static Found check(RunSettings settings, WorkDir work, boolean fresh) {
     Path outputRoot = Path.of(settings.outputContainer());
     String dataset = settings.outputDataset();
-    WorkDir work = new WorkDir(settings.workDirPath());
     Optional<Container> output = existingOutput(outputRoot);
+    if (output.isEmpty()) {
+      requireCreatable(outputRoot, "output.container");
+    }
+    requireCreatable(work.root(), "workDir");
     String outputRun = output.flatMap(c -> ownerRun(c, dataset, outputRoot)).orElse(null);
     if (work.holdsForeignFiles()) {
       throw new SunderException(ErrorKind.CONFLICT, "work dir " + work.root()
           + " holds files that Sunder did not write; choose another work dir (key workDir)");
     }
+    if (outputRun != null && !fresh) {
+      requireOutputFits(settings, output.get().openDataset(dataset), outputRoot);
+    }
     Optional<Manifest> previous = work.manifest();
-    List<String> notes = new ArrayList<>();
-    String runId;
     if (previous.isPresent() && outputRun != null && !previous.get().runId().equals(outputRun)) {
       throw new SunderException(ErrorKind.CONFLICT, "work dir " + work.root() + " is from run "
           + previous.get().runId() + ", but output dataset '" + dataset + "' in " + outputRoot
@@ -63,6 +93,18 @@ public final class RunPreparation {
           + outputRoot + " was written by Sunder run " + outputRun + ", whose work dir is not at "
           + work.root() + "; use --fresh to overwrite it, or set workDir to that run's work dir");
     }
+    return new Found(output, outputRun, previous);
+  }
+
+  private static PreparedRun prepareLocked(RunSettings settings, WorkDir work, Found found,
+      boolean fresh, WorkDirLock lock) {
+    Path outputRoot = Path.of(settings.outputContainer());
+    String dataset = settings.outputDataset();
+    Optional<Container> output = found.output();
+    String outputRun = found.outputRun();
+    Optional<Manifest> previous = found.previous();
+    List<String> notes = new ArrayList<>();
+    String runId;
     if (fresh) {
       if (previous.isPresent() || outputRun != null) {
         notes.add("--fresh: discarding the earlier run's records and output");
@@ -93,13 +135,47 @@ public final class RunPreparation {
       runId = UUID.randomUUID().toString();
       current = RunIdentity.manifest(settings, runId);
     }
-    createOutput(settings, outputRoot, output, dataset, runId);
+    Dataset labels = createOutput(settings, outputRoot, output, dataset, runId);
+    int stale = labels.removeStaleTemporaries();
+    if (stale > 0) {
+      notes.add("removed " + stale + " temporary chunk file" + (stale == 1 ? "" : "s")
+          + " that an interrupted run left in output dataset '" + dataset + "'");
+    }
     StitchingSetup setup = StitchingSetups.of(settings);
     if (setup.tracksContinuations()) {
       setup.createContinuations();
     }
     work.writeManifest(current);
-    return new PreparedRun(settings, work, current, notes);
+    return new PreparedRun(settings, work, current, notes, lock);
+  }
+
+  /** Refuses to resume into an output dataset whose shape or chunks no longer match the input. */
+  private static void requireOutputFits(RunSettings s, Dataset existing, Path root) {
+    if (Arrays.equals(existing.shape(), s.volumeShape())
+        && Arrays.equals(existing.chunkShape(), s.chunkShape())) {
+      return;
+    }
+    AxisOrder axes = new AxisOrder(s.axes());
+    throw new SunderException(ErrorKind.CONFLICT, "output dataset '" + s.outputDataset() + "' in "
+        + root + " has shape " + Arrays.toString(axes.toFile(existing.shape())) + " and chunks "
+        + Arrays.toString(axes.toFile(existing.chunkShape())) + " (" + axes + "), but the input"
+        + " now has shape " + Arrays.toString(axes.toFile(s.volumeShape())) + " and chunks "
+        + Arrays.toString(axes.toFile(s.chunkShape())) + "; use --fresh to start over");
+  }
+
+  /** Refuses a path that cannot be created: its nearest existing ancestor is no writable directory. */
+  private static void requireCreatable(Path path, String key) {
+    Path existing = path.toAbsolutePath().normalize();
+    while (existing != null && !Files.exists(existing)) {
+      existing = existing.getParent();
+    }
+    if (existing == null || existing.equals(path)) {
+      return;
+    }
+    if (!Files.isDirectory(existing) || !Files.isWritable(existing)) {
+      throw new SunderException(ErrorKind.STORAGE, key + ": cannot create " + path + ": "
+          + existing + (Files.isDirectory(existing) ? " is not writable" : " is not a directory"));
+    }
   }
 
   private static Optional<Container> existingOutput(Path root) {
@@ -130,7 +206,7 @@ public final class RunPreparation {
         + " exists and was not written by Sunder; choose another output dataset or remove it");
   }
 
-  private static void createOutput(RunSettings s, Path root, Optional<Container> existing,
+  private static Dataset createOutput(RunSettings s, Path root, Optional<Container> existing,
       String dataset, String runId) {
     Container container;
     if (existing.isPresent()) {
@@ -158,6 +234,7 @@ public final class RunPreparation {
       attributes.put("axes", "zyx");
       container.mergeAttributes(dataset, attributes);
     }
+    return container.openDataset(dataset);
   }
 
   private static StorageFormat formatOf(Path input) {

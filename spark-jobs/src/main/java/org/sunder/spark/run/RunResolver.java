@@ -30,6 +30,8 @@ import org.sunder.spark.config.RunConfig;
 public final class RunResolver {
   /** Blocks get at least this many core voxels by default (about 128 x 128 x 64). */
   static final long DEFAULT_BLOCK_VOXELS = 1L << 20;
+  /** Most values one Java array holds. */
+  static final long MAX_ARRAY_VALUES = Integer.MAX_VALUE - 8L;
 
   private static final ObjectMapper JSON = new ObjectMapper();
 
@@ -50,18 +52,24 @@ public final class RunResolver {
           + " dimensions (" + axes + " and channels), it has shape "
           + Arrays.toString(reverse(shape)) + " (slowest axis first)");
     }
+    long[] volume = Arrays.copyOf(shape, n);
+    long channels = shape[n];
+    if (Arrays.stream(shape).anyMatch(size -> size <= 0)) {
+      throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
+          + "' in " + inputPath + " is empty: its shape is " + Arrays.toString(axes.toFile(volume))
+          + " (" + axes + ") with " + channels + " channels; every size must be at least 1");
+    }
     DataType type = affinities.dataType();
     if (type != DataType.FLOAT32 && type != DataType.UINT8) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
           + "' in " + inputPath + " has data type " + type.name().toLowerCase()
           + "; affinities must be float32 in [0, 1] or uint8 (value / 255)");
     }
-    long channels = shape[n];
-    long[] volume = Arrays.copyOf(shape, n);
     int[] chunks = Arrays.copyOf(affinities.chunkShape(), n);
     int[][] offsets = offsets(config, input, affName, axes, channels);
     int[] blockShape = blockShape(config, axes, volume, chunks);
     int[] halo = halo(config, axes, offsets);
+    requireArraySized(config, axes, volume, blockShape, halo, channels);
     String mask = config.input().mask();
     if (mask != null) {
       Dataset m = openDataset(input, mask, "input.mask");
@@ -75,6 +83,10 @@ public final class RunResolver {
     String outputDataset = config.output().dataset();
     Path workDir = config.workDir() == null ? defaultWorkDir(outputPath, outputDataset)
         : absolute(config.workDir());
+    requireOutsideInput(inputPath, affName, outputPath, outputDataset, workDir, config);
+    if (config.input().missingChunks().equals(RunConfig.MISSING_REFUSE)) {
+      MissingChunks.refuse(affinities, affName, inputPath, axes);
+    }
     String truth = config.evaluate().groundTruth();
     Path truthPath = absolute(config.evaluate().container());
     if (truth != null) {
@@ -95,6 +107,54 @@ public final class RunResolver {
         blockShape, halo, partitionJson, config.solve().maxDriverEdges(), truthPath.toString(),
         truth, config.evaluate().ignoreBackground(), hooks);
     return settings;
+  }
+
+  /**
+   * Refuses a block whose affinities, halo included and clipped to the volume, do not fit one
+   * Java array (2^31 - 9 values): partition reads each block into one.
+   */
+  private static void requireArraySized(RunConfig config, AxisOrder axes, long[] volume,
+      int[] blockShape, int[] halo, long channels) {
+    long voxels = 1;
+    long[] extent = new long[volume.length];
+    for (int d = 0; d < volume.length; d++) {
+      extent[d] = Math.min(volume[d], blockShape[d] + 2L * halo[d]);
+      voxels *= extent[d];
+    }
+    long values = voxels * channels;
+    if (values > MAX_ARRAY_VALUES) {
+      throw new ConfigException("blocks.shape: a block of " + Arrays.toString(axes.toFile(
+          blockShape)) + " (" + axes + ") with its halo spans " + Arrays.toString(axes.toFile(
+          extent)) + " voxels, " + values + " affinity values with " + channels + " channels;"
+          + " one block must hold at most 2^31 - 9 (" + MAX_ARRAY_VALUES + "): choose a smaller "
+          + (config.blocks().shape() == null ? "blocks.shape (the default grew from the chunk"
+          + " shape, which is too large)" : "blocks.shape"));
+    }
+  }
+
+  /** Refuses an output container, output dataset or work dir inside the input's datasets. */
+  private static void requireOutsideInput(Path input, String affinities, Path output,
+      String outputDataset, Path workDir, RunConfig config) {
+    Path affinityDir = input.resolve(affinities).normalize();
+    if (!output.equals(input) && output.startsWith(input)) {
+      throw new ConfigException("output.container: " + output + " is inside the input container "
+          + input + "; choose a path outside it (the default is the input container itself,"
+          + " with output.dataset beside the affinities)");
+    }
+    if (output.equals(input)) {
+      Path target = input.resolve(outputDataset).normalize();
+      if (!target.startsWith(input) || target.startsWith(affinityDir)
+          || affinityDir.startsWith(target)) {
+        throw new ConfigException("output.dataset: '" + outputDataset + "' in the input container"
+            + " would be inside or around the affinity dataset '" + affinities + "'; choose a"
+            + " name beside it, e.g. \"segmentation\"");
+      }
+    }
+    if (workDir.startsWith(input)) {
+      throw new ConfigException((config.workDir() == null ? "workDir (from output.container)"
+          : "workDir") + ": " + workDir + " is inside the input container " + input
+          + "; choose a directory outside it");
+    }
   }
 
   /**
@@ -195,6 +255,11 @@ public final class RunResolver {
 
   static Dataset openDataset(Container container, String name, String key) {
     if (!container.datasetExists(name)) {
+      String why = container.datasetProblem(name);
+      if (why != null) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, key + ": '" + name + "' in "
+            + container.root() + " is not a readable dataset: " + why);
+      }
       List<String> members = container.list("");
       throw new SunderException(ErrorKind.INVALID_INPUT, key + ": no dataset '" + name + "' in "
           + container.root() + (members.isEmpty() ? " (it is empty)" : "; it holds " + members));
@@ -221,33 +286,60 @@ public final class RunResolver {
       Object stored = attributes.get("offsets");
       if (stored == null) {
         throw new ConfigException("input.offsets: missing, and dataset '" + affName
-            + "' has no \"offsets\" attribute; give one offset per channel, e.g."
-            + " [[-1, 0, 0], [0, -1, 0], [0, 0, -1]] (" + axes + ")");
+            + "' has no \"offsets\" attribute; give one offset per channel, e.g. "
+            + example(axes) + " (" + axes + ")");
       }
-      fileOrder = JSON.convertValue(stored, int[][].class);
+      source = "the \"offsets\" attribute of dataset '" + affName + "' in " + input.root();
+      try {
+        fileOrder = JSON.convertValue(stored, int[][].class);
+      } catch (IllegalArgumentException e) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, source + ": expected a list of"
+            + " integer lists, got " + stored + "; or give input.offsets", e);
+      }
       Object storedAxes = attributes.get("axes");
-      order = storedAxes instanceof String s ? new AxisOrder(s) : AxisOrder.ZYX;
-      source = "the \"offsets\" attribute of dataset '" + affName + "'";
+      if (storedAxes instanceof String letters) {
+        try {
+          order = new AxisOrder(letters);
+        } catch (ConfigException e) {
+          throw new SunderException(ErrorKind.INVALID_INPUT, "the \"axes\" attribute of dataset '"
+              + affName + "': " + e.getMessage(), e);
+        }
+        if (order.dimensions() != axes.dimensions()) {
+          throw new SunderException(ErrorKind.INVALID_INPUT, "the \"axes\" attribute of dataset '"
+              + affName + "' is \"" + letters + "\", but the configuration's axes are \"" + axes
+              + "\"; set axes to match the data, or give input.offsets");
+        }
+      }
     }
+    boolean fromConfig = config.input().offsets() != null;
     if (fileOrder.length != channels) {
-      throw new ConfigException("input.offsets: " + fileOrder.length + " offsets ("
-          + source + "), but dataset '" + affName + "' has " + channels
-          + " channels; give one offset per channel");
+      throw new ConfigException((fromConfig ? "input.offsets: " : "")
+          + fileOrder.length + " offsets (" + source + "), but dataset '" + affName + "' has "
+          + channels + " channels; give one offset per channel" + (fromConfig ? ""
+          : " in input.offsets"));
     }
     int[][] memory = new int[fileOrder.length][];
     for (int k = 0; k < fileOrder.length; k++) {
       int[] offset = fileOrder[k];
+      String where = fromConfig ? "input.offsets[" + k + "]" : "offset " + k + " of " + source;
       if (offset == null || offset.length != order.dimensions()) {
-        throw new ConfigException("input.offsets[" + k + "]: expected " + order.dimensions()
-            + " integers (" + order + "), got " + Arrays.toString(offset));
+        throw new ConfigException(where + ": expected " + order.dimensions()
+            + " integers (" + order + "), got " + Arrays.toString(offset)
+            + (fromConfig ? "" : "; the attribute is read in " + (order == axes
+                ? "the configuration's axes" : "the dataset's \"axes\"") + " order, or give"
+                + " input.offsets"));
       }
       if (Arrays.stream(offset).allMatch(v -> v == 0)) {
-        throw new ConfigException("input.offsets[" + k + "]: the zero offset connects a voxel"
+        throw new ConfigException(where + ": the zero offset connects a voxel"
             + " to itself; every offset needs a non-zero entry");
       }
       memory[k] = order.toMemory(offset);
     }
     return memory;
+  }
+
+  private static String example(AxisOrder axes) {
+    return axes.dimensions() == 2 ? "[[-1, 0], [0, -1]]" : "[[-1, 0, 0], [0, -1, 0], [0, 0, -1]]";
   }
 
   private static int[] blockShape(RunConfig config, AxisOrder axes, long[] volume, int[] chunks) {

@@ -12,6 +12,8 @@ import org.sunder.spark.workdir.WorkDir;
  * The Spark function of a stage: for each task index of its partition, runs the task body and
  * then records the task's result in the work dir. A task killed before its record is written is
  * redone by a rerun; a retry by Spark rewrites the same outputs (task bodies are idempotent).
+ * An {@link OutOfMemoryError} becomes a {@link TaskOutOfMemory}, which fails the task but not
+ * the executor.
  */
 final class RecordingTask implements VoidFunction<Iterator<Integer>> {
   private static final long serialVersionUID = 1L;
@@ -34,8 +36,14 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
     StageLedger ledger = work.ledger(stage);
     while (indices.hasNext()) {
       int index = indices.next();
-      s.hooks().beforeTask(stage.cliName(), index, work.root());
-      Object result = body.run(s, index);
+      Object result;
+      try {
+        s.hooks().beforeTask(stage.cliName(), index, work.root());
+        result = body.run(s, index);
+      } catch (OutOfMemoryError e) {
+        throw new TaskOutOfMemory(stage.cliName() + " task " + index + " ran out of memory ("
+            + e.getMessage() + ")");
+      }
       ledger.record(index, codec.encode(result));
     }
   }

@@ -27,6 +27,9 @@ final class JsonDiff {
     if (a == null || a.isNull()) {
       return b == null || b.isNull();
     }
+    if (a.isIntegralNumber() && b != null && b.isIntegralNumber()) {
+      return a.bigIntegerValue().equals(b.bigIntegerValue()); // int read back vs long written
+    }
     return a.equals(b);
   }
 

@@ -61,8 +61,7 @@ public final class PipelineBenchmark {
 
     JavaSparkContext sc = SharedSpark.start("local[2]");
     RunReport report;
-    try {
-      PreparedRun run = RunLoader.prepare(config, null, true);
+    try (PreparedRun run = RunLoader.prepare(config, null, true)) {
       ByteArrayOutputStream progress = new ByteArrayOutputStream();
       report = new Pipeline(sc, System.out, new PrintStream(progress, true,
           StandardCharsets.UTF_8), false).run(run, List.of(Stage.PARTITION, Stage.SEAMS,

@@ -43,7 +43,9 @@ class RunPreparationTest {
     Map<?, ?> marker = (Map<?, ?>) c.readAttributes("segmentation").get(RunPreparation.MARKER);
     assertEquals(first.manifest().runId(), marker.get("runId"));
     first.workDir().ledger(Stage.PARTITION).record(0, new byte[] {1});
+    first.close();
     PreparedRun second = RunPreparation.prepare(settings(root, ""), false);
+    second.close();
     assertEquals(first.manifest().runId(), second.manifest().runId());
     assertTrue(second.workDir().ledger(Stage.PARTITION).isFinished(0));
     assertTrue(second.notes().stream().anyMatch(n -> n.startsWith("resuming run")), second.notes().toString());
@@ -70,13 +72,16 @@ class RunPreparationTest {
     Path root = input(dir);
     PreparedRun first = RunPreparation.prepare(settings(root, ""), false);
     first.workDir().ledger(Stage.PARTITION).record(0, new byte[] {1});
+    first.close();
     SunderException e = assertThrows(SunderException.class, () -> RunPreparation.prepare(
         settings(root, ", \"partition\": {\"method\": \"agglomeration\"}"), false));
     assertEquals(ErrorKind.CONFLICT, e.kind());
     assertTrue(e.getMessage().contains("partition.method: \"fragments-multicut\" -> \"agglomeration\""), e.getMessage());
+    assertFalse(e.getMessage().contains("maxDriverEdges"), e.getMessage());
     assertTrue(first.workDir().ledger(Stage.PARTITION).isFinished(0));
     PreparedRun fresh = RunPreparation.prepare(
         settings(root, ", \"partition\": {\"method\": \"agglomeration\"}"), true);
+    fresh.close();
     assertNotEquals(first.manifest().runId(), fresh.manifest().runId());
     assertFalse(fresh.workDir().ledger(Stage.PARTITION).isFinished(0));
   }
@@ -101,9 +106,10 @@ class RunPreparationTest {
   void workDirOfAnotherRunIsRefused(@TempDir Path dir) {
     Path root = input(dir);
     PreparedRun first = RunPreparation.prepare(settings(root, ""), false);
+    first.close();
     String other = dir.resolve("other-work").toString();
     RunPreparation.prepare(settings(root, ", \"output\": {\"dataset\": \"seg2\"}, \"workDir\": \""
-        + other + "\""), false);
+        + other + "\""), false).close();
     SunderException e = assertThrows(SunderException.class, () -> RunPreparation.prepare(
         settings(root, ", \"workDir\": \"" + other + "\""), false));
     assertEquals(ErrorKind.CONFLICT, e.kind());

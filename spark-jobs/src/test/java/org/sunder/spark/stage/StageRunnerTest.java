@@ -97,7 +97,7 @@ class StageRunnerTest {
 
   @Test
   void aTaskThatFailsOnceIsRetriedBySpark(@TempDir Path dir) throws Exception {
-    Broadcast<RunSettings> b = sc.broadcast(settings(dir, new TaskHooks(0, "relabel:3")));
+    Broadcast<RunSettings> b = sc.broadcast(settings(dir, new TaskHooks(0, "relabel:3", "")));
     WorkDir work = new WorkDir(dir);
     StageRunner runner = new StageRunner(sc, b, work,
         new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8));
