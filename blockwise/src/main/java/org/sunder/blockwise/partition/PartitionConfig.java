@@ -177,14 +177,40 @@ public final class PartitionConfig {
 
   /**
    * The method a run uses when its configuration names none: {@code fragments-multicut} with
-   * logit weights over every offset and fragments {@link FragmentOptions#fittedTo fitted} to the
-   * voxel size (memory order; null: isotropic unit voxels, 3D flooding). Chosen by measurement
-   * on the realistic tissue presets (README, "Choosing a method").
+   * logit weights over every offset, fragments {@link FragmentOptions#fittedTo fitted} to the
+   * voxel size (memory order; null: isotropic unit voxels, 3D flooding) and the size filter at
+   * {@link #defaultMinSegmentSize}. Chosen by measurement on the realistic tissue presets
+   * (README, "Choosing a method").
    */
   public static PartitionConfig robustDefault(double[] voxelSizeOrNull) {
     return new PartitionConfig(Method.FRAGMENTS_MULTICUT, null, null, null, null, null,
         voxelSizeOrNull == null ? FragmentOptions.defaults()
-            : FragmentOptions.fittedTo(voxelSizeOrNull), null);
+            : FragmentOptions.fittedTo(voxelSizeOrNull),
+        defaultMinSegmentSize(voxelSizeOrNull));
+  }
+
+  /** Radius, nm, of the smallest ball the default keeps as a segment of its own. */
+  public static final double MIN_SEGMENT_RADIUS_NM = 50;
+  /** The same radius in voxels when the voxel size is unknown. */
+  public static final double MIN_SEGMENT_RADIUS_VOXELS = 3;
+
+  /**
+   * The default's {@code minSegmentSize}: the voxels in a ball of radius
+   * {@value #MIN_SEGMENT_RADIUS_NM} nm (the thinnest neurites are about 100 nm across, so a
+   * smaller segment is no object a network resolves), or of {@value #MIN_SEGMENT_RADIUS_VOXELS}
+   * voxels when the voxel size is unknown (null); at least 2. The axis order of the voxel size
+   * does not matter.
+   */
+  public static int defaultMinSegmentSize(double[] voxelSizeOrNull) {
+    double radius = voxelSizeOrNull == null ? MIN_SEGMENT_RADIUS_VOXELS : MIN_SEGMENT_RADIUS_NM;
+    int dims = voxelSizeOrNull == null ? 3 : voxelSizeOrNull.length;
+    double voxelVolume = 1;
+    for (int d = 0; d < dims; d++) {
+      voxelVolume *= voxelSizeOrNull == null ? 1 : voxelSizeOrNull[d];
+    }
+    double ball = dims == 2 ? Math.PI * radius * radius
+        : 4.0 / 3 * Math.PI * radius * radius * radius;
+    return (int) Math.max(2, Math.round(ball / voxelVolume));
   }
 
   public static PartitionConfig mutexWatershed(WeightRule weights, Subsampling subsampling) {

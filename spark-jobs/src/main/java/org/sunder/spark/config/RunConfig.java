@@ -2,7 +2,6 @@ package org.sunder.spark.config;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 
 /**
  * A run configuration as written in its JSON file. Every coordinate list is in the order that
@@ -97,9 +96,6 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
     if (!p.isObject()) {
       throw new ConfigException("partition: expected an object such as {\"method\": \""
           + DEFAULT_METHOD + "\"}, got " + p);
-    }
-    if (!p.has("method")) {
-      ((ObjectNode) p).put("method", DEFAULT_METHOD);
     }
     SolveSection s = solve == null || solve.maxDriverEdges() == null
         ? new SolveSection(DEFAULT_MAX_DRIVER_EDGES) : solve;

@@ -168,6 +168,7 @@ public final class RunResolver {
     PartitionConfig partition;
     try {
       ObjectNode section = config.partition().deepCopy();
+      completeDefault(section, voxelSizeSlowestFirst);
       fitFragments(section, voxelSizeSlowestFirst);
       String json = JSON.writeValueAsString(section);
       partition = PartitionConfig.fromJson(json);
@@ -179,6 +180,20 @@ public final class RunResolver {
       String message = e.getMessage();
       throw new ConfigException(message.startsWith("partition") ? message
           : "partition." + message, e);
+    }
+  }
+
+  /**
+   * A section naming no method gets {@link PartitionConfig#robustDefault}'s method and, unless
+   * it sets one, its minimum segment size for this voxel size.
+   */
+  private static void completeDefault(ObjectNode section, double[] voxelSizeSlowestFirst) {
+    if (section.has("method")) {
+      return;
+    }
+    section.put("method", RunConfig.DEFAULT_METHOD);
+    if (!section.has("minSegmentSize")) {
+      section.put("minSegmentSize", PartitionConfig.defaultMinSegmentSize(voxelSizeSlowestFirst));
     }
   }
 

@@ -54,7 +54,8 @@ class RunPreparationTest {
   @Test
   void fragmentMethodsGetAContinuationDatasetBesideTheLabels(@TempDir Path dir) {
     Path root = input(dir);
-    RunPreparation.prepare(settings(root, ""), false);
+    RunPreparation.prepare(settings(root, ", \"partition\": {\"method\": \"mutex-watershed\"}"),
+        false).close();
     assertFalse(Container.open(root).datasetExists("segmentation-continuations"));
     for (String method : new String[] {"fragments-multicut", "fragments-agglomeration"}) {
       Path other = input(dir.resolve(method));

@@ -59,11 +59,14 @@ class RunResolverTest {
     assertEquals("fragments-multicut", p.get("method").asText());
     assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
     assertTrue(p.get("fragments").get("perSlice").asBoolean(), "sections 5x coarser");
+    // a ball of radius 50 nm: 4/3 pi 50^3 nm^3 over 40 * 8 * 8 nm^3 per voxel = 204.5 voxels
+    assertEquals(205, p.get("minSegmentSize").asInt());
 
     c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(8, 8, 8)));
     p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(
         resolve("{\"input\": {\"container\": \"" + root + "\"}}").partitionJson());
     assertTrue(!p.get("fragments").get("perSlice").asBoolean(), "isotropic: 3D fragments");
+    assertEquals(1023, p.get("minSegmentSize").asInt(), "523 599 nm^3 over 512 nm^3");
 
     // what the user wrote stands; the dataset's axes attribute orders its voxel size
     c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(8, 8, 40),
@@ -73,6 +76,13 @@ class RunResolverTest {
             + "{\"perSlice\": false}}}").partitionJson());
     assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
     assertTrue(!p.get("fragments").get("perSlice").asBoolean());
+    assertEquals("fragments-multicut", p.get("method").asText());
+
+    // a named method keeps its own defaults: no size filter unless asked for
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(resolve(
+        "{\"input\": {\"container\": \"" + root + "\"}, \"partition\": {\"method\": "
+            + "\"fragments-multicut\"}}").partitionJson());
+    assertTrue(!p.has("minSegmentSize"), p.toString());
   }
 
   @Test

@@ -71,7 +71,8 @@ import org.sunder.stitching.StitchingSetup;
  * {@code fragments-agglomeration}, {@code mutex-watershed}, {@code mean}; default
  * {@code default}: the Mutex Watershed and voxel-level mean agglomeration take tens of seconds
  * to minutes per 6 M voxels), block counts (comma-separated cubes, default 1,8,27; 1 = the
- * whole volume, which is always run since the blockwise runs are compared with it). Blocks are
+ * whole volume, which is always run since the blockwise runs are compared with it), the halo
+ * as a multiple of the longest offset per axis (default 1, what a run uses). Blocks are
  * {@code ceil(shape / n)} rounded up to whole chunks ({@link BlockwiseRuns#blockShape}), so a
  * short axis can hold fewer than {@code n} blocks; each line prints the grid actually used.
  */
@@ -132,9 +133,11 @@ public final class QualityBenchmark {
     }
     Offsets offsets = TissuePreset.offsets();
     int[][] vectors = offsets.vectors();
-    int[] halo = BlockwiseRuns.halo(vectors, 1);
+    int haloFactor = args.length >= 7 ? Integer.parseInt(args[6]) : 1;
+    int[] halo = BlockwiseRuns.halo(vectors, haloFactor);
     System.out.printf(Locale.ROOT, "quality benchmark: volume %d x %d x %d (x y z), seeds %s,"
-        + " methods %s, block counts %s, chunks %s, halo %s (longest offset per axis),"
+        + " methods %s, block counts %s, chunks %s, halo %s (" + haloFactor
+        + " x the longest offset per axis),"
         + " %d offsets; one thread%n", shape[0], shape[1], shape[2], Arrays.toString(seeds),
         methods, Arrays.toString(blockCounts), Arrays.toString(CHUNK), Arrays.toString(halo),
         vectors.length);
