@@ -1,5 +1,6 @@
 package org.sunder.spark.cli;
 
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
@@ -7,7 +8,9 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.metrics.TunedBaseline;
 import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.blockwise.synth.SyntheticScenario;
 import org.sunder.blockwise.synth.TissuePreset;
+import org.sunder.spark.Launcher;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.demo.DemoScenario;
 import org.sunder.spark.run.PreparedRun;
@@ -83,12 +86,18 @@ final class DemoCommand implements Callable<Integer> {
       default -> throw new ConfigException("--format: expected zarr or n5, got '" + format + "'");
     };
     long[] shape = shape();
-    cli.out().println("demo: preparing a synthetic volume in " + dir.toAbsolutePath().normalize());
     TissuePreset preset;
     try {
       preset = TissuePreset.named(tissue);
     } catch (SunderException e) {
       throw new ConfigException("--tissue: " + e.getMessage());
+    }
+    Path volume = DemoScenario.container(dir, storage);
+    if (Files.isDirectory(volume.resolve(SyntheticScenario.AFFINITIES))) {
+      cli.out().println("demo: reusing the synthetic volume in " + volume + " (delete it to"
+          + " generate another with --shape, --tissue or --seed)");
+    } else {
+      cli.out().println("demo: preparing a synthetic volume in " + volume);
     }
     Path config = DemoScenario.prepare(dir, storage, preset, shape, seed);
     RunReport report;
@@ -114,8 +123,9 @@ final class DemoCommand implements Callable<Integer> {
     cli.out().println("The demo volume is synthetic; automated segmentations of real data contain"
         + " errors and need proofreading.");
     cli.out().println("configuration: " + config);
-    cli.out().println("look inside:   sunder inspect " + output);
-    cli.out().println("rerun:         sunder run " + config + "   (finished work is skipped)");
+    cli.out().println("look inside:   " + Launcher.command() + " inspect " + output);
+    cli.out().println("rerun:         " + Launcher.command() + " run " + config
+        + "   (finished work is skipped)");
     return 0;
   }
 }

@@ -49,16 +49,27 @@ final class EvaluateCommand implements Callable<Integer> {
       description = "Only score voxels where this uint8 dataset is non-zero (default: all).")
   String mask;
 
-  @Option(names = "--keep-background", description = "Also score voxels whose ground-truth"
-      + " label is 0 (default: they are ignored).")
+  @Option(names = "--ignore-background", arity = "0..1", paramLabel = "true|false",
+      defaultValue = "true", fallbackValue = "true", description = "Ignore voxels whose"
+      + " ground-truth label is 0, as the configuration key evaluate.ignoreBackground does;"
+      + " --ignore-background=false scores them too (default: ${DEFAULT-VALUE}).")
+  boolean ignoreBackground;
+
+  /** The earlier spelling, refused with a pointer to the new one. */
+  @Option(names = "--keep-background", hidden = true)
   boolean keepBackground;
 
   @Option(names = "--block-shape", split = ",", paramLabel = "Z,Y,X",
       description = "Block core shape of the run that wrote the segmentation, in --axes order,"
           + " for the seam audit (default: blocks.shape from the manifest in"
-          + " CONTAINER.sunder-work/DATASET when that run wrote this dataset; without either,"
+          + " the run's work dir (--work-dir) when that run wrote this dataset; without either,"
           + " no seam audit).")
   int[] blockShape;
+
+  @Option(names = "--work-dir", paramLabel = "DIR", description = "Work dir of the run that"
+      + " wrote the segmentation, whose manifest gives the block shape for the seam audit"
+      + " (default: CONTAINER.sunder-work/DATASET).")
+  Path workDir;
 
   @Option(names = "--axes", defaultValue = "zyx", paramLabel = "AXES",
       description = "Axis order of --block-shape, slowest first (default: ${DEFAULT-VALUE}).")
@@ -72,25 +83,29 @@ final class EvaluateCommand implements Callable<Integer> {
 
   @Override
   public Integer call() {
+    if (keepBackground) {
+      throw new ConfigException("--keep-background: renamed to match the configuration key"
+          + " evaluate.ignoreBackground; use --ignore-background=false");
+    }
     spark.requireValid();
     String[] seg = split(segmentation, "--segmentation");
     String[] gt = split(truth, "--truth");
     String[] m = mask == null ? new String[] {null, null} : split(mask, "--mask");
     EvaluationTarget target = new EvaluationTarget(seg[0], seg[1], gt[0], gt[1], m[0], m[1],
-        !keepBackground);
+        ignoreBackground);
     Optional<Blocks> blocks = blocks(seg[0], seg[1]);
     BlockContingency.requireComparable(target);
     JavaSparkContext sc = cli.spark().open(spark.master);
     try {
       SegmentationScores scores = EvaluateJob.score(sc, target);
-      ScoreReport.print(scores, !keepBackground, cli.out());
+      ScoreReport.print(scores, ignoreBackground, cli.out());
       if (blocks.isPresent()) {
         SeamAudit audit = SeamAuditJob.audit(sc, target, blocks.get().memoryOrder());
         ScoreReport.printSeamAudit(audit, blocks.get().text(), cli.out());
       } else {
         cli.out().println("seam audit: skipped, no block shape: give --block-shape, or evaluate"
-            + " the output of a run whose work dir is " + RunResolver.defaultWorkDir(
-                Path.of(seg[0]), seg[1]));
+            + " the output of a run whose work dir is " + runWorkDir(seg[0], seg[1])
+            + " (--work-dir)");
       }
       return 0;
     } finally {
@@ -124,7 +139,7 @@ final class EvaluateCommand implements Callable<Integer> {
       return Optional.of(new Blocks(order.toMemory(blockShape),
           Arrays.toString(blockShape) + " (" + order + ")"));
     }
-    WorkDir work = new WorkDir(RunResolver.defaultWorkDir(Path.of(container), dataset));
+    WorkDir work = new WorkDir(runWorkDir(container, dataset));
     Optional<Manifest> manifest = work.manifest();
     if (manifest.isEmpty() || manifest.get().config() == null) {
       return Optional.empty();
@@ -147,6 +162,12 @@ final class EvaluateCommand implements Callable<Integer> {
     }
     return Optional.of(new Blocks(order.toMemory(fileOrder), Arrays.toString(fileOrder) + " ("
         + order + ", from the run's manifest in " + work.root() + ")"));
+  }
+
+  /** The work dir of the run that wrote the segmentation: --work-dir, else the default one. */
+  private Path runWorkDir(String container, String dataset) {
+    return workDir != null ? workDir.toAbsolutePath().normalize()
+        : RunResolver.defaultWorkDir(Path.of(container), dataset);
   }
 
   private AxisOrder axesOption() {

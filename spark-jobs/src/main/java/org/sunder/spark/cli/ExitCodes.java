@@ -4,6 +4,7 @@ import java.io.PrintStream;
 import java.util.List;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.spark.Launcher;
 import org.sunder.spark.stage.TaskOutOfMemory;
 import picocli.CommandLine;
 
@@ -58,27 +59,33 @@ public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
   int handle(Throwable e, String command) {
     SunderException known = find(e);
     if (known != null) {
-      err.println("sunder " + command + ": " + known.getMessage());
+      err.println(prefix(command) + ": " + known.getMessage());
       String log = System.getProperty(LOG_FILE_PROPERTY);
       if (log != null && known != e && viaSpark(e)) {
-        err.println("sunder " + command + ": Spark's report of the failed task: " + log);
+        err.println(prefix(command) + ": Spark's report of the failed task: " + log);
       }
       err.flush();
       return known.kind().exitCode();
     }
     String memory = outOfMemory(e);
     if (memory != null) {
-      err.println("sunder " + command + ": out of memory: " + memory + "; give each executor"
+      err.println(prefix(command) + ": out of memory: " + memory + "; give each executor"
           + " more memory (spark-submit --executor-memory, or SUNDER_JAVA_OPTS=-Xmx... with"
-          + " bin/sunder), or choose smaller blocks (blocks.shape; 'sunder plan' shows the"
-          + " memory per partition task)");
+          + " bin/sunder), or choose smaller blocks (blocks.shape; '" + Launcher.command()
+          + " plan CONFIG' shows the memory per partition task)");
       err.flush();
       return OUT_OF_MEMORY;
     }
-    err.println("sunder " + command + ": internal error (please report it): " + e);
+    err.println(prefix(command) + ": internal error (please report it): " + e);
     e.printStackTrace(err);
     err.flush();
     return ErrorKind.INTERNAL.exitCode();
+  }
+
+  /** {@code "sunder run"}, or {@code "sunder"} outside any command. */
+  private static String prefix(String command) {
+    return command == null || command.isEmpty() || command.equals("sunder") ? "sunder"
+        : "sunder " + command;
   }
 
   /** Whether a Spark job failure wraps {@code e}'s cause. */
@@ -147,8 +154,17 @@ public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
 
   static int usageError(CommandLine.ParameterException e, String[] args) {
     CommandLine line = e.getCommandLine();
-    line.getErr().println("sunder " + line.getCommandName() + ": " + e.getMessage());
-    line.getErr().println("Try 'sunder " + (line.getParent() == null ? "" : line.getCommandName()
+    boolean top = line.getParent() == null;
+    String prefix = top ? "sunder" : "sunder " + line.getCommandName();
+    if (top && e instanceof CommandLine.UnmatchedArgumentException unmatched
+        && !unmatched.getUnmatched().isEmpty() && !unmatched.getUnmatched().get(0).startsWith("-")) {
+      line.getErr().println(prefix + ": unknown command '" + unmatched.getUnmatched().get(0)
+          + "'; the commands are:");
+      line.getErr().print(line.getHelp().commandList());
+    } else {
+      line.getErr().println(prefix + ": " + e.getMessage());
+    }
+    line.getErr().println("Try '" + Launcher.command() + " " + (top ? "" : line.getCommandName()
         + " ") + "--help' for usage.");
     line.getErr().flush();
     return ErrorKind.INVALID_CONFIG.exitCode();

@@ -24,7 +24,8 @@ final class RunCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;
 
-  @Parameters(index = "0", paramLabel = "CONFIG", description = "Run configuration (JSON).")
+  @Parameters(index = "0", paramLabel = "CONFIG", description = "Run configuration (JSON)."
+      + " Relative paths in it are relative to the configuration file's folder.")
   Path config;
 
   @Option(names = "--fresh", description = "Discard an earlier run's records and output and"

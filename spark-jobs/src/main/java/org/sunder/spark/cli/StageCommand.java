@@ -11,6 +11,7 @@ import org.sunder.spark.stage.Pipeline;
 import org.sunder.spark.stage.Stage;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.ParentCommand;
 
@@ -26,8 +27,13 @@ final class StageCommand implements Callable<Integer> {
       description = "partition, seams, solve, relabel or evaluate.")
   String stage;
 
-  @Parameters(index = "1", paramLabel = "CONFIG", description = "Run configuration (JSON).")
+  @Parameters(index = "1", paramLabel = "CONFIG", description = "Run configuration (JSON)."
+      + " Relative paths in it are relative to the configuration file's folder.")
   Path config;
+
+  @Option(names = "--work-dir", paramLabel = "DIR", description = "Work dir for the manifest and"
+      + " task records of the run (default: the configuration's workDir, else <output container>.sunder-work/<dataset>).")
+  Path workDir;
 
   @Mixin
   SparkOptions spark;
@@ -36,7 +42,7 @@ final class StageCommand implements Callable<Integer> {
   public Integer call() {
     Stage chosen = Stage.parse(stage);
     spark.requireValid();
-    try (PreparedRun run = RunLoader.prepare(config, null, false)) {
+    try (PreparedRun run = RunLoader.prepare(config, workDir, false)) {
       Pipeline.requireEarlierFinished(run, chosen);
       JavaSparkContext sc = cli.spark().open(spark.master);
       try {

@@ -3,6 +3,8 @@ package org.sunder.spark.cli;
 import java.io.PrintStream;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
+import java.util.concurrent.Callable;
+import org.sunder.blockwise.ErrorKind;
 import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.SunderVersion;
 import picocli.CommandLine;
@@ -11,23 +13,27 @@ import picocli.CommandLine.Command;
 /**
  * Sunder's command line: {@code run}, {@code stage}, {@code plan}, {@code demo},
  * {@code evaluate}, {@code inspect}. Commands return exit codes ({@link ExitCodes}); only
- * {@link #main} exits the process.
+ * {@link #main} exits the process. No command, or an unknown one, prints the usage or the list
+ * of commands and exits 2.
  */
 @Command(name = "sunder", mixinStandardHelpOptions = true, versionProvider = SunderCli.Version.class,
     description = {
         "Turns affinity maps of large 3D volumes into one consistent instance segmentation,",
         "blockwise on Apache Spark, in N5 or Zarr containers.",
         "",
-        "New here? Try it on a synthetic volume first:   sunder demo",
+        "New here? Try it on a synthetic volume first:   ${sys:sunder.launcher:-bin/sunder} demo",
         "Then write a configuration for your data (only the container is required):",
         "  {\"input\": {\"container\": \"/data/volume.zarr\", \"affinities\": \"affinities\",",
         "             \"offsets\": [[-1, 0, 0], [0, -1, 0], [0, 0, -1]]}}",
-        "and check it, then run it:   sunder plan run.json   and   sunder run run.json",
+        "and check it, then run it:",
+        "  ${sys:sunder.launcher:-bin/sunder} plan run.json",
+        "  ${sys:sunder.launcher:-bin/sunder} run run.json",
+        "Relative paths in a configuration are relative to the configuration file's folder.",
         "",
         "Automated segmentations contain errors: proofread before drawing scientific conclusions."},
     subcommands = {RunCommand.class, StageCommand.class, PlanCommand.class, DemoCommand.class,
         EvaluateCommand.class, InspectCommand.class})
-public final class SunderCli implements Runnable {
+public final class SunderCli implements Callable<Integer> {
   private final SparkContextSource spark;
   private final PrintStream out;
   private final PrintStream err;
@@ -56,9 +62,16 @@ public final class SunderCli implements Runnable {
     return terminal;
   }
 
+  /** Without a command: the usage, on standard error, and the exit code of a usage error. */
   @Override
-  public void run() {
-    new CommandLine(this).usage(out);
+  public Integer call() {
+    CommandLine line = new CommandLine(this);
+    line.setUsageHelpWidth(100);
+    line.getCommandSpec().usageMessage().footer(ExitCodes.footer());
+    err.println("sunder: no command given");
+    line.usage(err);
+    err.flush();
+    return ErrorKind.INVALID_CONFIG.exitCode();
   }
 
   /** Runs one command line and returns its exit code. */

@@ -109,6 +109,28 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
     return new RunConfig(order.letters(), in, out, workDir, b, p, s, e);
   }
 
+  /**
+   * This configuration with every relative path (containers and work dir) resolved against
+   * {@code folder}, the configuration file's folder; absolute paths and unset keys stay as they
+   * are.
+   */
+  public RunConfig relativeTo(java.nio.file.Path folder) {
+    InputSection in = new InputSection(against(folder, input.container()), input.affinities(),
+        input.offsets(), input.mask(), input.missingChunks());
+    OutputSection out = output == null ? null
+        : new OutputSection(against(folder, output.container()), output.dataset());
+    EvaluateSection e = evaluate == null ? null : new EvaluateSection(
+        against(folder, evaluate.container()), evaluate.groundTruth(), evaluate.ignoreBackground());
+    return new RunConfig(axes, in, out, against(folder, workDir), blocks, partition, solve, e);
+  }
+
+  private static String against(java.nio.file.Path folder, String path) {
+    if (path == null || path.isBlank() || folder == null) {
+      return path;
+    }
+    return folder.resolve(path).normalize().toString();
+  }
+
   /** The axis order ({@link #withDefaults()} first). */
   public AxisOrder axisOrder() {
     return new AxisOrder(axes == null ? AxisOrder.ZYX.letters() : axes);

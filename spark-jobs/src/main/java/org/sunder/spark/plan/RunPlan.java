@@ -17,6 +17,7 @@ import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
 import org.sunder.spark.config.AxisOrder;
+import org.sunder.spark.progress.ProgressTracker;
 import org.sunder.spark.run.RunSettings;
 
 /**
@@ -52,14 +53,14 @@ public final class RunPlan {
     out.println("offsets    " + Arrays.deepToString(zyx) + " (" + axes + ")");
     out.println("blocks     shape " + Arrays.toString(axes.toFile(s.blockShape())) + ", halo "
         + Arrays.toString(axes.toFile(s.halo())) + ", grid "
-        + Arrays.toString(axes.toFile(grid.gridShape())) + " = " + grid.blockCount() + " blocks");
+        + Arrays.toString(axes.toFile(grid.gridShape())) + " = " + count(grid.blockCount(), "block"));
     List<HaloShortfall> shortfalls = grid.haloShortfalls(s.offsets());
     for (HaloShortfall shortfall : shortfalls) {
       out.println("note       " + shortfall.message());
     }
     out.println("tasks      partition " + grid.blockCount() + ", seams " + grid.faceCount()
-        + ", solve 1 (driver), relabel " + grid.blockCount() + " (" + grid.chunkCount()
-        + " chunks)" + (s.evaluates() ? ", evaluate " + grid.blockCount() : ""));
+        + ", solve 1 (driver), relabel " + grid.blockCount() + " (" + count(grid.chunkCount(),
+        "chunk") + ")" + (s.evaluates() ? ", evaluate " + grid.blockCount() : ""));
     long extended = largestExtendedVoxels(grid);
     long bytes = extended * ((long) channels * bytesPerValue + PARTITION_BYTES_PER_VOXEL);
     out.println(String.format(Locale.ROOT, "memory     about %s per partition task (%d voxels"
@@ -68,16 +69,58 @@ public final class RunPlan {
     out.println("driver     reduced graph bound solve.maxDriverEdges = " + s.maxDriverEdges()
         + " edges (about " + mebibytes(s.maxDriverEdges() * 100) + ")");
     if (sample) {
-      int index = centralBlock(grid);
-      double seconds = timeSample(s, grid.block(index));
-      double total = seconds * grid.blockCount();
-      out.println(String.format(Locale.ROOT, "estimate   sample block %d partitioned in %.3f s;"
-          + " partition stage about %.1f s of work, %.1f s on %d cores (seams, relabel and I/O"
-          + " not included)", index, seconds, total, total / Math.max(1, cores), cores));
+      Block block = grid.block(centralBlock(grid));
+      double seconds = timeSample(s, block);
+      out.println(String.format(Locale.ROOT, "estimate   sample block at grid %s, voxels %s (%s),"
+          + " partitioned here in %.3f s", Arrays.toString(axes.toFile(block.gridPosition())),
+          voxelBox(block, axes), axes, seconds));
+      out.println(estimate(grid.blockCount(), seconds, cores));
     }
     out.println("output     " + s.outputContainer() + "  dataset " + s.outputDataset()
         + " (uint64, chunks " + Arrays.toString(axes.toFile(s.chunkShape())) + ")");
     out.println("work dir   " + s.workDir());
+  }
+
+  /**
+   * The partition stage's estimate: the work ({@code tasks} x {@code seconds}) and the wall
+   * time on {@code cores}, in rounds of equal tasks: ceil(tasks / cores) x seconds, so never
+   * less than one task.
+   */
+  static String estimate(long tasks, double seconds, int cores) {
+    long rounds = (tasks + cores - 1) / cores;
+    return "           partition stage: about " + duration(tasks * seconds) + " of work, "
+        + duration(rounds * seconds) + " on " + count(cores, "core") + " (" + count(tasks,
+        "task") + " of about " + duration(seconds) + (rounds == 1 ? "" : ", " + rounds
+        + " rounds") + "); seams, solve, relabel and I/O are not estimated";
+  }
+
+  /** {@code 0.4 s}, {@code 42.0 s}, {@code 3 min 5 s}, {@code 21 h 4 min}, {@code 3 d 2 h}. */
+  static String duration(double seconds) {
+    if (seconds < 60) {
+      return String.format(Locale.ROOT, seconds < 1 ? "%.2f s" : "%.1f s", seconds);
+    }
+    long hours = Math.round(seconds) / 3600;
+    if (hours >= 48) {
+      return (hours / 24) + " d " + (hours % 24) + " h";
+    }
+    return ProgressTracker.duration(seconds);
+  }
+
+  /** {@code 1 block}, {@code 8 blocks}. */
+  static String count(long n, String noun) {
+    return n + " " + noun + (n == 1 ? "" : "s");
+  }
+
+  /** The core box as inclusive ranges per axis, in the configuration's order: {@code z 6..11, ...}. */
+  static String voxelBox(Block block, AxisOrder axes) {
+    long[] min = axes.toFile(block.coreMin());
+    long[] max = axes.toFile(block.coreMax());
+    StringBuilder box = new StringBuilder();
+    for (int d = 0; d < min.length; d++) {
+      box.append(d == 0 ? "" : ", ").append(axes.letters().charAt(d)).append(' ')
+          .append(min[d]).append("..").append(max[d]);
+    }
+    return box.toString();
   }
 
   /** Voxels of an extended box of a full block (cores at the border are smaller). */

@@ -71,7 +71,7 @@ public final class ProgressTracker {
   }
 
   /** {@code 42 s}, {@code 3 min 5 s}, {@code 2 h 7 min}. */
-  static String duration(double seconds) {
+  public static String duration(double seconds) {
     long s = Math.round(seconds);
     if (s < 60) {
       return s + " s";

@@ -62,6 +62,23 @@ public final class RunPreparation {
     }
   }
 
+  /**
+   * Every refusal {@link #prepare} can make before it writes, writing nothing: another process
+   * holds the work dir, the output or work dir belongs to something else or another run, or the
+   * earlier run's settings or input differ in a way that forbids resuming it.
+   */
+  public static void check(RunSettings settings, boolean fresh) {
+    WorkDir work = new WorkDir(settings.workDirPath());
+    WorkDirLock.requireFree(work.root());
+    Found found = check(settings, work, fresh);
+    if (!fresh && found.previous().isPresent()) {
+      Manifest previous = found.previous().get();
+      boolean relabelled = !work.ledger(Stage.RELABEL).finished().isEmpty();
+      ResumePlanner.decide(previous, RunIdentity.manifest(settings, previous.runId()), relabelled,
+          work.root().toString());
+    }
+  }
+
   /** What is on disk before a run: the output container, its owner run, the work dir's manifest. */
   private record Found(Optional<Container> output, String outputRun, Optional<Manifest> previous) {}
 

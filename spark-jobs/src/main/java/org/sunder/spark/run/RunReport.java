@@ -44,7 +44,7 @@ public record RunReport(RunSettings settings, List<StageReport> stages, SolveRep
       ScoreReport.printSeamAudit(seams, Arrays.toString(axes.toFile(settings.blockShape())) + " ("
           + axes + ")", out);
     }
-    out.println(String.format(Locale.ROOT, "segmentation: %s  dataset %s  (%.2f s)",
+    out.println(String.format(Locale.ROOT, "segmentation: %s  dataset %s  (this run's stages took %.2f s)",
         settings.outputContainer(), settings.outputDataset(), seconds));
     out.println("work dir: " + settings.workDir());
   }

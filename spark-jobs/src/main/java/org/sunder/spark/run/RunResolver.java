@@ -1,7 +1,10 @@
 package org.sunder.spark.run;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.JsonMappingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.exc.UnrecognizedPropertyException;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.nio.file.Files;
@@ -9,6 +12,7 @@ import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
+import java.util.stream.Collectors;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
@@ -34,10 +38,15 @@ public final class RunResolver {
   static final long MAX_ARRAY_VALUES = Integer.MAX_VALUE - 8L;
 
   private static final ObjectMapper JSON = new ObjectMapper();
+  private static final ObjectMapper STRICT = new ObjectMapper()
+      .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
 
   private RunResolver() {}
 
-  /** Resolves {@code config} (with defaults filled in); relative paths against the current directory. */
+  /**
+   * Resolves {@code config} (with defaults filled in); relative paths against the current
+   * directory ({@link RunLoader} first resolves a file's paths against the file's folder).
+   */
   public static RunSettings resolve(RunConfig config, TaskHooks hooks) {
     AxisOrder axes = config.axisOrder();
     int n = axes.dimensions();
@@ -171,15 +180,43 @@ public final class RunResolver {
       completeDefault(section, voxelSizeSlowestFirst);
       fitFragments(section, voxelSizeSlowestFirst);
       String json = JSON.writeValueAsString(section);
+      requireKnownKeys(json);
       partition = PartitionConfig.fromJson(json);
       partition.validate(new Offsets(offsets));
       return json;
     } catch (JsonProcessingException e) {
       throw new ConfigException("partition: cannot encode the section: " + e.getMessage(), e);
+    } catch (ConfigException e) {
+      throw e;
     } catch (SunderException e) {
       String message = e.getMessage();
       throw new ConfigException(message.startsWith("partition") ? message
           : "partition." + message, e);
+    }
+  }
+
+  /**
+   * Refuses an unknown key anywhere in the partition section in the words the reader uses for
+   * the rest of the file: the key path and the keys known there.
+   */
+  private static void requireKnownKeys(String json) {
+    try {
+      STRICT.readValue(json, PartitionConfig.class);
+    } catch (UnrecognizedPropertyException e) {
+      StringBuilder path = new StringBuilder("partition");
+      for (JsonMappingException.Reference ref : e.getPath()) {
+        if (ref.getFieldName() != null) {
+          path.append('.').append(ref.getFieldName());
+        } else if (ref.getIndex() >= 0) {
+          path.append('[').append(ref.getIndex()).append(']');
+        }
+      }
+      String known = e.getKnownPropertyIds() == null ? "" : e.getKnownPropertyIds().stream()
+          .map(Object::toString).sorted().collect(Collectors.joining(", "));
+      throw new ConfigException("unknown key '" + path + "'"
+          + (known.isEmpty() ? "" : "; known keys there: " + known), e);
+    } catch (JsonProcessingException e) {
+      // Other mistakes are reported by PartitionConfig.fromJson, naming the key.
     }
   }
 

@@ -157,7 +157,8 @@ public final class Pipeline {
       if (done.cardinality() < total) {
         throw new ConfigException("stage " + stage.cliName() + " needs stage " + earlier.cliName()
             + " to finish first (" + done.cardinality() + " of " + total + " tasks done);"
-            + " run 'sunder stage " + earlier.cliName() + " CONFIG' or 'sunder run CONFIG'");
+            + " run '" + org.sunder.spark.Launcher.command() + " stage " + earlier.cliName()
+            + " CONFIG' or '" + org.sunder.spark.Launcher.command() + " run CONFIG'");
       }
     }
   }

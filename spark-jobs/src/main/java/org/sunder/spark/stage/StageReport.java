@@ -11,9 +11,9 @@ import java.util.Locale;
  * @param seconds wall time of the stage in this run
  */
 public record StageReport(Stage stage, int total, int skipped, int ran, double seconds) {
-  /** For example {@code "partition  8 tasks (3 skipped, 5 run)  2.41 s"}. */
+  /** For example {@code "partition  8 tasks (3 skipped, 5 run)  in 2.41 s"}. */
   public String line() {
-    return String.format(Locale.ROOT, "%-9s %d tasks (%d skipped, %d run)  %.2f s",
+    return String.format(Locale.ROOT, "%-9s %d tasks (%d skipped, %d run)  in %.2f s",
         stage.cliName(), total, skipped, ran, seconds);
   }
 }
