@@ -86,7 +86,7 @@ public final class RunPlan {
    * time on {@code cores}, in rounds of equal tasks: ceil(tasks / cores) x seconds, so never
    * less than one task.
    */
-  static String estimate(long tasks, double seconds, int cores) {
+  public static String estimate(long tasks, double seconds, int cores) {
     long rounds = (tasks + cores - 1) / cores;
     return "           partition stage: about " + duration(tasks * seconds) + " of work, "
         + duration(rounds * seconds) + " on " + count(cores, "core") + " (" + count(tasks,
@@ -95,7 +95,7 @@ public final class RunPlan {
   }
 
   /** {@code 0.4 s}, {@code 42.0 s}, {@code 3 min 5 s}, {@code 21 h 4 min}, {@code 3 d 2 h}. */
-  static String duration(double seconds) {
+  public static String duration(double seconds) {
     if (seconds < 60) {
       return String.format(Locale.ROOT, seconds < 1 ? "%.2f s" : "%.1f s", seconds);
     }
@@ -107,7 +107,7 @@ public final class RunPlan {
   }
 
   /** {@code 1 block}, {@code 8 blocks}. */
-  static String count(long n, String noun) {
+  public static String count(long n, String noun) {
     return n + " " + noun + (n == 1 ? "" : "s");
   }
 

@@ -76,10 +76,11 @@ class CliOutputTest {
         + " voxels").matcher(out);
     assertTrue(memory.find(), out);
     assertEquals(2016 * (5 * 4 + 158) / (1024.0 * 1024.0), Double.parseDouble(memory.group(1)), 0.05);
-    Matcher estimate = Pattern.compile("estimate   sample block (\\d+) partitioned in ([0-9.]+) s;"
-        + " partition stage about ([0-9.]+) s of work").matcher(out);
+    // The central block of the 2 x 2 x 2 grid, block 7, at its place in the volume.
+    Matcher estimate = Pattern.compile("estimate   sample block at grid \\[1, 1, 1\\], voxels"
+        + " z 6..11, y 10..19, x 14..27 \\(zyx\\), partitioned here in ([0-9.]+) s\n"
+        + " +partition stage: about .+ of work, .+ on 2 cores \\(8 tasks").matcher(out);
     assertTrue(estimate.find(), out);
-    assertEquals("7", estimate.group(1));
     assertTrue(out.contains("work dir   " + dir.resolve("v.n5.sunder-work/segmentation")), out);
     assertTrue(!Files.exists(dir.resolve("v.n5.sunder-work")), "plan writes nothing");
   }
