@@ -7,6 +7,7 @@ import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.blockwise.metrics.TunedBaseline;
 import org.sunder.blockwise.partition.BaselineWatershed;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.partition.Segmentation;
@@ -21,7 +22,10 @@ import org.sunder.blockwise.synth.TissuePreset;
  * each partition configuration given, all on one thread.
  *
  * <p>Arguments: {@code x y z} shape (default the standard shape), seeds (comma-separated,
- * default 1,2,3), then partition configurations as JSON strings.
+ * default 1,2,3), then partition configurations as JSON strings. System properties:
+ * {@code -Dpreset=NAME} surveys one preset; {@code -Dflaws=a,b,...} replaces the preset's
+ * degradation by the {@link Degradation} with those ten strengths after the seed, in
+ * the record's order (for exploring how hard a flaw makes the data).
  */
 public final class PresetSurvey {
   private PresetSurvey() {}
@@ -52,7 +56,7 @@ public final class PresetSurvey {
         AffinityBlock block = AffinityBlock.ofFloats(affinities, s, new long[3],
             TissuePreset.offsets(), null);
         long t3 = System.nanoTime();
-        for (double threshold : new double[] {0.5, 0.3, 0.2, 0.1}) {
+        for (double threshold : TunedBaseline.THRESHOLDS) {
           report("naive watershed " + threshold, volume,
               new BaselineWatershed(threshold).partition(block).labels(), System.nanoTime() - t3);
           t3 = System.nanoTime();
