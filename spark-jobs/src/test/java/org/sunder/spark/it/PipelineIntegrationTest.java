@@ -203,7 +203,9 @@ class PipelineIntegrationTest {
     String out = run("demo", "--dir", dir.toString(), "--shape", "16,48,64", "--format", "n5");
     assertTrue(out.contains("adapted_rand_error"), out);
     assertTrue(out.contains("segmentation: " + dir.resolve("volume.n5")), out);
-    assertTrue(out.contains("look inside:   sunder inspect " + dir.resolve("volume.n5")), out);
+    assertTrue(out.contains("look inside:   " + org.sunder.spark.Launcher.command() + " inspect "
+        + dir.resolve("volume.n5")), out);
+    assertTrue(out.contains("yardstick: naive seeded watershed"), out);
     String again = run("demo", "--dir", dir.toString(), "--shape", "16,48,64", "--format", "n5");
     assertTrue(again.contains("relabel: "), again);
     assertEquals(value(out, "voi_split"), value(again, "voi_split"), 0);

@@ -3,9 +3,6 @@ package org.sunder.spark.it;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.ByteArrayOutputStream;
-import java.io.PrintStream;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.junit.jupiter.api.AfterAll;
@@ -23,7 +20,7 @@ import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.SyntheticScenario;
 import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.spark.SparkContextSource;
-import org.sunder.spark.cli.SunderCli;
+import org.sunder.spark.cli.CliRun;
 
 /**
  * A small realistic case of each tissue kind, end to end through Spark local mode with the
@@ -58,12 +55,8 @@ class RealisticQualityTest {
     Path config = dir.resolve("run.json");
     Scenes.writeConfig(config, root, CHUNK_XYZ, "{}", null);
 
-    ByteArrayOutputStream out = new ByteArrayOutputStream();
-    int code = new SunderCli(SparkContextSource.shared(sc),
-        new PrintStream(out, true, StandardCharsets.UTF_8), new PrintStream(
-            new ByteArrayOutputStream(), true, StandardCharsets.UTF_8), false)
-        .execute("run", config.toString());
-    assertEquals(0, code, () -> out.toString(StandardCharsets.UTF_8));
+    CliRun run = CliRun.with(SparkContextSource.shared(sc), "run", config.toString());
+    assertEquals(0, run.exitCode(), () -> run.out() + run.err());
 
     long[] truth = Scenes.labels(root, SyntheticScenario.GROUND_TRUTH);
     ContingencyTable table = new ContingencyTable();
