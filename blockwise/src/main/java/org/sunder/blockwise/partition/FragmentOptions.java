@@ -89,9 +89,10 @@ public final class FragmentOptions implements Serializable {
 
   /**
    * The defaults fitted to data of this voxel size (memory order): the voxel size is used for
-   * the distance transform, and fragments are made per slice of the slowest axis when that axis
-   * is at least {@value #SLICE_ANISOTROPY} times coarser than the finest other axis (sections
-   * cut thicker than the in-plane resolution, where 3D flooding leaks between sections).
+   * the distance transform, and 3D data is made into fragments per slice of the slowest axis
+   * when that axis is at least {@value #SLICE_ANISOTROPY} times coarser than the finest other
+   * axis (sections cut thicker than the in-plane resolution, where 3D flooding leaks between
+   * sections).
    */
   public static FragmentOptions fittedTo(double[] voxelSize) {
     FragmentOptions checked = new FragmentOptions(0.5, 1.0, voxelSize, false);
@@ -112,7 +113,7 @@ public final class FragmentOptions implements Serializable {
     for (int d = 0; d < slow; d++) {
       finestOther = Math.min(finestOther, voxelSize[d]);
     }
-    return slow > 0 && voxelSize[slow] >= SLICE_ANISOTROPY * finestOther;
+    return slow >= 2 && voxelSize[slow] >= SLICE_ANISOTROPY * finestOther;
   }
 
   /** The same options with an explicit voxel size for {@code dims} axes. */

@@ -122,4 +122,27 @@ class PartitionConfigTest {
       assertEquals(s, partitioner.partition(block), "deterministic");
     }
   }
+
+  @Test
+  void theRobustDefaultFitsFragmentsAndSizeFloorToTheVoxelSize() {
+    // memory order x, y, z: sections 4 times thicker than the pixels
+    PartitionConfig sections = PartitionConfig.robustDefault(new double[] {8, 8, 32});
+    assertEquals(PartitionConfig.Method.FRAGMENTS_MULTICUT, sections.method());
+    assertTrue(sections.fragments().perSlice());
+    assertEquals(32.0, sections.fragments().voxelSize()[2]);
+    // 4/3 pi (50 nm)^3 = 523 599 nm^3 over 2 048 nm^3 per voxel = 255.7
+    assertEquals(256, sections.minSegmentSize());
+    assertTrue(!PartitionConfig.robustDefault(new double[] {10, 10, 19}).fragments().perSlice());
+    assertTrue(PartitionConfig.robustDefault(new double[] {10, 10, 20}).fragments().perSlice());
+    // 2D data is never sliced; the floor is a disc: pi 50^2 / 16 = 490.9
+    PartitionConfig plane = PartitionConfig.robustDefault(new double[] {4, 4});
+    assertTrue(!plane.fragments().perSlice());
+    assertEquals(491, plane.minSegmentSize());
+    // unknown voxel size: a ball of 3 voxels, 4/3 pi 27 = 113.1
+    PartitionConfig unknown = PartitionConfig.robustDefault(null);
+    assertEquals(113, unknown.minSegmentSize());
+    assertTrue(!unknown.fragments().perSlice());
+    assertEquals(unknown, PartitionConfig.fromJson(new ObjectMapper().valueToTree(unknown)
+        .toString()), "the default round-trips through its JSON form");
+  }
 }
