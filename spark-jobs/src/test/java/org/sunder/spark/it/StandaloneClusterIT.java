@@ -58,7 +58,7 @@ class StandaloneClusterIT {
   private static final int[] CHUNK_XYZ = {32, 28, 10};
   private static final int BLOCKS = 8;
   private static final String MWS = "{\"method\": \"mutex-watershed\"}";
-  private static final long DELAY_MILLIS = 1500;
+  private static final long DELAY_MILLIS = 300;
   /** Class path entries that are not part of a Spark distribution. */
   private static final List<String> NOT_SPARK = List.of("/org/sunder/", "/net/imglib2/",
       "/info/picocli/", "/org/tukaani/", "/org/junit/", "/org/opentest4j/", "/org/apiguardian/",
@@ -94,6 +94,23 @@ class StandaloneClusterIT {
     assertShaded(jar, "net/imglib2/img/array/ArrayImg.class", "picocli/CommandLine.class",
         "org/sunder/blockwise/store/codec/Lz4Codec.class");
 
+    Path sparkHome = sparkHome(dir.resolve("spark-home"), sparkLz4);
+    Path logs = Files.createDirectories(Path.of(System.getProperty("sunder.itLogDir",
+        dir.resolve("logs").toString())));
+    int masterPort = freePort();
+    String masterUrl = "spark://127.0.0.1:" + masterPort;
+    Path masterLog = logs.resolve("master.log");
+    start(sparkHome, addOpens, List.of("org.apache.spark.deploy.master.Master",
+        "--host", "127.0.0.1", "--port", String.valueOf(masterPort), "--webui-port", String.valueOf(freePort())), masterLog);
+    Process[] workers = new Process[2];
+    Path[] workDirs = new Path[2];
+    for (int i = 0; i < 2; i++) {
+      workDirs[i] = Files.createDirectories(dir.resolve("worker-" + i));
+      workers[i] = start(sparkHome, addOpens, List.of("org.apache.spark.deploy.worker.Worker",
+          "--host", "127.0.0.1", "--webui-port", String.valueOf(freePort()), "--cores", "1",
+          "--memory", "768m", "--work-dir", workDirs[i].toString(), masterUrl),
+          logs.resolve("worker-" + i + ".log"));
+    }
     Path localRun = writeLz4Scene(dir.resolve("local"));
     Path clusterRun = writeLz4Scene(dir.resolve("cluster"));
     JavaSparkContext sc = SharedSpark.start("local[2]");
@@ -108,23 +125,6 @@ class StandaloneClusterIT {
     List<String> reference = Scenes.chunkFiles(localRun.resolve("scene.n5/segmentation"));
     assertFalse(reference.isEmpty());
 
-    Path sparkHome = sparkHome(dir.resolve("spark-home"), sparkLz4);
-    Path logs = Files.createDirectories(Path.of(System.getProperty("sunder.itLogDir",
-        dir.resolve("logs").toString())));
-    int masterPort = freePort();
-    String masterUrl = "spark://127.0.0.1:" + masterPort;
-    Path masterLog = logs.resolve("master.log");
-    start(sparkHome, addOpens, List.of("org.apache.spark.deploy.master.Master", "--host", "127.0.0.1", "--port",
-        String.valueOf(masterPort), "--webui-port", String.valueOf(freePort())), masterLog);
-    Process[] workers = new Process[2];
-    Path[] workDirs = new Path[2];
-    for (int i = 0; i < 2; i++) {
-      workDirs[i] = Files.createDirectories(dir.resolve("worker-" + i));
-      workers[i] = start(sparkHome, addOpens, List.of("org.apache.spark.deploy.worker.Worker",
-          "--host", "127.0.0.1", "--webui-port", String.valueOf(freePort()), "--cores", "1",
-          "--memory", "768m", "--work-dir", workDirs[i].toString(), masterUrl),
-          logs.resolve("worker-" + i + ".log"));
-    }
     waitUntil(() -> count(read(masterLog), "Registering worker") == 2, 60,
         "two workers registered", masterLog);
 
@@ -162,6 +162,8 @@ class StandaloneClusterIT {
     assertTrue(out.contains("Lost executor"), "the driver never lost an executor:\n" + out);
     assertEquals(reference, Scenes.chunkFiles(clusterRun.resolve("scene.n5/segmentation")),
         "cluster output bytes differ from the local run");
+    System.out.println("driver: " + out.lines().filter(l -> l.contains("Lost executor")
+        || l.contains("failed attempts retried")).reduce((a, b) -> b).orElse(""));
     System.out.println("output chunk files byte-identical to the local[2] run: "
         + reference.size() + " files");
   }
