@@ -13,13 +13,16 @@ import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.spark.cli.SunderCli;
 import org.sunder.spark.it.Scenes;
+import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.WorkDir;
 
 /**
  * Random kill trials of the local-mode command line: each trial runs {@code sunder run} in a
  * child JVM, SIGKILLs it at a moment drawn uniformly over the length of a whole run, SIGKILLs the
  * rerun (a resume) at a second random moment, then reruns to the end and compares the output
  * chunk files with an uninterrupted run's. Prints one line per trial and how many resumed
- * byte-identical; exits 1 if any did not. Not a test.
+ * byte-identical, with the task records each stage had at each kill; exits 1 if any did not.
+ * Not a test.
  *
  * <p>Arguments: {@code [trials (default 10)] [seed (default 13)] [dir]}. Run with
  * {@code bin/bench spark-jobs KillResumeSoak 20 7}. Each trial costs about three child runs.
@@ -61,8 +64,11 @@ public final class KillResumeSoak {
           CHUNK_XYZ, MWS);
       long firstKill = (long) (random.nextDouble() * runMillis);
       long resumeKill = (long) (random.nextDouble() * runMillis);
-      String first = runAndKill(scene.config(), trialDir.resolve("first.log"), firstKill);
-      String second = runAndKill(scene.config(), trialDir.resolve("resume.log"), resumeKill);
+      WorkDir work = new WorkDir(scene.container().resolveSibling("scene.n5.sunder-work")
+          .resolve("segmentation"));
+      String first = runAndKill(scene.config(), trialDir.resolve("first.log"), firstKill, work);
+      String second = runAndKill(scene.config(), trialDir.resolve("resume.log"), resumeKill,
+          work);
       Process last = start(scene.config(), trialDir.resolve("last.log"));
       if (!last.waitFor(10, TimeUnit.MINUTES)) {
         last.destroyForcibly();
@@ -81,8 +87,11 @@ public final class KillResumeSoak {
     }
   }
 
-  /** Starts a run and SIGKILLs it after {@code millis}; says whether the kill hit it. */
-  private static String runAndKill(Path config, Path log, long millis)
+  /**
+   * Starts a run and SIGKILLs it after {@code millis}; says whether the kill hit it and how many
+   * task records each stage had then.
+   */
+  private static String runAndKill(Path config, Path log, long millis, WorkDir work)
       throws IOException, InterruptedException {
     Process process = start(config, log);
     if (process.waitFor(millis, TimeUnit.MILLISECONDS)) {
@@ -90,7 +99,12 @@ public final class KillResumeSoak {
     }
     process.destroyForcibly();
     process.waitFor();
-    return "killed";
+    StringBuilder records = new StringBuilder("killed (records:");
+    for (Stage stage : Stage.values()) {
+      records.append(' ').append(stage.cliName()).append(' ')
+          .append(work.ledger(stage).finished().cardinality());
+    }
+    return records.append(')').toString();
   }
 
   /** A child JVM running {@code sunder run CONFIG --master local[2]}, output to {@code log}. */
