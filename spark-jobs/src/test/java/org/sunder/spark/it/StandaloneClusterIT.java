@@ -48,7 +48,8 @@ import org.sunder.spark.workdir.WorkDir;
  * Spark and its dependencies only (our modules, imglib2, picocli and xz left out, so executors
  * get them from the shaded jar alone) with the lz4-java version Spark ships. The input is
  * lz4-compressed, so executors decode it with Spark's lz4 classes (loaded first) under our
- * codec: a clash between the jar and Spark shows as a failed run.
+ * codec: a clash between the jar and Spark shows as a failed run. The executors' class-loading
+ * logs must show lz4-java's classes coming from Spark's jar and our codec from the shaded jar.
  *
  * <p>Runs with failsafe after {@code package} ({@code mvn verify}), which builds the jar and
  * passes its path as {@code sunder.shadedJar}; the processes' logs go to {@code
@@ -59,6 +60,8 @@ class StandaloneClusterIT {
   private static final int BLOCKS = 8;
   private static final String MWS = "{\"method\": \"mutex-watershed\"}";
   private static final long DELAY_MILLIS = 300;
+  /** Our lz4 codec (package-private in blockwise), which executors must load from the jar. */
+  private static final String LZ4_CODEC = "org.sunder.blockwise.store.codec.Lz4Codec";
   /** Class path entries that are not part of a Spark distribution. */
   private static final List<String> NOT_SPARK = List.of("/org/sunder/", "/net/imglib2/",
       "/info/picocli/", "/org/tukaani/", "/org/junit/", "/org/opentest4j/", "/org/apiguardian/",
@@ -97,6 +100,11 @@ class StandaloneClusterIT {
     Path sparkHome = sparkHome(dir.resolve("spark-home"), sparkLz4);
     Path logs = Files.createDirectories(Path.of(System.getProperty("sunder.itLogDir",
         dir.resolve("logs").toString())));
+    try (Stream<Path> old = Files.list(logs)) {
+      for (Path file : old.toList()) {
+        Files.delete(file);
+      }
+    }
     int masterPort = freePort();
     String masterUrl = "spark://127.0.0.1:" + masterPort;
     Path masterLog = logs.resolve("master.log");
@@ -134,7 +142,8 @@ class StandaloneClusterIT {
         "org.apache.spark.deploy.SparkSubmit", "--master", masterUrl,
         "--deploy-mode", "client", "--class", "org.sunder.spark.cli.SunderCli",
         "--conf", "spark.executor.memory=512m",
-        "--conf", "spark.executor.extraJavaOptions=" + String.join(" ", addOpens),
+        "--conf", "spark.executor.extraJavaOptions=" + String.join(" ", addOpens)
+            + " -Xlog:class+load=info:file=" + logs.resolve("executor-classes-%p.log"),
         "--conf", "spark.driver.host=127.0.0.1", "--conf", "spark.ui.enabled=false",
         "--conf", TaskHooks.DELAY_KEY + "=" + DELAY_MILLIS,
         jar.toString(), "run", clusterRun.resolve("run.json").toString()), submitLog);
@@ -162,6 +171,18 @@ class StandaloneClusterIT {
     assertTrue(out.contains("Lost executor"), "the driver never lost an executor:\n" + out);
     assertEquals(reference, Scenes.chunkFiles(clusterRun.resolve("scene.n5/segmentation")),
         "cluster output bytes differ from the local run");
+    String loaded = executorClassLoads(logs);
+    assertTrue(loaded.lines().anyMatch(l -> l.contains("net.jpountz.lz4.LZ4BlockInputStream ")
+        && l.contains(sparkLz4.getFileName().toString())),
+        "no executor decoded lz4 with Spark's lz4-java " + sparkLz4.getFileName());
+    assertTrue(loaded.lines().anyMatch(l -> l.contains(LZ4_CODEC + " ")
+        && l.contains(jar.getFileName().toString())),
+        "no executor loaded " + LZ4_CODEC + " from the shaded jar");
+    assertFalse(loaded.lines().anyMatch(l -> l.contains("net.jpountz.")
+        && l.contains(jar.getFileName().toString())),
+        "an executor loaded lz4-java classes from the shaded jar, not Spark's");
+    System.out.println("executors: lz4 classes from " + sparkLz4.getFileName() + ", "
+        + "our lz4 codec" + " from " + jar.getFileName());
     System.out.println("driver: " + out.lines().filter(l -> l.contains("Lost executor")
         || l.contains("failed attempts retried")).reduce((a, b) -> b).orElse(""));
     System.out.println("output chunk files byte-identical to the local[2] run: "
@@ -236,6 +257,18 @@ class StandaloneClusterIT {
     Process process = builder.start();
     CHILDREN.add(process);
     return process;
+  }
+
+  /** The class-loading logs of every executor, one text. */
+  private static String executorClassLoads(Path logs) throws IOException {
+    StringBuilder all = new StringBuilder();
+    try (Stream<Path> files = Files.list(logs)) {
+      for (Path file : files.filter(f -> f.getFileName().toString()
+          .startsWith("executor-classes-")).sorted().toList()) {
+        all.append(read(file));
+      }
+    }
+    return all.toString();
   }
 
   private static boolean hasExecutorDir(Path workerDir) {
