@@ -73,13 +73,21 @@ class StandaloneClusterIT {
   static Path dir;
 
   @AfterAll
-  static void killChildren() throws InterruptedException {
+  static void killChildren() throws InterruptedException, IOException {
     for (Process p : CHILDREN) {
       p.descendants().forEach(ProcessHandle::destroyForcibly);
       p.destroyForcibly();
     }
     for (Process p : CHILDREN) {
       p.waitFor(30, TimeUnit.SECONDS);
+    }
+    Path jars = dir.resolve("spark-home/jars");
+    if (Files.isDirectory(jars)) { // the links, before JUnit warns about each
+      try (Stream<Path> links = Files.list(jars)) {
+        for (Path link : links.toList()) {
+          Files.delete(link);
+        }
+      }
     }
   }
 
