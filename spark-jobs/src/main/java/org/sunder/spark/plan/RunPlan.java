@@ -5,8 +5,10 @@ import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
+import java.util.Optional;
 import net.imglib2.FinalInterval;
 import net.imglib2.img.array.ArrayImg;
+import org.apache.spark.SparkConf;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.Block;
@@ -66,6 +68,9 @@ public final class RunPlan {
     out.println(String.format(Locale.ROOT, "memory     about %s per partition task (%d voxels"
         + " in the largest extended block x (%d channels x %d bytes + %d bytes))",
         mebibytes(bytes), extended, channels, bytesPerValue, PARTITION_BYTES_PER_VOXEL));
+    SparkConf conf = new SparkConf();
+    memoryWarning(bytes, conf.getInt("spark.executor.cores", cores), executorMemory(conf))
+        .ifPresent(out::println);
     out.println("driver     reduced graph bound solve.maxDriverEdges = " + s.maxDriverEdges()
         + " edges (about " + mebibytes(s.maxDriverEdges() * 100) + ")");
     if (sample) {
@@ -160,6 +165,32 @@ public final class RunPlan {
     long start = System.nanoTime();
     config.create().partition(affinityBlock);
     return (System.nanoTime() - start) / 1e9;
+  }
+
+  /**
+   * The memory one executor has for its tasks: {@code spark.executor.memory} when the Spark
+   * configuration of this process sets it (as {@code spark-submit --executor-memory} does), else
+   * this JVM's heap (local mode runs the tasks here).
+   */
+  static long executorMemory(SparkConf conf) {
+    return conf.contains("spark.executor.memory")
+        ? conf.getSizeAsBytes("spark.executor.memory") : Runtime.getRuntime().maxMemory();
+  }
+
+  /**
+   * A warning when {@code cores} partition tasks of {@code taskBytes} each, running at once on
+   * one executor ({@code spark.executor.cores}, else the cores planned for), need more than
+   * {@code memory}: the run would likely die of out-of-memory.
+   */
+  static Optional<String> memoryWarning(long taskBytes, int cores, long memory) {
+    long needed = taskBytes * Math.max(1, cores);
+    if (needed <= memory) {
+      return Optional.empty();
+    }
+    return Optional.of("warning    " + count(Math.max(1, cores), "partition task") + " at once on"
+        + " one executor: about " + mebibytes(needed) + ", more than its " + mebibytes(memory)
+        + "; give executors more memory (--executor-memory, or -Xmx in local mode) or choose a"
+        + " smaller blocks.shape");
   }
 
   private static String mebibytes(long bytes) {
