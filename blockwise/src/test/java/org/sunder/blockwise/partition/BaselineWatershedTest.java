@@ -71,7 +71,7 @@ class BaselineWatershedTest {
       int[] shape = SHAPES[trial % SHAPES.length];
       int n = VoxelBox.size(shape);
       float[] affinities = trial % 3 == 0 ? noise(random, n) : smooth(random, shape);
-      byte[] mask = trial % 2 == 1 ? randomMask(random, n) : null;
+      byte[] mask = trial % 2 == 1 ? SeededWatershedTest.randomMask(random, n) : null;
       double threshold = trial % 4 == 3 ? 0.35 : BaselineWatershed.DEFAULT_THRESHOLD;
       BaselineWatershed baseline = new BaselineWatershed(threshold);
       AffinityBlock block = AffinityBlock.ofFloats(affinities, shape, new long[3],
@@ -100,7 +100,7 @@ class BaselineWatershedTest {
       bytes[i] = (byte) v;
       floats[i] = v / 255f;
     }
-    byte[] mask = randomMask(random, n);
+    byte[] mask = SeededWatershedTest.randomMask(random, n);
     BaselineWatershed baseline = new BaselineWatershed();
     Segmentation fromBytes = baseline.partition(AffinityBlock.ofBytes(bytes, shape, new long[3],
         Offsets.of(OFFSETS), mask));
@@ -218,7 +218,7 @@ class BaselineWatershedTest {
     for (int c = 0; c < cases; c++) {
       int[] shape = SHAPES[c % SHAPES.length];
       int n = VoxelBox.size(shape);
-      byte[] mask = c % 3 == 2 ? randomMask(random, n) : null;
+      byte[] mask = c % 3 == 2 ? SeededWatershedTest.randomMask(random, n) : null;
       double threshold = c % 4 == 1 ? 0.4 : 0.5;
       float[] affinities;
       float[] boundary;
@@ -488,14 +488,6 @@ class BaselineWatershedTest {
       a[i] = random.nextFloat();
     }
     return a;
-  }
-
-  private static byte[] randomMask(Random random, int n) {
-    byte[] mask = new byte[n];
-    for (int i = 0; i < n; i++) {
-      mask[i] = (byte) (random.nextDouble() < 0.85 ? 1 : 0);
-    }
-    return mask;
   }
 
   private static byte[] ones(int n) {

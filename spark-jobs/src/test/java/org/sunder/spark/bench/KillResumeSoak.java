@@ -1,17 +1,15 @@
 package org.sunder.spark.bench;
 
 import java.io.IOException;
-import java.lang.management.ManagementFactory;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Random;
 import java.util.concurrent.TimeUnit;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
-import org.sunder.spark.cli.SunderCli;
+import org.sunder.spark.cli.ChildCli;
 import org.sunder.spark.it.Scenes;
 import org.sunder.spark.stage.Stage;
 import org.sunder.spark.workdir.WorkDir;
@@ -109,18 +107,8 @@ public final class KillResumeSoak {
 
   /** A child JVM running {@code sunder run CONFIG --master local[2]}, output to {@code log}. */
   private static Process start(Path config, Path log) throws IOException {
-    List<String> command = new ArrayList<>();
-    command.add(Path.of(System.getProperty("java.home"), "bin", "java").toString());
-    command.add("-Xmx1g");
-    for (String arg : ManagementFactory.getRuntimeMXBean().getInputArguments()) {
-      if (arg.startsWith("--add-opens") || arg.startsWith("-Djdk.reflect")) {
-        command.add(arg);
-      }
-    }
-    command.add("-cp");
-    command.add(System.getProperty("java.class.path"));
-    command.add(SunderCli.class.getName());
-    command.addAll(List.of("run", config.toString(), "--master", "local[2]"));
+    List<String> command = ChildCli.command("1g", List.of(), "run", config.toString(), "--master",
+        "local[2]");
     return new ProcessBuilder(command).redirectErrorStream(true).redirectOutput(log.toFile())
         .start();
   }

@@ -7,13 +7,11 @@ import static org.junit.jupiter.api.Assertions.fail;
 
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
-import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.security.MessageDigest;
 import java.security.NoSuchAlgorithmException;
-import java.util.ArrayList;
 import java.util.HexFormat;
 import java.util.List;
 import java.util.Map;
@@ -490,20 +488,7 @@ class BadInputBatteryTest {
 
   /** The command line in a new JVM with this test's class path; stderr to child-err.log. */
   private Process child(List<String> properties, String... args) throws IOException {
-    List<String> command = new ArrayList<>();
-    command.add(Path.of(System.getProperty("java.home"), "bin", "java").toString());
-    command.add("-Xmx512m");
-    for (String arg : ManagementFactory.getRuntimeMXBean().getInputArguments()) {
-      if (arg.startsWith("--add-opens") || arg.startsWith("--add-exports")
-          || arg.startsWith("-Djdk.reflect")) {
-        command.add(arg);
-      }
-    }
-    command.addAll(properties);
-    command.add("-cp");
-    command.add(System.getProperty("java.class.path"));
-    command.add(SunderCli.class.getName());
-    command.addAll(List.of(args));
+    List<String> command = ChildCli.command("512m", properties, args);
     return new ProcessBuilder(command).redirectOutput(dir.resolve("child-out.log").toFile())
         .redirectError(dir.resolve("child-err.log").toFile()).start();
   }

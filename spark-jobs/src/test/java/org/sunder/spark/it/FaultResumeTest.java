@@ -6,13 +6,11 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
 
 import java.io.IOException;
-import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
 import java.nio.file.attribute.FileTime;
-import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.Map;
 import java.util.List;
@@ -26,8 +24,8 @@ import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.spark.SparkContextSource;
+import org.sunder.spark.cli.ChildCli;
 import org.sunder.spark.cli.CliRun;
-import org.sunder.spark.cli.SunderCli;
 import org.sunder.spark.run.TaskHooks;
 import org.sunder.spark.stage.Stage;
 import org.sunder.spark.workdir.WorkDir;
@@ -178,19 +176,8 @@ class FaultResumeTest {
     }
 
     static Child start(Path dir, List<String> properties, String master) throws IOException {
-      List<String> command = new ArrayList<>();
-      command.add(Path.of(System.getProperty("java.home"), "bin", "java").toString());
-      command.add("-Xmx1g");
-      for (String arg : ManagementFactory.getRuntimeMXBean().getInputArguments()) {
-        if (arg.startsWith("--add-opens") || arg.startsWith("-Djdk.reflect")) {
-          command.add(arg);
-        }
-      }
-      command.addAll(properties);
-      command.add("-cp");
-      command.add(System.getProperty("java.class.path"));
-      command.add(SunderCli.class.getName());
-      command.addAll(List.of("run", dir.resolve("run.json").toString(), "--master", master));
+      List<String> command = ChildCli.command("1g", properties, "run",
+          dir.resolve("run.json").toString(), "--master", master);
       Path log = Files.createTempFile(dir, "child", ".log");
       Process process = new ProcessBuilder(command).redirectErrorStream(true)
           .redirectOutput(log.toFile()).start();
