@@ -1,0 +1,37 @@
+package org.sunder.blockwise.grid;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+
+class ShapesTest {
+
+  @Test
+  void elementCountIsTheProductOfExtents() {
+    Random random = new Random(3);
+    for (int trial = 0; trial < 100; trial++) {
+      int[] shape = new int[1 + random.nextInt(4)];
+      long expected = 1;
+      for (int d = 0; d < shape.length; d++) {
+        shape[d] = random.nextInt(50);
+        expected *= shape[d];
+      }
+      long[] longShape = java.util.Arrays.stream(shape).asLongStream().toArray();
+      assertEquals(expected, Shapes.elementCount(shape));
+      assertEquals(expected, Shapes.elementCount(longShape));
+      assertEquals(expected, Shapes.intElementCount(shape));
+    }
+    assertEquals(1, Shapes.elementCount(new int[0]), "an empty product is 1");
+  }
+
+  @Test
+  void overflowAndNegativeExtentsAreRefused() {
+    assertThrows(ArithmeticException.class,
+        () -> Shapes.elementCount(new long[] {1L << 40, 1L << 40}));
+    assertThrows(ArithmeticException.class,
+        () -> Shapes.intElementCount(new int[] {1 << 16, 1 << 16}));
+    assertThrows(IllegalArgumentException.class, () -> Shapes.elementCount(new int[] {4, -1}));
+  }
+}
