@@ -4,14 +4,16 @@ import it.unimi.dsi.fastutil.longs.LongOpenHashSet;
 
 /**
  * A hash set of packed pairs ({@link #pair}): fastutil's open-addressing {@link LongOpenHashSet}
- * (linear probing, no boxing), expected {@code O(1)} per operation. Not thread-safe.
+ * (linear probing, no boxing) at load factor 1/2, which measured as fast as the hand-written
+ * set it replaced (at fastutil's default 3/4 it was slower). Expected {@code O(1)} per
+ * operation. Not thread-safe.
  */
 final class PairSet extends LongOpenHashSet {
   private static final long serialVersionUID = 1L;
 
   /** An empty set sized for about {@code expected} pairs. */
   PairSet(int expected) {
-    super(Math.max(expected, 0));
+    super(Math.max(expected, 0), 0.5f);
   }
 
   /** Packs an unordered pair of non-negative ints: the smaller in the high half. */
