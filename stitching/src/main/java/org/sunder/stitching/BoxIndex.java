@@ -1,25 +1,19 @@
 package org.sunder.stitching;
 
+import org.sunder.blockwise.grid.Shapes;
+
 /** Index arithmetic between a box and a sub-box of it (memory order, dimension 0 fastest). */
 final class BoxIndex {
   private BoxIndex() {}
 
-  static int voxelCount(int[] shape) {
-    int count = 1;
-    for (int s : shape) {
-      count = Math.multiplyExact(count, s);
-    }
-    return count;
-  }
-
   /**
    * For every voxel of the sub-box ({@code subShape} starting at {@code origin} inside a box of
    * {@code outerShape}), in the sub-box's order, its index in the outer box. Allocates
-   * {@code voxelCount(subShape)} ints; O(that).
+   * {@code Shapes.intElementCount(subShape)} ints; O(that).
    */
   static int[] subBoxIndices(int[] outerShape, int[] origin, int[] subShape) {
     int n = outerShape.length;
-    int[] indices = new int[voxelCount(subShape)];
+    int[] indices = new int[Shapes.intElementCount(subShape)];
     int[] stride = new int[n];
     int step = 1;
     for (int d = 0; d < n; d++) {

@@ -7,6 +7,7 @@ import org.sunder.blockwise.graph.RegionGraph;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.SettledPartition;
 
@@ -63,10 +64,7 @@ final class CoreSegments {
       lowEnd[d] = min[d] > 0 ? reach[d] : 0;
       highStart[d] = max[d] < grid.volumeShape()[d] - 1 ? shape[d] - reach[d] : Integer.MAX_VALUE;
     }
-    int voxels = 1;
-    for (int extent : shape) {
-      voxels *= extent;
-    }
+    int voxels = Shapes.intElementCount(shape);
     byte[] open = new byte[voxels];
     int[] p = new int[n];
     for (int i = 0; i < voxels; i++) {
@@ -108,10 +106,7 @@ final class CoreSegments {
       lowEnd[d] = origin + (lowFace ? reach[d] : 0);
       highStart[d] = origin + coreShape[d] - (highFace ? reach[d] : 0);
     }
-    int voxels = 1;
-    for (int extent : shape) {
-      voxels *= extent;
-    }
+    int voxels = Shapes.intElementCount(shape);
     byte[] partial = new byte[voxels];
     int[] p = new int[n];
     for (int i = 0; i < voxels; i++) {

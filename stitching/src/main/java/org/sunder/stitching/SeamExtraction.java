@@ -5,6 +5,7 @@ import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
+import org.sunder.blockwise.grid.Shapes;
 
 /**
  * The edges a face owns (see {@link SeamEdges} for the ownership rule), aggregated per pair of
@@ -159,7 +160,7 @@ final class SeamExtraction {
 
   private static int[] blockIndices(BlockGrid grid, long[] min, int[] shape) {
     int n = shape.length;
-    int[] blockOf = new int[BoxIndex.voxelCount(shape)];
+    int[] blockOf = new int[Shapes.intElementCount(shape)];
     long[] gridShape = grid.gridShape();
     long[][] partial = new long[n][];
     long stride = 1;

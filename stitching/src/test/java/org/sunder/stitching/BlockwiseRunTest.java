@@ -174,25 +174,6 @@ class BlockwiseRunTest {
   }
 
   /**
-   * On exact affinities the voxel methods' blockwise result is their one-block result
-   * (variation of information 0). The fragment methods do not reach this on this scene: its thin
-   * fibres have no interior, so their fragments depend on the box they were computed in (one
-   * block: 2.6 and 2.1 bits from ground truth; blockwise 0.83 and 0.30 bits from one block,
-   * measured with this seed).
-   */
-  @Test
-  void exactAffinitiesGiveTheOneBlockResultForTheVoxelMethods() {
-    TissueScene scene = TissueScene.small(12, SHAPE, Degradation.none());
-    for (PartitionConfig config : List.of(MWS, MEAN)) {
-      StitchingSetup setup = stage(scene, "identity-" + config.method(), StorageFormat.ZARR,
-          BLOCK, HALO, config);
-      assertEquals(8, setup.grid().blockCount());
-      InProcessRunner.run(setup);
-      assertEqualUpToRenaming(whole(scene, config), SceneStore.readLabels(setup));
-    }
-  }
-
-  /**
    * Realistic predictions (the compact-cells preset, 128 x 128 x 48 voxels, 8 blocks): the
    * fragment methods cut no more objects at block faces than at the control planes (plus the
    * audit's tolerance), and stay within 0.02 bits of their one-block result. Before their

@@ -10,6 +10,7 @@ import net.imglib2.type.numeric.RealType;
 import net.imglib2.type.numeric.integer.UnsignedByteType;
 import net.imglib2.type.numeric.real.FloatType;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.grid.Shapes;
 
 /**
  * A box of affinities: its global position, its shape, one channel per offset, and an optional
@@ -41,7 +42,7 @@ public final class AffinityBlock {
     this.floats = floats;
     this.bytes = bytes;
     this.mask = mask;
-    this.voxelCount = voxelCount(shape);
+    this.voxelCount = Shapes.intElementCount(shape);
   }
 
   /**
@@ -79,7 +80,7 @@ public final class AffinityBlock {
   public static AffinityBlock ofFloats(float[] values, int[] shape, long[] globalMin,
       Offsets offsets, byte[] maskOrNull) {
     checkShape(shape, offsets.count(), globalMin, offsets);
-    int voxels = voxelCount(shape);
+    int voxels = Shapes.intElementCount(shape);
     checkLength(values.length, voxels, offsets.count());
     checkMask(maskOrNull, voxels);
     for (int i = 0; i < values.length; i++) {
@@ -98,7 +99,7 @@ public final class AffinityBlock {
   public static AffinityBlock ofBytes(byte[] values, int[] shape, long[] globalMin,
       Offsets offsets, byte[] maskOrNull) {
     checkShape(shape, offsets.count(), globalMin, offsets);
-    int voxels = voxelCount(shape);
+    int voxels = Shapes.intElementCount(shape);
     checkLength(values.length, voxels, offsets.count());
     checkMask(maskOrNull, voxels);
     return new AffinityBlock(globalMin, shape, offsets, null, values, maskOrNull);
@@ -202,14 +203,6 @@ public final class AffinityBlock {
     return p;
   }
 
-  private static int voxelCount(int[] shape) {
-    long count = 1;
-    for (int s : shape) {
-      count *= s;
-    }
-    return Math.toIntExact(count);
-  }
-
   private static void checkShape(int[] shape, int channels, long[] globalMin, Offsets offsets) {
     offsets.requireDimension(shape.length, "offsets");
     if (globalMin.length != shape.length) {
@@ -225,7 +218,7 @@ public final class AffinityBlock {
       throw input("affinities: " + channels + " channel(s) but " + offsets.count()
           + " offset(s); expected one channel per offset");
     }
-    if ((long) voxelCount(shape) * channels > Integer.MAX_VALUE - 8) {
+    if (Shapes.elementCount(shape) * channels > Integer.MAX_VALUE - 8) {
       throw input("affinities: box " + Arrays.toString(shape) + " x " + channels
           + " channels exceeds 2^31 values; use smaller blocks");
     }
@@ -255,7 +248,7 @@ public final class AffinityBlock {
             + " at axis " + d);
       }
     }
-    byte[] mask = new byte[voxelCount(shape)];
+    byte[] mask = new byte[Shapes.intElementCount(shape)];
     Cursor<?> cursor = maskImg.cursor();
     int i = 0;
     while (cursor.hasNext()) {

@@ -1,5 +1,6 @@
 package org.sunder.blockwise.graph;
 
+import it.unimi.dsi.fastutil.ints.IntArrays;
 import java.io.Serializable;
 import java.util.Arrays;
 import java.util.List;
@@ -76,7 +77,7 @@ public final class EdgeStatistics implements Serializable {
     for (int i = 0; i < n; i++) {
       order[i] = i;
     }
-    IndexSort.sort(order, (x, y) -> {
+    IntArrays.mergeSort(order, (x, y) -> {
       int c = Long.compare(a[x], a[y]);
       c = c != 0 ? c : Long.compare(b[x], b[y]);
       c = c != 0 ? c : Double.compare(sum[x], sum[y]);
@@ -329,7 +330,7 @@ public final class EdgeStatistics implements Serializable {
       }
       long[] a = rows.u;
       long[] b = rows.v;
-      IndexSort.sort(order, (x, y) -> compare(a[x], b[x], a[y], b[y]));
+      IntArrays.mergeSort(order, (x, y) -> compare(a[x], b[x], a[y], b[y]));
       return collapse(order, rows.u, rows.v, rows.sum, rows.count, rows.min, rows.max);
     }
   }

@@ -330,11 +330,7 @@ public final class BlockGrid implements Serializable {
 
   /** The total number of chunks. */
   public long chunkCount() {
-    long count = 1;
-    for (long c : chunkGridShape()) {
-      count *= c;
-    }
-    return count;
+    return Shapes.elementCount(chunkGridShape());
   }
 
   /** The grid position of chunk {@code index} (dimension 0 fastest; allocates). */

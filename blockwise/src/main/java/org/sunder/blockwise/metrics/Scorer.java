@@ -1,5 +1,7 @@
 package org.sunder.blockwise.metrics;
 
+import it.unimi.dsi.fastutil.ints.IntArrays;
+import it.unimi.dsi.fastutil.ints.IntComparator;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
@@ -155,7 +157,7 @@ public final class Scorer {
       }
       misassigned[k] = total - largest;
     }
-    int[] ranked = IndexOrder.sorted(groups.size(), (x, y) -> {
+    int[] ranked = sortedIndices(groups.size(), (x, y) -> {
       int byError = Long.compare(misassigned[y], misassigned[x]);
       if (byError != 0) {
         return byError;
@@ -175,7 +177,7 @@ public final class Scorer {
   private ObjectOverlaps overlaps(int[] range, long[] key, long[] other, long[] count,
       int[] order) {
     int parts = range[1] - range[0];
-    int[] byVoxels = IndexOrder.sorted(parts, (x, y) -> {
+    int[] byVoxels = sortedIndices(parts, (x, y) -> {
       int a = order[range[0] + x];
       int b = order[range[0] + y];
       int bySize = Long.compare(count[b], count[a]);
@@ -202,5 +204,18 @@ public final class Scorer {
 
   private static double xlog2x(double x) {
     return x <= 1 ? 0 : x * (Math.log(x) * INVERSE_LN_2);
+  }
+
+  /**
+   * {@code 0 .. n-1} in the order of {@code comparison} (a stable merge sort, {@code O(n log n)}
+   * comparisons; allocates the result and a buffer of {@code n} ints).
+   */
+  private static int[] sortedIndices(int n, IntComparator comparison) {
+    int[] index = new int[n];
+    for (int i = 0; i < n; i++) {
+      index[i] = i;
+    }
+    IntArrays.mergeSort(index, comparison);
+    return index;
   }
 }

@@ -4,6 +4,7 @@ import java.io.Serializable;
 import java.util.Arrays;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.grid.Shapes;
 
 /**
  * The counts behind a {@link SeamAudit}, accumulated box by box and mergeable, so that a huge
@@ -77,10 +78,7 @@ public final class SeamTally implements Serializable {
       throw new SunderException(ErrorKind.INVALID_INPUT, "seam audit: axis " + axis
           + " outside 0.." + (dims.length - 1));
     }
-    long voxels = 1;
-    for (int dim : dims) {
-      voxels *= dim;
-    }
+    long voxels = Shapes.elementCount(dims);
     requireLength("segmentation", segmentation, voxels);
     if (withGroundTruth) {
       requireLength("ground truth", groundTruth, voxels);

@@ -49,7 +49,7 @@ public final class SeededWatershed {
     int[] labels = new int[n];
     FloodQueue queue = buckets ? LevelQueue.forPriorities(boundary, MAX_LEVELS) : null;
     if (queue == null) {
-      queue = new VoxelQueue(boundary, n / 4);
+      queue = VoxelQueue.inArrivalOrder(boundary, n / 4);
     }
     int largest = 0;
     for (int i = 0; i < n; i++) {

@@ -15,16 +15,23 @@ import org.sunder.blockwise.ErrorKind;
 /**
  * Writes a file whole or not at all: the bytes go to a hidden temporary file in the target's
  * directory (named {@code .<name>.<random>.tmp}), which is then renamed over the target. A reader
- * sees the old content or the new, never a part; a failed write leaves no file behind.
+ * sees the old content or the new, never a part; a failed write leaves no file behind. The one
+ * atomic write of the project (the store, JSON metadata and the work-dir ledger use it).
+ * Thread-safe: concurrent writers of one target each rename a whole file; the last rename wins.
  */
-final class AtomicWrites {
+public final class AtomicWrites {
   private static final java.util.regex.Pattern TEMPORARY =
       java.util.regex.Pattern.compile("\\..+\\.[0-9a-z]{1,13}\\.tmp");
 
   private AtomicWrites() {}
 
-  /** Writes {@code parts} one after the other to {@code target}, creating parent directories. */
-  static void write(Path target, ByteBuffer... parts) {
+  /**
+   * Writes {@code parts} one after the other to {@code target}, creating parent directories.
+   *
+   * @throws StoreException of kind {@link ErrorKind#STORAGE} naming {@code target} when the
+   *     directory or file cannot be written
+   */
+  public static void write(Path target, ByteBuffer... parts) {
     Path dir = target.toAbsolutePath().getParent();
     Path temp = dir.resolve("." + target.getFileName() + "."
         + Long.toUnsignedString(ThreadLocalRandom.current().nextLong(), 36) + ".tmp");
@@ -68,12 +75,12 @@ final class AtomicWrites {
   }
 
   /** Whether {@code fileName} has the form of the temporaries {@link #write} creates. */
-  static boolean isTemporary(String fileName) {
+  public static boolean isTemporary(String fileName) {
     return TEMPORARY.matcher(fileName).matches();
   }
 
   /** Reads a whole file, or returns null if it does not exist. */
-  static byte[] readIfExists(Path file) {
+  public static byte[] readIfExists(Path file) {
     try {
       return Files.readAllBytes(file);
     } catch (NoSuchFileException e) {

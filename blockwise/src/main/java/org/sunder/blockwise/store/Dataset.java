@@ -12,6 +12,7 @@ import net.imglib2.Interval;
 import net.imglib2.img.array.ArrayImg;
 import net.imglib2.type.NativeType;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.store.codec.Codec;
 import org.sunder.blockwise.store.codec.Codecs;
 
@@ -105,7 +106,7 @@ public final class Dataset {
     if (isChunk(min, dims, grid)) {
       return (ArrayImg<T, ?>) readChunk(grid);
     }
-    Object target = ElementArrays.allocate(spec.dataType(), product(dims));
+    Object target = ElementArrays.allocate(spec.dataType(), Shapes.intElementCount(dims));
     forEachChunk(min, max, chunk -> {
       int[] clipped = clippedDims(chunk);
       int[] from = new int[n];
@@ -202,8 +203,9 @@ public final class Dataset {
     Object elements;
     if (Arrays.equals(size, clipped)) {
       elements = Arrays.equals(stored, clipped)
-          ? ElementArrays.allocate(spec.dataType(), product(stored))
-          : ElementArrays.allocate(spec.dataType(), product(stored), spec.fillValue());
+          ? ElementArrays.allocate(spec.dataType(), Shapes.intElementCount(stored))
+          : ElementArrays.allocate(spec.dataType(),
+              Shapes.intElementCount(stored), spec.fillValue());
     } else {
       elements = storedElements(chunk, clipped, stored);
     }
@@ -217,7 +219,8 @@ public final class Dataset {
     if (decoded != null && Arrays.equals(decoded.dims(), stored)) {
       return decoded.elements();
     }
-    Object elements = ElementArrays.allocate(spec.dataType(), product(stored), spec.fillValue());
+    Object elements = ElementArrays.allocate(spec.dataType(),
+        Shapes.intElementCount(stored), spec.fillValue());
     if (decoded != null) {
       BoxCopy.copy(decoded.elements(), decoded.dims(), new int[stored.length], elements, stored,
           new int[stored.length], clipped);
@@ -235,11 +238,12 @@ public final class Dataset {
     ChunkFormat.DecodedChunk decoded = load(gridPosition, clipped);
     Object elements;
     if (decoded == null) {
-      elements = ElementArrays.allocate(spec.dataType(), product(clipped), spec.fillValue());
+      elements = ElementArrays.allocate(spec.dataType(),
+          Shapes.intElementCount(clipped), spec.fillValue());
     } else if (Arrays.equals(decoded.dims(), clipped)) {
       elements = decoded.elements();
     } else {
-      elements = ElementArrays.allocate(spec.dataType(), product(clipped));
+      elements = ElementArrays.allocate(spec.dataType(), Shapes.intElementCount(clipped));
       int[] origin = new int[clipped.length];
       BoxCopy.copy(decoded.elements(), decoded.dims(), origin, elements, clipped, origin,
           clipped);
@@ -263,7 +267,8 @@ public final class Dataset {
       store(gridPosition, source, stored);
       return;
     }
-    Object elements = ElementArrays.allocate(spec.dataType(), product(stored), spec.fillValue());
+    Object elements = ElementArrays.allocate(spec.dataType(),
+        Shapes.intElementCount(stored), spec.fillValue());
     int[] origin = new int[clipped.length];
     BoxCopy.copy(source, clipped, origin, elements, stored, origin, clipped);
     store(gridPosition, elements, stored);
@@ -442,13 +447,6 @@ public final class Dataset {
     }
   }
 
-  private static int product(int[] dims) {
-    int p = 1;
-    for (int size : dims) {
-      p *= size;
-    }
-    return p;
-  }
 
   private static long[] toLong(int[] dims) {
     long[] out = new long[dims.length];

@@ -4,6 +4,7 @@ import java.io.Serializable;
 import java.util.Arrays;
 import java.util.Objects;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.grid.Shapes;
 
 /**
  * The layout of a dataset: shape and chunk shape in memory order (dimension 0 fastest), element
@@ -103,11 +104,7 @@ public record DatasetSpec(long[] shape, int[] chunkShape, DataType dataType, Cod
 
   /** Number of elements in one full chunk. */
   public int chunkElements() {
-    int n = 1;
-    for (int size : chunkShape) {
-      n *= size;
-    }
-    return n;
+    return Shapes.intElementCount(chunkShape);
   }
 
   /** Chunks per dimension (the last may be cut by the volume border); allocates. */

@@ -1,6 +1,7 @@
 package org.sunder.blockwise.synth;
 
 import java.util.Arrays;
+import org.sunder.blockwise.partition.VoxelQueue;
 
 /**
  * Gives every unlabelled voxel (label 0) the label of the nearest labelled voxel, nearest along
@@ -16,7 +17,7 @@ final class GrowthFill {
     int plane = nx * ny;
     float[] dist = new float[n];
     Arrays.fill(dist, Float.POSITIVE_INFINITY);
-    VoxelHeap heap = new VoxelHeap(1024);
+    VoxelQueue heap = new VoxelQueue(1024);
     for (int z = 0, i = 0; z < nz; z++) {
       for (int y = 0; y < ny; y++) {
         for (int x = 0; x < nx; x++, i++) {
@@ -33,7 +34,7 @@ final class GrowthFill {
     int[] extent = {nx, ny, nz};
     int[] coord = new int[3];
     while (!heap.isEmpty()) {
-      float d = heap.topKey();
+      float d = heap.topPriority();
       int i = heap.pop();
       if (d > dist[i]) {
         continue;

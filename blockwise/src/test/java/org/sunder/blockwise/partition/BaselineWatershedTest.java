@@ -5,6 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.sunder.blockwise.partition.PartitionerContract.assertValidSegmentation;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -78,7 +79,7 @@ class BaselineWatershedTest {
           Offsets.of(OFFSETS), mask);
       Segmentation segmentation = baseline.partition(block);
       String what = "trial " + trial;
-      assertValidPartition(segmentation, shape, mask, what);
+      assertValidSegmentation(segmentation, mask, VoxelBox.size(shape), what);
       assertEquals(segmentation, baseline.partition(block), what + ": second run differs");
       assertEquals(segmentation, baseline.partition(affinities.clone(), shape, OFFSETS,
           mask == null ? null : mask.clone()), what + ": raw overload differs");
@@ -104,7 +105,7 @@ class BaselineWatershedTest {
     BaselineWatershed baseline = new BaselineWatershed();
     Segmentation fromBytes = baseline.partition(AffinityBlock.ofBytes(bytes, shape, new long[3],
         Offsets.of(OFFSETS), mask));
-    assertValidPartition(fromBytes, shape, mask, "bytes");
+    assertValidSegmentation(fromBytes, mask, VoxelBox.size(shape), "bytes");
     assertEquals(baseline.partition(floats, shape, OFFSETS, mask), fromBytes);
     assertTrue(fromBytes.segmentCount() > 1, "a smooth field gives several basins");
   }
@@ -288,20 +289,6 @@ class BaselineWatershedTest {
   }
 
   // --- checks -----------------------------------------------------------------------------
-
-  private static void assertValidPartition(Segmentation s, int[] shape, byte[] mask,
-      String what) {
-    int[] labels = s.labels();
-    assertEquals(VoxelBox.size(shape), labels.length, what);
-    int seen = 0;
-    for (int i = 0; i < labels.length; i++) {
-      boolean inside = mask == null || mask[i] != 0;
-      assertEquals(inside, labels[i] > 0, what + ": voxel " + i + " label " + labels[i]);
-      assertTrue(labels[i] <= seen + 1, what + ": labels not in order of first voxel at " + i);
-      seen = Math.max(seen, labels[i]);
-    }
-    assertEquals(seen, s.segmentCount(), what);
-  }
 
   /** Every seed component in one segment, no segment with two. */
   private static void assertEachSeedComponentInItsOwnSegment(int[] seeds, int[] labels,

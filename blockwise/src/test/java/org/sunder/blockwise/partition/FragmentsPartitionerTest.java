@@ -4,6 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertInstanceOf;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.sunder.blockwise.partition.PartitionerContract.assertValidSegmentation;
 
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.util.HashMap;
@@ -29,7 +30,7 @@ class FragmentsPartitionerTest {
     for (String method : new String[] {"fragments-multicut", "fragments-agglomeration"}) {
       Partitioner p = PartitionConfig.fromJson("{\"method\": \"" + method + "\"}").create();
       Segmentation s = p.partition(block);
-      assertValid(s, mask);
+      assertValidSegmentation(s, mask, VoxelBox.size(SHAPE), method);
       assertEquals(s, p.partition(block), method + " is deterministic");
       double agreement = majorityAgreement(truth, s.labels(), mask);
       assertTrue(agreement > 0.95, method + ": " + agreement);
@@ -45,7 +46,7 @@ class FragmentsPartitionerTest {
     PartitionConfig constrained = PartitionConfig.fromJson("{\"method\": "
         + "\"fragments-agglomeration\", \"linkage\": \"mean\", \"constraints\": true}");
     Segmentation s = constrained.create().partition(bytes);
-    assertValid(s, null);
+    assertValidSegmentation(s, null, VoxelBox.size(SHAPE), "constrained, 8-bit");
     assertTrue(majorityAgreement(truth, s.labels(), null) > 0.95);
     PartitionConfig perSlice = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\","
         + " \"fragments\": {\"perSlice\": true, \"voxelSize\": [3.0, 1.0, 1.0],"
@@ -60,7 +61,7 @@ class FragmentsPartitionerTest {
       assertTrue(z == null || z == i / plane, "a per-slice fragment spans slices");
     }
     s = perSlice.create().partition(bytes);
-    assertValid(s, null);
+    assertValidSegmentation(s, null, VoxelBox.size(SHAPE), "per-slice fragments");
     assertTrue(majorityAgreement(truth, s.labels(), null) > 0.95);
   }
 
@@ -74,7 +75,7 @@ class FragmentsPartitionerTest {
     Partitioner p = config.create();
     assertInstanceOf(SizeFilteredPartitioner.class, p);
     Segmentation s = p.partition(block);
-    assertValid(s, null);
+    assertValidSegmentation(s, null, VoxelBox.size(SHAPE), "minimum segment size");
     int[] size = new int[s.segmentCount() + 1];
     for (int l : s.labels()) {
       size[l]++;
@@ -156,17 +157,6 @@ class FragmentsPartitionerTest {
       VoxelBox.advance(c, SHAPE);
     }
     return mask;
-  }
-
-  private static void assertValid(Segmentation s, byte[] mask) {
-    int next = 0;
-    for (int i = 0; i < s.labels().length; i++) {
-      int l = s.labels()[i];
-      assertEquals(mask != null && mask[i] == 0, l == 0, "voxel " + i);
-      assertTrue(l <= next + 1, "numbered in order of first voxel");
-      next = Math.max(next, l);
-    }
-    assertEquals(next, s.segmentCount());
   }
 
   /** Fraction of voxels whose segment's majority object is their own object. */

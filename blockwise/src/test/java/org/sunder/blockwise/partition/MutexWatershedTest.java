@@ -3,7 +3,9 @@ package org.sunder.blockwise.partition;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.util.HashSet;
 import java.util.Random;
+import java.util.Set;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
@@ -97,7 +99,11 @@ class MutexWatershedTest {
     int n = 11 * 6 * 4;
     byte[] bytes = new byte[n * 6];
     for (int i = 0; i < bytes.length; i++) {
-      bytes[i] = (byte) random.nextInt(24);  // few distinct values: many ties
+      int b = 11 * random.nextInt(24);  // few distinct values: many ties
+      // channels 3..5 are the long-range (repulsive) ones: drawing 255 - b there half the time
+      // gives attractive weight b / 255 and repulsive weight -(1 - (255 - b) / 255) of equal
+      // magnitude, the tie between an attractive and a repulsive edge
+      bytes[i] = (byte) (i >= 3 * n && random.nextBoolean() ? 255 - b : b);
     }
     float[] floats = new float[bytes.length];
     for (int i = 0; i < bytes.length; i++) {
@@ -112,6 +118,16 @@ class MutexWatershedTest {
       assertEquals(f, q);
       assertTrue(q.segmentCount() > 1 && q.segmentCount() < n);
     }
+    GridGraph byRole = GridGraph.of(AffinityBlock.ofBytes(bytes, shape, new long[3],
+        PartitionFixtures.OFFSETS, null), WeightRule.byChannelRole(), Subsampling.none());
+    Set<Float> attractive = new HashSet<>();
+    Set<Float> repulsive = new HashSet<>();
+    byRole.forEachEdge(
+        (source, target, k, w) -> (w > 0 ? attractive : repulsive).add(Math.abs(w)));
+    attractive.retainAll(repulsive);
+    attractive.remove(0f);
+    assertTrue(attractive.size() > 3, "equal attractive and repulsive magnitudes drawn: "
+        + attractive);
   }
 
   @Test

@@ -1,6 +1,7 @@
 package org.sunder.blockwise.synth;
 
 import java.util.Arrays;
+import org.sunder.blockwise.partition.VoxelQueue;
 
 /**
  * Shape measures of every object of a label volume, for tests: voxel count, mean physical
@@ -50,7 +51,7 @@ final class ObjectShapes {
   private void measureBoundaryDistances() {
     float[] dist = new float[labels.length];
     Arrays.fill(dist, Float.POSITIVE_INFINITY);
-    VoxelHeap heap = new VoxelHeap(1024);
+    VoxelQueue heap = new VoxelQueue(1024);
     for (int i = 0; i < labels.length; i++) {
       if (labels[i] != 0 && onBoundary(i)) {
         float d = (float) (0.5 * Math.min(size[0], Math.min(size[1], size[2])));
@@ -95,7 +96,7 @@ final class ObjectShapes {
 
   /** Dijkstra inside the start's object; the farthest voxel; leaves dist all infinite. */
   private Far farthest(int start, float[] dist) {
-    VoxelHeap heap = new VoxelHeap(64);
+    VoxelQueue heap = new VoxelQueue(64);
     dist[start] = 0;
     heap.push(0, start);
     int[] reached = sweep(heap, dist, true);
@@ -112,11 +113,11 @@ final class ObjectShapes {
     return result;
   }
 
-  private int[] sweep(VoxelHeap heap, float[] dist, boolean track) {
+  private int[] sweep(VoxelQueue heap, float[] dist, boolean track) {
     int[] reached = new int[16];
     int count = 0;
     while (!heap.isEmpty()) {
-      float d = heap.topKey();
+      float d = heap.topPriority();
       int i = heap.pop();
       if (d > dist[i]) {
         continue;

@@ -1,6 +1,7 @@
 package org.sunder.spark.workdir;
 
 import java.io.IOException;
+import java.nio.ByteBuffer;
 import java.nio.file.DirectoryStream;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
@@ -8,6 +9,7 @@ import java.nio.file.Path;
 import java.util.BitSet;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.store.AtomicWrites;
 import org.sunder.spark.stage.Stage;
 
 /**
@@ -38,7 +40,7 @@ public final class StageLedger {
 
   /** Records that task {@code index} finished, with its result bytes. */
   public void record(int index, byte[] result) {
-    AtomicFile.write(dir.resolve(index + SUFFIX), result);
+    AtomicWrites.write(dir.resolve(index + SUFFIX), ByteBuffer.wrap(result));
   }
 
   /** Whether task {@code index} has a record. */

@@ -3,12 +3,14 @@ package org.sunder.spark.workdir;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.IOException;
+import java.nio.ByteBuffer;
 import java.nio.file.DirectoryStream;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Optional;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.store.AtomicWrites;
 import org.sunder.spark.stage.Stage;
 
 /**
@@ -65,7 +67,8 @@ public final class WorkDir {
   /** Writes the manifest atomically. */
   public void writeManifest(Manifest manifest) {
     try {
-      AtomicFile.write(root.resolve(MANIFEST), JSON.writeValueAsBytes(manifest));
+      byte[] bytes = JSON.writeValueAsBytes(manifest);
+      AtomicWrites.write(root.resolve(MANIFEST), ByteBuffer.wrap(bytes));
     } catch (IOException e) {
       throw new SunderException(ErrorKind.INTERNAL, "cannot encode the manifest: " + e, e);
     }

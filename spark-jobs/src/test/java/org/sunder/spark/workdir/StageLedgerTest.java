@@ -20,7 +20,7 @@ class StageLedgerTest {
     assertTrue(ledger.finished().isEmpty());
     ledger.record(3, new byte[] {1, 2});
     ledger.record(11, new byte[0]);
-    Files.writeString(ledger.dir().resolve(".7.done.tmp-abc"), "half written");
+    Files.writeString(ledger.dir().resolve(".7.done.2x8kq0wz1m.tmp"), "half written");
     BitSet expected = new BitSet();
     expected.set(3);
     expected.set(11);

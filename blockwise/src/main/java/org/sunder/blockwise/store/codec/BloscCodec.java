@@ -111,6 +111,10 @@ final class BloscCodec implements Codec {
       throw new IOException("blosc header has blocksize " + blocksize + " and typesize "
           + typesize + "; expected both positive");
     }
+    if (blocksize > Integer.MAX_VALUE - 8) {
+      throw new IOException("blosc header has blocksize " + blocksize
+          + "; expected at most 2^31 - 9 bytes");
+    }
     int format = flags >>> 5;
     if (format >= FORMAT_NAMES.length) {
       throw new IOException("blosc header names compressor format " + format
@@ -155,8 +159,10 @@ final class BloscCodec implements Codec {
         }
         boolean shuffled = ((flags & FLAG_SHUFFLE) != 0 && typesize > 1)
             || (flags & FLAG_BITSHUFFLE) != 0;
-        byte[] tmp = shuffled ? new byte[blocksize] : null;
-        byte[] scratch = (flags & FLAG_BITSHUFFLE) != 0 ? new byte[blocksize] : null;
+        // no block is longer than the chunk, whatever a damaged header says
+        int longest = Math.min(blocksize, nbytes);
+        byte[] tmp = shuffled ? new byte[longest] : null;
+        byte[] scratch = (flags & FLAG_BITSHUFFLE) != 0 ? new byte[longest] : null;
         ByteBuffer starts = ByteBuffer.wrap(src, base + HEADER, 4 * nblocks)
             .order(ByteOrder.LITTLE_ENDIAN);
         for (int j = 0; j < nblocks; j++) {
