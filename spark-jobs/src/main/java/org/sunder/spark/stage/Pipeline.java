@@ -19,6 +19,7 @@ import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
 import org.sunder.spark.progress.ProgressTracker;
+import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunReport;
 import org.sunder.spark.run.RunSettings;
@@ -116,8 +117,10 @@ public final class Pipeline {
     if (complete && (stages.contains(Stage.RELABEL) || stages.contains(Stage.EVALUATE))) {
       seams = SeamAuditJob.audit(sc, auditTarget(settings), settings.blockShape());
     }
-    return new RunReport(settings, reports, solved == null ? null : solved.report(), scores,
-        seams, (System.nanoTime() - start) / 1e9);
+    RunReport report = new RunReport(settings, reports, solved == null ? null : solved.report(),
+        scores, seams, (System.nanoTime() - start) / 1e9);
+    RunReportWriter.writeAfterRun(sc, settings, work, seams, scores, out);
+    return report;
   }
 
   /** The final segmentation, with the ground truth when configured; masked voxels are 0 in it. */
@@ -127,7 +130,9 @@ public final class Pipeline {
         s.ignoreBackground());
   }
 
-  private SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
+  /** The scores from the evaluate stage's records of {@code blocks} blocks. */
+  public static SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
+    PayloadCodec codec = new PayloadCodec();
     ContingencyTable table = new ContingencyTable();
     for (int b = 0; b < blocks; b++) {
       ContingencyTable.Pairs pairs = codec.decode(work.ledger(Stage.EVALUATE).read(b),
