@@ -4,7 +4,9 @@ import java.awt.BasicStroke;
 import java.awt.Color;
 import java.awt.image.BufferedImage;
 import org.jfree.chart.JFreeChart;
+import java.text.DecimalFormat;
 import org.jfree.chart.axis.LogAxis;
+import org.jfree.chart.axis.NumberTickUnit;
 import org.jfree.chart.plot.XYPlot;
 import org.jfree.chart.renderer.xy.XYLineAndShapeRenderer;
 import org.jfree.data.xy.XYSeries;
@@ -13,6 +15,17 @@ import org.jfree.data.xy.XYSeriesCollection;
 /** The report's charts, drawn by JFreeChart. */
 final class Charts {
   private Charts() {}
+
+  /** A base-10 log axis with a tick per decade, labelled as plain numbers. */
+  private static LogAxis decades(String label, double smallest) {
+    LogAxis axis = new LogAxis(label);
+    axis.setBase(10);
+    axis.setSmallestValue(smallest);
+    axis.setTickUnit(new NumberTickUnit(1.0));
+    axis.setNumberFormatOverride(new DecimalFormat("#,##0"));
+    axis.setMinorTickMarksVisible(true);
+    return axis;
+  }
 
   /**
    * The segment size histogram on log–log axes: one point per power-of-two size bin that holds
@@ -27,12 +40,8 @@ final class Charts {
         series.add(Math.pow(2, b + 0.5), counts[b]);
       }
     }
-    LogAxis size = new LogAxis("segment size (voxels, bins of factor 2)");
-    size.setBase(10);
-    size.setSmallestValue(1);
-    LogAxis count = new LogAxis("segments");
-    count.setBase(10);
-    count.setSmallestValue(0.5);
+    LogAxis size = decades("segment size (voxels, bins of factor 2)", 1);
+    LogAxis count = decades("segments", 0.5);
     XYLineAndShapeRenderer renderer = new XYLineAndShapeRenderer(true, true);
     renderer.setSeriesPaint(0, new Color(0x1f, 0x5f, 0xa8));
     renderer.setSeriesStroke(0, new BasicStroke(1.5f));

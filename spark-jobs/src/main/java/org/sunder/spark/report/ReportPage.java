@@ -53,18 +53,23 @@ final class ReportPage {
     return this;
   }
 
-  /** A table; the first column is left-aligned, the others right-aligned. */
+  /** A table; the first column is left-aligned, the others right-aligned (numbers). */
   ReportPage table(List<String> header, List<List<String>> rows) {
+    return table(header, rows, 1);
+  }
+
+  /** A table whose first {@code leftColumns} columns are left-aligned (text). */
+  ReportPage table(List<String> header, List<List<String>> rows, int leftColumns) {
     html.append("<table><tr>");
     for (int i = 0; i < header.size(); i++) {
-      html.append(i == 0 ? "<th class=\"l\">" : "<th>").append(escape(header.get(i)))
+      html.append(i < leftColumns ? "<th class=\"l\">" : "<th>").append(escape(header.get(i)))
           .append("</th>");
     }
     html.append("</tr>\n");
     for (List<String> row : rows) {
       html.append("<tr>");
       for (int i = 0; i < row.size(); i++) {
-        html.append(i == 0 ? "<td class=\"l\">" : "<td>").append(escape(row.get(i)))
+        html.append(i < leftColumns ? "<td class=\"l\">" : "<td>").append(escape(row.get(i)))
             .append("</td>");
       }
       html.append("</tr>\n");

@@ -33,6 +33,8 @@ import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.BlockSummary;
 import org.sunder.stitching.GlobalSolve;
+import org.sunder.stitching.LabelPyramid;
+import org.sunder.spark.pyramid.PyramidStep;
 import org.sunder.stitching.SolveDecision;
 
 /**
@@ -153,7 +155,7 @@ public final class RunReportWriter {
     rows.add(List.of("ground truth", s.evaluates() ? s.truthContainer() + " : " + s.groundTruth()
         : "none"));
     rows.add(List.of("work dir", s.workDir()));
-    page.table(List.of("setting", "value"), rows);
+    page.table(List.of("setting", "value"), rows, 2);
     Manifest manifest = work.manifest().orElse(null);
     if (manifest != null) {
       try {
@@ -185,6 +187,7 @@ public final class RunReportWriter {
         case SEAMS -> StageFigures.of(work.ledger(stage), grid.faceCount(),
             face -> 2 * grid.face(face).area());
         case SOLVE -> StageFigures.of(work.ledger(stage), 1, task -> s.voxelCount());
+        case PYRAMID -> pyramidFigures();
         default -> StageFigures.of(work.ledger(stage), grid.blockCount(), this::coreVoxels);
       };
       int done = work.ledger(stage).finished().cardinality();
@@ -197,7 +200,29 @@ public final class RunReportWriter {
     page.paragraph("From the task timings in the work dir: wall time runs from the first timed"
         + " task's start to the last one's end (across reruns it includes the pause between"
         + " them); core-seconds add up the tasks' durations. Voxels per task: a block's core;"
-        + " for seams the two voxel layers of a face; for the solve the whole volume.");
+        + " for seams the two voxel layers of a face; for the solve the whole volume; for the"
+        + " pyramid the voxels a chunk of a level reads from the level before.");
+  }
+
+  /** The pyramid's figures: a task reads the level before its own, about 2^n voxels per voxel written. */
+  private StageFigures pyramidFigures() {
+    LabelPyramid pyramid = PyramidStep.plan(s);
+    int[] offsets = PyramidStep.taskOffsets(pyramid);
+    int tasks = offsets[pyramid.levelCount()];
+    return StageFigures.of(work.ledger(Stage.PYRAMID), tasks, task -> {
+      int level = 1;
+      while (task >= offsets[level + 1]) {
+        level++;
+      }
+      long[] chunk = pyramid.chunkPosition(level, task - offsets[level]);
+      long voxels = 1;
+      for (int d = 0; d < chunk.length; d++) {
+        long min = chunk[d] * pyramid.chunkShape()[d];
+        long max = Math.min(pyramid.shapes()[level][d], min + pyramid.chunkShape()[d]);
+        voxels *= (max - min) * pyramid.factors()[level][d];
+      }
+      return voxels;
+    });
   }
 
   private void segments(ReportPage page) {
@@ -215,9 +240,9 @@ public final class RunReportWriter {
       page.paragraph("The segmentation has no segments (every voxel is background).");
       return;
     }
-    page.paragraph(String.format(Locale.ROOT, "%d segments (%s); sizes from %d to %d voxels,"
+    page.paragraph(String.format(Locale.ROOT, "%d segments; sizes from %d to %d voxels,"
         + " median %d. The solve (%s) joined %d provisional segments into %d final ids.",
-        nonEmpty.length, solve.report().method(), nonEmpty[0], nonEmpty[nonEmpty.length - 1],
+        nonEmpty.length, nonEmpty[0], nonEmpty[nonEmpty.length - 1],
         nonEmpty[nonEmpty.length / 2], solve.report().method(), solve.report().segmentCount(),
         solve.report().finalIdCount()));
     page.figure(Charts.sizeHistogram(SegmentSizes.log2Histogram(sizes), 640, 400),

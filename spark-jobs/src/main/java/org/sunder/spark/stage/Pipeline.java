@@ -19,6 +19,7 @@ import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
 import org.sunder.spark.progress.ProgressTracker;
+import org.sunder.spark.pyramid.PyramidStep;
 import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunReport;
@@ -105,6 +106,7 @@ public final class Pipeline {
                 + " configuration: the ground-truth dataset to score against");
           }
         }
+        case PYRAMID -> reports.add(PyramidStep.run(runner, settings, out));
         default -> throw new IllegalStateException("stage " + stage);
       }
     }

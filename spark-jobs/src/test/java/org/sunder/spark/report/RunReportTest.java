@@ -86,7 +86,7 @@ class RunReportTest {
   @Test
   void segmentCountMatchesNumpyOnTheWrittenSegmentation() {
     PythonReference.requireModules("zarr", "numpy");
-    Matcher m = Pattern.compile("<p>(\\d+) segments \\(").matcher(html);
+    Matcher m = Pattern.compile("<p>(\\d+) segments; ").matcher(html);
     assertTrue(m.find(), "segment count line");
     // reference: numpy.unique over the segmentation zarr wrote, background 0 left out
     String out = PythonReference.runChecked("""
