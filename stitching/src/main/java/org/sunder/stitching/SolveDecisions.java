@@ -11,7 +11,8 @@ import org.sunder.blockwise.graph.EdgeStatistics;
  * pair (two pieces from different blocks that share voxel edges across a face), whether the
  * solve joined them and how strongly the mean edge weight agrees ({@link SolveDecision#margin()}).
  * The joins and the cuts with the smallest margins are where a merge or a split error is most
- * likely. Pairs with fewer than {@code minVoxelEdges} edges (grazing contacts) are left out.
+ * likely; each pair of final ids is listed once, at its least certain contact. Pairs with fewer
+ * than {@code minVoxelEdges} edges (grazing contacts) are left out.
  * O(p log p) for p seam pairs.
  */
 public final class SolveDecisions {
@@ -54,8 +55,19 @@ public final class SolveDecisions {
       .thenComparingLong(SolveDecision::provisionalA)
       .thenComparingLong(SolveDecision::provisionalB);
 
+  /** The first {@code n} in {@link #ORDER}, one per pair of final ids (its least certain). */
   private static List<SolveDecision> smallest(List<SolveDecision> decisions, int n) {
     decisions.sort(ORDER);
-    return decisions.subList(0, Math.min(n, decisions.size()));
+    List<SolveDecision> kept = new ArrayList<>();
+    java.util.Set<List<Long>> seen = new java.util.HashSet<>();
+    for (SolveDecision d : decisions) {
+      if (kept.size() == n) {
+        break;
+      }
+      if (seen.add(List.of(Math.min(d.finalA(), d.finalB()), Math.max(d.finalA(), d.finalB())))) {
+        kept.add(d);
+      }
+    }
+    return kept;
   }
 }

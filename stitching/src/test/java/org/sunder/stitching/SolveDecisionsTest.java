@@ -70,6 +70,8 @@ class SolveDecisionsTest {
     }
     assertTrue(d.stream().filter(SolveDecision::joined).count() <= 6);
     assertTrue(d.stream().filter(x -> !x.joined()).count() <= 6);
+    assertEquals(d.size(), d.stream().map(x -> List.of(Math.min(x.finalA(), x.finalB()),
+        Math.max(x.finalA(), x.finalB()))).distinct().count(), "one decision per final pair");
     for (int i = 0; i < d.size(); i++) {
       SolveDecision x = d.get(i);
       assertEquals(x.joined(), map.apply(x.provisionalA()) == map.apply(x.provisionalB()));
