@@ -31,7 +31,8 @@ import org.sunder.stitching.GlobalSolve;
 /**
  * Runs the stages of a prepared run on Spark, in order: partition (per block), seams (per
  * face), solve (on the driver), relabel (per block's chunks), evaluate (per block, when a ground
- * truth is configured). Settings are broadcast once; tasks read and write the containers
+ * truth is configured), pyramid (per chunk of each coarser level), and then writes the run
+ * report ({@link RunReportWriter}). Settings are broadcast once; tasks read and write the containers
  * themselves; finished tasks are skipped. When relabel or evaluate ran and the final segmentation
  * is complete, a {@link SeamAudit} of it (per face, against the ground truth when configured)
  * joins the report; it is not recorded, so a rerun audits again. Progress goes to
