@@ -115,7 +115,7 @@ public final class PyramidStep {
    * attribute (slowest axis first, in its {@code axes} order, else the configuration's), or
    * ones when it has none that fits.
    */
-  static double[] voxelSize(RunSettings s) {
+  public static double[] voxelSize(RunSettings s) {
     int n = s.volumeShape().length;
     double[] ones = new double[n];
     Arrays.fill(ones, 1);

@@ -257,9 +257,11 @@ public final class RunReportWriter {
     page.heading("Slices through the volume");
     page.paragraph("Grey: the affinities' boundary map (dark where the network predicts a"
         + " boundary). Colours: the segmentation, one colour per segment. Yellow lines: block"
-        + " faces. Volumes wider than " + WINDOW + " voxels are shown in a centred window.");
+        + " faces. Volumes wider than " + WINDOW + " voxels are shown in a centred window;"
+        + " pictures keep the voxels' physical proportions (from the input's voxelSize).");
     long[] shape = s.volumeShape();
     long[] centre = {shape[0] / 2, shape[1] / 2, shape[2] / 2};
+    double[] voxelSize = PyramidStep.voxelSize(s);
     for (int f = 0; f < 3; f++) {
       int axis = memoryAxisAtFilePosition(f);  // file order: the configuration's first axis first
       for (double at : SLICE_AT) {
@@ -269,13 +271,22 @@ public final class RunReportWriter {
         long[] labels = plane.labels(s.outputContainer(), s.outputDataset());
         int scale = SlicePicture.scaleFor(Math.max(plane.width(), plane.height()), 300);
         BufferedImage image = SlicePicture.render(plane, boundary, labels, null, 0,
-            s.blockShape(), scale);
+            s.blockShape(), scale, rowScale(voxelSize, plane, scale));
         page.figure(image, letter(axis) + " = " + position + " of " + shape[axis] + "; "
             + span(plane, plane.rowAxis()) + " down, " + span(plane, plane.columnAxis())
             + " across");
       }
       page.breakLine();
     }
+  }
+
+  /**
+   * Pixels per row that keep the picture's proportions physical: the column scale times the
+   * ratio of the two axes' voxel sizes, rounded, between 1 and 4 times the column scale.
+   */
+  static int rowScale(double[] voxelSize, Plane plane, int scale) {
+    double ratio = voxelSize[plane.rowAxis()] / voxelSize[plane.columnAxis()];
+    return (int) Math.max(1, Math.min(4L * scale, Math.round(scale * ratio)));
   }
 
   private int memoryAxisAtFilePosition(int filePosition) {

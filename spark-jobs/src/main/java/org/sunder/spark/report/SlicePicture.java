@@ -5,7 +5,8 @@ import java.awt.image.BufferedImage;
 /**
  * Draws one {@link Plane}: the boundary map in grey (white inside objects, dark on predicted
  * boundaries), labels blended over it in distinct colours (label 0 left grey), and the block
- * faces as thin lines. Each voxel becomes {@code scale x scale} pixels. O(pixels).
+ * faces as thin lines. Each voxel becomes {@code scale} pixels across and {@code rowScale} down
+ * (more down than across for sections cut thicker than the in-plane resolution). O(pixels).
  */
 final class SlicePicture {
   /** Share of a label's colour in a voxel's pixel. */
@@ -23,9 +24,15 @@ final class SlicePicture {
    */
   static BufferedImage render(Plane plane, float[] boundary, long[] labels, long[] shown,
       long shownLabel, int[] blockShape, int scale) {
+    return render(plane, boundary, labels, shown, shownLabel, blockShape, scale, scale);
+  }
+
+  /** As {@link #render(Plane, float[], long[], long[], long, int[], int)}, rows {@code rowScale} pixels high. */
+  static BufferedImage render(Plane plane, float[] boundary, long[] labels, long[] shown,
+      long shownLabel, int[] blockShape, int scale, int rowScale) {
     int w = plane.width();
     int h = plane.height();
-    BufferedImage image = new BufferedImage(w * scale, h * scale, BufferedImage.TYPE_INT_RGB);
+    BufferedImage image = new BufferedImage(w * scale, h * rowScale, BufferedImage.TYPE_INT_RGB);
     int ca = plane.columnAxis();
     int ra = plane.rowAxis();
     for (int r = 0; r < h; r++) {
@@ -39,10 +46,10 @@ final class SlicePicture {
           rgb = blend(rgb, colour(labels[i]), OVERLAY);
         }
         boolean faceColumn = blockShape != null && isFace(plane.min()[ca] + c, blockShape[ca]);
-        for (int dy = 0; dy < scale; dy++) {
+        for (int dy = 0; dy < rowScale; dy++) {
           for (int dx = 0; dx < scale; dx++) {
             boolean line = (faceColumn && dx == 0) || (faceRow && dy == 0);
-            image.setRGB(c * scale + dx, r * scale + dy, line ? FACE_RGB : rgb);
+            image.setRGB(c * scale + dx, r * rowScale + dy, line ? FACE_RGB : rgb);
           }
         }
       }

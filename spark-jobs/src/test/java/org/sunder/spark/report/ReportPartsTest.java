@@ -72,6 +72,21 @@ class ReportPartsTest {
   }
 
   @Test
+  void rowsOfSectionsCutThickerAreTaller() {
+    // voxels 8 x 8 x 24 (x y z): a y plane shows z down, x across
+    Plane side = new Plane(1, new long[] {0, 5, 0}, new long[] {9, 5, 3});
+    assertEquals(6, RunReportWriter.rowScale(new double[] {8, 8, 24}, side, 2));
+    Plane section = new Plane(2, new long[] {0, 0, 5}, new long[] {9, 9, 5});
+    assertEquals(2, RunReportWriter.rowScale(new double[] {8, 8, 40}, section, 2));
+    // never more than 4 times the column scale
+    assertEquals(8, RunReportWriter.rowScale(new double[] {1, 1, 100}, side, 2));
+    BufferedImage image = SlicePicture.render(side, new float[40], new long[40], null, 0, null,
+        2, 10);
+    assertEquals(20, image.getWidth());
+    assertEquals(40, image.getHeight());
+  }
+
+  @Test
   void pictureShowsGreyBoundariesColourAndFaceLines() {
     Plane plane = new Plane(2, new long[] {0, 0, 5}, new long[] {3, 1, 5});
     float[] boundary = {0, 1, 0, 0, 0, 0, 0, 0};
