@@ -80,7 +80,8 @@ class RunReportTest {
     assertTrue(count(html, "<img ") >= 10, "images: " + count(html, "<img "));
     // every partition task ran and was timed: "8 of 8" then the timed count 8
     assertTrue(html.contains("<td class=\"l\">partition</td><td>8 of 8</td><td>8</td>"), html);
-    assertFalse(html.contains("NaN"));
+    // no figure printed as NaN (pictures are left out: base64 text may spell it by chance)
+    assertFalse(html.replaceAll("data:image/png;base64,[A-Za-z0-9+/=]+", "").contains("NaN"));
   }
 
   @Test
