@@ -48,7 +48,8 @@ public final class PythonReference {
     }
     if (missing != null) {
       String message = missing + " (Debian packages python3-zarr python3-numcodecs python3-fsspec"
-          + " python3-scipy python3-skimage python3-sklearn; .ci/run installs them)";
+          + " python3-scipy python3-skimage python3-sklearn python3-jsonschema; .ci/run installs"
+          + " them)";
       if ("true".equalsIgnoreCase(System.getenv("CI"))) {
         fail(message);
       }

@@ -17,9 +17,10 @@ import picocli.CommandLine.ParentCommand;
 
 /** {@code sunder run CONFIG}: every stage, resuming an interrupted run. */
 @Command(name = "run", mixinStandardHelpOptions = true,
-    description = {"Segment a volume: run every stage (partition, seams, solve, relabel, and"
-        + " evaluate when a ground truth is configured). A rerun of the same command continues"
-        + " where an interrupted run stopped and says how many tasks it skipped."})
+    description = {"Segment a volume: run every stage (partition, seams, solve, relabel,"
+        + " evaluate when a ground truth is configured, and pyramid: coarser levels for viewers)"
+        + " and write the run report, report.html in the work dir. A rerun of the same command"
+        + " continues where an interrupted run stopped and says how many tasks it skipped."})
 final class RunCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;

@@ -18,13 +18,13 @@ import picocli.CommandLine.ParentCommand;
 /** {@code sunder stage NAME CONFIG}: one stage of a run. */
 @Command(name = "stage", mixinStandardHelpOptions = true,
     description = {"Run one stage of a configured run; the stages before it must have finished."
-        + " Stages in order: partition, seams, solve, relabel, evaluate."})
+        + " Stages in order: partition, seams, solve, relabel, evaluate, pyramid."})
 final class StageCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;
 
   @Parameters(index = "0", paramLabel = "STAGE",
-      description = "partition, seams, solve, relabel or evaluate.")
+      description = "partition, seams, solve, relabel, evaluate or pyramid.")
   String stage;
 
   @Parameters(index = "1", paramLabel = "CONFIG", description = "Run configuration (JSON)."

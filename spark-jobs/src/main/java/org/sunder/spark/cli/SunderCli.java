@@ -11,7 +11,7 @@ import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
 /**
- * Sunder's command line: {@code run}, {@code stage}, {@code plan}, {@code demo},
+ * Sunder's command line: {@code run}, {@code stage}, {@code plan}, {@code demo}, {@code report},
  * {@code evaluate}, {@code inspect}. Commands return exit codes ({@link ExitCodes}); only
  * {@link #main} exits the process. No command, or an unknown one, prints the usage or the list
  * of commands and exits 2.
@@ -32,7 +32,7 @@ import picocli.CommandLine.Command;
         "",
         "Automated segmentations contain errors: proofread before drawing scientific conclusions."},
     subcommands = {RunCommand.class, StageCommand.class, PlanCommand.class, DemoCommand.class,
-        EvaluateCommand.class, InspectCommand.class})
+        EvaluateCommand.class, InspectCommand.class, ReportCommand.class})
 public final class SunderCli implements Callable<Integer> {
   private final SparkContextSource spark;
   private final PrintStream out;

@@ -10,11 +10,11 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.DataType;
 
 /** Label arrays of any integer data type as {@code long[]} (unsigned types zero-extended). */
-final class LabelArrays {
+public final class LabelArrays {
   private LabelArrays() {}
 
   /** The labels of {@code img} (wrapped, not copied, for uint64/int64). */
-  static long[] toLongs(ArrayImg<?, ?> img, DataType type, String what) {
+  public static long[] toLongs(ArrayImg<?, ?> img, DataType type, String what) {
     Object storage = img.update(null);
     return switch (type) {
       case UINT64, INT64 -> ((LongArray) storage).getCurrentStorageArray();

@@ -19,6 +19,8 @@ import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
 import org.sunder.spark.progress.ProgressTracker;
+import org.sunder.spark.pyramid.PyramidStep;
+import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunReport;
 import org.sunder.spark.run.RunSettings;
@@ -29,7 +31,8 @@ import org.sunder.stitching.GlobalSolve;
 /**
  * Runs the stages of a prepared run on Spark, in order: partition (per block), seams (per
  * face), solve (on the driver), relabel (per block's chunks), evaluate (per block, when a ground
- * truth is configured). Settings are broadcast once; tasks read and write the containers
+ * truth is configured), pyramid (per chunk of each coarser level), and then writes the run
+ * report ({@link RunReportWriter}). Settings are broadcast once; tasks read and write the containers
  * themselves; finished tasks are skipped. When relabel or evaluate ran and the final segmentation
  * is complete, a {@link SeamAudit} of it (per face, against the ground truth when configured)
  * joins the report; it is not recorded, so a rerun audits again. Progress goes to
@@ -104,6 +107,7 @@ public final class Pipeline {
                 + " configuration: the ground-truth dataset to score against");
           }
         }
+        case PYRAMID -> reports.add(PyramidStep.run(runner, settings, out));
         default -> throw new IllegalStateException("stage " + stage);
       }
     }
@@ -116,8 +120,10 @@ public final class Pipeline {
     if (complete && (stages.contains(Stage.RELABEL) || stages.contains(Stage.EVALUATE))) {
       seams = SeamAuditJob.audit(sc, auditTarget(settings), settings.blockShape());
     }
-    return new RunReport(settings, reports, solved == null ? null : solved.report(), scores,
-        seams, (System.nanoTime() - start) / 1e9);
+    RunReport report = new RunReport(settings, reports, solved == null ? null : solved.report(),
+        scores, seams, (System.nanoTime() - start) / 1e9);
+    RunReportWriter.writeAfterRun(sc, settings, work, seams, scores, out);
+    return report;
   }
 
   /** The final segmentation, with the ground truth when configured; masked voxels are 0 in it. */
@@ -127,7 +133,9 @@ public final class Pipeline {
         s.ignoreBackground());
   }
 
-  private SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
+  /** The scores from the evaluate stage's records of {@code blocks} blocks. */
+  public static SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
+    PayloadCodec codec = new PayloadCodec();
     ContingencyTable table = new ContingencyTable();
     for (int b = 0; b < blocks; b++) {
       ContingencyTable.Pairs pairs = codec.decode(work.ledger(Stage.EVALUATE).read(b),

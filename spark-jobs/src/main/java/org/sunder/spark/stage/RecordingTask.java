@@ -37,6 +37,8 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
     while (indices.hasNext()) {
       int index = indices.next();
       Object result;
+      long startMillis = System.currentTimeMillis();
+      long start = System.nanoTime();
       try {
         s.hooks().beforeTask(stage.cliName(), index, work.root());
         result = body.run(s, index);
@@ -44,6 +46,7 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
         throw new TaskOutOfMemory(stage.cliName() + " task " + index + " ran out of memory ("
             + e.getMessage() + ")");
       }
+      ledger.recordTiming(index, startMillis, (System.nanoTime() - start) / 1e9);
       ledger.record(index, codec.encode(result));
     }
   }

@@ -9,12 +9,14 @@ import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
+import org.sunder.spark.report.DecisionsFile;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.BlockSummary;
 import org.sunder.stitching.GlobalSolve;
 import org.sunder.stitching.SeamEdges;
+import org.sunder.stitching.SolveDecisions;
 import org.sunder.stitching.StitchingSetup;
 
 /**
@@ -43,6 +45,7 @@ final class SolveStep {
       return recorded();
     }
     long start = System.nanoTime();
+    long startMillis = System.currentTimeMillis();
     settings.hooks().beforeTask(Stage.SOLVE.cliName(), 0, work.root());
     BlockGrid grid = settings.grid();
     long edges = countEdges(grid);
@@ -64,6 +67,9 @@ final class SolveStep {
           "seams record " + f));
     }
     GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
+    DecisionsFile.write(ledger, SolveDecisions.leastCertain(seams, result.finalIds(),
+        DecisionsFile.PER_KIND, DecisionsFile.MIN_VOXEL_EDGES));
+    ledger.recordTiming(0, startMillis, (System.nanoTime() - start) / 1e9);
     ledger.record(0, codec.encode(result));
     reports.add(new StageReport(Stage.SOLVE, 1, 0, 1, (System.nanoTime() - start) / 1e9));
     return result;

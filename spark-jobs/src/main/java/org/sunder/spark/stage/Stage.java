@@ -16,7 +16,9 @@ public enum Stage {
   /** Per chunk range: rewrite provisional ids as final ids in place. */
   RELABEL,
   /** Optional: score the segmentation against the ground truth. */
-  EVALUATE;
+  EVALUATE,
+  /** Per chunk of each coarser level: the label pyramid for viewers, and its metadata. */
+  PYRAMID;
 
   /** The name used on the command line and in the work dir. */
   public String cliName() {

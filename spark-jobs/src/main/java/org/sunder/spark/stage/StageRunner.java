@@ -34,15 +34,24 @@ public final class StageRunner {
 
   /** Runs every task of {@code stage} in {@code [0, taskCount)} that has no record yet. */
   public StageReport run(Stage stage, int taskCount, TaskBody body) {
+    return run(stage, 0, taskCount, body);
+  }
+
+  /**
+   * Runs every task of {@code stage} in {@code [first, end)} that has no record yet (a stage
+   * whose tasks form groups that must finish one after another).
+   */
+  public StageReport run(Stage stage, int first, int end, TaskBody body) {
     long start = System.nanoTime();
     StageLedger ledger = work.ledger(stage);
     BitSet finished = ledger.finished();
     List<Integer> todo = new ArrayList<>();
-    for (int i = 0; i < taskCount; i++) {
+    for (int i = first; i < end; i++) {
       if (!finished.get(i)) {
         todo.add(i);
       }
     }
+    int taskCount = end - first;
     int skipped = taskCount - todo.size();
     if (skipped > 0) {
       out.println(stage.cliName() + ": " + skipped + " of " + taskCount

@@ -21,6 +21,7 @@ import org.sunder.spark.stage.Stage;
  */
 public final class StageLedger {
   private static final String SUFFIX = ".done";
+  private static final String TIMING_SUFFIX = ".timing";
 
   private final Stage stage;
   private final Path dir;
@@ -41,6 +42,42 @@ public final class StageLedger {
   /** Records that task {@code index} finished, with its result bytes. */
   public void record(int index, byte[] result) {
     AtomicWrites.write(dir.resolve(index + SUFFIX), ByteBuffer.wrap(result));
+  }
+
+  /**
+   * Records when task {@code index} started (epoch milliseconds) and how long its body took;
+   * written before the task's record, read by the run report ({@link #timings()}).
+   */
+  public void recordTiming(int index, long startMillis, double seconds) {
+    AtomicFile.write(dir.resolve(index + TIMING_SUFFIX),
+        (startMillis + " " + seconds).getBytes(java.nio.charset.StandardCharsets.US_ASCII));
+  }
+
+  /**
+   * The timings of the recorded tasks that have one, as rows {@code {index, startMillis,
+   * endMillis}} (one directory listing; O(tasks)).
+   */
+  public java.util.List<long[]> timings() {
+    java.util.List<long[]> rows = new java.util.ArrayList<>();
+    BitSet done = finished();
+    try (DirectoryStream<Path> files = Files.newDirectoryStream(dir, "*" + TIMING_SUFFIX)) {
+      for (Path file : files) {
+        String name = file.getFileName().toString();
+        int index = Integer.parseInt(name.substring(0, name.length() - TIMING_SUFFIX.length()));
+        if (!done.get(index)) {
+          continue;
+        }
+        String[] parts = Files.readString(file).trim().split(" ");
+        long start = Long.parseLong(parts[0]);
+        rows.add(new long[] {index, start, start + Math.round(Double.parseDouble(parts[1]) * 1000)});
+      }
+    } catch (NoSuchFileException e) {
+      return rows;
+    } catch (IOException | RuntimeException e) {
+      throw new SunderException(ErrorKind.CONFLICT, "cannot read the task timings in " + dir
+          + ": " + e, e);
+    }
+    return rows;
   }
 
   /** Whether task {@code index} has a record. */

@@ -19,6 +19,8 @@ import org.sunder.spark.stage.Stage;
  */
 public final class WorkDir {
   private static final String MANIFEST = "manifest.json";
+  /** The run report's file name in the work dir. */
+  public static final String REPORT = "report.html";
   private static final ObjectMapper JSON = new ObjectMapper()
       .enable(SerializationFeature.INDENT_OUTPUT);
 
@@ -46,7 +48,15 @@ public final class WorkDir {
     }
   }
 
-  /** Whether the directory exists and holds anything other than a Sunder manifest and stages. */
+  /** Where the run report goes. */
+  public Path reportFile() {
+    return root.resolve(REPORT);
+  }
+
+  /**
+   * Whether the directory exists and holds anything other than a Sunder manifest, stages and
+   * run report.
+   */
   public boolean holdsForeignFiles() {
     if (!Files.isDirectory(root)) {
       return false;
@@ -54,7 +64,8 @@ public final class WorkDir {
     try (DirectoryStream<Path> entries = Files.newDirectoryStream(root)) {
       for (Path entry : entries) {
         String name = entry.getFileName().toString();
-        if (!name.equals(MANIFEST) && !name.equals("stages") && !name.startsWith(".")) {
+        if (!name.equals(MANIFEST) && !name.equals("stages") && !name.equals(REPORT)
+            && !name.startsWith(".")) {
           return true;
         }
       }
@@ -93,6 +104,7 @@ public final class WorkDir {
     clearFrom(Stage.values()[0]);
     try {
       Files.deleteIfExists(root.resolve(MANIFEST));
+      Files.deleteIfExists(root.resolve(REPORT));
       Files.deleteIfExists(root.resolve("stages"));
     } catch (IOException e) {
       throw new SunderException(ErrorKind.STORAGE, "cannot clear work dir " + root + ": " + e, e);

@@ -100,7 +100,9 @@ class FaultResumeTest {
     Map<Path, FileTime> records = new HashMap<>();
     Stage previous = null;
     int previousDone = 0;
-    for (Stage stage : Stage.values()) {
+    // the pyramid's resume has its own test (PyramidIntegrationTest); the last rerun builds it
+    for (Stage stage : List.of(Stage.PARTITION, Stage.SEAMS, Stage.SOLVE, Stage.RELABEL,
+        Stage.EVALUATE)) {
       Child child = Child.start(run, List.of("-D" + TaskHooks.DELAY_KEY + "=250"));
       BooleanSupplier inside = stage == Stage.SOLVE
           ? () -> work.ledger(Stage.SEAMS).finished().cardinality() == FACES

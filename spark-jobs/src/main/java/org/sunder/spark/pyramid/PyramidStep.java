@@ -1,0 +1,170 @@
+package org.sunder.spark.pyramid;
+
+import java.io.PrintStream;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Map;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.Dataset;
+import org.sunder.blockwise.store.DatasetSpec;
+import org.sunder.spark.config.AxisOrder;
+import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.stage.Stage;
+import org.sunder.spark.stage.StageReport;
+import org.sunder.spark.stage.StageRunner;
+import org.sunder.spark.stage.TaskBody;
+import org.sunder.stitching.LabelPyramid;
+import org.sunder.stitching.MultiscaleMetadata;
+
+/**
+ * The pyramid stage: the segmentation's coarser levels ({@link LabelPyramid}, mode
+ * downsampling) as datasets {@code <dataset>_s1}, {@code <dataset>_s2}, ... beside it, one task
+ * per chunk of a level, level after level (a level reads the one before); then the OME-NGFF 0.4
+ * {@code multiscales} and {@code image-label} attributes ({@link MultiscaleMetadata}) on the
+ * group that holds them. Task {@code i} of the stage is chunk {@code i - offset(L)} of level
+ * {@code L}; finished tasks are skipped on a rerun like every stage's.
+ */
+public final class PyramidStep {
+  private PyramidStep() {}
+
+  /** The pyramid of the run's segmentation, with the voxel size of its input. */
+  public static LabelPyramid plan(RunSettings s) {
+    return LabelPyramid.plan(s.volumeShape(), s.chunkShape(), voxelSize(s));
+  }
+
+  /** The path of level {@code level}'s dataset (level 0: the segmentation). */
+  public static String levelPath(String dataset, int level) {
+    return level == 0 ? dataset : dataset + "_s" + level;
+  }
+
+  /** The first task index of each level, and the task count after the last ({@code levels + 1} entries). */
+  public static int[] taskOffsets(LabelPyramid pyramid) {
+    int[] offsets = new int[pyramid.levelCount() + 1];
+    for (int level = 1; level < pyramid.levelCount(); level++) {
+      offsets[level + 1] = Math.addExact(offsets[level], Math.toIntExact(pyramid.chunkCount(level)));
+    }
+    offsets[1] = 0;
+    return offsets;
+  }
+
+  /** Runs the stage: creates the level datasets, runs their tasks, writes the metadata. */
+  public static StageReport run(StageRunner runner, RunSettings s, PrintStream out) {
+    long start = System.nanoTime();
+    LabelPyramid pyramid = plan(s);
+    Container output = Container.open(Path.of(s.outputContainer()));
+    Dataset base = output.openDataset(s.outputDataset());
+    for (int level = 1; level < pyramid.levelCount(); level++) {
+      createLevel(output, base.spec(), pyramid, levelPath(s.outputDataset(), level), level);
+    }
+    int[] offsets = taskOffsets(pyramid);
+    int total = 0;
+    int skipped = 0;
+    int ran = 0;
+    for (int level = 1; level < pyramid.levelCount(); level++) {
+      StageReport r = runner.run(Stage.PYRAMID, offsets[level], offsets[level + 1],
+          new LevelChunk(pyramid, offsets, level));
+      total += r.total();
+      skipped += r.skipped();
+      ran += r.ran();
+    }
+    writeMetadata(output, s, pyramid);
+    return new StageReport(Stage.PYRAMID, total, skipped, ran, (System.nanoTime() - start) / 1e9);
+  }
+
+  private static void createLevel(Container output, DatasetSpec base, LabelPyramid pyramid,
+      String path, int level) {
+    long[] shape = pyramid.shapes()[level];
+    if (output.datasetExists(path)) {
+      long[] existing = output.openDataset(path).shape();
+      if (!Arrays.equals(existing, shape)) {
+        throw new SunderException(ErrorKind.CONFLICT, "pyramid level dataset '" + path + "' in "
+            + output.root() + " has shape " + Arrays.toString(existing) + " (memory order), not "
+            + Arrays.toString(shape) + " as this run needs; remove it or choose another"
+            + " output.dataset");
+      }
+      return;
+    }
+    output.createDataset(path, new DatasetSpec(shape, base.chunkShape(), base.dataType(),
+        base.codec(), base.fillValue(), base.endianness(), base.chunkOrder(),
+        base.dimensionSeparator()));
+  }
+
+  private static void writeMetadata(Container output, RunSettings s, LabelPyramid pyramid) {
+    String dataset = s.outputDataset();
+    int slash = dataset.lastIndexOf('/');
+    String group = slash < 0 ? "" : dataset.substring(0, slash);
+    String name = dataset.substring(slash + 1);
+    List<String> paths = new ArrayList<>();
+    for (int level = 0; level < pyramid.levelCount(); level++) {
+      paths.add(levelPath(name, level));
+    }
+    Map<String, Object> attributes = MultiscaleMetadata.attributes(pyramid, paths, name, unit(s));
+    output.mergeAttributes(group, attributes);
+  }
+
+  private static Map<String, Object> inputAttributes(RunSettings s) {
+    return Container.open(Path.of(s.inputContainer())).readAttributes(s.affinities());
+  }
+
+  /**
+   * The input's voxel size in memory order from the affinity dataset's {@code voxelSize}
+   * attribute (slowest axis first, in its {@code axes} order, else the configuration's), or
+   * ones when it has none that fits.
+   */
+  public static double[] voxelSize(RunSettings s) {
+    int n = s.volumeShape().length;
+    double[] ones = new double[n];
+    Arrays.fill(ones, 1);
+    Map<String, Object> attributes = inputAttributes(s);
+    if (!(attributes.get("voxelSize") instanceof List<?> values) || values.size() != n) {
+      return ones;
+    }
+    String order = attributes.get("axes") instanceof String a && a.length() == n ? a : s.axes();
+    AxisOrder axes;
+    try {
+      axes = new AxisOrder(order);
+    } catch (RuntimeException e) {
+      return ones;
+    }
+    double[] memory = new double[n];
+    for (int d = 0; d < n; d++) {
+      if (!(values.get(axes.filePosition(d)) instanceof Number v) || !(v.doubleValue() > 0)
+          || Double.isInfinite(v.doubleValue())) {
+        return ones;
+      }
+      memory[d] = v.doubleValue();
+    }
+    return memory;
+  }
+
+  private static String unit(RunSettings s) {
+    return inputAttributes(s).get("unit") instanceof String u ? u : null;
+  }
+
+  /** Task body: one chunk of one level, from the level before. */
+  static final class LevelChunk implements TaskBody {
+    private static final long serialVersionUID = 1L;
+    private final LabelPyramid pyramid;
+    private final int[] offsets;
+    private final int level;
+
+    LevelChunk(LabelPyramid pyramid, int[] offsets, int level) {
+      this.pyramid = pyramid;
+      this.offsets = offsets.clone();
+      this.level = level;
+    }
+
+    @Override
+    public Object run(RunSettings settings, int index) {
+      Container output = Container.open(Path.of(settings.outputContainer()));
+      Dataset source = output.openDataset(levelPath(settings.outputDataset(), level - 1));
+      Dataset target = output.openDataset(levelPath(settings.outputDataset(), level));
+      return pyramid.writeChunk(source, target, level, pyramid.chunkPosition(level,
+          index - offsets[level]));
+    }
+  }
+}
