@@ -5,12 +5,13 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.IOException;
+import java.nio.ByteBuffer;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.workdir.AtomicFile;
+import org.sunder.blockwise.store.AtomicWrites;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.stitching.SolveDecision;
 
@@ -35,7 +36,7 @@ public final class DecisionsFile {
 
   public static void write(StageLedger solveLedger, List<SolveDecision> decisions) {
     try {
-      AtomicFile.write(solveLedger.dir().resolve(NAME), JSON.writeValueAsBytes(decisions));
+      AtomicWrites.write(solveLedger.dir().resolve(NAME), ByteBuffer.wrap(JSON.writeValueAsBytes(decisions)));
     } catch (IOException e) {
       throw new SunderException(ErrorKind.INTERNAL, "cannot encode the solve's decisions: " + e, e);
     }

@@ -5,6 +5,7 @@ import com.fasterxml.jackson.databind.SerializationFeature;
 import java.awt.image.BufferedImage;
 import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
+import java.nio.ByteBuffer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.time.Instant;
@@ -19,22 +20,22 @@ import org.sunder.blockwise.grid.Face;
 import org.sunder.blockwise.metrics.ObjectOverlaps;
 import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.blockwise.store.AtomicWrites;
 import org.sunder.spark.SunderVersion;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.kryo.PayloadCodec;
+import org.sunder.spark.pyramid.PyramidStep;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.stage.Pipeline;
 import org.sunder.spark.stage.Stage;
-import org.sunder.spark.workdir.AtomicFile;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.BlockSummary;
 import org.sunder.stitching.GlobalSolve;
 import org.sunder.stitching.LabelPyramid;
-import org.sunder.spark.pyramid.PyramidStep;
 import org.sunder.stitching.SolveDecision;
 
 /**
@@ -86,7 +87,7 @@ public final class RunReportWriter {
     RunReportWriter writer = new RunReportWriter(sc, settings, work);
     ReportPage page = writer.page(seams, scores);
     Path file = work.reportFile();
-    AtomicFile.write(file, page.html().getBytes(StandardCharsets.UTF_8));
+    AtomicWrites.write(file, ByteBuffer.wrap(page.html().getBytes(StandardCharsets.UTF_8)));
     return file;
   }
 

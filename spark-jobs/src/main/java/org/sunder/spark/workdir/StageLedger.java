@@ -2,6 +2,7 @@ package org.sunder.spark.workdir;
 
 import java.io.IOException;
 import java.nio.ByteBuffer;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.DirectoryStream;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
@@ -49,8 +50,8 @@ public final class StageLedger {
    * written before the task's record, read by the run report ({@link #timings()}).
    */
   public void recordTiming(int index, long startMillis, double seconds) {
-    AtomicFile.write(dir.resolve(index + TIMING_SUFFIX),
-        (startMillis + " " + seconds).getBytes(java.nio.charset.StandardCharsets.US_ASCII));
+    AtomicWrites.write(dir.resolve(index + TIMING_SUFFIX),
+        ByteBuffer.wrap((startMillis + " " + seconds).getBytes(StandardCharsets.US_ASCII)));
   }
 
   /**
