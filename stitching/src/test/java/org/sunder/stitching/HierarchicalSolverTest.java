@@ -74,7 +74,8 @@ class HierarchicalSolverTest {
     IdLayout layout = IdLayout.forGrid(grid);
     ReducedGraph graph = RandomReducedGraphs.graph(grid, layout, random, false, 10, 3);
     SuperBlocks superBlocks = new SuperBlocks(grid, layout, 2);
-    long bound = solverThatFits(graph, superBlocks, 20).lastResult().driverEdges();
+    long bound = HierarchicalTissueTest.boundForLevels(graph, superBlocks,
+        HierarchicalSolver.mutexEdges(graph).size(), 3);
     HierarchicalSolver inMemory = new HierarchicalSolver(new MutexPartSolver(), superBlocks,
         bound, null);
     HierarchicalSolver onDisk = new HierarchicalSolver(new MutexPartSolver(), superBlocks,

@@ -13,16 +13,23 @@ import java.util.function.LongPredicate;
  * leave it. Each inner cluster has a <em>frontier</em>: the position in the order of the first
  * edge that could change it without the part knowing, initially the first edge leaving the part
  * from one of its nodes. The part takes its inner edges in order; edge {@code e} at position
- * {@code t} between clusters {@code A} and {@code B}
+ * {@code t} between clusters {@code A} and {@code B} (a cluster is <em>settled</em> at
+ * {@code t} when its frontier lies after {@code t}: no edge outside the part and no held-back
+ * edge has touched it, so in the whole-graph run it is exactly this cluster with exactly these
+ * exclusions; otherwise it is <em>open</em>, and in the whole-graph run it may have grown)
  * <ul>
  *   <li>is settled as nothing to do if {@code A = B} or the two are exclusive (joins and
  *       exclusions made here are made by the whole-graph run too, which only adds to them);
- *   <li>is settled, and applied, if both frontiers lie after {@code t}: before {@code t} no edge
- *       outside the part and no held-back edge touched {@code A} or {@code B}, so in the
- *       whole-graph run they are exactly these clusters with exactly these exclusions;
- *   <li>is held back otherwise, and moves both frontiers to {@code t}.
+ *   <li>is settled, and applied, if both are settled;
+ *   <li>if {@code A} is open and {@code B} settled: a repulsive edge is settled (in the
+ *       whole-graph run {@code B} is still apart from whatever {@code A} grew into, so they
+ *       become exclusive); an attractive edge is settled as a join when every cluster exclusive
+ *       with {@code B} is settled (none of them can have grown into {@code A}'s cluster, so
+ *       nothing forbids the join), and the joined cluster is open;
+ *   <li>is held back otherwise, and opens both clusters at {@code t}.
  * </ul>
- * A settled operation touches only clusters whose first outside event comes later, so it
+ * A settled operation changes only what no unknown edge before it touched (a settled cluster,
+ * or an open one by a settled cluster whose exclusions are all with settled clusters), so it
  * commutes with every held-back or outside edge before it: the whole-graph run equals applying
  * the settled operations first (contracting the part) and then running the rest in the same
  * order. The next level therefore gets the contracted graph: held-back inner edges and leaving
@@ -74,15 +81,26 @@ public final class MutexPartSolver implements PartSolver {
       }
       int a = clusters.find(iu[e]);
       int b = clusters.find(iv[e]);
+      boolean openA = clusters.frontier[a] < t;
+      boolean openB = clusters.frontier[b] < t;
+      boolean attractive = edges.weight(e) > 0;
       if (a == b || clusters.exclusive(a, b)) {
         decided++;
-      } else if (clusters.frontier[a] < t || clusters.frontier[b] < t) {
+      } else if (!openA && !openB) {
+        decided++;
+        if (attractive) {
+          clusters.join(a, b);
+        } else {
+          clusters.exclude(a, b);
+        }
+      } else if (openA && openB
+          || attractive && !clusters.partnersSettled(openA ? b : a, t)) {
         heldBack++;
         clusters.frontier[a] = Math.min(clusters.frontier[a], t);
         clusters.frontier[b] = Math.min(clusters.frontier[b], t);
       } else {
         decided++;
-        if (edges.weight(e) > 0) {
+        if (attractive) {
           clusters.join(a, b);
         } else {
           clusters.exclude(a, b);
@@ -229,6 +247,16 @@ public final class MutexPartSolver implements PartSolver {
       entryNext[entries] = head[owner];
       head[owner] = entries++;
       listLength[owner]++;
+    }
+
+    /** Whether every cluster exclusive with root {@code r} is settled at position {@code t}. */
+    boolean partnersSettled(int r, int t) {
+      for (int entry = head[r]; entry >= 0; entry = entryNext[entry]) {
+        if (frontier[find(entryNode[entry])] < t) {
+          return false;
+        }
+      }
+      return true;
     }
 
     /** Joins roots {@code a} and {@code b}; the shorter exclusion list moves. */
