@@ -4,6 +4,7 @@ import java.lang.management.ManagementFactory;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.function.IntFunction;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 
@@ -18,9 +19,9 @@ import org.sunder.blockwise.SunderException;
  * Level 1's parts get the reduced graph's edges (an edge between two parts goes to both); level
  * {@code l + 1}'s part gets what its sub-parts handed up, the copies of each edge joined
  * ({@link SolveEdges#joinCopies}). When the rest fits under the bound, the driver solves it
- * whole. With a work dir every part's input and output is an {@link EdgeFile} there, as in a
- * distributed run ({@code level-<l>/part-<p>.in} and {@code .out}); without one they stay in
- * memory.
+ * whole. With a work dir every part's output is an {@link EdgeFile} there, as in a distributed
+ * run ({@code level-<l>/part-<p>.out}; the files stay after the solve); without one they stay
+ * in memory.
  */
 public final class HierarchicalSolve {
   private HierarchicalSolve() {}
@@ -63,36 +64,58 @@ public final class HierarchicalSolve {
    */
   public static Result run(SuperBlocks superBlocks, SolveEdges edges, long maxDriverEdges,
       PartSolver solver, Path workDir) {
+    if (edges.size() <= maxDriverEdges || superBlocks.partCount(1) == 1) {
+      return run(superBlocks, edges.size(), p -> edges, maxDriverEdges, solver, workDir);
+    }
+    SolveEdges[] inputs = distribute(superBlocks, edges, 1);
+    return run(superBlocks, edges.size(), p -> {
+      SolveEdges in = inputs[p];
+      inputs[p] = null;
+      return in;
+    }, maxDriverEdges, solver, workDir);
+  }
+
+  /**
+   * Solves a graph given as level 1's part inputs (each edge in the part of each of its ends),
+   * as the tasks of a distributed run read them; the in-process loop keeps at most one level's
+   * outputs (in the work dir if one is given).
+   *
+   * @param edgeCount the graph's distinct edges
+   * @param levelOneInput part index to its input (null or empty for a part without edges); when
+   *     the graph fits at once, called once with -1 for the whole graph
+   */
+  public static Result run(SuperBlocks superBlocks, long edgeCount,
+      IntFunction<SolveEdges> levelOneInput, long maxDriverEdges, PartSolver solver,
+      Path workDir) {
     if (maxDriverEdges < 1) {
       throw new SunderException(ErrorKind.INVALID_CONFIG, "solve.maxDriverEdges: "
           + maxDriverEdges + "; expected at least 1");
     }
     List<long[][]> maps = new ArrayList<>();
     List<LevelFigures> figures = new ArrayList<>();
-    SolveEdges[] inputs = null;
-    long distinct = edges.size();
+    PartStore outputs = null;
+    long distinct = edgeCount;
     int level = 1;
     while (distinct > maxDriverEdges && superBlocks.partCount(level) > 1) {
       long start = System.nanoTime();
       int parts = superBlocks.partCount(level);
-      if (inputs == null) {
-        inputs = distribute(superBlocks, edges, level);
-      }
+      PartStore next = new PartStore(workDir, level, parts);
       List<PartResult> results = new ArrayList<>();
-      SolveEdges[] outputs = new SolveEdges[parts];
       long decided = 0;
       long heldBack = 0;
       long largest = 0;
       long largestAllocated = 0;
+      long halves = 0;
       int used = 0;
       double solveSeconds = 0;
+      int[][] children = level == 1 ? null : childrenOf(superBlocks, level - 1);
       for (int p = 0; p < parts; p++) {
-        if (inputs[p] == null || inputs[p].size() == 0) {
+        SolveEdges input = level == 1 ? levelOneInput.apply(p)
+            : outputs.gather(children[p]);
+        if (input == null || input.size() == 0) {
           continue;
         }
         used++;
-        SolveEdges input = stored(workDir, level, p, "in", inputs[p]);
-        inputs[p] = null;
         int part = p;
         int at = level;
         long allocatedBefore = allocatedBytes();
@@ -103,19 +126,27 @@ public final class HierarchicalSolve {
         largest = Math.max(largest, input.size());
         decided += r.decidedEdges();
         heldBack += r.heldBackEdges();
-        outputs[p] = stored(workDir, level, p, "out", r.remaining());
+        SolveEdges out = r.remaining();
+        for (int e = 0; e < out.size(); e++) {
+          boolean inner = superBlocks.partOfNode(out.u(e), level + 1)
+              == superBlocks.partOfNode(out.v(e), level + 1);
+          halves += inner ? 2 : 1;
+        }
+        next.put(p, out);
         results.add(new PartResult(r.merged(), r.representative(), new SolveEdges(0),
             r.decidedEdges(), r.heldBackEdges()));
       }
       maps.add(RepresentativeMaps.levelOf(results));
-      inputs = gather(superBlocks, outputs, level);
-      long next = distinctEdges(superBlocks, inputs, level + 1);
-      figures.add(new LevelFigures(level, used, distinct, decided, heldBack, next, largest,
-          largestAllocated, (System.nanoTime() - start) / 1e9, solveSeconds));
-      distinct = next;
+      if (outputs != null) {
+        outputs.clear();
+      }
+      outputs = next;
+      figures.add(new LevelFigures(level, used, distinct, decided, heldBack, halves / 2,
+          largest, largestAllocated, (System.nanoTime() - start) / 1e9, solveSeconds));
+      distinct = halves / 2;
       level++;
     }
-    SolveEdges whole = inputs == null ? edges : everything(inputs);
+    SolveEdges whole = outputs == null ? levelOneInput.apply(-1) : outputs.gatherAll();
     if (whole.size() > maxDriverEdges) {
       throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + solver.name()
           + " solve still has " + whole.size() + " edges after " + (level - 1)
@@ -127,7 +158,87 @@ public final class HierarchicalSolve {
     PartResult last = solver.solve(whole, node -> true);
     double driverSeconds = (System.nanoTime() - start) / 1e9;
     maps.add(RepresentativeMaps.levelOf(List.of(last)));
+    if (outputs != null) {
+      outputs.clear();
+    }
     return new Result(new RepresentativeMaps(maps), figures, whole.size(), driverSeconds);
+  }
+
+  /** Per part of {@code level + 1}, its parts of {@code level}, ascending. */
+  static int[][] childrenOf(SuperBlocks superBlocks, int level) {
+    int[] child = superBlocks.partsOfBlocks(level);
+    int[] parent = superBlocks.partsOfBlocks(level + 1);
+    int parents = superBlocks.partCount(level + 1);
+    java.util.TreeSet<Integer>[] sets = new java.util.TreeSet[parents];
+    for (int b = 0; b < child.length; b++) {
+      if (sets[parent[b]] == null) {
+        sets[parent[b]] = new java.util.TreeSet<>();
+      }
+      sets[parent[b]].add(child[b]);
+    }
+    int[][] out = new int[parents][];
+    for (int q = 0; q < parents; q++) {
+      out[q] = sets[q] == null ? new int[0]
+          : sets[q].stream().mapToInt(Integer::intValue).toArray();
+    }
+    return out;
+  }
+
+  /** One level's part outputs, in memory or as edge files. */
+  private static final class PartStore {
+    private final Path dir;
+    private final SolveEdges[] memory;
+
+    PartStore(Path workDir, int level, int parts) {
+      this.dir = workDir == null ? null : workDir.resolve("level-" + level);
+      this.memory = new SolveEdges[parts];
+    }
+
+    private Path file(int part) {
+      return dir.resolve("part-" + part + ".out");
+    }
+
+    void put(int part, SolveEdges edges) {
+      if (dir == null) {
+        memory[part] = edges;
+      } else {
+        EdgeFile.write(file(part), edges);
+        memory[part] = new SolveEdges(0);
+      }
+    }
+
+    private SolveEdges get(int part) {
+      if (memory[part] == null) {
+        return null;
+      }
+      return dir == null ? memory[part] : EdgeFile.read(file(part));
+    }
+
+    /** The outputs of {@code parts}, copies of each edge joined. */
+    SolveEdges gather(int[] parts) {
+      SolveEdges all = new SolveEdges(16);
+      for (int p : parts) {
+        SolveEdges out = get(p);
+        if (out != null) {
+          all.addAll(out);
+        }
+      }
+      return all.joinCopies();
+    }
+
+    SolveEdges gatherAll() {
+      int[] every = new int[memory.length];
+      for (int p = 0; p < every.length; p++) {
+        every[p] = p;
+      }
+      return gather(every);
+    }
+
+    void clear() {
+      for (int p = 0; p < memory.length; p++) {
+        memory[p] = null;
+      }
+    }
   }
 
   /** Level 1's inputs: each edge to the part of each of its ends. O(m). */
@@ -149,74 +260,6 @@ public final class HierarchicalSolve {
       inputs[part] = new SolveEdges(64);
     }
     inputs[part].add(edges, e, edges.u(e), edges.v(e));
-  }
-
-  /** Level {@code level + 1}'s inputs: each part gets its sub-parts' outputs, copies joined. */
-  static SolveEdges[] gather(SuperBlocks superBlocks, SolveEdges[] outputs, int level) {
-    int[] parentOf = new int[outputs.length];
-    int[] childOfBlock = superBlocks.partsOfBlocks(level);
-    int[] parentOfBlock = superBlocks.partsOfBlocks(level + 1);
-    for (int b = 0; b < childOfBlock.length; b++) {
-      parentOf[childOfBlock[b]] = parentOfBlock[b];
-    }
-    SolveEdges[] gathered = new SolveEdges[superBlocks.partCount(level + 1)];
-    for (int p = 0; p < outputs.length; p++) {
-      if (outputs[p] != null) {
-        int q = parentOf[p];
-        if (gathered[q] == null) {
-          gathered[q] = new SolveEdges(outputs[p].size());
-        }
-        gathered[q].addAll(outputs[p]);
-        outputs[p] = null;
-      }
-    }
-    for (int q = 0; q < gathered.length; q++) {
-      if (gathered[q] != null) {
-        gathered[q] = gathered[q].joinCopies();
-      }
-    }
-    return gathered;
-  }
-
-  /** Distinct edges over parts whose edges leaving the part appear in two parts. */
-  private static long distinctEdges(SuperBlocks superBlocks, SolveEdges[] inputs, int level) {
-    long halves = 0;
-    for (int q = 0; q < inputs.length; q++) {
-      SolveEdges in = inputs[q];
-      if (in == null) {
-        continue;
-      }
-      for (int e = 0; e < in.size(); e++) {
-        boolean inner = superBlocks.partOfNode(in.u(e), level) == q
-            && superBlocks.partOfNode(in.v(e), level) == q;
-        halves += inner ? 2 : 1;
-      }
-    }
-    return halves / 2;
-  }
-
-  private static SolveEdges everything(SolveEdges[] inputs) {
-    long total = 0;
-    for (SolveEdges in : inputs) {
-      total += in == null ? 0 : in.size();
-    }
-    SolveEdges all = new SolveEdges((int) Math.min(Integer.MAX_VALUE - 8, total));
-    for (SolveEdges in : inputs) {
-      if (in != null) {
-        all.addAll(in);
-      }
-    }
-    return all.joinCopies();
-  }
-
-  private static SolveEdges stored(Path workDir, int level, int part, String suffix,
-      SolveEdges edges) {
-    if (workDir == null) {
-      return edges;
-    }
-    Path file = workDir.resolve("level-" + level).resolve("part-" + part + "." + suffix);
-    EdgeFile.write(file, edges);
-    return EdgeFile.read(file);
   }
 
   private static long allocatedBytes() {
