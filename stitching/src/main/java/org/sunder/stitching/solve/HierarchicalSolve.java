@@ -128,8 +128,9 @@ public final class HierarchicalSolve {
         heldBack += r.heldBackEdges();
         SolveEdges out = r.remaining();
         for (int e = 0; e < out.size(); e++) {
-          boolean inner = superBlocks.partOfNode(out.u(e), level + 1)
-              == superBlocks.partOfNode(out.v(e), level + 1);
+          // an edge leaving the part has a second copy in the part at its other end
+          boolean inner = superBlocks.partOfNode(out.u(e), level) == part
+              && superBlocks.partOfNode(out.v(e), level) == part;
           halves += inner ? 2 : 1;
         }
         next.put(p, out);
@@ -152,7 +153,7 @@ public final class HierarchicalSolve {
           + " solve still has " + whole.size() + " edges after " + (level - 1)
           + " levels of super-blocks, which is more than solve.maxDriverEdges = "
           + maxDriverEdges + "; raise the bound (and the driver's memory, about 150 bytes per"
-          + " edge) or use a method whose solve is agglomerative");
+          + " edge)");
     }
     long start = System.nanoTime();
     PartResult last = solver.solve(whole, node -> true);
