@@ -3,6 +3,7 @@ package org.sunder.stitching;
 import java.nio.file.Path;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.stitching.solve.HierarchicalSolve;
+import org.sunder.stitching.solve.LinkagePartSolver;
 import org.sunder.stitching.solve.PartSolver;
 import org.sunder.stitching.solve.SolveEdges;
 import org.sunder.stitching.solve.SuperBlocks;
@@ -40,8 +41,9 @@ final class HierarchicalSolver implements ReducedGraphSolver {
 
   @Override
   public int[] clusters(ReducedGraph graph) {
-    last = HierarchicalSolve.run(superBlocks, mutexEdges(graph), maxDriverEdges, parts,
-        workDir);
+    SolveEdges edges = parts instanceof LinkagePartSolver ? linkageEdges(graph)
+        : mutexEdges(graph);
+    last = HierarchicalSolve.run(superBlocks, edges, maxDriverEdges, parts, workDir);
     long[] nodeIds = graph.nodeIds();
     int[] clusters = new int[nodeIds.length];
     for (int i = 0; i < nodeIds.length; i++) {
@@ -49,6 +51,24 @@ final class HierarchicalSolver implements ReducedGraphSolver {
           nodeIds[i]));
     }
     return clusters;
+  }
+
+  /**
+   * The pairs of a reduced graph as {@link LinkagePartSolver} reads them (four rows per pair,
+   * keyed by the pair's provisional ids; separated pairs play no part, as in
+   * {@link AgglomerativeSolver}). O(p).
+   */
+  static SolveEdges linkageEdges(ReducedGraph graph) {
+    long[] ids = graph.nodeIds();
+    EdgeStatistics edges = graph.edges();
+    SolveEdges out = new SolveEdges(4 * edges.size());
+    for (int e = 0; e < edges.size(); e++) {
+      long a = ids[(int) edges.u(e)];
+      long b = ids[(int) edges.v(e)];
+      LinkagePartSolver.addPair(out, a, b, edges.sum(e), edges.count(e), edges.min(e),
+          edges.max(e), a, b);
+    }
+    return out;
   }
 
   /**

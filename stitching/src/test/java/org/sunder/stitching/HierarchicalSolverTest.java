@@ -12,7 +12,9 @@ import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.Linkage;
 import org.sunder.stitching.solve.HierarchicalSolve;
+import org.sunder.stitching.solve.LinkagePartSolver;
 import org.sunder.stitching.solve.MutexPartSolver;
 import org.sunder.stitching.solve.SuperBlocks;
 
@@ -45,6 +47,51 @@ class HierarchicalSolverTest {
       levelsSeen = Math.max(levelsSeen, solver.lastResult().levels().size());
     }
     assertTrue(levelsSeen >= 2, "most levels in one run: " + levelsSeen);
+  }
+
+  @Test
+  void linkageAgglomerationEqualsSingleLevelOnRandomGraphs() {
+    Random random = new Random(31);
+    long settledBelowDriver = 0;
+    for (int trial = 0; trial < 300; trial++) {
+      Linkage linkage = Linkage.values()[trial % Linkage.values().length];
+      boolean constraints = trial / 5 % 2 == 1 && linkage != Linkage.ABS_MAX;
+      double threshold = constraints ? 0 : trial / 10 % 3 == 0 ? 0 : random.nextGaussian() * 0.3;
+      BlockGrid grid = RandomReducedGraphs.grid(2 + random.nextInt(5), 1 + random.nextInt(4),
+          1 + random.nextInt(3));
+      IdLayout layout = IdLayout.forGrid(grid);
+      boolean exact = trial / 30 % 2 == 0;
+      ReducedGraph graph = RandomReducedGraphs.graph(grid, layout, random, exact,
+          2 + random.nextInt(10), 1 + random.nextInt(4));
+      int[] expected = RandomReducedGraphs.canonical(
+          new AgglomerativeSolver(linkage, constraints, threshold, "reference").clusters(graph));
+      SuperBlocks superBlocks = new SuperBlocks(grid, layout, 2 + trial % 2);
+      LinkagePartSolver parts = new LinkagePartSolver(linkage, constraints, threshold);
+      long bound = 1 + random.nextInt(Math.max(1, graph.edges().size()));
+      HierarchicalSolver solver = fitting(graph, superBlocks, parts, 4 * bound);
+      int[] actual = RandomReducedGraphs.canonical(solver.clusters(graph));
+      String what = "trial " + trial + " " + linkage + (constraints ? " constrained" : "")
+          + " threshold " + threshold + (exact ? " exact" : " noisy") + ", levels "
+          + solver.lastResult().levels();
+      assertArrayEquals(expected, actual, what);
+      for (HierarchicalSolve.LevelFigures f : solver.lastResult().levels()) {
+        settledBelowDriver += f.decidedEdges();
+      }
+    }
+    assertTrue(settledBelowDriver > 0, "no part settled anything below the driver");
+  }
+
+  private static HierarchicalSolver fitting(ReducedGraph graph, SuperBlocks superBlocks,
+      org.sunder.stitching.solve.PartSolver parts, long bound) {
+    while (true) {
+      HierarchicalSolver solver = new HierarchicalSolver(parts, superBlocks, bound, null);
+      try {
+        solver.clusters(graph);
+        return solver;
+      } catch (SunderException tooLarge) {
+        bound *= 4;
+      }
+    }
   }
 
   /**

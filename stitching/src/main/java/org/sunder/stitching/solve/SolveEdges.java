@@ -8,7 +8,8 @@ import java.util.Arrays;
  * nodes named by provisional ids ({@code u}, {@code v}: the current representatives of the
  * clusters at its ends, or an end not yet relabelled by the part that holds it), has a weight,
  * and carries its <em>key</em> {@code (keyU, keyV, kind)}: the reduced-graph pair it came from
- * and which of that pair's edges it is ({@link #MAX}, {@link #MIN}, {@link #SEPARATED}). The key
+ * and which of that pair's edges it is ({@link #MAX}, {@link #MIN}, {@link #SEPARATED}; or one of
+ * a pair's statistics, see {@link LinkagePartSolver}). The key
  * never changes: it names the edge across levels and breaks ties in the global order (see
  * {@link MutexOrder}).
  *
