@@ -135,6 +135,16 @@ class HierarchicalSolverTest {
   }
 
   @Test
+  void aMulticutOverTheBoundIsAClearError() {
+    HierarchicalSolve.requireDriverFits("fragments-multicut", 100, 100);
+    SunderException error = assertThrows(SunderException.class,
+        () -> HierarchicalSolve.requireDriverFits("fragments-multicut", 101, 100));
+    assertTrue(error.getMessage().contains("fragments-multicut")
+        && error.getMessage().contains("101 edges")
+        && error.getMessage().contains("solve.maxDriverEdges = 100"), error.getMessage());
+  }
+
+  @Test
   void aSingleSuperBlockOverTheBoundIsAClearError() {
     Random random = new Random(5);
     BlockGrid grid = RandomReducedGraphs.grid(2, 2, 1);

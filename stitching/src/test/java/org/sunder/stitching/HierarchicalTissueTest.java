@@ -9,17 +9,20 @@ import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.partition.Linkage;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.stitching.solve.HierarchicalSolve;
+import org.sunder.stitching.solve.LinkagePartSolver;
 import org.sunder.stitching.solve.MutexPartSolver;
 import org.sunder.stitching.solve.SuperBlocks;
 
 /**
  * On the reduced graph of a blockwise run over synthetic tissue (exact and degraded
- * affinities), the hierarchical Mutex Watershed with bounds that force two and three levels
- * gives the single-level solve's partition.
+ * affinities), the hierarchical Mutex Watershed with bounds that force two and three levels,
+ * and the hierarchical mean agglomeration with the lowest bounds its parts reach, give the
+ * single-level solve's partition.
  */
 class HierarchicalTissueTest {
   private static final long[] SHAPE = {64, 56, 20};
@@ -52,6 +55,41 @@ class HierarchicalTissueTest {
         HierarchicalSolve.Result result = solver.lastResult();
         assertTrue(result.levels().size() + 1 >= wantLevels, "levels " + result.levels());
         assertArrayEquals(expected, actual, "levels " + result.levels());
+      }
+    }
+  }
+
+  @Test
+  void meanAgglomerationAtTwoAndThreeLevelsEqualsTheSingleLevelSolve() {
+    for (Degradation degradation : new Degradation[] {Degradation.none(), MILD}) {
+      TissueScene scene = TissueScene.small(12, SHAPE, degradation);
+      Path root = dir.resolve(degradation.isNone() ? "mean-exact" : "mean-mild");
+      SceneStore.write(scene, root, StorageFormat.ZARR, CHUNK);
+      PartitionConfig config = PartitionConfig.agglomeration(Linkage.MEAN, false, null, null);
+      StitchingSetup setup = SceneStore.setup(scene, root, CHUNK, BLOCK, HALO, config);
+      ReducedGraph graph = reducedGraph(setup);
+      int[] expected = RandomReducedGraphs.canonical(
+          GlobalSolve.solverFor(config).clusters(graph));
+      SuperBlocks superBlocks = new SuperBlocks(setup.grid(), setup.idLayout(), 2);
+      LinkagePartSolver parts = new LinkagePartSolver(Linkage.MEAN, false, config.threshold());
+      long rows = HierarchicalSolver.linkageEdges(graph).size();
+      for (long bound : new long[] {rows / 2, rows / 8}) {
+        HierarchicalSolver solver = null;
+        for (long b = bound; solver == null; b *= 2) {
+          try {
+            HierarchicalSolver attempt = new HierarchicalSolver(parts, superBlocks, b, null);
+            attempt.clusters(graph);
+            solver = attempt;
+          } catch (org.sunder.blockwise.SunderException tooSmall) {
+            assertTrue(tooSmall.getMessage().contains("solve.maxDriverEdges"));
+          }
+        }
+        int[] actual = RandomReducedGraphs.canonical(solver.clusters(graph));
+        assertArrayEquals(expected, actual, "levels " + solver.lastResult().levels());
+        if (!degradation.isNone()) {
+          // exact affinities tie every mean inside an object: parts settle almost nothing there
+          assertTrue(solver.lastResult().levels().size() >= 1, "no level below the driver");
+        }
       }
     }
   }

@@ -165,6 +165,22 @@ public final class HierarchicalSolve {
     return new Result(new RepresentativeMaps(maps), figures, whole.size(), driverSeconds);
   }
 
+  /**
+   * For a method whose solve is not hierarchical (the multicut): a clear error when the reduced
+   * graph does not fit under the driver bound.
+   *
+   * @throws SunderException (INVALID_CONFIG) naming the method, the edge count and the bound
+   */
+  public static void requireDriverFits(String method, long edges, long maxDriverEdges) {
+    if (edges > maxDriverEdges) {
+      throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + method + " solve needs the"
+          + " whole reduced graph on the driver: " + edges + " edges, more than"
+          + " solve.maxDriverEdges = " + maxDriverEdges + ". Raise the bound (about 150 bytes"
+          + " of driver memory per edge), or use mutex-watershed or agglomeration, whose solve"
+          + " runs level by level over super-blocks");
+    }
+  }
+
   /** Per part of {@code level + 1}, its parts of {@code level}, ascending. */
   static int[][] childrenOf(SuperBlocks superBlocks, int level) {
     int[] child = superBlocks.partsOfBlocks(level);
