@@ -3,6 +3,7 @@ package org.sunder.stitching.solve;
 import java.lang.management.ManagementFactory;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.function.IntFunction;
 import org.sunder.blockwise.ErrorKind;
@@ -181,22 +182,32 @@ public final class HierarchicalSolve {
     }
   }
 
-  /** Per part of {@code level + 1}, its parts of {@code level}, ascending. */
+  /** Per part of {@code level + 1}, its parts of {@code level}, ascending. O(blocks). */
   static int[][] childrenOf(SuperBlocks superBlocks, int level) {
     int[] child = superBlocks.partsOfBlocks(level);
     int[] parent = superBlocks.partsOfBlocks(level + 1);
     int parents = superBlocks.partCount(level + 1);
-    java.util.TreeSet<Integer>[] sets = new java.util.TreeSet[parents];
+    long[] links = new long[child.length];
     for (int b = 0; b < child.length; b++) {
-      if (sets[parent[b]] == null) {
-        sets[parent[b]] = new java.util.TreeSet<>();
+      links[b] = ((long) parent[b] << 32) | child[b];
+    }
+    Arrays.sort(links);
+    int[] count = new int[parents];
+    int unique = 0;
+    for (int i = 0; i < links.length; i++) {
+      if (i == 0 || links[i] != links[i - 1]) {
+        links[unique++] = links[i];
+        count[(int) (links[i] >>> 32)]++;
       }
-      sets[parent[b]].add(child[b]);
     }
     int[][] out = new int[parents][];
     for (int q = 0; q < parents; q++) {
-      out[q] = sets[q] == null ? new int[0]
-          : sets[q].stream().mapToInt(Integer::intValue).toArray();
+      out[q] = new int[count[q]];
+      count[q] = 0;
+    }
+    for (int i = 0; i < unique; i++) {
+      int q = (int) (links[i] >>> 32);
+      out[q][count[q]++] = (int) links[i];
     }
     return out;
   }
