@@ -41,16 +41,17 @@ public final class HierarchicalSolve {
    *     ran (an upper bound of its working memory, input excluded)
    * @param seconds wall time of the level (all parts one after another, files included)
    * @param solveSeconds the parts' own solve time, summed
+   * @param cpuSeconds CPU time of this thread over the level (files included)
    */
   public record LevelFigures(int level, int parts, long inputEdges, long decidedEdges,
       long heldBackEdges, long handedUpEdges, long largestPartEdges,
-      long largestPartAllocatedBytes, double seconds, double solveSeconds) {}
+      long largestPartAllocatedBytes, double seconds, double solveSeconds, double cpuSeconds) {}
 
   /**
    * @param representatives every level's merges, the driver's last
    * @param levels figures of the levels before the driver's solve (empty if it fit at once)
    * @param driverEdges edges the driver solved
-   * @param driverSeconds the driver's solve time
+   * @param driverSeconds the driver's solve time (CPU time of this thread; gathering included)
    */
   public record Result(RepresentativeMaps representatives, List<LevelFigures> levels,
       long driverEdges, double driverSeconds) {}
@@ -99,6 +100,7 @@ public final class HierarchicalSolve {
     int level = 1;
     while (distinct > maxDriverEdges && superBlocks.partCount(level) > 1) {
       long start = System.nanoTime();
+      long cpuStart = cpuNanos();
       int parts = superBlocks.partCount(level);
       PartStore next = new PartStore(workDir, level, parts);
       List<PartResult> results = new ArrayList<>();
@@ -144,10 +146,12 @@ public final class HierarchicalSolve {
       }
       outputs = next;
       figures.add(new LevelFigures(level, used, distinct, decided, heldBack, halves / 2,
-          largest, largestAllocated, (System.nanoTime() - start) / 1e9, solveSeconds));
+          largest, largestAllocated, (System.nanoTime() - start) / 1e9, solveSeconds,
+          (cpuNanos() - cpuStart) / 1e9));
       distinct = halves / 2;
       level++;
     }
+    long driverStart = cpuNanos();
     SolveEdges whole = outputs == null ? levelOneInput.apply(-1) : outputs.gatherAll();
     if (whole.size() > maxDriverEdges) {
       throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + solver.name()
@@ -156,9 +160,8 @@ public final class HierarchicalSolve {
           + maxDriverEdges + "; raise the bound (and the driver's memory, about 150 bytes per"
           + " edge)");
     }
-    long start = System.nanoTime();
     PartResult last = solver.solve(whole, node -> true);
-    double driverSeconds = (System.nanoTime() - start) / 1e9;
+    double driverSeconds = (cpuNanos() - driverStart) / 1e9;
     maps.add(RepresentativeMaps.levelOf(List.of(last)));
     if (outputs != null) {
       outputs.clear();
@@ -288,6 +291,10 @@ public final class HierarchicalSolve {
       inputs[part] = new SolveEdges(64);
     }
     inputs[part].add(edges, e, edges.u(e), edges.v(e));
+  }
+
+  private static long cpuNanos() {
+    return ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
   }
 
   private static long allocatedBytes() {
