@@ -1,0 +1,169 @@
+package org.sunder.stitching.solve;
+
+import java.io.Serializable;
+import java.util.Arrays;
+
+/**
+ * The signed edges of one part of a hierarchical solve, struct of arrays. Each edge joins two
+ * nodes named by provisional ids ({@code u}, {@code v}: the current representatives of the
+ * clusters at its ends, or an end not yet relabelled by the part that holds it), has a weight,
+ * and carries its <em>key</em> {@code (keyU, keyV, kind)}: the reduced-graph pair it came from
+ * and which of that pair's edges it is ({@link #MAX}, {@link #MIN}, {@link #SEPARATED}; or one of
+ * a pair's statistics, see {@link LinkagePartSolver}). The key
+ * never changes: it names the edge across levels and breaks ties in the global order (see
+ * {@link MutexOrder}).
+ *
+ * <p>Growable while built ({@link #add}); treat as immutable afterwards. 33 bytes per edge.
+ */
+public final class SolveEdges implements Serializable {
+  private static final long serialVersionUID = 1L;
+  /** The edge holding a pair's largest weight (attractive). */
+  public static final byte MAX = 0;
+  /** The edge holding a pair's smallest weight (repulsive). */
+  public static final byte MIN = 1;
+  /** A pair a block kept apart; its weight is {@link #APART}. */
+  public static final byte SEPARATED = 2;
+  /** The weight of a separated pair: stronger than any edge weight, repulsive. */
+  public static final double APART = -1e300;
+
+  private long[] u;
+  private long[] v;
+  private double[] weight;
+  private long[] keyU;
+  private long[] keyV;
+  private byte[] kind;
+  private int size;
+
+  public SolveEdges(int expected) {
+    int m = Math.max(4, expected);
+    u = new long[m];
+    v = new long[m];
+    weight = new double[m];
+    keyU = new long[m];
+    keyV = new long[m];
+    kind = new byte[m];
+  }
+
+  /** Appends an edge; O(1) amortised. */
+  public void add(long a, long b, double w, long ka, long kb, byte k) {
+    if (size == u.length) {
+      int m = size * 2;
+      u = Arrays.copyOf(u, m);
+      v = Arrays.copyOf(v, m);
+      weight = Arrays.copyOf(weight, m);
+      keyU = Arrays.copyOf(keyU, m);
+      keyV = Arrays.copyOf(keyV, m);
+      kind = Arrays.copyOf(kind, m);
+    }
+    u[size] = a;
+    v[size] = b;
+    weight[size] = w;
+    keyU[size] = ka;
+    keyV[size] = kb;
+    kind[size] = k;
+    size++;
+  }
+
+  /** Appends edge {@code e} of {@code other} with its ends replaced by {@code a}, {@code b}. */
+  public void add(SolveEdges other, int e, long a, long b) {
+    add(a, b, other.weight[e], other.keyU[e], other.keyV[e], other.kind[e]);
+  }
+
+  /** Appends every edge of {@code other}. */
+  public void addAll(SolveEdges other) {
+    for (int e = 0; e < other.size; e++) {
+      add(other, e, other.u[e], other.v[e]);
+    }
+  }
+
+  public int size() {
+    return size;
+  }
+
+  public long u(int e) {
+    return u[e];
+  }
+
+  public long v(int e) {
+    return v[e];
+  }
+
+  public double weight(int e) {
+    return weight[e];
+  }
+
+  public long keyU(int e) {
+    return keyU[e];
+  }
+
+  public long keyV(int e) {
+    return keyV[e];
+  }
+
+  public byte kind(int e) {
+    return kind[e];
+  }
+
+  /** Compares the keys of edges {@code a} and {@code b} of this list. */
+  int compareKeys(int a, int b) {
+    return compareKeys(this, a, this, b);
+  }
+
+  static int compareKeys(SolveEdges x, int a, SolveEdges y, int b) {
+    int c = Long.compare(x.keyU[a], y.keyU[b]);
+    if (c != 0) {
+      return c;
+    }
+    c = Long.compare(x.keyV[a], y.keyV[b]);
+    return c != 0 ? c : Byte.compare(x.kind[a], y.kind[b]);
+  }
+
+  /**
+   * Joins the copies of one edge: the parts on both sides of a crossing edge each hand up a
+   * copy with their own end relabelled to its representative, the smallest provisional id of
+   * its cluster, and the other end as they received it. Representatives only decrease, so the
+   * joined edge takes the smaller value at each end. Returns a new list sorted by key, one edge
+   * per key. O(m log m).
+   */
+  public SolveEdges joinCopies() {
+    int[] order = EdgeSort.byKey(this);
+    SolveEdges out = new SolveEdges(size);
+    int i = 0;
+    while (i < size) {
+      int e = order[i];
+      long a = u[e];
+      long b = v[e];
+      int j = i + 1;
+      while (j < size && compareKeys(order[j], e) == 0) {
+        a = Math.min(a, u[order[j]]);
+        b = Math.min(b, v[order[j]]);
+        j++;
+      }
+      out.add(this, e, a, b);
+      i = j;
+    }
+    return out;
+  }
+
+  @Override
+  public boolean equals(Object o) {
+    if (!(o instanceof SolveEdges s) || s.size != size) {
+      return false;
+    }
+    return Arrays.equals(u, 0, size, s.u, 0, size) && Arrays.equals(v, 0, size, s.v, 0, size)
+        && Arrays.equals(weight, 0, size, s.weight, 0, size)
+        && Arrays.equals(keyU, 0, size, s.keyU, 0, size)
+        && Arrays.equals(keyV, 0, size, s.keyV, 0, size)
+        && Arrays.equals(kind, 0, size, s.kind, 0, size);
+  }
+
+  @Override
+  public int hashCode() {
+    return Arrays.hashCode(Arrays.copyOf(keyU, size)) * 31 + size;
+  }
+
+  @Override
+  public String toString() {
+    return "SolveEdges[" + size + " edges]";
+  }
+}

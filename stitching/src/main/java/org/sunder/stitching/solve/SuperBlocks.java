@@ -1,0 +1,89 @@
+package org.sunder.stitching.solve;
+
+import java.io.Serializable;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.IdLayout;
+
+/**
+ * The super-blocks of each level of a hierarchical solve: at level {@code l >= 1} a super-block
+ * is a box of {@code factor^l} blocks per axis (cut off at the grid's upper border), numbered
+ * with dimension 0 fastest. Level {@code l + 1}'s super-blocks are unions of level {@code l}'s,
+ * so a node stays in one part per level. An immutable value.
+ */
+public final class SuperBlocks implements Serializable {
+  private static final long serialVersionUID = 1L;
+  private final long[] gridShape;
+  private final long[][] blockPositions;
+  private final int factor;
+  private final IdLayout layout;
+
+  public SuperBlocks(BlockGrid grid, IdLayout layout, int factor) {
+    if (factor < 2) {
+      throw new SunderException(ErrorKind.INVALID_CONFIG, "solve.superBlockFactor: " + factor
+          + " blocks per axis; expected at least 2");
+    }
+    this.gridShape = grid.gridShape();
+    this.blockPositions = new long[grid.blockCount()][];
+    for (int b = 0; b < grid.blockCount(); b++) {
+      blockPositions[b] = grid.gridPosition(b);
+    }
+    this.factor = factor;
+    this.layout = layout;
+  }
+
+  public int factor() {
+    return factor;
+  }
+
+  public IdLayout layout() {
+    return layout;
+  }
+
+  /** Blocks per axis in one super-block of {@code level}. */
+  private long span(int level) {
+    long span = 1;
+    for (int l = 0; l < level; l++) {
+      span = Math.min(span * factor, Long.MAX_VALUE / factor);
+    }
+    return span;
+  }
+
+  /** The number of super-blocks at {@code level}. */
+  public int partCount(int level) {
+    long span = span(level);
+    long count = 1;
+    for (long s : gridShape) {
+      count *= (s + span - 1) / span;
+    }
+    return Math.toIntExact(count);
+  }
+
+  /** The super-block of {@code level} holding block {@code block}. */
+  public int partOfBlock(int block, int level) {
+    long span = span(level);
+    long index = 0;
+    long stride = 1;
+    long[] position = blockPositions[block];
+    for (int d = 0; d < gridShape.length; d++) {
+      index += position[d] / span * stride;
+      stride *= (gridShape[d] + span - 1) / span;
+    }
+    return (int) index;
+  }
+
+  /** The super-block of {@code level} holding the segment with provisional id {@code node}. */
+  public int partOfNode(long node, int level) {
+    return partOfBlock(layout.blockOf(node), level);
+  }
+
+  /** Per block, its super-block at {@code level}. */
+  public int[] partsOfBlocks(int level) {
+    int[] parts = new int[blockPositions.length];
+    for (int b = 0; b < parts.length; b++) {
+      parts[b] = partOfBlock(b, level);
+    }
+    return parts;
+  }
+}
