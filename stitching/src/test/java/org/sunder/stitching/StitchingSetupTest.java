@@ -68,7 +68,7 @@ class StitchingSetupTest {
     Path root = dir.resolve("e");
     StitchingSetup setup = setup(root, PartitionConfig.agglomeration(Linkage.MEAN, false, null,
         Subsampling.hash(0.5, 3)));
-    assertEquals(setup.partitionConfig(), roundTrip(setup).partitionConfig());
+    assertEquals(setup.partition(), roundTrip(setup).partition());
     assertEquals(setup.grid(), roundTrip(setup).grid());
     setup.createLabels();
     List<BlockSummary> summaries = new ArrayList<>();

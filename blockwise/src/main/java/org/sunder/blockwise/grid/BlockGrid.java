@@ -382,21 +382,17 @@ public final class BlockGrid implements Serializable {
 
   /**
    * The axes along which the halo is shorter than the longest offset (empty when it is long
-   * enough everywhere). Offsets are in memory order, one vector per channel.
+   * enough everywhere).
    *
-   * @throws SunderException {@link ErrorKind#INVALID_CONFIG} if an offset has the wrong dimension
+   * @param longest the longest offset along each axis, memory order (the offsets' {@code reach})
+   * @throws SunderException {@link ErrorKind#INVALID_CONFIG} if it has the wrong dimension
    */
-  public List<HaloShortfall> haloShortfalls(int[][] offsets) {
+  public List<HaloShortfall> haloShortfalls(int[] longest) {
     int n = volumeShape.length;
-    int[] longest = new int[n];
-    for (int[] offset : offsets) {
-      if (offset.length != n) {
-        throw new SunderException(ErrorKind.INVALID_CONFIG, "offset " + Arrays.toString(offset)
-            + " has " + offset.length + " components; the volume has " + n + " dimensions");
-      }
-      for (int d = 0; d < n; d++) {
-        longest[d] = Math.max(longest[d], Math.abs(offset[d]));
-      }
+    if (longest.length != n) {
+      throw new SunderException(ErrorKind.INVALID_CONFIG, "longest offset "
+          + Arrays.toString(longest) + " has " + longest.length + " components; the volume has "
+          + n + " dimensions");
     }
     List<HaloShortfall> shortfalls = new ArrayList<>();
     for (int d = 0; d < n; d++) {

@@ -57,7 +57,9 @@ import org.sunder.blockwise.graph.WeightRule;
  * as constructor parameters (null = default), its checks in {@link #validate(Offsets)} and a case
  * in {@link #create()} returning its {@link Partitioner}. Immutable.
  */
-public final class PartitionConfig {
+public final class PartitionConfig implements java.io.Serializable {
+  private static final long serialVersionUID = 1L;
+
 
   /** The partition methods by JSON name. */
   public enum Method {

@@ -1,6 +1,7 @@
 package org.sunder.spark.kryo;
 
 import com.esotericsoftware.kryo.Kryo;
+import com.esotericsoftware.kryo.serializers.JavaSerializer;
 import org.apache.spark.serializer.KryoRegistrator;
 
 /**
@@ -14,7 +15,9 @@ public final class SunderKryoRegistrator implements KryoRegistrator {
   @SuppressWarnings({"unchecked", "rawtypes"})
   public void registerClasses(Kryo kryo) {
     for (Class<?> type : PayloadClasses.ALL) {
-      if (type.isRecord()) {
+      if (PayloadClasses.JAVA_SERIALIZED.contains(type)) {
+        kryo.register(type, new JavaSerializer());
+      } else if (type.isRecord()) {
         kryo.register(type, new RecordSerializer(type));
       } else {
         kryo.register(type);

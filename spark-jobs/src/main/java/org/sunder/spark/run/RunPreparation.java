@@ -15,20 +15,16 @@ import java.util.stream.Stream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
-import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.spark.SunderVersion;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.stage.Stage;
-import org.sunder.spark.stage.StitchingSetups;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.ResumeDecision;
 import org.sunder.spark.workdir.ResumePlanner;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.spark.workdir.WorkDirLock;
-import org.sunder.stitching.StitchingSetup;
 
 /**
  * Readies the work dir and the output dataset for a run, refusing before anything is written
@@ -36,7 +32,8 @@ import org.sunder.stitching.StitchingSetup;
  * process holds the work dir's {@link WorkDirLock} (also with {@code --fresh}). The prepared run
  * holds that lock until it is closed. The output dataset carries the attribute {@value #MARKER}
  * with the run's id, which ties it to its work dir. Temporary chunk files that a killed run left
- * in the output dataset are removed.
+ * in the output dataset are removed. The inputs are checked and the output datasets created by
+ * the run's {@link org.sunder.stitching.StitchingSetup#prepare()}, as the in-process runner does.
  */
 public final class RunPreparation {
   /** Attribute of the output dataset naming the run that owns it. */
@@ -158,10 +155,6 @@ public final class RunPreparation {
       notes.add("removed " + stale + " temporary chunk file" + (stale == 1 ? "" : "s")
           + " that an interrupted run left in output dataset '" + dataset + "'");
     }
-    StitchingSetup setup = StitchingSetups.of(settings);
-    if (setup.tracksContinuations()) {
-      setup.createContinuations();
-    }
     work.writeManifest(current);
     return new PreparedRun(settings, work, current, notes, lock);
   }
@@ -239,9 +232,9 @@ public final class RunPreparation {
           : formatOf(Path.of(s.inputContainer()));
       container = Container.create(root, format);
     }
-    if (!container.datasetExists(dataset)) {
-      container.createDataset(dataset,
-          DatasetSpec.of(s.volumeShape(), s.chunkShape(), DataType.UINT64));
+    boolean created = !container.datasetExists(dataset);
+    Dataset labels = s.setup().prepare();
+    if (created) {
       Map<String, Object> marker = new LinkedHashMap<>();
       marker.put("runId", runId);
       marker.put("workDir", s.workDir());
@@ -251,7 +244,7 @@ public final class RunPreparation {
       attributes.put("axes", "zyx");
       container.mergeAttributes(dataset, attributes);
     }
-    return container.openDataset(dataset);
+    return labels;
   }
 
   private static StorageFormat formatOf(Path input) {

@@ -16,6 +16,7 @@ import java.util.stream.Collectors;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.FragmentOptions;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.Container;
@@ -24,6 +25,7 @@ import org.sunder.blockwise.store.Dataset;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.config.RunConfig;
+import org.sunder.stitching.StitchingSetup;
 
 /**
  * Checks a {@link RunConfig} against the input containers and fills in what depends on them:
@@ -47,7 +49,7 @@ public final class RunResolver {
    * Resolves {@code config} (with defaults filled in); relative paths against the current
    * directory ({@link RunLoader} first resolves a file's paths against the file's folder).
    */
-  public static RunSettings resolve(RunConfig config, TaskHooks hooks) {
+  public static RunSettings resolve(RunConfig config) {
     AxisOrder axes = config.axisOrder();
     int n = axes.dimensions();
     Path inputPath = absolute(config.input().container());
@@ -75,7 +77,7 @@ public final class RunResolver {
           + "; affinities must be float32 in [0, 1] or uint8 (value / 255)");
     }
     int[] chunks = Arrays.copyOf(affinities.chunkShape(), n);
-    int[][] offsets = offsets(config, input, affName, axes, channels);
+    Offsets offsets = offsets(config, input, affName, axes, channels);
     int[] blockShape = blockShape(config, axes, volume, chunks);
     int[] halo = halo(config, axes, offsets);
     requireArraySized(config, axes, volume, blockShape, halo, channels);
@@ -109,13 +111,14 @@ public final class RunResolver {
             + "; expected integer labels");
       }
     }
-    String partitionJson = partitionJson(config, offsets,
+    PartitionConfig partition = partition(config, offsets,
         voxelSize(input.readAttributes(affName), axes));
-    RunSettings settings = new RunSettings(axes.letters(), inputPath.toString(), affName, offsets,
-        mask, outputPath.toString(), outputDataset, workDir.toString(), volume, chunks,
-        blockShape, halo, partitionJson, config.solve().maxDriverEdges(), truthPath.toString(),
-        truth, config.evaluate().ignoreBackground(), hooks);
-    return settings;
+    StitchingSetup setup = StitchingSetup.of(inputPath, affName, mask == null ? "" : mask,
+        outputPath, outputDataset, BlockGrid.of(volume, chunks, blockShape, halo), offsets,
+        partition);
+    return new RunSettings(axes.letters(), setup, workDir.toString(),
+        config.solve().maxDriverEdges(), truthPath.toString(), truth,
+        config.evaluate().ignoreBackground());
   }
 
   /**
@@ -169,21 +172,20 @@ public final class RunResolver {
   /**
    * The partition section checked against the offsets. A fragment method without
    * {@code fragments.voxelSize} or {@code fragments.perSlice} gets them fitted to the input's
-   * voxel size ({@link FragmentOptions#fittedTo}), written into the section so the manifest
-   * shows what ran.
+   * voxel size ({@link FragmentOptions#fittedTo}); the manifest shows the result with every
+   * default written out ({@link RunIdentity#canonicalConfig}).
    */
-  private static String partitionJson(RunConfig config, int[][] offsets,
+  private static PartitionConfig partition(RunConfig config, Offsets offsets,
       double[] voxelSizeSlowestFirst) {
-    PartitionConfig partition;
     try {
       ObjectNode section = config.partition().deepCopy();
       completeDefault(section, voxelSizeSlowestFirst);
       fitFragments(section, voxelSizeSlowestFirst);
       String json = JSON.writeValueAsString(section);
       requireKnownKeys(json);
-      partition = PartitionConfig.fromJson(json);
-      partition.validate(new Offsets(offsets));
-      return json;
+      PartitionConfig partition = PartitionConfig.fromJson(json);
+      partition.validate(offsets);
+      return partition;
     } catch (JsonProcessingException e) {
       throw new ConfigException("partition: cannot encode the section: " + e.getMessage(), e);
     } catch (ConfigException e) {
@@ -328,7 +330,11 @@ public final class RunResolver {
     }
   }
 
-  private static int[][] offsets(RunConfig config, Container input, String affName, AxisOrder axes,
+  /**
+   * The offsets in memory order, from {@code input.offsets} or the dataset's attribute. Every
+   * error names where the offset came from and shows it as written there (file order).
+   */
+  private static Offsets offsets(RunConfig config, Container input, String affName, AxisOrder axes,
       long channels) {
     int[][] fileOrder = config.input().offsets();
     String source = "input.offsets";
@@ -385,9 +391,16 @@ public final class RunResolver {
         throw new ConfigException(where + ": the zero offset connects a voxel"
             + " to itself; every offset needs a non-zero entry");
       }
+      for (int j = 0; j < k; j++) {
+        if (Arrays.equals(fileOrder[j], offset)) {
+          throw new ConfigException(where + ": " + Arrays.toString(offset) + " (" + order
+              + ") repeats " + (fromConfig ? "input.offsets[" + j + "]" : "offset " + j)
+              + "; every channel needs its own offset");
+        }
+      }
       memory[k] = order.toMemory(offset);
     }
-    return memory;
+    return new Offsets(memory);
   }
 
   private static String example(AxisOrder axes) {
@@ -446,17 +459,11 @@ public final class RunResolver {
     }
   }
 
-  private static int[] halo(RunConfig config, AxisOrder axes, int[][] offsets) {
+  private static int[] halo(RunConfig config, AxisOrder axes, Offsets offsets) {
     int n = axes.dimensions();
     int[] fileHalo = config.blocks().halo();
     if (fileHalo == null) {
-      int[] halo = new int[n];
-      for (int[] offset : offsets) {
-        for (int d = 0; d < n; d++) {
-          halo[d] = Math.max(halo[d], Math.abs(offset[d]));
-        }
-      }
-      return halo;
+      return offsets.reach();
     }
     if (fileHalo.length != n || Arrays.stream(fileHalo).anyMatch(h -> h < 0)) {
       throw new ConfigException("blocks.halo: expected " + n + " integers >= 0 (" + axes

@@ -4,6 +4,7 @@ import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.BitSet;
 import java.util.List;
+import org.apache.spark.SparkConf;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.BlockGrid;
@@ -70,7 +71,9 @@ public final class Pipeline {
     long start = System.nanoTime();
     Broadcast<RunSettings> broadcast = sc.broadcast(settings);
     WorkDir work = run.workDir();
-    StageRunner runner = new StageRunner(sc, broadcast, work, out);
+    TaskHooks hooks = TaskHooks.from(new SparkConf());
+    StageRunner runner = new StageRunner(sc, broadcast, work, out, hooks);
+    SolveStep solve = new SolveStep(sc, work, out, hooks);
     BlockGrid grid = settings.grid();
     List<StageReport> reports = new ArrayList<>();
     GlobalSolve.Result solved = null;
@@ -86,10 +89,10 @@ public final class Pipeline {
       switch (stage) {
         case PARTITION -> reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Partition()));
         case SEAMS -> reports.add(runner.run(stage, grid.faceCount(), new StageBodies.Seams()));
-        case SOLVE -> solved = new SolveStep(sc, work, out).run(settings, reports);
+        case SOLVE -> solved = solve.run(settings, reports);
         case RELABEL -> {
           if (solved == null) {
-            solved = new SolveStep(sc, work, out).recorded();
+            solved = solve.recorded();
           }
           Broadcast<FinalIdMap> map = sc.broadcast(solved.finalIds());
           reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Relabel(map)));
@@ -109,7 +112,7 @@ public final class Pipeline {
     }
     broadcast.destroy();
     if (solved == null && work.ledger(Stage.SOLVE).isFinished(0)) {
-      solved = new SolveStep(sc, work, out).recorded();
+      solved = solve.recorded();
     }
     SeamAudit seams = null;
     boolean complete = work.ledger(Stage.RELABEL).finished().cardinality() == grid.blockCount();

@@ -21,12 +21,14 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
   private final Broadcast<RunSettings> settings;
   private final Stage stage;
   private final TaskBody body;
+  private final TaskHooks hooks;
   private final PayloadCodec codec = new PayloadCodec();
 
-  RecordingTask(Broadcast<RunSettings> settings, Stage stage, TaskBody body) {
+  RecordingTask(Broadcast<RunSettings> settings, Stage stage, TaskBody body, TaskHooks hooks) {
     this.settings = settings;
     this.stage = stage;
     this.body = body;
+    this.hooks = hooks;
   }
 
   @Override
@@ -38,7 +40,7 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
       int index = indices.next();
       Object result;
       try {
-        s.hooks().beforeTask(stage.cliName(), index, work.root());
+        hooks.beforeTask(stage.cliName(), index, work.root());
         result = body.run(s, index);
       } catch (OutOfMemoryError e) {
         throw new TaskOutOfMemory(stage.cliName() + " task " + index + " ran out of memory ("

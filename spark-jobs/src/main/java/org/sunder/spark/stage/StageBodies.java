@@ -23,7 +23,7 @@ final class StageBodies {
 
     @Override
     public Object run(RunSettings settings, int block) {
-      return PartitionTask.run(StitchingSetups.of(settings), block);
+      return PartitionTask.run(settings.setup(), block);
     }
   }
 
@@ -33,7 +33,7 @@ final class StageBodies {
 
     @Override
     public Object run(RunSettings settings, int face) {
-      return SeamTask.run(StitchingSetups.of(settings), face);
+      return SeamTask.run(settings.setup(), face);
     }
   }
 
@@ -48,7 +48,7 @@ final class StageBodies {
 
     @Override
     public Object run(RunSettings settings, int block) {
-      StitchingSetup setup = StitchingSetups.of(settings);
+      StitchingSetup setup = settings.setup();
       FinalIdMap ids = map.value();
       long changed = 0;
       List<long[]> chunks = setup.grid().chunkPositionsOf(block);
@@ -73,7 +73,7 @@ final class StageBodies {
 
   static EvaluationTarget target(RunSettings s) {
     return new EvaluationTarget(s.outputContainer(), s.outputDataset(), s.truthContainer(),
-        s.groundTruth(), s.mask() == null ? null : s.inputContainer(), s.mask(),
+        s.groundTruth(), s.mask().isPresent() ? s.inputContainer() : null, s.mask().orElse(null),
         s.ignoreBackground());
   }
 }

@@ -26,7 +26,7 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.ChildCli;
 import org.sunder.spark.cli.CliRun;
-import org.sunder.spark.run.TaskHooks;
+import org.sunder.spark.stage.TaskHooks;
 import org.sunder.spark.stage.Stage;
 import org.sunder.spark.workdir.WorkDir;
 

@@ -24,7 +24,7 @@ class RunPreparationTest {
 
   private static RunSettings settings(Path root, String extra) {
     return RunResolver.resolve(new ConfigReader().parse("{\"input\": {\"container\": \"" + root
-        + "\"}" + extra + "}").withDefaults(), TaskHooks.NONE);
+        + "\"}" + extra + "}").withDefaults());
   }
 
   private static Path input(Path dir) {
