@@ -381,6 +381,29 @@ public final class BlockGrid implements Serializable {
   }
 
   /**
+   * Whole chunks, grown one chunk at a time along the axis with the fewest voxels that is still
+   * shorter than the volume, until the shape holds at least {@code minVoxels} voxels or covers
+   * the volume: the default block shape of a run and the box shape of an evaluation.
+   * O(n x chunks added).
+   */
+  public static int[] wholeChunkShape(long[] volume, int[] chunks, long minVoxels) {
+    int n = volume.length;
+    int[] shape = chunks.clone();
+    while (true) {
+      int grow = -1;
+      for (int d = 0; d < n; d++) {
+        if (shape[d] < volume[d] && (grow < 0 || shape[d] < shape[grow])) {
+          grow = d;
+        }
+      }
+      if (Shapes.elementCount(shape) >= minVoxels || grow < 0) {
+        return shape;
+      }
+      shape[grow] += chunks[grow];
+    }
+  }
+
+  /**
    * The axes along which the halo is shorter than the longest offset (empty when it is long
    * enough everywhere).
    *

@@ -439,24 +439,7 @@ public final class RunResolver {
 
   /** Whole chunks, grown along the axis with the fewest voxels until about 2^20 voxels. */
   static int[] defaultBlockShape(long[] volume, int[] chunks) {
-    int n = volume.length;
-    int[] shape = chunks.clone();
-    while (true) {
-      long voxels = 1;
-      for (int s : shape) {
-        voxels *= s;
-      }
-      int grow = -1;
-      for (int d = 0; d < n; d++) {
-        if (shape[d] < volume[d] && (grow < 0 || shape[d] < shape[grow])) {
-          grow = d;
-        }
-      }
-      if (voxels >= DEFAULT_BLOCK_VOXELS || grow < 0) {
-        return shape;
-      }
-      shape[grow] += chunks[grow];
-    }
+    return BlockGrid.wholeChunkShape(volume, chunks, DEFAULT_BLOCK_VOXELS);
   }
 
   private static int[] halo(RunConfig config, AxisOrder axes, Offsets offsets) {

@@ -9,12 +9,9 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.metrics.ContingencyTable;
-import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.ConfigException;
-import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
@@ -24,6 +21,8 @@ import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunReport;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.EvaluateTask;
+import org.sunder.stitching.EvaluationTarget;
 import org.sunder.stitching.FinalIdMap;
 import org.sunder.stitching.GlobalSolve;
 
@@ -131,16 +130,12 @@ public final class Pipeline {
   }
 
   private SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
-    ContingencyTable table = new ContingencyTable();
+    List<ContingencyTable.Pairs> boxes = new ArrayList<>(blocks);
     for (int b = 0; b < blocks; b++) {
-      ContingencyTable.Pairs pairs = codec.decode(work.ledger(Stage.EVALUATE).read(b),
-          ContingencyTable.Pairs.class, "evaluate record " + b);
-      for (int i = 0; i < pairs.size(); i++) {
-        table.add(pairs.groundTruth()[i], pairs.segment()[i], pairs.count()[i]);
-      }
+      boxes.add(codec.decode(work.ledger(Stage.EVALUATE).read(b), ContingencyTable.Pairs.class,
+          "evaluate record " + b));
     }
-    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(ignoreBackground))
-        .score(table);
+    return EvaluateTask.score(boxes, ignoreBackground);
   }
 
   /** Throws unless every stage before {@code stage} has finished all its tasks. */

@@ -4,9 +4,9 @@ import java.util.List;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.spark.evaluate.BlockContingency;
-import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.stitching.EvaluateTask;
+import org.sunder.stitching.EvaluationTarget;
 import org.sunder.stitching.FinalIdMap;
 import org.sunder.stitching.PartitionTask;
 import org.sunder.stitching.RelabelTask;
@@ -67,7 +67,7 @@ final class StageBodies {
     public Object run(RunSettings settings, int block) {
       BlockGrid grid = settings.grid();
       Block b = grid.block(block);
-      return BlockContingency.count(target(settings), b.coreMin(), b.coreMax());
+      return EvaluateTask.count(target(settings), b.coreMin(), b.coreMax());
     }
   }
 
