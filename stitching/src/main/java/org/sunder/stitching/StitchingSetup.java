@@ -1,5 +1,7 @@
 package org.sunder.stitching;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.Serializable;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -36,6 +38,7 @@ import org.sunder.blockwise.store.DatasetSpec;
 public record StitchingSetup(String inputRoot, String affinitiesPath, String maskPath,
     String outputRoot, String labelsPath, BlockGrid grid, Offsets offsets,
     PartitionConfig partition) implements Serializable {
+  private static final ObjectMapper JSON = new ObjectMapper();
 
   /** A setup; validates the partition configuration against the offsets. */
   public static StitchingSetup of(Path inputRoot, String affinitiesPath, String maskPathOrEmpty,
@@ -45,6 +48,35 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
     offsets.requireDimension(grid.numDimensions(), "offsets");
     return new StitchingSetup(inputRoot.toString(), affinitiesPath, maskPathOrEmpty,
         outputRoot.toString(), labelsPath, grid, offsets, partition);
+  }
+
+  /**
+   * The setup of a run from its configuration's values: {@code offsets} one per channel in
+   * memory order, {@code partitionSection} the configuration's {@code "partition"} section,
+   * resolved and validated here (see {@link PartitionSection}) against the input's voxel size
+   * (slowest axis first, or null when unknown).
+   *
+   * @throws SunderException INVALID_CONFIG naming the key at fault
+   */
+  public static StitchingSetup resolve(Path inputRoot, String affinitiesPath,
+      String maskPathOrEmpty, Path outputRoot, String labelsPath, BlockGrid grid, int[][] offsets,
+      JsonNode partitionSection, double[] voxelSizeSlowestFirst) {
+    Offsets vectors = new Offsets(offsets);
+    return of(inputRoot, affinitiesPath, maskPathOrEmpty, outputRoot, labelsPath, grid, vectors,
+        PartitionSection.resolve(partitionSection, voxelSizeSlowestFirst, vectors));
+  }
+
+  /** The longest of {@code offsets} (memory order) along each axis: the default halo. */
+  public static int[] longestOffsets(int[][] offsets) {
+    return new Offsets(offsets).reach();
+  }
+
+  /**
+   * The partition configuration with every default written out, as JSON: what a run records
+   * and fingerprints, so two configurations that mean the same partition give the same text.
+   */
+  public JsonNode partitionJson() {
+    return JSON.valueToTree(partition);
   }
 
   /** The same run writing its labels to {@code otherLabelsPath} in the output container. */

@@ -20,7 +20,7 @@ import java.util.TreeMap;
 import java.util.stream.Stream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.SunderVersion;
+import org.sunder.spark.workdir.SunderVersion;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.workdir.Manifest;
 
@@ -72,7 +72,7 @@ public final class RunIdentity {
     ObjectNode blocks = root.putObject("blocks");
     blocks.set("shape", JSON.valueToTree(axes.toFile(s.blockShape())));
     blocks.set("halo", JSON.valueToTree(axes.toFile(s.halo())));
-    root.set("partition", JSON.valueToTree(s.partition()));
+    root.set("partition", s.setup().partitionJson());
     root.putObject("solve").put("maxDriverEdges", s.maxDriverEdges());
     ObjectNode evaluate = root.putObject("evaluate");
     evaluate.put("container", s.truthContainer());

@@ -1,24 +1,14 @@
 package org.sunder.spark.run;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.DeserializationFeature;
-import com.fasterxml.jackson.databind.JsonMappingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.exc.UnrecognizedPropertyException;
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
-import java.util.stream.Collectors;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.partition.FragmentOptions;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
@@ -40,8 +30,6 @@ public final class RunResolver {
   static final long MAX_ARRAY_VALUES = Integer.MAX_VALUE - 8L;
 
   private static final ObjectMapper JSON = new ObjectMapper();
-  private static final ObjectMapper STRICT = new ObjectMapper()
-      .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
 
   private RunResolver() {}
 
@@ -77,7 +65,7 @@ public final class RunResolver {
           + "; affinities must be float32 in [0, 1] or uint8 (value / 255)");
     }
     int[] chunks = Arrays.copyOf(affinities.chunkShape(), n);
-    Offsets offsets = offsets(config, input, affName, axes, channels);
+    int[][] offsets = offsets(config, input, affName, axes, channels);
     int[] blockShape = blockShape(config, axes, volume, chunks);
     int[] halo = halo(config, axes, offsets);
     requireArraySized(config, axes, volume, blockShape, halo, channels);
@@ -111,11 +99,15 @@ public final class RunResolver {
             + "; expected integer labels");
       }
     }
-    PartitionConfig partition = partition(config, offsets,
-        voxelSize(input.readAttributes(affName), axes));
-    StitchingSetup setup = StitchingSetup.of(inputPath, affName, mask == null ? "" : mask,
-        outputPath, outputDataset, BlockGrid.of(volume, chunks, blockShape, halo), offsets,
-        partition);
+    StitchingSetup setup;
+    try {
+      setup = StitchingSetup.resolve(inputPath, affName, mask == null ? "" : mask, outputPath,
+          outputDataset, BlockGrid.of(volume, chunks, blockShape, halo), offsets,
+          config.partition(), voxelSize(input.readAttributes(affName), axes));
+    } catch (SunderException e) {
+      throw e.kind() == ErrorKind.INVALID_CONFIG && !(e instanceof ConfigException)
+          ? new ConfigException(e.getMessage(), e) : e;
+    }
     return new RunSettings(axes.letters(), setup, workDir.toString(),
         config.solve().maxDriverEdges(), truthPath.toString(), truth,
         config.evaluate().ignoreBackground());
@@ -166,95 +158,6 @@ public final class RunResolver {
       throw new ConfigException((config.workDir() == null ? "workDir (from output.container)"
           : "workDir") + ": " + workDir + " is inside the input container " + input
           + "; choose a directory outside it");
-    }
-  }
-
-  /**
-   * The partition section checked against the offsets. A fragment method without
-   * {@code fragments.voxelSize} or {@code fragments.perSlice} gets them fitted to the input's
-   * voxel size ({@link FragmentOptions#fittedTo}); the manifest shows the result with every
-   * default written out ({@link RunIdentity#canonicalConfig}).
-   */
-  private static PartitionConfig partition(RunConfig config, Offsets offsets,
-      double[] voxelSizeSlowestFirst) {
-    try {
-      ObjectNode section = config.partition().deepCopy();
-      completeDefault(section, voxelSizeSlowestFirst);
-      fitFragments(section, voxelSizeSlowestFirst);
-      String json = JSON.writeValueAsString(section);
-      requireKnownKeys(json);
-      PartitionConfig partition = PartitionConfig.fromJson(json);
-      partition.validate(offsets);
-      return partition;
-    } catch (JsonProcessingException e) {
-      throw new ConfigException("partition: cannot encode the section: " + e.getMessage(), e);
-    } catch (ConfigException e) {
-      throw e;
-    } catch (SunderException e) {
-      String message = e.getMessage();
-      throw new ConfigException(message.startsWith("partition") ? message
-          : "partition." + message, e);
-    }
-  }
-
-  /**
-   * Refuses an unknown key anywhere in the partition section in the words the reader uses for
-   * the rest of the file: the key path and the keys known there.
-   */
-  private static void requireKnownKeys(String json) {
-    try {
-      STRICT.readValue(json, PartitionConfig.class);
-    } catch (UnrecognizedPropertyException e) {
-      StringBuilder path = new StringBuilder("partition");
-      for (JsonMappingException.Reference ref : e.getPath()) {
-        if (ref.getFieldName() != null) {
-          path.append('.').append(ref.getFieldName());
-        } else if (ref.getIndex() >= 0) {
-          path.append('[').append(ref.getIndex()).append(']');
-        }
-      }
-      String known = e.getKnownPropertyIds() == null ? "" : e.getKnownPropertyIds().stream()
-          .map(Object::toString).sorted().collect(Collectors.joining(", "));
-      throw new ConfigException("unknown key '" + path + "'"
-          + (known.isEmpty() ? "" : "; known keys there: " + known), e);
-    } catch (JsonProcessingException e) {
-      // Other mistakes are reported by PartitionConfig.fromJson, naming the key.
-    }
-  }
-
-  /**
-   * A section naming no method gets {@link PartitionConfig#robustDefault}'s method and, unless
-   * it sets one, its minimum segment size for this voxel size.
-   */
-  private static void completeDefault(ObjectNode section, double[] voxelSizeSlowestFirst) {
-    if (section.has("method")) {
-      return;
-    }
-    section.put("method", RunConfig.DEFAULT_METHOD);
-    if (!section.has("minSegmentSize")) {
-      section.put("minSegmentSize", PartitionConfig.defaultMinSegmentSize(voxelSizeSlowestFirst));
-    }
-  }
-
-  private static void fitFragments(ObjectNode section, double[] voxelSizeSlowestFirst) {
-    String method = section.path("method").asText();
-    boolean fragmentMethod = method.equals(PartitionConfig.Method.FRAGMENTS_MULTICUT.jsonName())
-        || method.equals(PartitionConfig.Method.FRAGMENTS_AGGLOMERATION.jsonName());
-    if (!fragmentMethod || voxelSizeSlowestFirst == null
-        || (section.has("fragments") && !section.get("fragments").isObject())) {
-      return;
-    }
-    ObjectNode fragments = section.has("fragments") ? (ObjectNode) section.get("fragments")
-        : section.putObject("fragments");
-    if (fragments.has("voxelSize")) {
-      return;
-    }
-    ArrayNode size = fragments.putArray("voxelSize");
-    for (double v : voxelSizeSlowestFirst) {
-      size.add(v);
-    }
-    if (!fragments.has("perSlice")) {
-      fragments.put("perSlice", FragmentOptions.fittedToZyx(voxelSizeSlowestFirst).perSlice());
     }
   }
 
@@ -334,7 +237,7 @@ public final class RunResolver {
    * The offsets in memory order, from {@code input.offsets} or the dataset's attribute. Every
    * error names where the offset came from and shows it as written there (file order).
    */
-  private static Offsets offsets(RunConfig config, Container input, String affName, AxisOrder axes,
+  private static int[][] offsets(RunConfig config, Container input, String affName, AxisOrder axes,
       long channels) {
     int[][] fileOrder = config.input().offsets();
     String source = "input.offsets";
@@ -400,7 +303,7 @@ public final class RunResolver {
       }
       memory[k] = order.toMemory(offset);
     }
-    return new Offsets(memory);
+    return memory;
   }
 
   private static String example(AxisOrder axes) {
@@ -442,11 +345,11 @@ public final class RunResolver {
     return BlockGrid.wholeChunkShape(volume, chunks, DEFAULT_BLOCK_VOXELS);
   }
 
-  private static int[] halo(RunConfig config, AxisOrder axes, Offsets offsets) {
+  private static int[] halo(RunConfig config, AxisOrder axes, int[][] offsets) {
     int n = axes.dimensions();
     int[] fileHalo = config.blocks().halo();
     if (fileHalo == null) {
-      return offsets.reach();
+      return StitchingSetup.longestOffsets(offsets);
     }
     if (fileHalo.length != n || Arrays.stream(fileHalo).anyMatch(h -> h < 0)) {
       throw new ConfigException("blocks.halo: expected " + n + " integers >= 0 (" + axes

@@ -5,7 +5,6 @@ import java.nio.file.Path;
 import java.util.Optional;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Shapes;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.stitching.StitchingSetup;
 
 /**
@@ -84,10 +83,5 @@ public record RunSettings(String axes, StitchingSetup setup, String workDir, lon
 
   public int[] halo() {
     return setup.grid().halo();
-  }
-
-  /** The partition method of every block. */
-  public PartitionConfig partition() {
-    return setup.partition();
   }
 }

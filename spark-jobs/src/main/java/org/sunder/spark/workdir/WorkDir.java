@@ -9,7 +9,6 @@ import java.nio.file.Path;
 import java.util.Optional;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.stage.Stage;
 
 /**
  * A run's work dir: {@code manifest.json} and, per stage, a {@link StageLedger} under

@@ -27,7 +27,7 @@ import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.ChildCli;
 import org.sunder.spark.cli.CliRun;
 import org.sunder.spark.stage.TaskHooks;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 
 /**
