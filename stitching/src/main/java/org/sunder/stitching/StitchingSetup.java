@@ -137,11 +137,11 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
 
   /**
    * The one preparation step of a run, in-process or on Spark: {@link #validateInputs()}, then
-   * {@link #createLabels()}. Returns the label dataset.
+   * {@link #createLabels()}.
    */
-  public Dataset prepare() {
+  public void prepare() {
     validateInputs();
-    return createLabels();
+    createLabels();
   }
 
   /**

@@ -9,12 +9,10 @@ import java.util.Map;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.DataType;
-import org.sunder.blockwise.store.Dataset;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.config.RunConfig;
+import org.sunder.stitching.InputDataset;
 import org.sunder.stitching.StitchingSetup;
 
 /**
@@ -41,9 +39,9 @@ public final class RunResolver {
     AxisOrder axes = config.axisOrder();
     int n = axes.dimensions();
     Path inputPath = absolute(config.input().container());
-    Container input = openInput(inputPath, "input.container");
     String affName = config.input().affinities();
-    Dataset affinities = openDataset(input, affName, "input.affinities");
+    InputDataset affinities =
+        InputDataset.read(inputPath, "input.container", affName, "input.affinities");
     long[] shape = affinities.shape();
     if (shape.length != n + 1) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
@@ -58,24 +56,23 @@ public final class RunResolver {
           + "' in " + inputPath + " is empty: its shape is " + Arrays.toString(axes.toFile(volume))
           + " (" + axes + ") with " + channels + " channels; every size must be at least 1");
     }
-    DataType type = affinities.dataType();
-    if (type != DataType.FLOAT32 && type != DataType.UINT8) {
+    if (!affinities.holdsAffinityValues()) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
-          + "' in " + inputPath + " has data type " + type.name().toLowerCase()
+          + "' in " + inputPath + " has data type " + affinities.dataType()
           + "; affinities must be float32 in [0, 1] or uint8 (value / 255)");
     }
     int[] chunks = Arrays.copyOf(affinities.chunkShape(), n);
-    int[][] offsets = offsets(config, input, affName, axes, channels);
+    int[][] offsets = offsets(config, affinities, axes, channels);
     int[] blockShape = blockShape(config, axes, volume, chunks);
     int[] halo = halo(config, axes, offsets);
     requireArraySized(config, axes, volume, blockShape, halo, channels);
     String mask = config.input().mask();
     if (mask != null) {
-      Dataset m = openDataset(input, mask, "input.mask");
+      InputDataset m = InputDataset.read(inputPath, "input.container", mask, "input.mask");
       requireVolumeShape(m, volume, "input.mask", mask, axes);
-      if (m.dataType() != DataType.UINT8) {
+      if (!m.isUint8()) {
         throw new SunderException(ErrorKind.INVALID_INPUT, "input.mask: dataset '" + mask
-            + "' has data type " + m.dataType().name().toLowerCase() + "; expected uint8 (1 = inside)");
+            + "' has data type " + m.dataType() + "; expected uint8 (1 = inside)");
       }
     }
     Path outputPath = absolute(config.output().container());
@@ -84,26 +81,24 @@ public final class RunResolver {
         : absolute(config.workDir());
     requireOutsideInput(inputPath, affName, outputPath, outputDataset, workDir, config);
     if (config.input().missingChunks().equals(RunConfig.MISSING_REFUSE)) {
-      MissingChunks.refuse(affinities, affName, inputPath, axes);
+      MissingChunks.refuse(affinities, axes);
     }
     String truth = config.evaluate().groundTruth();
     Path truthPath = absolute(config.evaluate().container());
     if (truth != null) {
-      Container truthContainer = truthPath.equals(inputPath) ? input
-          : openInput(truthPath, "evaluate.container");
-      Dataset gt = openDataset(truthContainer, truth, "evaluate.groundTruth");
+      InputDataset gt = InputDataset.read(truthPath, truthPath.equals(inputPath)
+          ? "input.container" : "evaluate.container", truth, "evaluate.groundTruth");
       requireVolumeShape(gt, volume, "evaluate.groundTruth", truth, axes);
-      if (gt.dataType() == DataType.FLOAT32 || gt.dataType() == DataType.FLOAT64) {
+      if (gt.isFloat()) {
         throw new SunderException(ErrorKind.INVALID_INPUT, "evaluate.groundTruth: dataset '"
-            + truth + "' has data type " + gt.dataType().name().toLowerCase()
-            + "; expected integer labels");
+            + truth + "' has data type " + gt.dataType() + "; expected integer labels");
       }
     }
     StitchingSetup setup;
     try {
       setup = StitchingSetup.resolve(inputPath, affName, mask == null ? "" : mask, outputPath,
           outputDataset, BlockGrid.of(volume, chunks, blockShape, halo), offsets,
-          config.partition(), voxelSize(input.readAttributes(affName), axes));
+          config.partition(), voxelSize(affinities.attributes(), axes));
     } catch (SunderException e) {
       throw e.kind() == ErrorKind.INVALID_CONFIG && !(e instanceof ConfigException)
           ? new ConfigException(e.getMessage(), e) : e;
@@ -197,34 +192,7 @@ public final class RunResolver {
     return Path.of(path).toAbsolutePath().normalize();
   }
 
-  static Container openInput(Path path, String key) {
-    if (!Files.isDirectory(path)) {
-      throw new SunderException(ErrorKind.INVALID_INPUT, key + ": " + path
-          + (Files.exists(path) ? " is not a directory" : " does not exist")
-          + "; expected an N5 or Zarr container");
-    }
-    try {
-      return Container.open(path);
-    } catch (SunderException e) {
-      throw new SunderException(e.kind(), key + ": " + e.getMessage(), e);
-    }
-  }
-
-  static Dataset openDataset(Container container, String name, String key) {
-    if (!container.datasetExists(name)) {
-      String why = container.datasetProblem(name);
-      if (why != null) {
-        throw new SunderException(ErrorKind.INVALID_INPUT, key + ": '" + name + "' in "
-            + container.root() + " is not a readable dataset: " + why);
-      }
-      List<String> members = container.list("");
-      throw new SunderException(ErrorKind.INVALID_INPUT, key + ": no dataset '" + name + "' in "
-          + container.root() + (members.isEmpty() ? " (it is empty)" : "; it holds " + members));
-    }
-    return container.openDataset(name);
-  }
-
-  private static void requireVolumeShape(Dataset dataset, long[] volume, String key, String name,
+  private static void requireVolumeShape(InputDataset dataset, long[] volume, String key, String name,
       AxisOrder axes) {
     if (!Arrays.equals(dataset.shape(), volume)) {
       throw new SunderException(ErrorKind.INVALID_INPUT, key + ": dataset '" + name + "' has shape "
@@ -237,20 +205,22 @@ public final class RunResolver {
    * The offsets in memory order, from {@code input.offsets} or the dataset's attribute. Every
    * error names where the offset came from and shows it as written there (file order).
    */
-  private static int[][] offsets(RunConfig config, Container input, String affName, AxisOrder axes,
+  private static int[][] offsets(RunConfig config, InputDataset affinities, AxisOrder axes,
       long channels) {
+    String affName = affinities.name();
     int[][] fileOrder = config.input().offsets();
     String source = "input.offsets";
     AxisOrder order = axes;
     if (fileOrder == null) {
-      Map<String, Object> attributes = input.readAttributes(affName);
+      Map<String, Object> attributes = affinities.attributes();
       Object stored = attributes.get("offsets");
       if (stored == null) {
         throw new ConfigException("input.offsets: missing, and dataset '" + affName
             + "' has no \"offsets\" attribute; give one offset per channel, e.g. "
             + example(axes) + " (" + axes + ")");
       }
-      source = "the \"offsets\" attribute of dataset '" + affName + "' in " + input.root();
+      source = "the \"offsets\" attribute of dataset '" + affName + "' in "
+          + affinities.container();
       try {
         fileOrder = JSON.convertValue(stored, int[][].class);
       } catch (IllegalArgumentException e) {

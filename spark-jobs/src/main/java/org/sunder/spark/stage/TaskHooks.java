@@ -19,7 +19,8 @@ import org.apache.spark.SparkConf;
  * @param outOfMemory {@code stage:index} of a task that throws an {@link OutOfMemoryError} on
  *     every attempt ({@value #MEMORY_KEY})
  */
-public record TaskHooks(long delayMillis, String failOnce, String outOfMemory) {
+public record TaskHooks(long delayMillis, String failOnce, String outOfMemory)
+    implements java.io.Serializable {
   public static final String DELAY_KEY = "spark.sunder.test.taskDelayMillis";
   public static final String FAIL_KEY = "spark.sunder.test.failOnce";
   public static final String MEMORY_KEY = "spark.sunder.test.outOfMemory";
