@@ -93,8 +93,10 @@ final class PartitionSection {
 
   private static void fitFragments(ObjectNode section, double[] voxelSizeSlowestFirst) {
     String method = section.path("method").asText();
-    boolean fragmentMethod = method.equals(PartitionConfig.Method.FRAGMENTS_MULTICUT.jsonName())
-        || method.equals(PartitionConfig.Method.FRAGMENTS_AGGLOMERATION.jsonName());
+    boolean fragmentMethod = false;
+    for (PartitionConfig.Method m : PartitionConfig.Method.values()) {
+      fragmentMethod |= m.usesFragments() && m.jsonName().equals(method);
+    }
     if (!fragmentMethod || voxelSizeSlowestFirst == null
         || (section.has("fragments") && !section.get("fragments").isObject())) {
       return;

@@ -117,8 +117,7 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
    * first rejoin the halves of a fragment that a face cut (see {@link SeamEdges#continued()}).
    */
   public boolean tracksContinuations() {
-    return partition.method() == PartitionConfig.Method.FRAGMENTS_MULTICUT
-        || partition.method() == PartitionConfig.Method.FRAGMENTS_AGGLOMERATION;
+    return partition.method().usesFragments();
   }
 
   /**

@@ -79,6 +79,15 @@ public final class PartitionConfig implements java.io.Serializable {
       return jsonName;
     }
 
+    /**
+     * Whether the method partitions fragments ({@link BlockFragments}) rather than voxels: it
+     * takes {@code fragments} options, and its blocks give back the fragments of the clusters
+     * they could not settle, which the global solve first rejoins across faces.
+     */
+    public boolean usesFragments() {
+      return this == FRAGMENTS_MULTICUT || this == FRAGMENTS_AGGLOMERATION;
+    }
+
     @JsonCreator
     public static Method fromName(String name) {
       for (Method m : values()) {
@@ -155,8 +164,7 @@ public final class PartitionConfig implements java.io.Serializable {
         : method == Method.MUTEX_WATERSHED ? WeightRule.byChannelRole()
             : WeightRule.byValue(WeightRule.Transform.LOGIT, null);
     this.subsampling = subsampling != null ? subsampling : Subsampling.none();
-    boolean fromFragments = method == Method.FRAGMENTS_MULTICUT
-        || method == Method.FRAGMENTS_AGGLOMERATION;
+    boolean fromFragments = method.usesFragments();
     if (fragments != null && !fromFragments) {
       throw invalid("fragments: not used by method \"" + method.jsonName() + "\"; remove it or "
           + "use \"fragments-multicut\" or \"fragments-agglomeration\"");

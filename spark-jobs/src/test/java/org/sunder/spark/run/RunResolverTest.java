@@ -103,6 +103,39 @@ class RunResolverTest {
     assertEquals(2 * 1 * 2, s.grid().blockCount());
   }
 
+  /** A repeated offset is named by its key and position as written, in the file's axis order. */
+  @Test
+  void aRepeatedOffsetIsNamedAsWritten(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    SunderException e = fails("{\"input\": {\"container\": \"" + root + "\", \"offsets\":"
+        + " [[-1, 0, 0], [0, -1, 0], [0, 0, -1], [-4, 0, 0], [0, -1, 0]]}}");
+    assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
+    assertTrue(e.getMessage().startsWith("input.offsets[4]: [0, -1, 0] (zyx) repeats"
+        + " input.offsets[1]"), e.getMessage());
+  }
+
+  /**
+   * Two partition sections that mean the same method (one writes a default out) give the same
+   * canonical section, so the same resume fingerprint.
+   */
+  @Test
+  void equivalentPartitionSectionsHaveOneFingerprint(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    String input = "{\"input\": {\"container\": \"" + root + "\"}, ";
+    RunSettings plain = resolve(input + "\"partition\": {\"method\": \"mutex-watershed\"}}");
+    RunSettings spelled = resolve(input + "\"partition\": {\"method\": \"mutex-watershed\","
+        + " \"weights\": {\"kind\": \"channel-role\"}, \"subsampling\": {\"kind\": \"none\"},"
+        + " \"minSegmentSize\": 0}}");
+    assertEquals(partitionJson(plain), partitionJson(spelled));
+    assertEquals(RunIdentity.manifest(plain, "r").sectionHashes().get("partition"),
+        RunIdentity.manifest(spelled, "r").sectionHashes().get("partition"));
+    assertTrue(partitionJson(plain).contains("\"weights\""), partitionJson(plain));
+  }
+
   @Test
   void missingContainerIsNamed(@TempDir Path dir) {
     SunderException e = fails("{\"input\": {\"container\": \"" + dir.resolve("nope.zarr") + "\"}}");
