@@ -14,20 +14,23 @@ import java.util.Arrays;
  * pairs of the absorbed owner stay in the set: that owner is never asked about again, and
  * leaving them costs less than deleting them.
  *
- * <p>Edges come in weight order, so roots are visited at random: what a root needs (size, list
- * owner, list length, list head) sits in one 16-byte record, one cache line per root visited.
- * Not thread-safe.
+ * <p>Edges come in weight order, so nodes are visited at random: what a find and a check need
+ * sits in one 16-byte record per node (parent, list owner, list length, list head; the last
+ * three meaningful for a root), so the root found by a walk brings its constraint fields in the
+ * same cache line; cluster sizes, needed only on a union, live apart. A list entry is one
+ * 8-byte pair (partner node, next entry). Not thread-safe.
  */
 final class MutexClusters {
-  private static final int SIZE = 0;
+  private static final int PARENT = 0;
   private static final int OWNER = 1;
   private static final int LENGTH = 2;
   private static final int HEAD = 3;
-  private final int[] parent;
-  /** Per root {@code r}: {@code record[4 r + SIZE | OWNER | LENGTH | HEAD]}. */
+  /** Per node {@code x}: {@code record[4 x + PARENT | OWNER | LENGTH | HEAD]}. */
   private final int[] record;
-  private int[] entryNode;
-  private int[] entryNext;
+  /** Cluster size per root. */
+  private final int[] size;
+  /** Per entry {@code e}: {@code entry[2 e]} the partner node, {@code entry[2 e + 1]} the next. */
+  private int[] entry;
   private int entries;
   private final PairSet pairs;
   /**
@@ -41,17 +44,16 @@ final class MutexClusters {
   private int[] pieceParent;
 
   MutexClusters(int nodeCount) {
-    parent = new int[nodeCount];
     record = new int[4 * nodeCount];
+    size = new int[nodeCount];
     for (int i = 0; i < nodeCount; i++) {
-      parent[i] = i;
-      record[4 * i + SIZE] = 1;
+      record[4 * i + PARENT] = i;
       record[4 * i + OWNER] = i;
       record[4 * i + HEAD] = -1;
     }
+    java.util.Arrays.fill(size, 1);
     int guess = Math.max(16, nodeCount / 4);
-    entryNode = new int[guess];
-    entryNext = new int[guess];
+    entry = new int[2 * guess];
     pairs = new PairSet(guess / 2);
   }
 
@@ -63,20 +65,23 @@ final class MutexClusters {
    */
   void holdBack(byte[] openNodes) {
     open = openNodes;
-    pieceParent = new int[parent.length];
+    pieceParent = new int[size.length];
     for (int i = 0; i < pieceParent.length; i++) {
       pieceParent[i] = i;
     }
   }
 
   int find(int x) {
-    int[] p = parent;
-    while (p[x] != x) {
-      int up = p[p[x]];
-      p[x] = up;
-      x = up;
+    int[] r = record;
+    while (true) {
+      int up = r[4 * x + PARENT];
+      if (up == x) {
+        return x;
+      }
+      int upper = r[4 * up + PARENT];
+      r[4 * x + PARENT] = upper;
+      x = upper;
     }
-    return x;
   }
 
   /** Processes an attractive edge: joins the clusters unless they are constrained apart. */
@@ -124,20 +129,21 @@ final class MutexClusters {
 
   private void union(int ru, int rv) {
     int[] r = record;
-    int winner = r[4 * ru + SIZE] >= r[4 * rv + SIZE] ? ru : rv;
+    int winner = size[ru] >= size[rv] ? ru : rv;
     int loser = winner == ru ? rv : ru;
-    parent[loser] = winner;
-    r[4 * winner + SIZE] += r[4 * loser + SIZE];
+    r[4 * loser + PARENT] = winner;
+    size[winner] += size[loser];
     int large = r[4 * ru + LENGTH] >= r[4 * rv + LENGTH] ? ru : rv;
     int small = large == ru ? rv : ru;
     int owner = r[4 * large + OWNER];
     int head = r[4 * large + HEAD];
     int length = r[4 * large + LENGTH];
+    int[] list = entry;
     for (int e = r[4 * small + HEAD]; e >= 0; ) {
-      int following = entryNext[e];
-      int partner = r[4 * find(entryNode[e]) + OWNER];
+      int following = list[2 * e + 1];
+      int partner = r[4 * find(list[2 * e]) + OWNER];
       if (pairs.add(PairSet.pair(owner, partner))) {
-        entryNext[e] = head;
+        list[2 * e + 1] = head;
         head = e;
         length++;
       }
@@ -150,13 +156,11 @@ final class MutexClusters {
 
   /** Adds a constraint entry for {@code node} to the list of root {@code root}. */
   private void append(int root, int node) {
-    if (entries == entryNode.length) {
-      int capacity = entries + (entries >> 1) + 16;
-      entryNode = Arrays.copyOf(entryNode, capacity);
-      entryNext = Arrays.copyOf(entryNext, capacity);
+    if (2 * entries == entry.length) {
+      entry = Arrays.copyOf(entry, 2 * (entries + (entries >> 1) + 16));
     }
-    entryNode[entries] = node;
-    entryNext[entries] = record[4 * root + HEAD];
+    entry[2 * entries] = node;
+    entry[2 * entries + 1] = record[4 * root + HEAD];
     record[4 * root + HEAD] = entries;
     record[4 * root + LENGTH]++;
     entries++;
@@ -164,12 +168,12 @@ final class MutexClusters {
 
   /**
    * The final segmentation: clusters numbered from 1 in order of first node, 0 where
-   * {@code mask} is 0. Uses the root records as scratch, so call it once, last.
+   * {@code mask} is 0. Uses the cluster sizes as scratch, so call it once, last.
    */
   Segmentation segmentation(byte[] maskOrNull) {
-    int[] labelOfRoot = record;
+    int[] labelOfRoot = size;
     Arrays.fill(labelOfRoot, 0);
-    int[] labels = new int[parent.length];
+    int[] labels = new int[size.length];
     int next = 0;
     for (int i = 0; i < labels.length; i++) {
       if (maskOrNull != null && maskOrNull[i] == 0) {
@@ -205,7 +209,7 @@ final class MutexClusters {
 
   /** Root of every node, written into a fresh array. */
   int[] roots() {
-    int[] r = new int[parent.length];
+    int[] r = new int[size.length];
     for (int i = 0; i < r.length; i++) {
       r[i] = find(i);
     }
