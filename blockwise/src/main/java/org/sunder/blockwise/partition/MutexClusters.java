@@ -15,12 +15,8 @@ import java.util.Arrays;
  * leaving them costs less than deleting them.
  *
  * <p>Edges come in weight order, so roots are visited at random: what a root needs (size, list
- * owner, list length, list head) sits in one 16-byte record, one cache line per root visited;
- * parents stay a dense array of their own, so the short hops of nearest-neighbour edges share
- * cache lines (a parent inside the record was measured slower on the clean block and no faster
- * on the tissue presets). A list entry is one 8-byte pair (a node of the partner cluster, next
- * entry); a moved entry is pointed at the partner's current root, so later walks find it in
- * fewer steps. Not thread-safe.
+ * owner, list length, list head) sits in one 16-byte record, one cache line per root visited.
+ * Not thread-safe.
  */
 final class MutexClusters {
   private static final int SIZE = 0;
@@ -30,8 +26,8 @@ final class MutexClusters {
   private final int[] parent;
   /** Per root {@code r}: {@code record[4 r + SIZE | OWNER | LENGTH | HEAD]}. */
   private final int[] record;
-  /** Per entry {@code e}: {@code entry[2 e]} the partner node, {@code entry[2 e + 1]} the next. */
-  private int[] entry;
+  private int[] entryNode;
+  private int[] entryNext;
   private int entries;
   private final PairSet pairs;
   /**
@@ -54,7 +50,8 @@ final class MutexClusters {
       record[4 * i + HEAD] = -1;
     }
     int guess = Math.max(16, nodeCount / 4);
-    entry = new int[2 * guess];
+    entryNode = new int[guess];
+    entryNext = new int[guess];
     pairs = new PairSet(guess / 2);
   }
 
@@ -136,14 +133,11 @@ final class MutexClusters {
     int owner = r[4 * large + OWNER];
     int head = r[4 * large + HEAD];
     int length = r[4 * large + LENGTH];
-    int[] list = entry;
     for (int e = r[4 * small + HEAD]; e >= 0; ) {
-      int following = list[2 * e + 1];
-      int partnerRoot = find(list[2 * e]);
-      int partner = r[4 * partnerRoot + OWNER];
+      int following = entryNext[e];
+      int partner = r[4 * find(entryNode[e]) + OWNER];
       if (pairs.add(PairSet.pair(owner, partner))) {
-        list[2 * e] = partnerRoot;
-        list[2 * e + 1] = head;
+        entryNext[e] = head;
         head = e;
         length++;
       }
@@ -156,11 +150,13 @@ final class MutexClusters {
 
   /** Adds a constraint entry for {@code node} to the list of root {@code root}. */
   private void append(int root, int node) {
-    if (2 * entries == entry.length) {
-      entry = Arrays.copyOf(entry, 2 * (entries + (entries >> 1) + 16));
+    if (entries == entryNode.length) {
+      int capacity = entries + (entries >> 1) + 16;
+      entryNode = Arrays.copyOf(entryNode, capacity);
+      entryNext = Arrays.copyOf(entryNext, capacity);
     }
-    entry[2 * entries] = node;
-    entry[2 * entries + 1] = record[4 * root + HEAD];
+    entryNode[entries] = node;
+    entryNext[entries] = record[4 * root + HEAD];
     record[4 * root + HEAD] = entries;
     record[4 * root + LENGTH]++;
     entries++;
