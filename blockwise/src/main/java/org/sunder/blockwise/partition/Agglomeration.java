@@ -30,9 +30,9 @@ import org.sunder.blockwise.graph.SignedGraph;
  *
  * <p>Implementation: one aggregated edge per adjacent cluster pair, found through a hash map of
  * root pairs that never deletes ({@link RootPairEdges}); the adjacency of the cluster with fewer
- * edges is merged into the other's (smaller into larger); an indexed 4-ary heap with inline keys
- * holds the candidate edges. {@code O(m log m)} expected for {@code m} edges. Memory about 130
- * bytes per edge (about 1.4 KB per voxel of a 13-offset grid). Immutable; each run is
+ * edges is merged into the other's (smaller into larger); an indexed binary heap holds the
+ * candidate edges. {@code O(m log m)} expected for {@code m} edges. Memory about 90 bytes per
+ * edge (about 1.2 KB per voxel of a 13-offset grid). Immutable; each run is
  * independent, so one instance may serve several threads.
  */
 public final class Agglomeration {
