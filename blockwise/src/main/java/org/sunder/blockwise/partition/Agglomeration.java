@@ -29,10 +29,9 @@ import org.sunder.blockwise.graph.SignedGraph;
  * {@link MutexWatershed}'s exactly, and like it depends on the edge order only through ties.
  *
  * <p>Implementation: one aggregated edge per adjacent cluster pair, found through a hash map of
- * root pairs that never deletes ({@link RootPairEdges}); the adjacency of the cluster with fewer
- * edges is merged into the other's (smaller into larger); an indexed binary heap holds the
- * candidate edges. {@code O(m log m)} expected for {@code m} edges. Memory about 90 bytes per
- * edge (about 1.2 KB per voxel of a 13-offset grid). Immutable; each run is
+ * cluster pairs; the adjacency of the cluster with fewer edges is merged into the other's
+ * (smaller into larger); an indexed binary heap holds the candidate edges. {@code O(m log m)}
+ * expected for {@code m} edges. Memory about 100 bytes per edge. Immutable; each run is
  * independent, so one instance may serve several threads.
  */
 public final class Agglomeration {

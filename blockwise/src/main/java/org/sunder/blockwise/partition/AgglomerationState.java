@@ -32,7 +32,7 @@ final class AgglomerationState {
   private int[] next;
   private int[] entryEdge;
   private final int[] parent;
-  private final RootPairEdges pairs;
+  private final PairMap pairs;
   private final boolean recordTree;
   private int[] treeId;
   private int[] first;
@@ -66,7 +66,7 @@ final class AgglomerationState {
     for (int i = 0; i < nodeCount; i++) {
       parent[i] = i;
     }
-    pairs = new RootPairEdges(expectedEdges, parent);
+    pairs = new PairMap(expectedEdges);
   }
 
   private boolean needsSecond() {
@@ -255,6 +255,7 @@ final class AgglomerationState {
     int u = eu[e];
     int v = ev[e];
     state[e] = DEAD;
+    pairs.remove(PairSet.pair(u, v));
     degree[u]--;
     degree[v]--;
     int large = degree[u] >= degree[v] ? u : v;
@@ -278,6 +279,7 @@ final class AgglomerationState {
   private void moveEdge(int entry, int f, int small, int large, EdgeHeap heap,
       double[] priority, byte[] tie) {
     int other = eu[f] == small ? ev[f] : eu[f];
+    pairs.remove(PairSet.pair(small, other));
     long key = PairSet.pair(large, other);
     int g = pairs.get(key);
     if (g < 0) {
