@@ -15,6 +15,7 @@ import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.demo.DemoScenario;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
+import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.stage.Pipeline;
 import org.sunder.spark.workdir.Stage;
@@ -108,6 +109,7 @@ final class DemoCommand implements Callable<Integer> {
       try {
         report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
             .run(run, List.of(Stage.values()));
+        RunReportWriter.writeAfterRun(sc, report, cli.out());
       } finally {
         cli.spark().release(sc);
       }

@@ -6,6 +6,7 @@ import java.util.concurrent.Callable;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
+import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.stage.Pipeline;
 import org.sunder.spark.workdir.Stage;
@@ -48,6 +49,7 @@ final class StageCommand implements Callable<Integer> {
       try {
         RunReport report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
             .run(run, List.of(chosen));
+        RunReportWriter.writeAfterRun(sc, report, cli.out());
         report.print(cli.out());
         return 0;
       } finally {

@@ -27,9 +27,11 @@ import org.sunder.stitching.EvaluationTarget;
 import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.kryo.PayloadCodec;
-import org.sunder.spark.pyramid.PyramidStep;
+import org.sunder.spark.stage.PyramidStep;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.stage.DecisionsFile;
 import org.sunder.spark.stage.Pipeline;
+import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.WorkDir;
@@ -95,10 +97,11 @@ public final class RunReportWriter {
    * {@link #write} at the end of a run: prints where the report is, or, when it cannot be
    * written, one line saying why and how to write it later; the run's result stands either way.
    */
-  public static void writeAfterRun(JavaSparkContext sc, RunSettings settings, WorkDir work,
-      SeamAudit seams, SegmentationScores scores, PrintStream out) {
+  public static void writeAfterRun(JavaSparkContext sc, RunReport run, PrintStream out) {
+    RunSettings settings = run.settings();
     try {
-      out.println("report: " + write(sc, settings, work, seams, scores));
+      out.println("report: " + write(sc, settings, new WorkDir(settings.workDirPath()),
+          run.seams(), run.scores()));
     } catch (RuntimeException e) {
       out.println("report: not written (" + e.getMessage() + "); write it later with '"
           + org.sunder.spark.Launcher.command() + " report CONFIG'");

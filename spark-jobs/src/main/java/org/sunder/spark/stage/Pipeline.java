@@ -18,8 +18,6 @@ import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
 import org.sunder.spark.progress.ProgressTracker;
-import org.sunder.spark.pyramid.PyramidStep;
-import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.run.RunSettings;
@@ -33,7 +31,7 @@ import org.sunder.stitching.GlobalSolve;
  * Runs the stages of a prepared run on Spark, in order: partition (per block), seams (per
  * face), solve (on the driver), relabel (per block's chunks), evaluate (per block, when a ground
  * truth is configured), pyramid (per chunk of each coarser level), and then writes the run
- * report ({@link RunReportWriter}). Settings are broadcast once; tasks read and write the containers
+ * report (written by the commands). Settings are broadcast once; tasks read and write the containers
  * themselves; finished tasks are skipped. When relabel or evaluate ran and the final segmentation
  * is complete, a {@link SeamAudit} of it (per face, against the ground truth when configured)
  * joins the report; it is not recorded, so a rerun audits again. Progress goes to
@@ -125,7 +123,6 @@ public final class Pipeline {
     }
     RunReport report = new RunReport(settings, reports, solved == null ? null : solved.report(),
         scores, seams, (System.nanoTime() - start) / 1e9);
-    RunReportWriter.writeAfterRun(sc, settings, work, seams, scores, out);
     return report;
   }
 

@@ -10,7 +10,6 @@ import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
-import org.sunder.spark.report.DecisionsFile;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;

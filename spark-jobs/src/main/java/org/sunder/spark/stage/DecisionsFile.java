@@ -1,4 +1,4 @@
-package org.sunder.spark.report;
+package org.sunder.spark.stage;
 
 import com.fasterxml.jackson.core.type.TypeReference;
 import com.fasterxml.jackson.databind.DeserializationFeature;

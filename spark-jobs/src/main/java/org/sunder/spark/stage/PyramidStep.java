@@ -1,4 +1,4 @@
-package org.sunder.spark.pyramid;
+package org.sunder.spark.stage;
 
 import java.io.PrintStream;
 import java.nio.file.Path;
@@ -14,9 +14,6 @@ import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
-import org.sunder.spark.stage.StageReport;
-import org.sunder.spark.stage.StageRunner;
-import org.sunder.spark.stage.TaskBody;
 import org.sunder.stitching.LabelPyramid;
 import org.sunder.stitching.MultiscaleMetadata;
 
