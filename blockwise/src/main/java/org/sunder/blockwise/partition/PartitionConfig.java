@@ -56,8 +56,8 @@ import org.sunder.blockwise.graph.WeightRule;
  * a new record there, and this class does not change. Immutable, serialisable.
  */
 public final class PartitionConfig implements java.io.Serializable {
-  private static final long serialVersionUID = 1L;
-
+  /** 2: the method became a {@link PartitionMethod} record (was an enum). */
+  private static final long serialVersionUID = 2L;
 
   private final PartitionMethod method;
   private final Linkage linkage;
