@@ -5,8 +5,10 @@ import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import org.sunder.blockwise.grid.IdLayout;
-import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.MulticutSolver;
+import org.sunder.blockwise.partition.MutexWatershedSolver;
 import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.ReducedGraphSolver;
 
 /**
  * The solve stage: assembles the {@link ReducedGraph} from all block summaries and seam edges,
@@ -101,14 +103,6 @@ public final class GlobalSolve {
   }
 
   static ReducedGraphSolver solverFor(PartitionConfig config) {
-    if (config.isMutexWatershed()) {
-      return new MutexWatershedSolver();
-    }
-    if (config.method() == PartitionConfig.Method.FRAGMENTS_MULTICUT) {
-      return new MulticutSolver(config.linkage());
-    }
-    return new AgglomerativeSolver(config.linkage(), config.constraints(), config.threshold(),
-        "agglomeration " + config.linkage().jsonName()
-            + (config.constraints() ? " with constraints" : ""));
+    return config.createSolver();
   }
 }

@@ -2,6 +2,10 @@ package org.sunder.stitching;
 
 import java.nio.file.Path;
 import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.partition.AgglomerativeSolver;
+import org.sunder.blockwise.partition.MutexWatershedSolver;
+import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.SegmentGraph;
 import org.sunder.stitching.solve.HierarchicalSolve;
 import org.sunder.stitching.solve.LinkagePartSolver;
 import org.sunder.stitching.solve.PartSolver;
@@ -40,7 +44,7 @@ final class HierarchicalSolver implements ReducedGraphSolver {
   }
 
   @Override
-  public int[] clusters(ReducedGraph graph) {
+  public int[] clusters(SegmentGraph graph) {
     SolveEdges edges = parts instanceof LinkagePartSolver ? linkageEdges(graph)
         : mutexEdges(graph);
     last = HierarchicalSolve.run(superBlocks, edges, maxDriverEdges, parts, workDir);
@@ -58,7 +62,7 @@ final class HierarchicalSolver implements ReducedGraphSolver {
    * keyed by the pair's provisional ids; separated pairs play no part, as in
    * {@link AgglomerativeSolver}). O(p).
    */
-  static SolveEdges linkageEdges(ReducedGraph graph) {
+  static SolveEdges linkageEdges(SegmentGraph graph) {
     long[] ids = graph.nodeIds();
     EdgeStatistics edges = graph.edges();
     SolveEdges out = new SolveEdges(4 * edges.size());
@@ -76,7 +80,7 @@ final class HierarchicalSolver implements ReducedGraphSolver {
    * per pair its largest weight if positive and its smallest if negative, and each separated
    * pair at {@link SolveEdges#APART}; nodes and keys are provisional ids. O(p).
    */
-  static SolveEdges mutexEdges(ReducedGraph graph) {
+  static SolveEdges mutexEdges(SegmentGraph graph) {
     long[] ids = graph.nodeIds();
     EdgeStatistics edges = graph.edges();
     SolveEdges out = new SolveEdges(2 * edges.size() + graph.separatedU().length);

@@ -14,6 +14,7 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.partition.FragmentOptions;
 import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.PartitionMethod;
 
 /**
  * A run configuration's {@code "partition"} section made into the validated
@@ -92,11 +93,8 @@ final class PartitionSection {
   }
 
   private static void fitFragments(ObjectNode section, double[] voxelSizeSlowestFirst) {
-    String method = section.path("method").asText();
-    boolean fragmentMethod = false;
-    for (PartitionConfig.Method m : PartitionConfig.Method.values()) {
-      fragmentMethod |= m.usesFragments() && m.jsonName().equals(method);
-    }
+    boolean fragmentMethod = PartitionMethod.byName(section.path("method").asText())
+        .map(PartitionMethod::usesFragments).orElse(false);
     if (!fragmentMethod || voxelSizeSlowestFirst == null
         || (section.has("fragments") && !section.get("fragments").isObject())) {
       return;

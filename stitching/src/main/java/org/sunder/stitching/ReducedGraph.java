@@ -8,6 +8,7 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.SegmentGraph;
 
 /**
  * The graph the global solve works on: nodes are the boundary segments of all blocks, in
@@ -25,15 +26,11 @@ import org.sunder.blockwise.grid.IdLayout;
  *     tracks continuations
  */
 record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[] separatedV,
-    EdgeStatistics continued) {
+    EdgeStatistics continued) implements SegmentGraph {
 
   /** A graph without continued pairs. */
   ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separatedU, int[] separatedV) {
     this(nodeIds, edges, separatedU, separatedV, EdgeStatistics.empty());
-  }
-
-  int nodeCount() {
-    return nodeIds.length;
   }
 
   static ReducedGraph assemble(IdLayout layout, List<BlockSummary> summaries,

@@ -10,6 +10,8 @@ import net.imglib2.img.array.ArrayImgs;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
+import org.sunder.blockwise.partition.FragmentsAgglomerationMethod;
+import org.sunder.blockwise.partition.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.Linkage;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.Container;
@@ -49,9 +51,9 @@ class BlockwiseContractTest {
     return List.of(
         new Method(PartitionConfig.mutexWatershed(null, null), true),
         new Method(PartitionConfig.agglomeration(Linkage.MEAN, false, null, null), true),
-        new Method(new PartitionConfig(PartitionConfig.Method.FRAGMENTS_MULTICUT, null, null,
+        new Method(new PartitionConfig(new FragmentsMulticutMethod(), null, null,
             null, null, null, null, null), false),
-        new Method(new PartitionConfig(PartitionConfig.Method.FRAGMENTS_AGGLOMERATION, null,
+        new Method(new PartitionConfig(new FragmentsAgglomerationMethod(), null,
             null, null, null, null, null, null), false));
   }
 

@@ -24,6 +24,8 @@ import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
+import org.sunder.blockwise.partition.FragmentsAgglomerationMethod;
+import org.sunder.blockwise.partition.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.Linkage;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.Container;
@@ -47,9 +49,9 @@ class BlockwiseRunTest {
   private static final PartitionConfig MEAN =
       PartitionConfig.agglomeration(Linkage.MEAN, false, null, null);
   private static final PartitionConfig MULTICUT = new PartitionConfig(
-      PartitionConfig.Method.FRAGMENTS_MULTICUT, null, null, null, null, null, null, null);
+      new FragmentsMulticutMethod(), null, null, null, null, null, null, null);
   private static final PartitionConfig FRAGMENTS_MEAN = new PartitionConfig(
-      PartitionConfig.Method.FRAGMENTS_AGGLOMERATION, null, null, null, null, null, null, null);
+      new FragmentsAgglomerationMethod(), null, null, null, null, null, null, null);
 
   @TempDir
   Path dir;

@@ -16,6 +16,7 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.FragmentsAgglomerationMethod;
 import org.sunder.blockwise.partition.Linkage;
 import org.sunder.blockwise.partition.PartitionConfig;
 
@@ -78,7 +79,7 @@ class GlobalSolveTest {
   @Test
   void continuedPiecesAreJoinedBeforeTheAgglomerationContinues() {
     PartitionConfig fragmentsMean = new PartitionConfig(
-        PartitionConfig.Method.FRAGMENTS_AGGLOMERATION, null, null, null, null, null, null, null);
+        new FragmentsAgglomerationMethod(), null, null, null, null, null, null, null);
     List<BlockSummary> blocks = new ArrayList<>();
     for (int b = 0; b < 2; b++) {
       EdgeStatistics inner = EdgeStatistics.of(new long[] {id(b, 1)}, new long[] {id(b, 2)},

@@ -10,6 +10,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.MutexWatershedSolver;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;

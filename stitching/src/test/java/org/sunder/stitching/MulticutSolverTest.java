@@ -1,7 +1,9 @@
 package org.sunder.stitching;
 
 import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.MulticutSolver;
 import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.ReducedGraphSolver;
 
 /** {@link ReducedGraphSolverContract} for {@link MulticutSolver} on summed weights. */
 class MulticutSolverTest extends ReducedGraphSolverContract {

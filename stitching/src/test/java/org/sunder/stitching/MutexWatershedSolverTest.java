@@ -1,6 +1,8 @@
 package org.sunder.stitching;
 
+import org.sunder.blockwise.partition.MutexWatershedSolver;
 import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.ReducedGraphSolver;
 
 /** {@link ReducedGraphSolverContract} for {@link MutexWatershedSolver}. */
 class MutexWatershedSolverTest extends ReducedGraphSolverContract {

@@ -4,7 +4,6 @@ import com.fasterxml.jackson.annotation.JsonCreator;
 import com.fasterxml.jackson.annotation.JsonIgnore;
 import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
-import com.fasterxml.jackson.annotation.JsonValue;
 import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonMappingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
@@ -52,59 +51,15 @@ import org.sunder.blockwise.graph.WeightRule;
  * run each block filters only segments that lie wholly inside its core away from the faces;
  * the rest is decided after the global solve (see the stitching module's {@code GlobalSolve}).
  *
- * <p>Extension point: a new method (for instance {@code "fragments-multicut"} and
- * {@code "fragments-agglomeration"}) adds a {@link Method} constant with its JSON name, its keys
- * as constructor parameters (null = default), its checks in {@link #validate(Offsets)} and a case
- * in {@link #create()} returning its {@link Partitioner}. Immutable.
+ * <p>Extension point: each method is a {@link PartitionMethod} (its JSON name, the keys it
+ * takes and their defaults, its checks, its partitioner and its global solver); a new method is
+ * a new record there, and this class does not change. Immutable, serialisable.
  */
 public final class PartitionConfig implements java.io.Serializable {
-  private static final long serialVersionUID = 1L;
+  /** 2: the method became a {@link PartitionMethod} record (was an enum). */
+  private static final long serialVersionUID = 2L;
 
-
-  /** The partition methods by JSON name. */
-  public enum Method {
-    MUTEX_WATERSHED("mutex-watershed"),
-    AGGLOMERATION("agglomeration"),
-    FRAGMENTS_MULTICUT("fragments-multicut"),
-    FRAGMENTS_AGGLOMERATION("fragments-agglomeration");
-
-    private final String jsonName;
-
-    Method(String jsonName) {
-      this.jsonName = jsonName;
-    }
-
-    @JsonValue
-    public String jsonName() {
-      return jsonName;
-    }
-
-    /**
-     * Whether the method partitions fragments ({@link BlockFragments}) rather than voxels: it
-     * takes {@code fragments} options, and its blocks give back the fragments of the clusters
-     * they could not settle, which the global solve first rejoins across faces.
-     */
-    public boolean usesFragments() {
-      return this == FRAGMENTS_MULTICUT || this == FRAGMENTS_AGGLOMERATION;
-    }
-
-    @JsonCreator
-    public static Method fromName(String name) {
-      for (Method m : values()) {
-        if (m.jsonName.equals(name)) {
-          return m;
-        }
-      }
-      StringBuilder names = new StringBuilder();
-      for (Method m : values()) {
-        names.append(names.length() == 0 ? "" : ", ").append(m.jsonName);
-      }
-      throw new PartitionConfigException(ErrorKind.INVALID_CONFIG, "method: unknown value \""
-          + name + "\"; expected one of " + names);
-    }
-  }
-
-  private final Method method;
+  private final PartitionMethod method;
   private final Linkage linkage;
   private final boolean constraints;
   private final double threshold;
@@ -115,14 +70,14 @@ public final class PartitionConfig implements java.io.Serializable {
   private final SizeFilter.Rule sizeFilter;
 
   /** As the full constructor without fragment options and size filter. */
-  public PartitionConfig(Method method, Linkage linkage, Boolean constraints, Double threshold,
-      WeightRule weights, Subsampling subsampling) {
+  public PartitionConfig(PartitionMethod method, Linkage linkage, Boolean constraints,
+      Double threshold, WeightRule weights, Subsampling subsampling) {
     this(method, linkage, constraints, threshold, weights, subsampling, null, null, null);
   }
 
   /** As the full constructor with the default size filter rule. */
-  public PartitionConfig(Method method, Linkage linkage, Boolean constraints, Double threshold,
-      WeightRule weights, Subsampling subsampling, FragmentOptions fragments,
+  public PartitionConfig(PartitionMethod method, Linkage linkage, Boolean constraints,
+      Double threshold, WeightRule weights, Subsampling subsampling, FragmentOptions fragments,
       Integer minSegmentSize) {
     this(method, linkage, constraints, threshold, weights, subsampling, fragments,
         minSegmentSize, null);
@@ -130,7 +85,7 @@ public final class PartitionConfig implements java.io.Serializable {
 
   /** Null arguments take their defaults (see the class comment); {@code method} is required. */
   @JsonCreator
-  public PartitionConfig(@JsonProperty("method") Method method,
+  public PartitionConfig(@JsonProperty("method") PartitionMethod method,
       @JsonProperty("linkage") Linkage linkage,
       @JsonProperty("constraints") Boolean constraints,
       @JsonProperty("threshold") Double threshold,
@@ -140,12 +95,10 @@ public final class PartitionConfig implements java.io.Serializable {
       @JsonProperty("minSegmentSize") Integer minSegmentSize,
       @JsonProperty("sizeFilter") SizeFilter.Rule sizeFilter) {
     if (method == null) {
-      throw invalid("method: missing; expected \"mutex-watershed\", \"agglomeration\", "
-          + "\"fragments-multicut\" or \"fragments-agglomeration\"");
+      throw invalid("method: missing; expected " + PartitionMethod.names(true, ", "));
     }
     this.method = method;
-    this.linkage = linkage != null ? linkage
-        : method == Method.FRAGMENTS_MULTICUT ? Linkage.SUM : Linkage.MEAN;
+    this.linkage = linkage != null ? linkage : method.defaultLinkage();
     this.constraints = constraints != null && constraints;
     this.threshold = threshold != null ? threshold : 0;
     if (!Double.isFinite(this.threshold)) {
@@ -155,22 +108,13 @@ public final class PartitionConfig implements java.io.Serializable {
       throw invalid("threshold: " + threshold + " with constraints; constrained agglomeration "
           + "stops where no linkage is positive, so the threshold must be 0");
     }
-    if (method == Method.MUTEX_WATERSHED && (linkage != null || this.constraints
-        || this.threshold != 0)) {
-      throw invalid("linkage/constraints/threshold: not used by method \"mutex-watershed\"; "
-          + "remove them or use \"agglomeration\"");
-    }
-    this.weights = weights != null ? weights
-        : method == Method.MUTEX_WATERSHED ? WeightRule.byChannelRole()
-            : WeightRule.byValue(WeightRule.Transform.LOGIT, null);
+    method.checkKeys(linkage, this.constraints, this.threshold);
+    this.weights = weights != null ? weights : method.defaultWeights();
     this.subsampling = subsampling != null ? subsampling : Subsampling.none();
     boolean fromFragments = method.usesFragments();
     if (fragments != null && !fromFragments) {
       throw invalid("fragments: not used by method \"" + method.jsonName() + "\"; remove it or "
-          + "use \"fragments-multicut\" or \"fragments-agglomeration\"");
-    }
-    if (method == Method.FRAGMENTS_MULTICUT && (this.constraints || this.threshold != 0)) {
-      throw invalid("constraints/threshold: not used by method \"fragments-multicut\"");
+          + "use " + PartitionMethod.fragmentNames());
     }
     this.fragments = fromFragments
         ? (fragments != null ? fragments : FragmentOptions.defaults()) : null;
@@ -193,9 +137,7 @@ public final class PartitionConfig implements java.io.Serializable {
    * (README, "Choosing a method").
    */
   public static PartitionConfig robustDefault(double[] voxelSizeOrNull) {
-    return new PartitionConfig(Method.FRAGMENTS_MULTICUT, null, null, null, null, null,
-        voxelSizeOrNull == null ? FragmentOptions.defaults()
-            : FragmentOptions.fittedTo(voxelSizeOrNull),
+    return PartitionMethod.robustDefault().fittedTo(voxelSizeOrNull,
         defaultMinSegmentSize(voxelSizeOrNull));
   }
 
@@ -224,12 +166,13 @@ public final class PartitionConfig implements java.io.Serializable {
   }
 
   public static PartitionConfig mutexWatershed(WeightRule weights, Subsampling subsampling) {
-    return new PartitionConfig(Method.MUTEX_WATERSHED, null, null, null, weights, subsampling);
+    return new PartitionConfig(new MutexWatershedMethod(), null, null, null, weights,
+        subsampling);
   }
 
   public static PartitionConfig agglomeration(Linkage linkage, boolean constraints,
       WeightRule weights, Subsampling subsampling) {
-    return new PartitionConfig(Method.AGGLOMERATION, linkage, constraints, null, weights,
+    return new PartitionConfig(new AgglomerationMethod(), linkage, constraints, null, weights,
         subsampling);
   }
 
@@ -270,29 +213,22 @@ public final class PartitionConfig implements java.io.Serializable {
   public void validate(Offsets offsets) {
     weights.validate(offsets);
     subsampling.validate(offsets);
-    if (fragments != null) {
-      fragments.forDimension(offsets.dimension());
-    }
+    method.validate(this, offsets);
   }
 
-  /** The configured partitioner. */
+  /** The configured partitioner: the method's, then the size filter if one is set. */
   public Partitioner create() {
-    Agglomeration agglomeration = method == Method.MUTEX_WATERSHED
-        || method == Method.FRAGMENTS_MULTICUT ? null
-        : new Agglomeration(linkage, constraints).withThreshold(threshold);
-    Partitioner partitioner = switch (method) {
-      case MUTEX_WATERSHED -> new MutexWatershedPartitioner(weights, subsampling);
-      case AGGLOMERATION -> new AgglomerationPartitioner(agglomeration, weights, subsampling);
-      case FRAGMENTS_MULTICUT ->
-          new FragmentsMulticutPartitioner(fragments, linkage, weights, subsampling);
-      case FRAGMENTS_AGGLOMERATION ->
-          new FragmentsAgglomerationPartitioner(fragments, agglomeration, weights, subsampling);
-    };
+    Partitioner partitioner = method.partitioner(this);
     if (minSegmentSize <= 1) {
       return partitioner;
     }
     return new SizeFilteredPartitioner(partitioner, createSizeFilter(), weights, subsampling,
         sizeFilterCannotLink(), linkage);
+  }
+
+  /** The global solve's solver of the reduced graph for this configuration's method. */
+  public ReducedGraphSolver createSolver() {
+    return method.solver(this);
   }
 
   /** The configured size filter (mean linkage), or null when {@code minSegmentSize <= 1}. */
@@ -304,19 +240,17 @@ public final class PartitionConfig implements java.io.Serializable {
   /** Which segment pairs the method kept apart by a constraint, for the size filter. */
   @JsonIgnore
   public SizeFilteredPartitioner.CannotLink sizeFilterCannotLink() {
-    return method == Method.MUTEX_WATERSHED ? SizeFilteredPartitioner.CannotLink.REPULSIVE_EDGE
-        : constraints ? SizeFilteredPartitioner.CannotLink.NONZERO_LINKAGE
-            : SizeFilteredPartitioner.CannotLink.NONE;
+    return method.cannotLink(this);
   }
 
   @JsonProperty("method")
-  public Method method() {
+  public PartitionMethod method() {
     return method;
   }
 
   @JsonProperty("linkage")
   public Linkage linkage() {
-    return method == Method.MUTEX_WATERSHED ? null : linkage;
+    return method.takesLinkage() ? linkage : null;
   }
 
   @JsonProperty("constraints")
@@ -361,12 +295,12 @@ public final class PartitionConfig implements java.io.Serializable {
 
   @JsonIgnore
   public boolean isMutexWatershed() {
-    return method == Method.MUTEX_WATERSHED;
+    return method instanceof MutexWatershedMethod;
   }
 
   @Override
   public boolean equals(Object o) {
-    return o instanceof PartitionConfig c && method == c.method && linkage == c.linkage
+    return o instanceof PartitionConfig c && method.equals(c.method) && linkage == c.linkage
         && constraints == c.constraints && threshold == c.threshold && weights.equals(c.weights)
         && subsampling.equals(c.subsampling) && Objects.equals(fragments, c.fragments)
         && minSegmentSize == c.minSegmentSize && Objects.equals(sizeFilter(), c.sizeFilter());
@@ -380,7 +314,7 @@ public final class PartitionConfig implements java.io.Serializable {
 
   @Override
   public String toString() {
-    return "PartitionConfig[" + method.jsonName() + (method != Method.MUTEX_WATERSHED
+    return "PartitionConfig[" + method.jsonName() + (method.takesLinkage()
         ? " " + linkage.jsonName() + (constraints ? " constrained" : "") : "") + ", " + weights
         + ", " + subsampling + (fragments != null ? ", " + fragments : "")
         + (minSegmentSize > 1 ? ", minSegmentSize " + minSegmentSize + " "

@@ -127,7 +127,7 @@ class PartitionConfigTest {
   void theRobustDefaultFitsFragmentsAndSizeFloorToTheVoxelSize() {
     // memory order x, y, z: sections 4 times thicker than the pixels
     PartitionConfig sections = PartitionConfig.robustDefault(new double[] {8, 8, 32});
-    assertEquals(PartitionConfig.Method.FRAGMENTS_MULTICUT, sections.method());
+    assertEquals(new FragmentsMulticutMethod(), sections.method());
     assertTrue(sections.fragments().perSlice());
     assertEquals(32.0, sections.fragments().voxelSize()[2]);
     // 4/3 pi (50 nm)^3 = 523 599 nm^3 over 2 048 nm^3 per voxel = 255.7

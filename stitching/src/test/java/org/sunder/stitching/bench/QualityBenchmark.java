@@ -32,6 +32,7 @@ import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.blockwise.partition.BaselineWatershed;
 import org.sunder.blockwise.partition.FragmentOptions;
+import org.sunder.blockwise.partition.FragmentsAgglomerationMethod;
 import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
@@ -201,7 +202,7 @@ public final class QualityBenchmark {
     return switch (method) {
       case "default" -> PartitionConfig.robustDefault(voxelSize);
       case "fragments-agglomeration" -> new PartitionConfig(
-          PartitionConfig.Method.FRAGMENTS_AGGLOMERATION, null, null, null, null, null,
+          new FragmentsAgglomerationMethod(), null, null, null, null, null,
           FragmentOptions.fittedTo(voxelSize), null);
       case "mutex-watershed" -> PartitionConfig.fromJson("{\"method\":\"mutex-watershed\"}");
       case "mean" ->

@@ -17,6 +17,7 @@ import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.PartitionMethod;
 import org.sunder.blockwise.store.CodecSpec;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
@@ -90,7 +91,7 @@ public final class SeamQualityBenchmark {
         Path root = Files.createTempDirectory("sunder-seam-bench");
         writeAffinities(root, shape, offsets, affinities);
         for (String methodName : methods) {
-          PartitionConfig config = new PartitionConfig(PartitionConfig.Method.fromName(
+          PartitionConfig config = new PartitionConfig(PartitionMethod.fromName(
               methodName), null, null, null, null, null, null, null);
           long[] one = oneBlock(affinities, shape, offsets, config);
           StitchingSetup setup = StitchingSetup.of(root, "affinities", "", root,

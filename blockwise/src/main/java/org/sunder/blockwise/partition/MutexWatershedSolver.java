@@ -1,8 +1,7 @@
-package org.sunder.stitching;
+package org.sunder.blockwise.partition;
 
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.SignedGraph;
-import org.sunder.blockwise.partition.MutexWatershed;
 
 /**
  * Continues the blocks' Mutex Watershed ("The Mutex Watershed and its Objective: Efficient,
@@ -15,11 +14,11 @@ import org.sunder.blockwise.partition.MutexWatershed;
  * constraints of "A Generalized Framework for Agglomerative Clustering of Signed Graphs applied
  * to Instance Segmentation" (2019/2022), computed with the Mutex Watershed's own order on ties.
  *
- * <p>Pairs a block kept apart through a repulsive edge ({@link BlockSummary#separatedU()})
+ * <p>Pairs a block kept apart through a repulsive edge ({@link SegmentGraph#separatedU()})
  * become repulsive edges of weight {@link #APART}, taken first: the block's
  * mutual exclusion stands. O(p log p) for p pairs.
  */
-final class MutexWatershedSolver implements ReducedGraphSolver {
+public final class MutexWatershedSolver implements ReducedGraphSolver {
   /** The weight that encodes "kept apart by its block"; stronger than any edge weight. */
   static final double APART = -1e300;
 
@@ -29,7 +28,7 @@ final class MutexWatershedSolver implements ReducedGraphSolver {
   }
 
   @Override
-  public int[] clusters(ReducedGraph graph) {
+  public int[] clusters(SegmentGraph graph) {
     EdgeStatistics edges = graph.edges();
     int[] separatedU = graph.separatedU();
     int capacity = 2 * edges.size() + separatedU.length;

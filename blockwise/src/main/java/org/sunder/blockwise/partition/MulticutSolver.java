@@ -1,7 +1,4 @@
-package org.sunder.stitching;
-
-import org.sunder.blockwise.partition.Linkage;
-import org.sunder.blockwise.partition.Multicut;
+package org.sunder.blockwise.partition;
 
 /**
  * The reduced graph as a multicut problem: each pair's weight is its linkage value over the
@@ -9,10 +6,10 @@ import org.sunder.blockwise.partition.Multicut;
  * edges, as the fragments' multicut inside a block uses), solved by greedy additive edge
  * contraction and Kernighan–Lin refinement ({@link Multicut}).
  */
-final class MulticutSolver implements ReducedGraphSolver {
+public final class MulticutSolver implements ReducedGraphSolver {
   private final Linkage linkage;
 
-  MulticutSolver(Linkage linkage) {
+  public MulticutSolver(Linkage linkage) {
     this.linkage = linkage;
   }
 
@@ -22,7 +19,7 @@ final class MulticutSolver implements ReducedGraphSolver {
   }
 
   @Override
-  public int[] clusters(ReducedGraph graph) {
+  public int[] clusters(SegmentGraph graph) {
     return Multicut.ofLinkage(graph.nodeCount(), graph.edges(), linkage, 0).labels();
   }
 }

@@ -1,7 +1,4 @@
-package org.sunder.stitching;
-
-import org.sunder.blockwise.partition.Agglomeration;
-import org.sunder.blockwise.partition.Linkage;
+package org.sunder.blockwise.partition;
 
 /**
  * Continues the blocks' agglomeration on the reduced graph: {@link Agglomeration} over the
@@ -11,11 +8,11 @@ import org.sunder.blockwise.partition.Linkage;
  * segments across a face and then comparing the result with a third gives the value a
  * whole-volume run would compute from those voxel edges. O(p log p) for p pairs.
  */
-final class AgglomerativeSolver implements ReducedGraphSolver {
+public final class AgglomerativeSolver implements ReducedGraphSolver {
   private final Agglomeration agglomeration;
   private final String name;
 
-  AgglomerativeSolver(Linkage linkage, boolean constraints, double threshold, String name) {
+  public AgglomerativeSolver(Linkage linkage, boolean constraints, double threshold, String name) {
     Agglomeration base = new Agglomeration(linkage, constraints);
     this.agglomeration = constraints ? base : base.withThreshold(threshold);
     this.name = name;
@@ -27,7 +24,7 @@ final class AgglomerativeSolver implements ReducedGraphSolver {
   }
 
   @Override
-  public int[] clusters(ReducedGraph graph) {
+  public int[] clusters(SegmentGraph graph) {
     return agglomeration.run(graph.nodeCount(), graph.edges()).clustering().clusterOf();
   }
 }
