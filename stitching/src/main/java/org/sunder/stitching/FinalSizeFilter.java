@@ -5,9 +5,9 @@ import java.util.Arrays;
 import java.util.List;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.IdLayout;
-import org.sunder.blockwise.partition.PartitionConfig;
-import org.sunder.blockwise.partition.SizeFilter;
-import org.sunder.blockwise.partition.SizeFilteredPartitioner;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.sizefilter.SizeFilter;
+import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
 
 /**
  * The size filter on the global solve's result. Each block filtered only the segments lying

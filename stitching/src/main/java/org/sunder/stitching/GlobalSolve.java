@@ -5,10 +5,10 @@ import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import org.sunder.blockwise.grid.IdLayout;
-import org.sunder.blockwise.partition.MulticutSolver;
-import org.sunder.blockwise.partition.MutexWatershedSolver;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.multicut.MulticutSolver;
+import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 
 /**
  * The solve stage: assembles the {@link ReducedGraph} from all block summaries and seam edges,

@@ -2,10 +2,10 @@ package org.sunder.stitching;
 
 import java.nio.file.Path;
 import org.sunder.blockwise.graph.EdgeStatistics;
-import org.sunder.blockwise.partition.AgglomerativeSolver;
-import org.sunder.blockwise.partition.MutexWatershedSolver;
 import org.sunder.blockwise.partition.ReducedGraphSolver;
 import org.sunder.blockwise.partition.SegmentGraph;
+import org.sunder.blockwise.partition.agglomeration.AgglomerativeSolver;
+import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 import org.sunder.stitching.solve.HierarchicalSolve;
 import org.sunder.stitching.solve.LinkagePartSolver;
 import org.sunder.stitching.solve.PartSolver;

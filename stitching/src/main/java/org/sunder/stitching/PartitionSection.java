@@ -12,9 +12,9 @@ import java.util.stream.Collectors;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
-import org.sunder.blockwise.partition.FragmentOptions;
-import org.sunder.blockwise.partition.PartitionConfig;
-import org.sunder.blockwise.partition.PartitionMethod;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.config.PartitionMethod;
+import org.sunder.blockwise.partition.fragments.FragmentOptions;
 
 /**
  * A run configuration's {@code "partition"} section made into the validated

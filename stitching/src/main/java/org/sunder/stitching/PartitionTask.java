@@ -4,10 +4,10 @@ import net.imglib2.img.array.ArrayImgs;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.grid.Block;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.partition.Partitioner;
 import org.sunder.blockwise.partition.SettledPartition;
-import org.sunder.blockwise.partition.SizeFilteredPartitioner;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
 import org.sunder.blockwise.store.Dataset;
 
 /**

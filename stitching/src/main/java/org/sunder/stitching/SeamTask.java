@@ -6,7 +6,7 @@ import net.imglib2.img.basictypeaccess.array.LongArray;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.grid.Face;
-import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 
 /**
  * The seam stage's task for one face: read the provisional ids and the affinities of the face's

@@ -11,7 +11,7 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
-import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;

@@ -1,9 +1,9 @@
 package org.sunder.stitching;
 
-import org.sunder.blockwise.partition.AgglomerativeSolver;
-import org.sunder.blockwise.partition.Linkage;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.agglomeration.AgglomerativeSolver;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 
 /** {@link ReducedGraphSolverContract} for {@link AgglomerativeSolver} with mean linkage. */
 class AgglomerativeSolverTest extends ReducedGraphSolverContract {

@@ -13,7 +13,7 @@ import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
-import org.sunder.blockwise.partition.MutexWatershedSolver;
+import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 import org.sunder.stitching.solve.BlockFinalIds;
 import org.sunder.stitching.solve.BlockFinalIds.BlockClusters;
 import org.sunder.stitching.solve.BlockFinalIds.Numbered;

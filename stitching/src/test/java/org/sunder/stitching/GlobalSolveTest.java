@@ -16,9 +16,9 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.IdLayout;
-import org.sunder.blockwise.partition.FragmentsAgglomerationMethod;
-import org.sunder.blockwise.partition.Linkage;
-import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.FragmentsAgglomerationMethod;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 
 /** The solve on hand-made and random summaries, without any store. */
 class GlobalSolveTest {

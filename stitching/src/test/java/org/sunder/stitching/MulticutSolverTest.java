@@ -1,9 +1,9 @@
 package org.sunder.stitching;
 
-import org.sunder.blockwise.partition.Linkage;
-import org.sunder.blockwise.partition.MulticutSolver;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.multicut.MulticutSolver;
 
 /** {@link ReducedGraphSolverContract} for {@link MulticutSolver} on summed weights. */
 class MulticutSolverTest extends ReducedGraphSolverContract {

@@ -1,8 +1,8 @@
 package org.sunder.stitching;
 
-import org.sunder.blockwise.partition.MutexWatershedSolver;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 
 /** {@link ReducedGraphSolverContract} for {@link MutexWatershedSolver}. */
 class MutexWatershedSolverTest extends ReducedGraphSolverContract {

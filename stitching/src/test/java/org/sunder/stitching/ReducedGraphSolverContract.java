@@ -13,9 +13,9 @@ import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.graph.EdgeStatistics;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.partition.ReducedGraphSolver;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 

@@ -7,8 +7,8 @@ import net.imglib2.type.numeric.IntegerType;
 import net.imglib2.view.Views;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
-import org.sunder.blockwise.partition.BaselineWatershed;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.fragments.BaselineWatershed;
 import org.sunder.blockwise.store.Dataset;
 
 /**

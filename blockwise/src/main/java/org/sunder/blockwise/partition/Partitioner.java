@@ -1,6 +1,7 @@
 package org.sunder.blockwise.partition;
 
 import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 
 /**
  * Partitions one block of affinities into segments. Implementations are deterministic (the same

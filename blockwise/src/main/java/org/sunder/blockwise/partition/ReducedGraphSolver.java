@@ -1,5 +1,8 @@
 package org.sunder.blockwise.partition;
 
+import org.sunder.blockwise.partition.config.PartitionMethod;
+
+
 /**
  * Partitions a {@link SegmentGraph} (the global solve's reduced graph): one implementation per
  * family of solve methods (agglomeration continued from the aggregated statistics; multicut on

@@ -33,7 +33,7 @@ public record SettledPartition(Segmentation pieces, boolean[] unsettled) {
    * From a method's full node-to-cluster map and the map of its pieces (cluster ids in
    * {@code [0, n)}, e.g. union-find roots); {@code open} marks the open voxels. {@code O(n)}.
    */
-  static SettledPartition of(int[] clusterOf, int[] pieceOf, byte[] open, byte[] maskOrNull) {
+  public static SettledPartition of(int[] clusterOf, int[] pieceOf, byte[] open, byte[] maskOrNull) {
     int n = clusterOf.length;
     boolean[] clusterOpen = new boolean[n];
     for (int i = 0; i < n; i++) {
@@ -53,7 +53,7 @@ public record SettledPartition(Segmentation pieces, boolean[] unsettled) {
   }
 
   /** Checks that {@code open} has one flag per voxel of an {@code n}-voxel box. */
-  static void checkOpen(byte[] open, int n) {
+  public static void checkOpen(byte[] open, int n) {
     if (open.length != n) {
       throw new IllegalArgumentException("open has " + open.length + " flags for " + n
           + " voxels");

@@ -1,7 +1,7 @@
 package org.sunder.blockwise.synth;
 
 import java.util.Arrays;
-import org.sunder.blockwise.partition.VoxelQueue;
+import org.sunder.blockwise.collections.VoxelQueue;
 
 /**
  * Gives every unlabelled voxel (label 0) the label of the nearest labelled voxel, nearest along

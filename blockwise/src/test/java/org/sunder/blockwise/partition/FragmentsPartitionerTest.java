@@ -15,6 +15,12 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.fragments.BlockFragments;
+import org.sunder.blockwise.partition.fragments.VoxelBox;
+import org.sunder.blockwise.partition.sizefilter.SizeFilterTest;
+import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
 
 class FragmentsPartitionerTest {
   private static final int[] SHAPE = {36, 28, 10};

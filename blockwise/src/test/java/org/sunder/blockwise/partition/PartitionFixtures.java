@@ -10,14 +10,14 @@ import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.graph.SignedGraph;
 
 /** Seeded random inputs shared by the partition tests. */
-final class PartitionFixtures {
-  static final Offsets OFFSETS = Offsets.of(new int[] {-1, 0, 0}, new int[] {0, -1, 0},
+public final class PartitionFixtures {
+  public static final Offsets OFFSETS = Offsets.of(new int[] {-1, 0, 0}, new int[] {0, -1, 0},
       new int[] {0, 0, -1}, new int[] {-3, 0, 0}, new int[] {0, 3, 0}, new int[] {2, -2, -1});
 
   private PartitionFixtures() {}
 
   /** A random graph: a spanning path (connected) plus random extra edges, distinct weights. */
-  static SignedGraph randomGraph(Random random, int nodes, int extraEdges, double repulsiveShare) {
+  public static SignedGraph randomGraph(Random random, int nodes, int extraEdges, double repulsiveShare) {
     List<int[]> pairs = new ArrayList<>();
     Set<Long> seen = new HashSet<>();
     int[] order = permutation(random, nodes);
@@ -51,7 +51,7 @@ final class PartitionFixtures {
     }
   }
 
-  static int[] permutation(Random random, int n) {
+  public static int[] permutation(Random random, int n) {
     int[] p = new int[n];
     for (int i = 0; i < n; i++) {
       p[i] = i;
@@ -66,7 +66,7 @@ final class PartitionFixtures {
   }
 
   /** The same graph with its edges listed in a shuffled order and ends swapped at random. */
-  static SignedGraph shuffled(SignedGraph g, Random random) {
+  public static SignedGraph shuffled(SignedGraph g, Random random) {
     int m = g.edgeCount();
     int[] p = permutation(random, m);
     int[] u = new int[m];
@@ -82,7 +82,7 @@ final class PartitionFixtures {
   }
 
   /** Random float affinities on a box, optionally with a random mask. */
-  static AffinityBlock randomBlock(Random random, int[] shape, boolean masked) {
+  public static AffinityBlock randomBlock(Random random, int[] shape, boolean masked) {
     int n = shape[0] * shape[1] * shape[2];
     float[] a = new float[n * OFFSETS.count()];
     for (int i = 0; i < a.length; i++) {
@@ -99,7 +99,7 @@ final class PartitionFixtures {
   }
 
   /** True when every voxel has a label in 1..count (0 only where masked) and all are used. */
-  static boolean isValid(Segmentation s, byte[] mask) {
+  public static boolean isValid(Segmentation s, byte[] mask) {
     boolean[] used = new boolean[s.segmentCount() + 1];
     int expectNext = 1;
     for (int i = 0; i < s.labels().length; i++) {

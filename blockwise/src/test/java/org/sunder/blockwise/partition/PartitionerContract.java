@@ -8,6 +8,8 @@ import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.partition.fragments.VoxelBox;
+import org.sunder.blockwise.partition.sizefilter.SizeFilterTest;
 
 /**
  * What every {@link Partitioner} promises, run against each implementation (the nested classes
@@ -17,7 +19,7 @@ import org.sunder.blockwise.graph.Offsets;
  * labels for the same block from the same or a fresh instance. Inputs: noisy affinities of
  * random Voronoi cells (seeded), float and 8-bit, with and without a mask, on a non-cubic box.
  */
-abstract class PartitionerContract {
+public abstract class PartitionerContract {
   static final int[] SHAPE = {17, 11, 7};
   static final Offsets OFFSETS = PartitionFixtures.OFFSETS;
 
@@ -63,7 +65,7 @@ abstract class PartitionerContract {
    * The promise of {@link Partitioner#partition}: labels 1..n in order of first voxel, 0 exactly
    * at masked voxels, {@code segmentCount() == n}.
    */
-  static void assertValidSegmentation(Segmentation s, byte[] mask, int voxels, String what) {
+  public static void assertValidSegmentation(Segmentation s, byte[] mask, int voxels, String what) {
     int[] labels = s.labels();
     assertEquals(voxels, labels.length, what);
     int seen = 0;

@@ -1,6 +1,10 @@
 package org.sunder.blockwise.partition;
 
 import org.junit.jupiter.api.Nested;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.fragments.BaselineWatershed;
+import org.sunder.blockwise.partition.mutex.MutexWatershed;
+import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
 
 /** {@link PartitionerContract} run against every {@link Partitioner} implementation. */
 class PartitionerImplementationsTest {

@@ -4,9 +4,9 @@ import java.util.Arrays;
 import java.util.Random;
 
 /** A random signed graph without parallel edges: each pair joined with a probability. */
-record RandomSignedGraph(int nodeCount, int[] u, int[] v, double[] w) {
+public record RandomSignedGraph(int nodeCount, int[] u, int[] v, double[] w) {
 
-  static RandomSignedGraph of(Random random, int nodeCount, double density, double bias) {
+  public static RandomSignedGraph of(Random random, int nodeCount, double density, double bias) {
     int[] u = new int[nodeCount * (nodeCount - 1) / 2];
     int[] v = new int[u.length];
     double[] w = new double[u.length];
@@ -26,7 +26,7 @@ record RandomSignedGraph(int nodeCount, int[] u, int[] v, double[] w) {
   }
 
   /** A sparse graph: a random spanning path plus {@code extra} random edges per node. */
-  static RandomSignedGraph sparse(Random random, int nodeCount, int extra, double bias) {
+  public static RandomSignedGraph sparse(Random random, int nodeCount, int extra, double bias) {
     int m = Math.min(nodeCount - 1 + nodeCount * extra, nodeCount * (nodeCount - 1) / 2);
     int[] u = new int[m];
     int[] v = new int[m];
@@ -55,7 +55,7 @@ record RandomSignedGraph(int nodeCount, int[] u, int[] v, double[] w) {
   }
 
   /** The same edges in a random order. */
-  RandomSignedGraph shuffled(Random random) {
+  public RandomSignedGraph shuffled(Random random) {
     int m = u.length;
     int[] order = new int[m];
     for (int i = 0; i < m; i++) {

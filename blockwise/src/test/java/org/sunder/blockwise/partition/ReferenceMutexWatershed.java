@@ -9,10 +9,10 @@ import org.sunder.blockwise.graph.SignedGraph;
  * A plain transcription of the Mutex Watershed's pseudo-code (TPAMI 2020, Algorithm 1) for tests:
  * boxed sort, hash sets of constrained cluster roots, relabelling by full scans. Slow on purpose.
  */
-final class ReferenceMutexWatershed {
+public final class ReferenceMutexWatershed {
   private ReferenceMutexWatershed() {}
 
-  static Clustering partition(SignedGraph g) {
+  public static Clustering partition(SignedGraph g) {
     Integer[] order = new Integer[g.edgeCount()];
     for (int e = 0; e < order.length; e++) {
       order[e] = e;

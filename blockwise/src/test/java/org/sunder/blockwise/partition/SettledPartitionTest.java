@@ -11,6 +11,13 @@ import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
+import org.sunder.blockwise.partition.agglomeration.Agglomeration;
+import org.sunder.blockwise.partition.agglomeration.AgglomerationPartitioner;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.fragments.BlockFragments;
+import org.sunder.blockwise.partition.fragments.FragmentOptions;
+import org.sunder.blockwise.partition.mutex.MutexWatershedPartitioner;
 
 class SettledPartitionTest {
   private static final int[] SHAPE = {10, 8, 6};

@@ -13,8 +13,8 @@ import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
-import org.sunder.blockwise.partition.MutexWatershedPartitioner;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.mutex.MutexWatershedPartitioner;
 
 /** Exact affinities plus the Mutex Watershed give back the ground truth: VOI 0. */
 class ExactAffinityRecoveryTest {

@@ -1,7 +1,7 @@
 package org.sunder.blockwise.synth;
 
 import java.util.Arrays;
-import org.sunder.blockwise.partition.VoxelQueue;
+import org.sunder.blockwise.collections.VoxelQueue;
 
 /**
  * Shape measures of every object of a label volume, for tests: voxel count, mean physical

@@ -2,7 +2,7 @@ package org.sunder.spark.config;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import org.sunder.blockwise.partition.PartitionMethod;
+import org.sunder.blockwise.partition.config.PartitionMethod;
 
 /**
  * A run configuration as written in its JSON file. Every coordinate list is in the order that

@@ -8,10 +8,10 @@ import net.imglib2.img.basictypeaccess.array.ByteArray;
 import net.imglib2.img.basictypeaccess.array.FloatArray;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.partition.BoundaryMap;
+import org.sunder.blockwise.metrics.LabelArrays;
+import org.sunder.blockwise.partition.fragments.BoundaryMap;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.Dataset;
-import org.sunder.blockwise.metrics.LabelArrays;
 
 /**
  * One axis-aligned plane of a 3D volume, cut to a window: {@code axis} is the memory axis held

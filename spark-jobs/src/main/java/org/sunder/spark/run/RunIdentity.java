@@ -20,9 +20,9 @@ import java.util.TreeMap;
 import java.util.stream.Stream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.workdir.SunderVersion;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.workdir.Manifest;
+import org.sunder.spark.workdir.SunderVersion;
 
 /**
  * What identifies a run for resume: the canonical resolved configuration (file axis order, keys

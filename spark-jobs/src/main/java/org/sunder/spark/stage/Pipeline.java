@@ -1,6 +1,5 @@
 package org.sunder.spark.stage;
 
-import org.sunder.spark.workdir.Stage;
 import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.BitSet;
@@ -19,8 +18,8 @@ import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
 import org.sunder.spark.progress.ProgressTracker;
 import org.sunder.spark.run.PreparedRun;
-import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.EvaluateTask;
 import org.sunder.stitching.EvaluationTarget;

@@ -1,10 +1,10 @@
 package org.sunder.spark.stage;
 
-import org.sunder.spark.workdir.Stage;
 import java.util.Iterator;
 import java.util.List;
 import org.apache.spark.api.java.function.FlatMapFunction;
 import org.sunder.spark.kryo.PayloadCodec;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.BlockSummary;
 import org.sunder.stitching.SeamEdges;

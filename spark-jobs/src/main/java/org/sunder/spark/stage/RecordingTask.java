@@ -1,11 +1,11 @@
 package org.sunder.spark.stage;
 
-import org.sunder.spark.workdir.Stage;
 import java.util.Iterator;
 import org.apache.spark.api.java.function.VoidFunction;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;
 

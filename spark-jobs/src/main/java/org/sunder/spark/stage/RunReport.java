@@ -1,9 +1,9 @@
 package org.sunder.spark.stage;
 
 import java.io.PrintStream;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
-import java.util.Arrays;
 import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;

@@ -1,6 +1,5 @@
 package org.sunder.spark.stage;
 
-import org.sunder.spark.workdir.Stage;
 import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.List;
@@ -11,6 +10,7 @@ import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.BlockSummary;

@@ -1,7 +1,7 @@
 package org.sunder.spark.stage;
 
-import org.sunder.spark.workdir.Stage;
 import java.util.Locale;
+import org.sunder.spark.workdir.Stage;
 
 /**
  * What one stage did in this run.

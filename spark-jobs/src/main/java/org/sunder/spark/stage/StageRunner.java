@@ -1,6 +1,5 @@
 package org.sunder.spark.stage;
 
-import org.sunder.spark.workdir.Stage;
 import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.BitSet;
@@ -9,6 +8,7 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;
 

@@ -19,12 +19,12 @@ import org.sunder.spark.it.Scenes;
 import org.sunder.spark.it.SharedSpark;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
-import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.run.RunResolver;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.stage.Pipeline;
-import org.sunder.spark.workdir.Stage;
+import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.stage.StageReport;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.stitching.InProcessRunner;
 import org.sunder.stitching.StitchingSetup;
 

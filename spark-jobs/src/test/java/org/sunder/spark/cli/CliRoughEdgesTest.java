@@ -10,10 +10,10 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.apache.spark.api.java.JavaSparkContext;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.StorageFormat;
@@ -25,8 +25,8 @@ import org.sunder.spark.plan.RunPlan;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
 import org.sunder.spark.run.TestContainers;
-import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.stage.StageReport;
+import org.sunder.spark.workdir.Stage;
 
 /** The rough edges a new user met on the command line and in {@code plan}, each smoothed. */
 class CliRoughEdgesTest {

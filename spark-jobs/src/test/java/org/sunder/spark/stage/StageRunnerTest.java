@@ -1,6 +1,5 @@
 package org.sunder.spark.stage;
 
-import org.sunder.spark.workdir.Stage;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -17,17 +16,18 @@ import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.spark.SparkSetup;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
 import org.sunder.spark.progress.ProgressTracker;
-import org.sunder.blockwise.graph.Offsets;
-import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.spark.run.RunSettings;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.StitchingSetup;
 
 /** The stage runner in local mode with up to 3 attempts per task ({@code local[2,3]}). */
 class StageRunnerTest {

@@ -10,7 +10,6 @@ import java.nio.file.Path;
 import java.util.BitSet;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.sunder.spark.workdir.Stage;
 
 class StageLedgerTest {
   @Test

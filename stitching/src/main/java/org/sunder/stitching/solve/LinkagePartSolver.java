@@ -3,7 +3,7 @@ package org.sunder.stitching.solve;
 import java.util.Arrays;
 import java.util.PriorityQueue;
 import java.util.function.LongPredicate;
-import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
 
 /**
  * One part of a hierarchical agglomeration with a linkage criterion ("A Generalized Framework

@@ -15,7 +15,7 @@ import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
-import org.sunder.blockwise.partition.PartitionConfig;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.store.CodecSpec;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;

@@ -1,8 +1,8 @@
 package org.sunder.blockwise.partition.bench;
 
 import org.sunder.blockwise.graph.GridGraph;
-import org.sunder.blockwise.partition.MutexWatershed;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.mutex.MutexWatershed;
 
 /**
  * Baseline for {@link PartitionBenchmark}: the Mutex Watershed through the explicit path, i.e. a

@@ -16,18 +16,18 @@ import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.graph.RegionGraph;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
-import org.sunder.blockwise.partition.Agglomeration;
-import org.sunder.blockwise.partition.BoundaryMap;
-import org.sunder.blockwise.partition.FragmentOptions;
-import org.sunder.blockwise.partition.FragmentsAgglomerationPartitioner;
-import org.sunder.blockwise.partition.FragmentsMulticutPartitioner;
-import org.sunder.blockwise.partition.Linkage;
-import org.sunder.blockwise.partition.Multicut;
-import org.sunder.blockwise.partition.MulticutResult;
-import org.sunder.blockwise.partition.MutexWatershedPartitioner;
 import org.sunder.blockwise.partition.Partitioner;
 import org.sunder.blockwise.partition.Segmentation;
-import org.sunder.blockwise.partition.WatershedFragments;
+import org.sunder.blockwise.partition.agglomeration.Agglomeration;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.fragments.BoundaryMap;
+import org.sunder.blockwise.partition.fragments.FragmentOptions;
+import org.sunder.blockwise.partition.fragments.FragmentsAgglomerationPartitioner;
+import org.sunder.blockwise.partition.fragments.FragmentsMulticutPartitioner;
+import org.sunder.blockwise.partition.fragments.WatershedFragments;
+import org.sunder.blockwise.partition.multicut.Multicut;
+import org.sunder.blockwise.partition.multicut.MulticutResult;
+import org.sunder.blockwise.partition.mutex.MutexWatershedPartitioner;
 
 /**
  * Throughput and memory of the fragment-based partitioners on one synthetic 128×128×128 block

@@ -15,12 +15,12 @@ import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
-import org.sunder.blockwise.partition.Agglomeration;
-import org.sunder.blockwise.partition.AgglomerationPartitioner;
-import org.sunder.blockwise.partition.Linkage;
-import org.sunder.blockwise.partition.MutexWatershedPartitioner;
 import org.sunder.blockwise.partition.Partitioner;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.agglomeration.Agglomeration;
+import org.sunder.blockwise.partition.agglomeration.AgglomerationPartitioner;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.mutex.MutexWatershedPartitioner;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
 

@@ -9,11 +9,11 @@ import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
-import org.sunder.blockwise.partition.Agglomeration;
-import org.sunder.blockwise.partition.AgglomerationPartitioner;
-import org.sunder.blockwise.partition.Linkage;
-import org.sunder.blockwise.partition.MutexWatershed;
 import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.agglomeration.Agglomeration;
+import org.sunder.blockwise.partition.agglomeration.AgglomerationPartitioner;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.mutex.MutexWatershed;
 
 /**
  * Throughput (voxels per second of the calling thread's CPU time, i.e. on one core; wall time is

@@ -1,0 +1,113 @@
+package org.sunder.blockwise.collections;
+
+import java.util.Arrays;
+
+/**
+ * Open-addressing map from non-negative int keys to int values, linear probing, deletion by
+ * backward shift (no tombstones). Iterate with {@link #capacity()}, {@link #keyAt},
+ * {@link #valueAt}; a slot with key {@code -1} is empty.
+ */
+public final class IntIntHashMap {
+  private static final int EMPTY = -1;
+  private int[] keys;
+  private int[] values;
+  private int size;
+  private int mask;
+  private int shift;
+
+  public IntIntHashMap(int expected) {
+    int capacity = Integer.highestOneBit(Math.max(4, expected * 2 - 1)) << 1;
+    keys = new int[capacity];
+    values = new int[capacity];
+    Arrays.fill(keys, EMPTY);
+    mask = capacity - 1;
+    shift = Integer.numberOfLeadingZeros(mask);
+  }
+
+  public int size() {
+    return size;
+  }
+
+  public int capacity() {
+    return keys.length;
+  }
+
+  public int keyAt(int slot) {
+    return keys[slot];
+  }
+
+  public int valueAt(int slot) {
+    return values[slot];
+  }
+
+  /** The value of {@code key}, or {@code missing}. */
+  public int get(int key, int missing) {
+    int slot = slot(key);
+    while (keys[slot] != EMPTY) {
+      if (keys[slot] == key) {
+        return values[slot];
+      }
+      slot = (slot + 1) & mask;
+    }
+    return missing;
+  }
+
+  public void put(int key, int value) {
+    int slot = slot(key);
+    while (keys[slot] != EMPTY) {
+      if (keys[slot] == key) {
+        values[slot] = value;
+        return;
+      }
+      slot = (slot + 1) & mask;
+    }
+    keys[slot] = key;
+    values[slot] = value;
+    if (++size * 2 > keys.length) {
+      grow();
+    }
+  }
+
+  public void remove(int key) {
+    int slot = slot(key);
+    while (keys[slot] != key) {
+      if (keys[slot] == EMPTY) {
+        return;
+      }
+      slot = (slot + 1) & mask;
+    }
+    size--;
+    int hole = slot;
+    int next = (hole + 1) & mask;
+    while (keys[next] != EMPTY) {
+      int home = slot(keys[next]);
+      if (((next - home) & mask) >= ((next - hole) & mask)) {
+        keys[hole] = keys[next];
+        values[hole] = values[next];
+        hole = next;
+      }
+      next = (next + 1) & mask;
+    }
+    keys[hole] = EMPTY;
+  }
+
+  private int slot(int key) {
+    return (key * 0x9E3779B9) >>> shift;
+  }
+
+  private void grow() {
+    int[] oldKeys = keys;
+    int[] oldValues = values;
+    keys = new int[oldKeys.length * 2];
+    values = new int[keys.length];
+    Arrays.fill(keys, EMPTY);
+    mask = keys.length - 1;
+    shift = Integer.numberOfLeadingZeros(mask);
+    size = 0;
+    for (int s = 0; s < oldKeys.length; s++) {
+      if (oldKeys[s] != EMPTY) {
+        put(oldKeys[s], oldValues[s]);
+      }
+    }
+  }
+}

@@ -1,0 +1,101 @@
+package org.sunder.blockwise.collections;
+
+import java.util.Arrays;
+
+/**
+ * Binary max-heap of (key, tie, payload) on primitive arrays: largest key first, among equal
+ * keys the smallest tie. Used lazily: stale entries are skipped by the caller on removal.
+ */
+public final class MaxHeap {
+  private double[] keys;
+  private long[] ties;
+  private int[] payloads;
+  private int size;
+
+  public MaxHeap(int capacity) {
+    int c = Math.max(16, capacity);
+    keys = new double[c];
+    ties = new long[c];
+    payloads = new int[c];
+  }
+
+  public boolean isEmpty() {
+    return size == 0;
+  }
+
+  public void clear() {
+    size = 0;
+  }
+
+  public double topKey() {
+    return keys[0];
+  }
+
+  public long topTie() {
+    return ties[0];
+  }
+
+  public int topPayload() {
+    return payloads[0];
+  }
+
+  public void push(double key, long tie, int payload) {
+    if (size == keys.length) {
+      keys = Arrays.copyOf(keys, size * 2);
+      ties = Arrays.copyOf(ties, size * 2);
+      payloads = Arrays.copyOf(payloads, size * 2);
+    }
+    int i = size++;
+    while (i > 0) {
+      int parent = (i - 1) >>> 1;
+      if (!before(key, tie, keys[parent], ties[parent])) {
+        break;
+      }
+      move(parent, i);
+      i = parent;
+    }
+    set(i, key, tie, payload);
+  }
+
+  /** Removes the top entry (read it first with the {@code top} accessors). */
+  public void pop() {
+    size--;
+    if (size == 0) {
+      return;
+    }
+    double key = keys[size];
+    long tie = ties[size];
+    int payload = payloads[size];
+    int i = 0;
+    int half = size >>> 1;
+    while (i < half) {
+      int child = 2 * i + 1;
+      int right = child + 1;
+      if (right < size && before(keys[right], ties[right], keys[child], ties[child])) {
+        child = right;
+      }
+      if (!before(keys[child], ties[child], key, tie)) {
+        break;
+      }
+      move(child, i);
+      i = child;
+    }
+    set(i, key, tie, payload);
+  }
+
+  private static boolean before(double k1, long t1, double k2, long t2) {
+    return k1 > k2 || (k1 == k2 && t1 < t2);
+  }
+
+  private void move(int from, int to) {
+    keys[to] = keys[from];
+    ties[to] = ties[from];
+    payloads[to] = payloads[from];
+  }
+
+  private void set(int i, double key, long tie, int payload) {
+    keys[i] = key;
+    ties[i] = tie;
+    payloads[i] = payload;
+  }
+}

@@ -1,0 +1,43 @@
+package org.sunder.blockwise.partition.config;
+
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.partition.Partitioner;
+import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.agglomeration.AgglomerativeSolver;
+import org.sunder.blockwise.partition.fragments.FragmentsAgglomerationPartitioner;
+import org.sunder.blockwise.partition.fragments.WatershedFragments;
+
+/**
+ * {@code "fragments-agglomeration"}: watershed fragments ({@link WatershedFragments}) joined by
+ * agglomerative clustering with the configured linkage (default mean), constraints and
+ * threshold ({@link FragmentsAgglomerationPartitioner}), continued on the reduced graph by
+ * {@link AgglomerativeSolver}.
+ */
+public record FragmentsAgglomerationMethod() implements PartitionMethod {
+
+  @Override
+  public String jsonName() {
+    return "fragments-agglomeration";
+  }
+
+  @Override
+  public boolean usesFragments() {
+    return true;
+  }
+
+  @Override
+  public void validate(PartitionConfig config, Offsets offsets) {
+    config.fragments().forDimension(offsets.dimension());
+  }
+
+  @Override
+  public Partitioner partitioner(PartitionConfig config) {
+    return new FragmentsAgglomerationPartitioner(config.fragments(),
+        AgglomerationMethod.agglomeration(config), config.weights(), config.subsampling());
+  }
+
+  @Override
+  public ReducedGraphSolver solver(PartitionConfig config) {
+    return AgglomerationMethod.agglomerativeSolver(config);
+  }
+}

@@ -1,0 +1,60 @@
+package org.sunder.blockwise.partition.config;
+
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.partition.PartitionConfigException;
+import org.sunder.blockwise.partition.Partitioner;
+import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.fragments.FragmentsMulticutPartitioner;
+import org.sunder.blockwise.partition.fragments.WatershedFragments;
+import org.sunder.blockwise.partition.multicut.MulticutSolver;
+
+/**
+ * {@code "fragments-multicut"}: watershed fragments ({@link WatershedFragments}) joined by a
+ * multicut on their linkage values (default sum: the summed weights;
+ * {@link FragmentsMulticutPartitioner}), continued on the reduced graph by
+ * {@link MulticutSolver}. Takes no constraints or threshold. The default method of a run
+ * ({@link PartitionMethod#robustDefault()}).
+ */
+public record FragmentsMulticutMethod() implements PartitionMethod {
+
+  @Override
+  public String jsonName() {
+    return "fragments-multicut";
+  }
+
+  @Override
+  public boolean usesFragments() {
+    return true;
+  }
+
+  @Override
+  public Linkage defaultLinkage() {
+    return Linkage.SUM;
+  }
+
+  @Override
+  public void checkKeys(Linkage linkage, boolean constraints, double threshold) {
+    if (constraints || threshold != 0) {
+      throw new PartitionConfigException(ErrorKind.INVALID_CONFIG,
+          "constraints/threshold: not used by method \"fragments-multicut\"");
+    }
+  }
+
+  @Override
+  public void validate(PartitionConfig config, Offsets offsets) {
+    config.fragments().forDimension(offsets.dimension());
+  }
+
+  @Override
+  public Partitioner partitioner(PartitionConfig config) {
+    return new FragmentsMulticutPartitioner(config.fragments(), config.linkage(),
+        config.weights(), config.subsampling());
+  }
+
+  @Override
+  public ReducedGraphSolver solver(PartitionConfig config) {
+    return new MulticutSolver(config.linkage());
+  }
+}

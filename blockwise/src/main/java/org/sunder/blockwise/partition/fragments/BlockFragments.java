@@ -1,0 +1,99 @@
+package org.sunder.blockwise.partition.fragments;
+
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.graph.GridGraph;
+import org.sunder.blockwise.graph.RegionGraph;
+import org.sunder.blockwise.graph.Subsampling;
+import org.sunder.blockwise.graph.WeightRule;
+import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.SettledPartition;
+
+/**
+ * The fragments of one block and the statistics of the signed edges between them: the common
+ * first half of the fragment-based methods. {@link BoundaryMap} from the nearest-neighbour
+ * channels, {@link WatershedFragments}, then the {@link RegionGraph} over every present edge of
+ * the block's {@link GridGraph} (all offsets, long-range too).
+ *
+ * @param labels fragment of each voxel, 1..count, 0 where masked
+ * @param count number of fragments
+ * @param statistics edge statistics between fragment ids 1..count
+ */
+public record BlockFragments(int[] labels, int count, EdgeStatistics statistics) {
+
+  /** Computes the fragments of {@code block}. */
+  public static BlockFragments of(AffinityBlock block, FragmentOptions options,
+      WeightRule weights, Subsampling subsampling) {
+    int[] labels = label(block, options);
+    int count = 0;
+    for (int l : labels) {
+      count = Math.max(count, l);
+    }
+    EdgeStatistics statistics =
+        RegionGraph.of(labels, GridGraph.of(block, weights, subsampling)).statistics();
+    return new BlockFragments(labels, count, statistics);
+  }
+
+  /** Fragment labels only (boundary map and seeded watershed). */
+  public static int[] label(AffinityBlock block, FragmentOptions options) {
+    int[] shape = block.shape();
+    int[][] offsets = block.offsets().vectors();
+    FragmentOptions fitted = options.forDimension(shape.length);
+    float[] boundary = block.isQuantized()
+        ? BoundaryMap.of(block.byteValuesOrNull(), shape, offsets, block.maskOrNull(),
+            fitted.sliceAxis())
+        : BoundaryMap.of(block.floatValuesOrNull(), shape, offsets, block.maskOrNull(),
+            fitted.sliceAxis());
+    return new WatershedFragments(fitted).label(boundary, shape, block.maskOrNull());
+  }
+
+  /**
+   * The clustering {@code clusterOfFragment} (cluster of fragment {@code f} at index
+   * {@code f − 1}, ids {@code >= 0}) as a {@link SettledPartition}: a cluster holding an open,
+   * unmasked voxel ({@code open[i] != 0}) is unsettled and its pieces are its fragments, so the
+   * global solve can continue the method from the fragment-level statistics (its merges leaned
+   * on edges the block could not see, and a merge order that ran through them cannot be undone
+   * later); every other cluster is one settled piece. O(voxels + fragments).
+   */
+  SettledPartition settled(int[] clusterOfFragment, byte[] open, byte[] mask) {
+    SettledPartition.checkOpen(open, labels.length);
+    int clusters = 0;
+    for (int c : clusterOfFragment) {
+      clusters = Math.max(clusters, c + 1);
+    }
+    int[] representative = new int[clusters];
+    java.util.Arrays.fill(representative, -1);
+    for (int f = 0; f < count; f++) {
+      int c = clusterOfFragment[f];
+      if (representative[c] < 0) {
+        representative[c] = f;
+      }
+    }
+    boolean[] clusterOpen = new boolean[clusters];
+    for (int i = 0; i < labels.length; i++) {
+      if (labels[i] > 0 && open[i] != 0 && (mask == null || mask[i] != 0)) {
+        clusterOpen[clusterOfFragment[labels[i] - 1]] = true;
+      }
+    }
+    int[] clusterOfVoxel = new int[labels.length];
+    int[] pieceOfVoxel = new int[labels.length];
+    for (int i = 0; i < labels.length; i++) {
+      if (labels[i] > 0) {
+        int fragment = labels[i] - 1;
+        int c = clusterOfFragment[fragment];
+        clusterOfVoxel[i] = representative[c];
+        pieceOfVoxel[i] = clusterOpen[c] ? fragment : representative[c];
+      }
+    }
+    return SettledPartition.of(clusterOfVoxel, pieceOfVoxel, open, mask);
+  }
+
+  /** The voxel segmentation that gives fragment {@code f} the cluster {@code clusterOf[f−1]}. */
+  Segmentation toSegmentation(int[] clusterOfFragment, byte[] mask) {
+    int[] clusterOfVoxel = new int[labels.length];
+    for (int i = 0; i < labels.length; i++) {
+      clusterOfVoxel[i] = labels[i] > 0 ? clusterOfFragment[labels[i] - 1] : 0;
+    }
+    return Segmentation.fromClusters(clusterOfVoxel, mask);
+  }
+}

@@ -1,0 +1,74 @@
+package org.sunder.blockwise.partition.fragments;
+
+/**
+ * Separable Gaussian smoothing of a box in place, kernel truncated at 3σ and normalised, mirror
+ * boundary ({@code … b a | a b …}). {@code sigma[d] <= 0} leaves axis {@code d} alone.
+ * Time {@code O(n · Σ_d σ_d)}.
+ */
+final class GaussianSmoothing {
+  private GaussianSmoothing() {}
+
+  static void smooth(double[] values, int[] shape, double[] sigma) {
+    int n = values.length;
+    int stride = 1;
+    int longest = 1;
+    for (int s : shape) {
+      longest = Math.max(longest, s);
+    }
+    double[] line = new double[longest];
+    for (int d = 0; d < shape.length; d++) {
+      int length = shape[d];
+      if (sigma[d] > 0 && length > 1) {
+        double[] kernel = kernel(sigma[d]);
+        int block = stride * length;
+        for (int outer = 0; outer < n; outer += block) {
+          for (int inner = 0; inner < stride; inner++) {
+            int start = outer + inner;
+            for (int q = 0, i = start; q < length; q++, i += stride) {
+              line[q] = values[i];
+            }
+            for (int q = 0, i = start; q < length; q++, i += stride) {
+              values[i] = convolve(line, length, q, kernel);
+            }
+          }
+        }
+      }
+      stride *= length;
+    }
+  }
+
+  private static double convolve(double[] line, int length, int q, double[] kernel) {
+    int radius = kernel.length / 2;
+    double sum = 0;
+    if (q >= radius && q + radius < length) {
+      for (int t = 0, i = q - radius; t < kernel.length; t++, i++) {
+        sum += kernel[t] * line[i];
+      }
+      return sum;
+    }
+    for (int t = -radius; t <= radius; t++) {
+      sum += kernel[t + radius] * line[mirror(q + t, length)];
+    }
+    return sum;
+  }
+
+  private static int mirror(int i, int length) {
+    int period = 2 * length;
+    int m = Math.floorMod(i, period);
+    return m < length ? m : period - 1 - m;
+  }
+
+  private static double[] kernel(double sigma) {
+    int radius = Math.max(1, (int) Math.ceil(3 * sigma));
+    double[] k = new double[2 * radius + 1];
+    double sum = 0;
+    for (int t = -radius; t <= radius; t++) {
+      k[t + radius] = Math.exp(-0.5 * t * t / (sigma * sigma));
+      sum += k[t + radius];
+    }
+    for (int t = 0; t < k.length; t++) {
+      k[t] /= sum;
+    }
+    return k;
+  }
+}
