@@ -1,17 +1,10 @@
 package org.sunder.spark.report;
 
-import java.nio.file.Path;
 import java.util.Arrays;
-import net.imglib2.FinalInterval;
-import net.imglib2.img.array.ArrayImg;
-import net.imglib2.img.basictypeaccess.array.ByteArray;
-import net.imglib2.img.basictypeaccess.array.FloatArray;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.metrics.LabelArrays;
-import org.sunder.blockwise.partition.fragments.BoundaryMap;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.Dataset;
+import org.sunder.stitching.BoxReads;
+import org.sunder.stitching.StitchingSetup;
 
 /**
  * One axis-aligned plane of a 3D volume, cut to a window: {@code axis} is the memory axis held
@@ -95,9 +88,7 @@ record Plane(int axis, long[] min, long[] max) {
 
   /** The labels of {@code dataset} in the box {@code [min, max]} (inclusive), dimension 0 fastest. */
   static long[] labelsOfBox(String container, String dataset, long[] min, long[] max) {
-    Dataset data = Container.open(Path.of(container)).openDataset(dataset);
-    ArrayImg<?, ?> img = data.read(new FinalInterval(min, max));
-    return LabelArrays.labels(img, data.dataType());
+    return BoxReads.labels(container, dataset, min, max);
   }
 
   /** Throws the report's typed error unless the volume is 3D. */
@@ -108,24 +99,8 @@ record Plane(int axis, long[] min, long[] max) {
     }
   }
 
-  /**
-   * The boundary map ({@link BoundaryMap}) of the affinities over this plane, in box order:
-   * 0 inside objects, 1 on predicted boundaries.
-   */
-  float[] boundary(String container, String affinities, int[][] offsets) {
-    Dataset data = Container.open(Path.of(container)).openDataset(affinities);
-    long[] amin = Arrays.copyOf(min, 4);
-    long[] amax = Arrays.copyOf(max, 4);
-    amax[3] = offsets.length - 1;
-    ArrayImg<?, ?> img = data.read(new FinalInterval(amin, amax));
-    Object storage = img.update(null);
-    if (storage instanceof FloatArray f) {
-      return BoundaryMap.of(f.getCurrentStorageArray(), boxShape(), offsets, null, -1);
-    }
-    if (storage instanceof ByteArray b) {
-      return BoundaryMap.of(b.getCurrentStorageArray(), boxShape(), offsets, null, -1);
-    }
-    throw new SunderException(ErrorKind.INVALID_INPUT, "affinity dataset " + affinities + " in "
-        + container + " has data type " + data.dataType() + "; the report draws float32 or uint8");
+  /** The boundary map of the run's affinities over this plane, in box order (see {@link BoxReads}). */
+  float[] boundary(StitchingSetup setup) {
+    return BoxReads.boundaryMap(setup, min, max);
   }
 }

@@ -271,7 +271,7 @@ public final class RunReportWriter {
       for (double at : SLICE_AT) {
         long position = Math.min(shape[axis] - 1, Math.round(at * shape[axis]));
         Plane plane = Plane.centred(shape, axis, position, centre, WINDOW);
-        float[] boundary = plane.boundary(s.inputContainer(), s.affinities(), s.offsets());
+        float[] boundary = plane.boundary(s.setup());
         long[] labels = plane.labels(s.outputContainer(), s.outputDataset());
         int scale = SlicePicture.scaleFor(Math.max(plane.width(), plane.height()), 300);
         BufferedImage image = SlicePicture.render(plane, boundary, labels, null, 0,
@@ -383,7 +383,7 @@ public final class RunReportWriter {
       }
     }
     Plane plane = new Plane(axis, min, max);
-    float[] boundary = plane.boundary(s.inputContainer(), s.affinities(), s.offsets());
+    float[] boundary = plane.boundary(s.setup());
     long[] segmentation = plane.labels(s.outputContainer(), s.outputDataset());
     long[] truth = plane.labels(s.truthContainer(), s.groundTruth());
     int scale = SlicePicture.scaleFor(Math.max(plane.width(), plane.height()), 240);
