@@ -12,6 +12,7 @@ import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.config.PartitionMethod;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
@@ -38,6 +39,8 @@ import org.sunder.blockwise.store.DatasetSpec;
 public record StitchingSetup(String inputRoot, String affinitiesPath, String maskPath,
     String outputRoot, String labelsPath, BlockGrid grid, Offsets offsets,
     PartitionConfig partition) implements Serializable {
+  /** The partition method of a configuration that names none. */
+  public static final String DEFAULT_METHOD = PartitionMethod.robustDefault().jsonName();
   private static final ObjectMapper JSON = new ObjectMapper();
 
   /** A setup; validates the partition configuration against the offsets. */

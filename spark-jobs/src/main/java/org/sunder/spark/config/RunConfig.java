@@ -2,7 +2,7 @@ package org.sunder.spark.config;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import org.sunder.blockwise.partition.config.PartitionMethod;
+import org.sunder.stitching.StitchingSetup;
 
 /**
  * A run configuration as written in its JSON file. Every coordinate list is in the order that
@@ -28,7 +28,7 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
   /** Default name of the affinity dataset. */
   public static final String DEFAULT_AFFINITIES = "affinities";
   /** Partition method when the configuration names none: parameter-free. */
-  public static final String DEFAULT_METHOD = PartitionMethod.robustDefault().jsonName();
+  public static final String DEFAULT_METHOD = StitchingSetup.DEFAULT_METHOD;
   /** Default bound on the reduced graph's edges gathered on the driver. */
   public static final long DEFAULT_MAX_DRIVER_EDGES = 20_000_000L;
 

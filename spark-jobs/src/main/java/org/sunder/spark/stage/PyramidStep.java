@@ -1,21 +1,15 @@
 package org.sunder.spark.stage;
 
 import java.io.PrintStream;
-import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
-import org.sunder.blockwise.ErrorKind;
-import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.Dataset;
-import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.stitching.LabelPyramid;
 import org.sunder.stitching.MultiscaleMetadata;
+import org.sunder.stitching.PyramidTask;
 
 /**
  * The pyramid stage: the segmentation's coarser levels ({@link LabelPyramid}, mode
@@ -35,7 +29,7 @@ public final class PyramidStep {
 
   /** The path of level {@code level}'s dataset (level 0: the segmentation). */
   public static String levelPath(String dataset, int level) {
-    return level == 0 ? dataset : dataset + "_s" + level;
+    return PyramidTask.levelPath(dataset, level);
   }
 
   /** The first task index of each level, and the task count after the last ({@code levels + 1} entries). */
@@ -52,11 +46,7 @@ public final class PyramidStep {
   public static StageReport run(StageRunner runner, RunSettings s, PrintStream out) {
     long start = System.nanoTime();
     LabelPyramid pyramid = plan(s);
-    Container output = Container.open(Path.of(s.outputContainer()));
-    Dataset base = output.openDataset(s.outputDataset());
-    for (int level = 1; level < pyramid.levelCount(); level++) {
-      createLevel(output, base.spec(), pyramid, levelPath(s.outputDataset(), level), level);
-    }
+    PyramidTask.createLevels(s.setup(), pyramid);
     int[] offsets = taskOffsets(pyramid);
     int total = 0;
     int skipped = 0;
@@ -68,43 +58,8 @@ public final class PyramidStep {
       skipped += r.skipped();
       ran += r.ran();
     }
-    writeMetadata(output, s, pyramid);
+    PyramidTask.writeMetadata(s.setup(), pyramid, unit(s));
     return new StageReport(Stage.PYRAMID, total, skipped, ran, (System.nanoTime() - start) / 1e9);
-  }
-
-  private static void createLevel(Container output, DatasetSpec base, LabelPyramid pyramid,
-      String path, int level) {
-    long[] shape = pyramid.shapes()[level];
-    if (output.datasetExists(path)) {
-      long[] existing = output.openDataset(path).shape();
-      if (!Arrays.equals(existing, shape)) {
-        throw new SunderException(ErrorKind.CONFLICT, "pyramid level dataset '" + path + "' in "
-            + output.root() + " has shape " + Arrays.toString(existing) + " (memory order), not "
-            + Arrays.toString(shape) + " as this run needs; remove it or choose another"
-            + " output.dataset");
-      }
-      return;
-    }
-    output.createDataset(path, new DatasetSpec(shape, base.chunkShape(), base.dataType(),
-        base.codec(), base.fillValue(), base.endianness(), base.chunkOrder(),
-        base.dimensionSeparator()));
-  }
-
-  private static void writeMetadata(Container output, RunSettings s, LabelPyramid pyramid) {
-    String dataset = s.outputDataset();
-    int slash = dataset.lastIndexOf('/');
-    String group = slash < 0 ? "" : dataset.substring(0, slash);
-    String name = dataset.substring(slash + 1);
-    List<String> paths = new ArrayList<>();
-    for (int level = 0; level < pyramid.levelCount(); level++) {
-      paths.add(levelPath(name, level));
-    }
-    Map<String, Object> attributes = MultiscaleMetadata.attributes(pyramid, paths, name, unit(s));
-    output.mergeAttributes(group, attributes);
-  }
-
-  private static Map<String, Object> inputAttributes(RunSettings s) {
-    return Container.open(Path.of(s.inputContainer())).readAttributes(s.affinities());
   }
 
   /**
@@ -116,7 +71,7 @@ public final class PyramidStep {
     int n = s.volumeShape().length;
     double[] ones = new double[n];
     Arrays.fill(ones, 1);
-    Map<String, Object> attributes = inputAttributes(s);
+    Map<String, Object> attributes = PyramidTask.inputAttributes(s.setup());
     if (!(attributes.get("voxelSize") instanceof List<?> values) || values.size() != n) {
       return ones;
     }
@@ -139,7 +94,7 @@ public final class PyramidStep {
   }
 
   private static String unit(RunSettings s) {
-    return inputAttributes(s).get("unit") instanceof String u ? u : null;
+    return PyramidTask.inputAttributes(s.setup()).get("unit") instanceof String u ? u : null;
   }
 
   /** Task body: one chunk of one level, from the level before. */
@@ -157,11 +112,7 @@ public final class PyramidStep {
 
     @Override
     public Object run(RunSettings settings, int index) {
-      Container output = Container.open(Path.of(settings.outputContainer()));
-      Dataset source = output.openDataset(levelPath(settings.outputDataset(), level - 1));
-      Dataset target = output.openDataset(levelPath(settings.outputDataset(), level));
-      return pyramid.writeChunk(source, target, level, pyramid.chunkPosition(level,
-          index - offsets[level]));
+      return PyramidTask.writeChunk(settings.setup(), pyramid, level, index - offsets[level]);
     }
   }
 }
