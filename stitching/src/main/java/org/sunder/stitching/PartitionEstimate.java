@@ -3,25 +3,40 @@ package org.sunder.stitching;
 import java.util.Locale;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Shapes;
+import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.blockwise.store.DataType;
 
 /**
  * What one partition task ({@link PartitionTask}) of a run holds in memory, by formula: the
- * largest extended block's voxels times (channels x bytes per affinity value +
- * {@value #WORKING_BYTES_PER_VOXEL} bytes of the partition's graph and working arrays +
- * {@value #LABEL_BYTES_PER_VOXEL} bytes of provisional labels). The working figure is the
- * partition module's stated bound for the Mutex Watershed; agglomeration from voxels may need
- * more. O(dimensions); reads only the affinities' metadata.
+ * largest extended block's voxels times (channels x bytes per affinity value + the method's
+ * working bytes per voxel + {@value #LABEL_BYTES_PER_VOXEL} bytes of provisional labels).
+ * O(dimensions); reads only the affinities' metadata.
+ *
+ * <p>The working bytes per voxel ({@link #workingBytesPerVoxel}) are the bytes the method's
+ * kernel allocates per voxel of its block, measured by {@code KernelBenchmark} (blockwise's
+ * partition benchmarks: bytes allocated by the calling thread during the call, 13 offsets,
+ * float32, central 128 x 128 x 64 blocks of the realistic tissue presets): about
+ * {@value #MUTEX_WATERSHED_BYTES_PER_VOXEL} for the Mutex Watershed and
+ * {@value #AGGLOMERATION_BYTES_PER_VOXEL} for agglomeration from voxels (mean linkage). Allocated
+ * bytes bound the retained peak from above, so these are safe figures. The fragment methods keep
+ * the earlier stated bound of {@value #FRAGMENTS_BYTES_PER_VOXEL} bytes per voxel, which is not
+ * measured: their voxel-level work is the seeded watershed on the boundary map, their graph has
+ * one node per fragment.
  *
  * @param extendedVoxels voxels of a full block's extended box, clipped to the volume
  * @param channels affinity channels (one per offset)
  * @param valueType affinity data type, lower case ({@code float32} or {@code uint8})
  * @param bytesPerValue bytes of one affinity value
+ * @param workingBytesPerVoxel the method's working bytes per voxel ({@link #workingBytesPerVoxel})
  */
 public record PartitionEstimate(long extendedVoxels, int channels, String valueType,
-    int bytesPerValue) {
-  /** Bytes per voxel of the partition's graph and working arrays. */
-  public static final int WORKING_BYTES_PER_VOXEL = 150;
+    int bytesPerValue, int workingBytesPerVoxel) {
+  /** Working bytes per voxel of the Mutex Watershed (KernelBenchmark, allocated). */
+  public static final int MUTEX_WATERSHED_BYTES_PER_VOXEL = 600;
+  /** Working bytes per voxel of agglomeration from voxels (KernelBenchmark, mean linkage, allocated). */
+  public static final int AGGLOMERATION_BYTES_PER_VOXEL = 1170;
+  /** Working bytes per voxel of the fragment methods (stated bound, not measured). */
+  public static final int FRAGMENTS_BYTES_PER_VOXEL = 150;
   /** Bytes per voxel of the provisional labels (uint64). */
   public static final int LABEL_BYTES_PER_VOXEL = 8;
 
@@ -35,12 +50,51 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
       extent[d] = Math.min(volume[d], grid.blockShape()[d] + 2L * grid.halo()[d]);
     }
     return new PartitionEstimate(Shapes.elementCount(extent), setup.offsets().count(),
-        type.name().toLowerCase(Locale.ROOT), type == DataType.UINT8 ? 1 : 4);
+        type.name().toLowerCase(Locale.ROOT), bytesPerValue(type),
+        workingBytesPerVoxel(setup.partition().method()));
+  }
+
+  /** Bytes of one affinity value of {@code type}: 1 for uint8, else 4. */
+  public static int bytesPerValue(DataType type) {
+    return type == DataType.UINT8 ? 1 : 4;
+  }
+
+  /** The working bytes per voxel of {@code method} (see the class comment for the sources). */
+  public static int workingBytesPerVoxel(PartitionConfig.Method method) {
+    return switch (method) {
+      case MUTEX_WATERSHED -> MUTEX_WATERSHED_BYTES_PER_VOXEL;
+      case AGGLOMERATION -> AGGLOMERATION_BYTES_PER_VOXEL;
+      case FRAGMENTS_MULTICUT, FRAGMENTS_AGGLOMERATION -> FRAGMENTS_BYTES_PER_VOXEL;
+    };
+  }
+
+  /**
+   * Bytes a partition task holds per voxel of its extended box: affinities, the method's working
+   * arrays and the labels.
+   */
+  public static long bytesPerExtendedVoxel(PartitionConfig.Method method, int channels,
+      int bytesPerValue) {
+    return (long) channels * bytesPerValue + workingBytesPerVoxel(method) + LABEL_BYTES_PER_VOXEL;
+  }
+
+  /**
+   * As {@link #bytesPerExtendedVoxel(PartitionConfig.Method, int, int)} for the method of JSON
+   * name {@code methodName}; the default method ({@code fragments-multicut}) when it is null or
+   * names no method (the partition configuration refuses that with its own message).
+   */
+  public static long bytesPerExtendedVoxel(String methodName, int channels, int bytesPerValue) {
+    PartitionConfig.Method method = PartitionConfig.Method.FRAGMENTS_MULTICUT;
+    for (PartitionConfig.Method m : PartitionConfig.Method.values()) {
+      if (m.jsonName().equals(methodName)) {
+        method = m;
+      }
+    }
+    return bytesPerExtendedVoxel(method, channels, bytesPerValue);
   }
 
   /** Bytes per voxel besides the affinities. */
   public int otherBytesPerVoxel() {
-    return WORKING_BYTES_PER_VOXEL + LABEL_BYTES_PER_VOXEL;
+    return workingBytesPerVoxel + LABEL_BYTES_PER_VOXEL;
   }
 
   /** Bytes one partition task holds. */
