@@ -26,8 +26,8 @@ import org.sunder.blockwise.store.StorageFormat;
 /**
  * Figures of one sample block, measured in this process without writing to the run's output:
  * the partition task's computation ({@link PartitionTask}: read the extended box, partition,
- * summarise), timed as a whole and its read alone; the seam task's first half on the faces of
- * the block's upper sides (read the slab's affinities, build its graph; the label read and the
+ * summarise), timed as a whole and its read alone; the seam task's first half on one face
+ * per axis, on the block's upper side, else its lower side (read the slab's affinities, build its graph; the label read and the
  * edge aggregation are not timed); and the relabel task's chunk I/O on the block's provisional
  * labels (write them into a temporary dataset of the output's chunk shape in
  * {@code java.io.tmpdir}, then read, map and rewrite every chunk, as relabel does; the
@@ -44,6 +44,7 @@ import org.sunder.blockwise.store.StorageFormat;
  *     the block)
  * @param boundaryPerSide per side (bit {@code 2 * axis + 1} upper, {@code 2 * axis} lower),
  *     boundary segments near it
+ * @param seamFaces faces timed (one per axis that has a face on either side)
  * @param seamSlabVoxels voxels of the timed face slabs
  * @param seamSeconds reading and building the graphs of those slabs
  * @param relabelVoxels voxels of the relabelled chunks
@@ -51,7 +52,7 @@ import org.sunder.blockwise.store.StorageFormat;
  */
 public record PartitionSample(int block, long extendedVoxels, long coreVoxels, double seconds,
     double readSeconds, int segments, int boundarySegments, long innerEdges,
-    int[] boundaryPerSide, long seamSlabVoxels, double seamSeconds, long relabelVoxels,
+    int[] boundaryPerSide, int seamFaces, long seamSlabVoxels, double seamSeconds, long relabelVoxels,
     double relabelSeconds) {
 
   public PartitionSample {
@@ -84,15 +85,20 @@ public record PartitionSample(int block, long extendedVoxels, long coreVoxels, d
       }
     }
     long slabVoxels = 0;
+    int faces = 0;
     long seamStart = System.nanoTime();
     PartitionConfig config = setup.partition();
     for (int axis = 0; axis < n; axis++) {
-      int faceIndex = grid.faceIndex(blockIndex, axis);
+      int faceIndex = grid.faceIndex(blockIndex, axis, true);
+      if (faceIndex < 0) {
+        faceIndex = grid.faceIndex(blockIndex, axis, false);
+      }
       if (faceIndex >= 0) {
         Face face = grid.face(faceIndex);
         SeamExtraction.Box slab = SeamExtraction.slab(grid, face, setup.offsets());
         AffinityBlock slabAffinities = AffinityReader.read(setup, slab.min(), slab.max());
         GridGraph.of(slabAffinities, config.weights(), config.subsampling());
+        faces++;
         slabVoxels += Shapes.elementCount(extent(slab.min(), slab.max()));
       }
     }
@@ -107,7 +113,7 @@ public record PartitionSample(int block, long extendedVoxels, long coreVoxels, d
         block.extendedMax())), Shapes.elementCount(core), seconds, read,
         summary.segmentCount(), summary.boundaryLocalIds().length,
         (long) summary.innerEdges().size() + summary.interiorEdges().size(), perSide,
-        slabVoxels, seamSeconds, Shapes.elementCount(core), relabelSeconds);
+        faces, slabVoxels, seamSeconds, Shapes.elementCount(core), relabelSeconds);
   }
 
   /**

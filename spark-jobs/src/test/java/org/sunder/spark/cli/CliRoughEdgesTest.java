@@ -278,10 +278,11 @@ class CliRoughEdgesTest {
     assertEquals("3 min 5 s", RunPlan.duration(185));
     assertEquals("0.39 s", RunPlan.duration(0.39));
     // One task of 100 s on 8 cores takes 100 s, not 12.5 s.
-    String one = RunPlan.estimate(1, 100, 8);
+    String one = RunPlan.estimate("partition", 1, 100, 8);
     assertTrue(one.contains("about 1 min 40 s of work, 1 min 40 s on 8 cores (1 task of"), one);
     // 9 tasks of 10 s on 4 cores: three rounds, 30 s.
-    String nine = RunPlan.estimate(9, 10, 4);
+    String nine = RunPlan.estimate("seams", 9, 10, 4);
+    assertTrue(nine.startsWith("seams      about"), nine);
     assertTrue(nine.contains("about 1 min 30 s of work, 30.0 s on 4 cores (9 tasks of about"
         + " 10.0 s, 3 rounds)"), nine);
     assertEquals("1 block", RunPlan.count(1, "block"));

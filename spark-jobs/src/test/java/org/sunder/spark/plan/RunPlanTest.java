@@ -3,7 +3,6 @@ package org.sunder.spark.plan;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import org.apache.spark.SparkConf;
 import org.junit.jupiter.api.Test;
 
 class RunPlanTest {
@@ -20,9 +19,9 @@ class RunPlanTest {
   }
 
   @Test
-  void executorMemoryComesFromTheSparkConfigurationElseTheHeap() {
-    assertEquals(3L << 30, RunPlan.executorMemory(new SparkConf(false)
-        .set("spark.executor.memory", "3g")));
-    assertEquals(Runtime.getRuntime().maxMemory(), RunPlan.executorMemory(new SparkConf(false)));
+  void taskRecordsCountEveryStagesTasks() {
+    // 8 blocks, 12 faces: partition 8 + seams 12 + solve 1 + relabel 8 + evaluate 8 + pyramid 3.
+    assertEquals(40, RunPlan.taskRecords(8, 12, true, 3));
+    assertEquals(29, RunPlan.taskRecords(8, 12, false, 0));
   }
 }

@@ -196,11 +196,4 @@ class RunResolverTest {
     assertTrue(e.getMessage().contains("[6, 10, 14] or [6, 20, 14]"), e.getMessage());
   }
 
-  @Test
-  void defaultBlockShapeGrowsTheSmallestAxis() {
-    int[] shape = RunResolver.defaultBlockShape(new long[] {1000, 1000, 100}, new int[] {64, 64, 16});
-    assertArrayEquals(new int[] {128, 128, 64}, shape);
-    int[] small = RunResolver.defaultBlockShape(new long[] {30, 20, 10}, new int[] {16, 16, 8});
-    assertArrayEquals(new int[] {32, 32, 16}, small);
-  }
 }
