@@ -12,7 +12,7 @@ class RunPlanTest {
   void warnsWhenTheTasksOfOneExecutorNeedMoreThanItsMemory() {
     assertTrue(RunPlan.memoryWarning(500 * MIB, 2, 1024 * MIB).isEmpty());
     String warning = RunPlan.memoryWarning(600 * MIB, 2, 1024 * MIB).orElseThrow();
-    assertTrue(warning.contains("2 partition tasks at once on one executor: about 1200.0 MiB"), warning);
+    assertTrue(warning.contains("2 partition tasks at once on one executor: about 1.2 GiB, more than its 1.0 GiB"), warning);
     assertTrue(warning.contains("blocks.shape"), warning);
     assertTrue(RunPlan.memoryWarning(2048 * MIB, 1, 1024 * MIB).orElseThrow()
         .contains("1 partition task at once"));
