@@ -30,7 +30,8 @@ public final class ExitCodes implements CommandLine.IExecutionExceptionHandler {
   public static final List<Code> TABLE = List.of(
       new Code(0, "success"),
       new Code(ErrorKind.INVALID_CONFIG.exitCode(), "invalid configuration or option, a block"
-          + " too large for one array, an output or work dir inside the input container"),
+          + " too large for one array or for the memory, an output or work dir inside the input"
+          + " container"),
       new Code(ErrorKind.INVALID_INPUT.exitCode(), "invalid input data: a missing, malformed"
           + " or empty dataset, a missing chunk, a corrupt chunk (truncated, wrong codec)"),
       new Code(ErrorKind.STORAGE.exitCode(), "storage failure: an I/O error such as missing"

@@ -14,10 +14,12 @@ import picocli.CommandLine.ParentCommand;
 /** {@code sunder plan CONFIG}. */
 @Command(name = "plan", mixinStandardHelpOptions = true,
     description = {"Check a configuration against its input and show what a run would do: the"
-        + " block grid, task counts per stage, memory per partition task, and a time estimate"
-        + " from partitioning one sample block here. Runs every check that run makes before it"
-        + " writes (input, output, work dir, an earlier run's settings) and refuses with the same"
-        + " message and exit code. Writes nothing."})
+        + " block grid and its halo overhead, task counts and records per stage, memory per"
+        + " partition task against the budget, and, from one sample block measured here, the"
+        + " time of every stage on the cores given and the reduced graph's expected size. Runs"
+        + " every check that run makes before it writes (input, output, work dir, an earlier"
+        + " run's settings, a block too large for one array or for the memory) and refuses with"
+        + " the same message and exit code. Writes nothing to the run."})
 final class PlanCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;
@@ -38,17 +40,19 @@ final class PlanCommand implements Callable<Integer> {
       + " sample block is partitioned to estimate the time).")
   boolean noSample;
 
-  @Option(names = "--cores", paramLabel = "N", description = "Cores the estimate assumes"
-      + " (default: this machine's, ${DEFAULT-VALUE}).")
-  int cores = Runtime.getRuntime().availableProcessors();
+  @Option(names = "--cores", paramLabel = "N", description = "Cores the run will have; the"
+      + " default block shape keeps at least 2 blocks per core, and in local mode each task gets"
+      + " the heap divided by N (default: spark.cores.max, else spark.executor.instances x"
+      + " spark.executor.cores, else this machine's processors).")
+  Integer cores;
 
   @Override
   public Integer call() {
-    if (cores < 1) {
+    if (cores != null && cores < 1) {
       throw new ConfigException("--cores: expected a number of cores >= 1, got " + cores);
     }
-    RunSettings settings = RunLoader.check(config, workDir, fresh);
-    RunPlan.print(settings, !noSample, cores, cli.out());
+    RunSettings settings = RunLoader.check(config, workDir, fresh, cores == null ? 0 : cores);
+    RunPlan.print(settings, !noSample, settings.blockOrigin().budget().cores(), cli.out());
     return 0;
   }
 }

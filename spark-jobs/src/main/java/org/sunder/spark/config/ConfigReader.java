@@ -60,7 +60,7 @@ public final class ConfigReader {
     } catch (JsonMappingException e) {
       Throwable cause = e.getCause();
       if (cause instanceof ConfigException c) {
-        throw c;
+        throw new ConfigException(keyPath(e) + ": " + c.getMessage(), c);
       }
       if (cause instanceof JsonParseException p) {
         throw malformed(p);

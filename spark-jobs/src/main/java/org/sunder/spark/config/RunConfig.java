@@ -55,10 +55,13 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
   public record OutputSection(String container, String dataset) {}
 
   /**
-   * @param shape block core shape in voxels, whole chunks (default: chosen from the chunk shape)
+   * @param shape block core shape in voxels, whole chunks (default: chosen from the chunk shape,
+   *     the halo and {@code memoryPerTask}, see {@code RunResolver})
    * @param halo context around each core per axis (default: the largest offset along each axis)
+   * @param memoryPerTask memory one partition task may hold, for the default shape (default: the
+   *     executor memory divided by the executor's cores, see {@code TaskBudget})
    */
-  public record BlockSection(int[] shape, int[] halo) {}
+  public record BlockSection(int[] shape, int[] halo, ByteSize memoryPerTask) {}
 
   /** @param maxDriverEdges largest reduced graph (edges) that may be gathered on the driver */
   public record SolveSection(Long maxDriverEdges) {}
@@ -91,7 +94,7 @@ public record RunConfig(String axes, InputSection input, OutputSection output, S
     OutputSection out = output == null ? new OutputSection(null, null) : output;
     out = new OutputSection(orDefault(out.container(), in.container()),
         orDefault(out.dataset(), DEFAULT_OUTPUT_DATASET));
-    BlockSection b = blocks == null ? new BlockSection(null, null) : blocks;
+    BlockSection b = blocks == null ? new BlockSection(null, null, null) : blocks;
     JsonNode p = partition == null || partition.isNull()
         ? JsonNodeFactory.instance.objectNode() : partition.deepCopy();
     if (!p.isObject()) {

@@ -23,6 +23,8 @@ public final class PayloadClasses {
       int[][].class, long[][].class, String[].class, Object[].class,
       java.util.ArrayList.class, java.util.BitSet.class,
       org.sunder.spark.run.RunSettings.class, org.sunder.stitching.StitchingSetup.class,
+      org.sunder.spark.run.BlockShapeOrigin.class, org.sunder.spark.run.TaskBudget.class,
+      org.sunder.blockwise.grid.BlockShapeChoice.Limit.class,
       org.sunder.blockwise.graph.EdgeStatistics.class,
       org.sunder.blockwise.grid.IdLayout.class,
       org.sunder.blockwise.metrics.ContingencyTable.Pairs.class,

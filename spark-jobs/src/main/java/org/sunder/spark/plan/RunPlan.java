@@ -1,6 +1,7 @@
 package org.sunder.spark.plan;
 
 import java.io.PrintStream;
+import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
@@ -8,23 +9,39 @@ import java.util.Optional;
 import org.apache.spark.SparkConf;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.BlockShapeChoice;
 import org.sunder.blockwise.grid.HaloShortfall;
 import org.sunder.spark.config.AxisOrder;
+import org.sunder.spark.config.ByteSize;
 import org.sunder.spark.progress.ProgressTracker;
+import org.sunder.spark.run.BlockShapeOrigin;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.run.TaskBudget;
+import org.sunder.spark.stage.PyramidStep;
 import org.sunder.stitching.PartitionEstimate;
-import org.sunder.stitching.PartitionTask;
+import org.sunder.stitching.PartitionSample;
 
 /**
- * What a run will do, before it does it: the block grid, task counts per stage, memory per
- * partition task ({@link PartitionEstimate}), and a time estimate from running the partition
- * stage's own task computation on one sample block (the central one) in this process, writing
- * nothing ({@link PartitionTask#timeWithoutWriting}).
+ * What a run will do, before it does it: the block grid and where its shape came from (with its
+ * halo overhead), task counts per stage and the task records the run writes, memory per
+ * partition task ({@link PartitionEstimate}) against the budget per task and one executor's
+ * memory, and, from one sample block measured in this process without writing to the run
+ * ({@link PartitionSample}: the central block), the time of every stage on the cores given and
+ * the reduced graph's expected size against {@code solve.maxDriverEdges}. Runs that cannot fit
+ * are refused earlier, by {@link org.sunder.spark.run.RunResolver}, as {@code run} refuses them.
  */
 public final class RunPlan {
+  /**
+   * Seam edges counted per boundary segment near a face, in the reduced graph's estimate: each
+   * segment that touches a face meets at least one segment across it. A figure of this class,
+   * checked once: on the demo volume (compact cells, 48 x 128 x 128, 12 blocks of 16 x 64 x 64)
+   * the estimate was 9948 edges, the run's reduced graph 10177.
+   */
+  static final double SEAM_EDGES_PER_BOUNDARY_SEGMENT = 1.0;
+
   private RunPlan() {}
 
-  /** Prints the plan; times a sample block unless {@code sample} is false. */
+  /** Prints the plan; measures a sample block unless {@code sample} is false. */
   public static void print(RunSettings s, boolean sample, int cores, PrintStream out) {
     AxisOrder axes = new AxisOrder(s.axes());
     BlockGrid grid = s.grid();
@@ -42,31 +59,66 @@ public final class RunPlan {
     out.println("blocks     shape " + Arrays.toString(axes.toFile(s.blockShape())) + ", halo "
         + Arrays.toString(axes.toFile(s.halo())) + ", grid "
         + Arrays.toString(axes.toFile(grid.gridShape())) + " = " + count(grid.blockCount(), "block"));
+    BlockShapeOrigin origin = s.blockOrigin();
+    double overhead = BlockShapeChoice.overhead(s.volumeShape(), s.blockShape(), s.halo());
+    out.println(String.format(Locale.ROOT, "           halo overhead %.2f: the blocks read and"
+        + " partition %.2f x the volume's voxels (target at most %.2f); shape %s", overhead,
+        overhead, BlockShapeChoice.TARGET_OVERHEAD, origin == null ? "given"
+        : origin.limitText()));
+    if (origin != null && origin.note() != null) {
+      out.println("note       " + origin.note());
+    }
     List<HaloShortfall> shortfalls = grid.haloShortfalls(s.setup().offsets().reach());
     for (HaloShortfall shortfall : shortfalls) {
       out.println("note       " + shortfall.message());
     }
+    long pyramidTasks = pyramidTasks(s);
     out.println("tasks      partition " + grid.blockCount() + ", seams " + grid.faceCount()
         + ", solve 1 (driver), relabel " + grid.blockCount() + " (" + count(grid.chunkCount(),
-        "chunk") + ")" + (s.evaluates() ? ", evaluate " + grid.blockCount() : ""));
+        "chunk") + ")" + (s.evaluates() ? ", evaluate " + grid.blockCount() : "")
+        + ", pyramid " + pyramidTasks);
+    long records = taskRecords(grid.blockCount(), grid.faceCount(), s.evaluates(), pyramidTasks);
+    out.println("records    " + count(records, "task record") + " in the work dir (one file per"
+        + " finished task, each beside its timing file)");
     long bytes = memory.bytes();
     out.println(String.format(Locale.ROOT, "memory     about %s per partition task (%d voxels"
         + " in the largest extended block x (%d channels x %d bytes + %d bytes))",
-        mebibytes(bytes), memory.extendedVoxels(), channels, memory.bytesPerValue(),
+        ByteSize.format(bytes), memory.extendedVoxels(), channels, memory.bytesPerValue(),
         memory.otherBytesPerVoxel()));
-    SparkConf conf = new SparkConf();
-    memoryWarning(bytes, conf.getInt("spark.executor.cores", cores), executorMemory(conf))
-        .ifPresent(out::println);
-    out.println("driver     reduced graph bound solve.maxDriverEdges = " + s.maxDriverEdges()
-        + " edges (about " + mebibytes(s.maxDriverEdges() * 100) + ")");
+    TaskBudget budget = origin == null ? TaskBudget.of(new SparkConf(), cores, null)
+        : origin.budget();
+    out.println("           budget " + ByteSize.format(budget.memoryPerTask()) + " per task ("
+        + budget.memorySource() + "), " + ByteSize.format(budget.executorMemory())
+        + " per executor with " + count(budget.executorCores(), "core") + String.format(
+        Locale.ROOT, "; a task uses %.0f%% of its budget", 100.0 * bytes
+        / budget.memoryPerTask()));
+    memoryWarning(bytes, budget.executorCores(), budget.executorMemory()).ifPresent(out::println);
     if (sample) {
       int central = centralBlock(grid);
       Block block = grid.block(central);
-      double seconds = PartitionTask.timeWithoutWriting(s.setup(), central);
+      PartitionSample measured = PartitionSample.measure(s.setup(), central);
       out.println(String.format(Locale.ROOT, "estimate   sample block at grid %s, voxels %s (%s),"
-          + " partitioned here in %.3f s", Arrays.toString(axes.toFile(block.gridPosition())),
-          voxelBox(block, axes), axes, seconds));
-      out.println(estimate(grid.blockCount(), seconds, cores));
+          + " partitioned here in %.3f s (reading %.3f s): %d segments, %d near a face, %d inner"
+          + " edges", Arrays.toString(axes.toFile(block.gridPosition())), voxelBox(block, axes),
+          axes, measured.seconds(), measured.readSeconds(), measured.segments(),
+          measured.boundarySegments(), measured.innerEdges()));
+      for (String line : stageTimes(s, measured, cores)) {
+        out.println(line);
+      }
+      long edges = reducedGraphEdges(grid, measured);
+      out.println(String.format(Locale.ROOT, "driver     reduced graph about %d edges (estimate:"
+          + " the sample's inner edges per block, and %s seam edge per boundary segment near"
+          + " a face), %.1f%% of solve.maxDriverEdges = %d", edges,
+          trim(SEAM_EDGES_PER_BOUNDARY_SEGMENT), 100.0 * edges / s.maxDriverEdges(),
+          s.maxDriverEdges()));
+      if (edges > s.maxDriverEdges()) {
+        out.println("warning    the reduced graph may exceed solve.maxDriverEdges; the solve"
+            + " would stop before gathering it: raise the bound (and the driver's memory) or"
+            + " choose larger blocks");
+      }
+    } else {
+      out.println("driver     reduced graph bound solve.maxDriverEdges = " + s.maxDriverEdges()
+          + " edges; no sample, so no estimate of the stages' times or the graph's size");
     }
     out.println("output     " + s.outputContainer() + "  dataset " + s.outputDataset()
         + " (uint64, chunks " + Arrays.toString(axes.toFile(s.chunkShape())) + ")");
@@ -74,16 +126,90 @@ public final class RunPlan {
   }
 
   /**
-   * The partition stage's estimate: the work ({@code tasks} x {@code seconds}) and the wall
-   * time on {@code cores}, in rounds of equal tasks: ceil(tasks / cores) x seconds, so never
-   * less than one task.
+   * One line per stage with its work and wall time on {@code cores}, each naming what it was
+   * extrapolated from, and a total.
    */
-  public static String estimate(long tasks, double seconds, int cores) {
-    long rounds = (tasks + cores - 1) / cores;
-    return "           partition stage: about " + duration(tasks * seconds) + " of work, "
-        + duration(rounds * seconds) + " on " + count(cores, "core") + " (" + count(tasks,
-        "task") + " of about " + duration(seconds) + (rounds == 1 ? "" : ", " + rounds
-        + " rounds") + "); seams, solve, relabel and I/O are not estimated";
+  static List<String> stageTimes(RunSettings s, PartitionSample sample, int cores) {
+    BlockGrid grid = s.grid();
+    List<String> lines = new ArrayList<>();
+    double partition = sample.seconds();
+    lines.add("           " + estimate("partition", grid.blockCount(), partition, cores)
+        + ": the sample block's partition");
+    double seam = sample.seamFaces() == 0 ? 0 : sample.seamSeconds() / sample.seamFaces();
+    lines.add("           " + estimate("seams", grid.faceCount(), seam, cores) + ": the sample's"
+        + " " + count(sample.seamFaces(), "face") + ", slab read and graph (label read and"
+        + " aggregation not timed)");
+    lines.add("           solve      on the driver, not timed: it grows with the reduced graph"
+        + " (below)");
+    double relabel = sample.relabelSeconds();
+    lines.add("           " + estimate("relabel", grid.blockCount(), relabel, cores)
+        + ": the sample's chunks read, mapped and rewritten");
+    double total = rounds(grid.blockCount(), cores) * partition
+        + rounds(grid.faceCount(), cores) * seam + rounds(grid.blockCount(), cores) * relabel;
+    if (s.evaluates()) {
+      lines.add("           " + estimate("evaluate", grid.blockCount(), relabel, cores)
+          + ": as relabel (two chunk reads in place of a read and a write)");
+      total += rounds(grid.blockCount(), cores) * relabel;
+    }
+    lines.add("           total      about " + duration(total) + " on " + count(cores, "core")
+        + " without the solve and the pyramid");
+    return lines;
+  }
+
+  /**
+   * One stage's estimate: the work ({@code tasks} x {@code seconds}) and the wall time on
+   * {@code cores}, in rounds of equal tasks: ceil(tasks / cores) x seconds, so never less than
+   * one task.
+   */
+  public static String estimate(String stage, long tasks, double seconds, int cores) {
+    long rounds = rounds(tasks, cores);
+    return String.format(Locale.ROOT, "%-10s about %s of work, %s on %s (%s of about %s%s)",
+        stage, duration(tasks * seconds), duration(rounds * seconds), count(cores, "core"),
+        count(tasks, "task"), duration(seconds), rounds <= 1 ? "" : ", " + rounds + " rounds");
+  }
+
+  private static long rounds(long tasks, int cores) {
+    return (tasks + cores - 1) / cores;
+  }
+
+  /**
+   * The reduced graph's edges extrapolated from the sample: its inner edges per block, plus per
+   * face the boundary segments near that face (the mean of the sample's two sides along the
+   * face's axis, or the one it has) times {@link #SEAM_EDGES_PER_BOUNDARY_SEGMENT}.
+   */
+  static long reducedGraphEdges(BlockGrid grid, PartitionSample sample) {
+    long[] g = grid.gridShape();
+    int[] perSide = sample.boundaryPerSide();
+    double edges = (double) grid.blockCount() * sample.innerEdges();
+    for (int axis = 0; axis < g.length; axis++) {
+      long faces = g[axis] - 1;
+      for (int d = 0; d < g.length; d++) {
+        faces *= d == axis ? 1 : g[d];
+      }
+      double near = Math.max(perSide[2 * axis], perSide[2 * axis + 1]);
+      if (perSide[2 * axis] > 0 && perSide[2 * axis + 1] > 0) {
+        near = (perSide[2 * axis] + perSide[2 * axis + 1]) / 2.0;
+      }
+      edges += faces * near * SEAM_EDGES_PER_BOUNDARY_SEGMENT;
+    }
+    return Math.round(edges);
+  }
+
+  /**
+   * Task records a whole run writes: one per partition, seams, relabel and (with a ground truth)
+   * evaluate task, one for the solve, one per pyramid task.
+   */
+  static long taskRecords(long blocks, long faces, boolean evaluates, long pyramidTasks) {
+    return blocks + faces + 1 + blocks + (evaluates ? blocks : 0) + pyramidTasks;
+  }
+
+  private static long pyramidTasks(RunSettings s) {
+    int[] offsets = PyramidStep.taskOffsets(PyramidStep.plan(s));
+    return offsets[offsets.length - 1];
+  }
+
+  private static String trim(double value) {
+    return value == Math.rint(value) ? Long.toString((long) value) : Double.toString(value);
   }
 
   /** {@code 0.4 s}, {@code 42.0 s}, {@code 3 min 5 s}, {@code 21 h 4 min}, {@code 3 d 2 h}. */
@@ -125,16 +251,6 @@ public final class RunPlan {
   }
 
   /**
-   * The memory one executor has for its tasks: {@code spark.executor.memory} when the Spark
-   * configuration of this process sets it (as {@code spark-submit --executor-memory} does), else
-   * this JVM's heap (local mode runs the tasks here).
-   */
-  static long executorMemory(SparkConf conf) {
-    return conf.contains("spark.executor.memory")
-        ? conf.getSizeAsBytes("spark.executor.memory") : Runtime.getRuntime().maxMemory();
-  }
-
-  /**
    * A warning when {@code cores} partition tasks of {@code taskBytes} each, running at once on
    * one executor ({@code spark.executor.cores}, else the cores planned for), need more than
    * {@code memory}: the run would likely die of out-of-memory.
@@ -151,6 +267,6 @@ public final class RunPlan {
   }
 
   private static String mebibytes(long bytes) {
-    return String.format(Locale.ROOT, "%.1f MiB", bytes / (1024.0 * 1024.0));
+    return ByteSize.format(bytes);
   }
 }

@@ -1,29 +1,36 @@
 package org.sunder.spark.run;
 
+import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
+import org.apache.spark.SparkConf;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.BlockShapeChoice;
 import org.sunder.spark.config.AxisOrder;
+import org.sunder.spark.config.ByteSize;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.config.RunConfig;
 import org.sunder.stitching.InputDataset;
+import org.sunder.stitching.PartitionEstimate;
 import org.sunder.stitching.StitchingSetup;
 
 /**
  * Checks a {@link RunConfig} against the input containers and fills in what depends on them:
- * offsets from the affinity dataset's {@code "offsets"} attribute, a block shape of whole chunks
- * and a halo as deep as the longest offset along each axis, the work dir. Everything is checked
- * before any output is touched; each error names the configuration key and the value at fault.
+ * offsets from the affinity dataset's {@code "offsets"} attribute, a halo as deep as the longest
+ * offset along each axis, a block shape of whole chunks ({@link BlockShapeChoice}: grown until
+ * the extended boxes hold at most {@value BlockShapeChoice#TARGET_OVERHEAD} times the volume's
+ * voxels, while one partition task fits its memory ({@link TaskBudget}) and there are at least
+ * twice as many blocks as cores), the work dir. Everything is checked before any output is
+ * touched; each error names the configuration key and the value at fault. A block that does not
+ * fit one Java array, or whose partition task needs more than one executor's memory, is refused.
  */
 public final class RunResolver {
-  /** Blocks get at least this many core voxels by default (about 128 x 128 x 64). */
-  static final long DEFAULT_BLOCK_VOXELS = 1L << 20;
   /** Most values one Java array holds. */
   static final long MAX_ARRAY_VALUES = Integer.MAX_VALUE - 8L;
 
@@ -36,6 +43,11 @@ public final class RunResolver {
    * directory ({@link RunLoader} first resolves a file's paths against the file's folder).
    */
   public static RunSettings resolve(RunConfig config) {
+    return resolve(config, TaskBudget.of(new SparkConf(), config.blocks().memoryPerTask()));
+  }
+
+  /** Resolves {@code config} for a run with {@code budget} (cores and memory per task). */
+  public static RunSettings resolve(RunConfig config, TaskBudget budget) {
     AxisOrder axes = config.axisOrder();
     int n = axes.dimensions();
     Path inputPath = absolute(config.input().container());
@@ -63,9 +75,24 @@ public final class RunResolver {
     }
     int[] chunks = Arrays.copyOf(affinities.chunkShape(), n);
     int[][] offsets = offsets(config, affinities, axes, channels);
-    int[] blockShape = blockShape(config, axes, volume, chunks);
     int[] halo = halo(config, axes, offsets);
+    long bytesPerVoxel = PartitionEstimate.bytesPerExtendedVoxel(method(config), (int) channels,
+        affinities.isUint8() ? 1 : 4);
+    BlockShapeOrigin origin;
+    int[] blockShape;
+    if (config.blocks().shape() == null) {
+      BlockShapeChoice choice = BlockShapeChoice.choose(volume, chunks, halo, bytesPerVoxel,
+          budget.memoryPerTask(), budget.minBlocks());
+      blockShape = choice.blockShape();
+      origin = new BlockShapeOrigin(BlockShapeOrigin.CHOSEN, choice.overhead(),
+          choice.limitedBy(), bytesPerVoxel, budget, null);
+    } else {
+      blockShape = blockShape(config, axes, volume, chunks);
+      origin = new BlockShapeOrigin(BlockShapeOrigin.CONFIGURED,
+          BlockShapeChoice.overhead(volume, blockShape, halo), null, bytesPerVoxel, budget, null);
+    }
     requireArraySized(config, axes, volume, blockShape, halo, channels);
+    requireTaskFits(config, axes, volume, blockShape, halo, bytesPerVoxel, budget);
     String mask = config.input().mask();
     if (mask != null) {
       InputDataset m = InputDataset.read(inputPath, "input.container", mask, "input.mask");
@@ -105,7 +132,35 @@ public final class RunResolver {
     }
     return new RunSettings(axes.letters(), setup, workDir.toString(),
         config.solve().maxDriverEdges(), truthPath.toString(), truth,
-        config.evaluate().ignoreBackground());
+        config.evaluate().ignoreBackground(), origin);
+  }
+
+  /** The partition method's JSON name as the configuration writes it, or null. */
+  private static String method(RunConfig config) {
+    JsonNode name = config.partition() == null ? null : config.partition().get("method");
+    return name == null || !name.isTextual() ? null : name.asText();
+  }
+
+  /**
+   * Refuses a block whose partition task, by {@link PartitionEstimate}'s figure, needs more than
+   * one executor's memory (this JVM's heap in local mode): it could never run.
+   */
+  private static void requireTaskFits(RunConfig config, AxisOrder axes, long[] volume,
+      int[] blockShape, int[] halo, long bytesPerVoxel, TaskBudget budget) {
+    long voxels = BlockShapeChoice.largestExtendedVoxels(volume, blockShape, halo);
+    long bytes = voxels > Long.MAX_VALUE / bytesPerVoxel ? Long.MAX_VALUE : voxels * bytesPerVoxel;
+    if (bytes <= budget.executorMemory()) {
+      return;
+    }
+    throw new ConfigException("blocks.shape: a block of " + Arrays.toString(axes.toFile(
+        blockShape)) + " (" + axes + ") with its halo holds " + voxels + " voxels; its partition"
+        + " task needs about " + ByteSize.format(bytes) + " (" + bytesPerVoxel + " bytes per"
+        + " voxel), more than the " + ByteSize.format(budget.executorMemory()) + " of "
+        + (budget.memorySource().startsWith("spark.") ? "one executor (spark.executor.memory)"
+        : "this JVM's heap") + "; choose a smaller " + (config.blocks().shape() == null
+        ? "blocks.memoryPerTask" : "blocks.shape") + " or give " + (budget.memorySource()
+        .startsWith("spark.") ? "executors more memory (--executor-memory)"
+        : "the JVM more heap (-Xmx, SUNDER_JAVA_OPTS)"));
   }
 
   /**
@@ -283,9 +338,6 @@ public final class RunResolver {
   private static int[] blockShape(RunConfig config, AxisOrder axes, long[] volume, int[] chunks) {
     int n = volume.length;
     int[] fileShape = config.blocks().shape();
-    if (fileShape == null) {
-      return defaultBlockShape(volume, chunks);
-    }
     if (fileShape.length != n) {
       throw new ConfigException("blocks.shape: expected " + n + " integers (" + axes + "), got "
           + Arrays.toString(fileShape));
@@ -308,11 +360,6 @@ public final class RunResolver {
       }
     }
     return shape;
-  }
-
-  /** Whole chunks, grown along the axis with the fewest voxels until about 2^20 voxels. */
-  static int[] defaultBlockShape(long[] volume, int[] chunks) {
-    return BlockGrid.wholeChunkShape(volume, chunks, DEFAULT_BLOCK_VOXELS);
   }
 
   private static int[] halo(RunConfig config, AxisOrder axes, int[][] offsets) {

@@ -20,9 +20,25 @@ import org.sunder.stitching.StitchingSetup;
  * @param truthContainer container of the ground truth
  * @param groundTruth ground-truth dataset, or {@code null} (no evaluation)
  * @param ignoreBackground ignore ground-truth label 0 in scores
+ * @param blockOrigin where the block shape came from, its halo overhead and the budget it was
+ *     chosen for, or {@code null} when unknown (settings made without a {@link RunResolver})
  */
 public record RunSettings(String axes, StitchingSetup setup, String workDir, long maxDriverEdges,
-    String truthContainer, String groundTruth, boolean ignoreBackground) implements Serializable {
+    String truthContainer, String groundTruth, boolean ignoreBackground,
+    BlockShapeOrigin blockOrigin) implements Serializable {
+
+  /** Settings without a recorded block shape origin. */
+  public RunSettings(String axes, StitchingSetup setup, String workDir, long maxDriverEdges,
+      String truthContainer, String groundTruth, boolean ignoreBackground) {
+    this(axes, setup, workDir, maxDriverEdges, truthContainer, groundTruth, ignoreBackground,
+        null);
+  }
+
+  /** These settings with {@code origin} as the block shape's origin. */
+  public RunSettings withBlockOrigin(BlockShapeOrigin origin) {
+    return new RunSettings(axes, setup, workDir, maxDriverEdges, truthContainer, groundTruth,
+        ignoreBackground, origin);
+  }
 
   /** The block grid of this run. */
   public BlockGrid grid() {

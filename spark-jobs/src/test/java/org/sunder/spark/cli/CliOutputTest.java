@@ -78,9 +78,33 @@ class CliOutputTest {
     assertEquals(2016 * (5 * 4 + 158) / (1024.0 * 1024.0), Double.parseDouble(memory.group(1)), 0.05);
     // The central block of the 2 x 2 x 2 grid, block 7, at its place in the volume.
     Matcher estimate = Pattern.compile("estimate   sample block at grid \\[1, 1, 1\\], voxels"
-        + " z 6..11, y 10..19, x 14..27 \\(zyx\\), partitioned here in ([0-9.]+) s\n"
-        + " +partition stage: about .+ of work, .+ on 2 cores \\(8 tasks").matcher(out);
+        + " z 6..11, y 10..19, x 14..27 \\(zyx\\), partitioned here in ([0-9.]+) s \\(reading"
+        + " [0-9.]+ s\\): ([0-9]+) segments, ([0-9]+) near a face, ([0-9]+) inner edges\n"
+        + " +partition  about .+ of work, .+ on 2 cores \\(8 tasks of about .+, 4 rounds\\)"
+        + ": the sample block's partition\n"
+        + " +seams      about .+ on 2 cores \\(12 tasks of about .+, 6 rounds\\): the sample's"
+        + " 3 faces, .+\n"
+        + " +solve      on the driver, not timed.+\n"
+        + " +relabel    about .+ on 2 cores \\(8 tasks of about .+, 4 rounds\\): .+\n"
+        + " +total      about .+ on 2 cores without the solve and the pyramid\n"
+        + "driver     reduced graph about ([0-9]+) edges \\(estimate: .+\\), [0-9.]+% of"
+        + " solve.maxDriverEdges = 20000000\n").matcher(out);
     assertTrue(estimate.find(), out);
+    int segments = Integer.parseInt(estimate.group(2));
+    assertTrue(segments >= 1 && Integer.parseInt(estimate.group(3)) <= segments, out);
+    // The estimate counts at least the sample's inner edges for each of the 8 blocks.
+    assertTrue(Long.parseLong(estimate.group(5)) >= 8 * Long.parseLong(estimate.group(4)), out);
+    // Halo [1, 2, 2] on blocks [6, 10, 14] of [12, 20, 28], by hand: z (7 + 7) / 12, y (12 + 12)
+    // / 20, x (16 + 16) / 28: 1.1667 x 1.2 x 1.1429 = 1.60.
+    assertTrue(out.contains("           halo overhead 1.60: the blocks read and partition 1.60 x"
+        + " the volume's voxels (target at most 1.35); shape set by blocks.shape\n"), out);
+    // Task records: partition 8 + seams 12 + solve 1 + relabel 8 + the pyramid's tasks.
+    Matcher pyramid = Pattern.compile("relabel 8 \\(8 chunks\\), pyramid ([0-9]+)\n")
+        .matcher(out);
+    assertTrue(pyramid.find(), out);
+    assertTrue(out.contains("records    " + (29 + Integer.parseInt(pyramid.group(1)))
+        + " task records in the work dir"), out);
+    assertTrue(out.contains(" per task (this JVM's heap ") && out.contains(" / 2 cores), "), out);
     assertTrue(out.contains("work dir   " + dir.resolve("v.n5.sunder-work/segmentation")), out);
     assertTrue(!Files.exists(dir.resolve("v.n5.sunder-work")), "plan writes nothing");
   }

@@ -1,5 +1,6 @@
 package org.sunder.spark.cli;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -7,10 +8,12 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.Arrays;
 import java.util.List;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.apache.spark.api.java.JavaSparkContext;
+import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -22,6 +25,7 @@ import org.sunder.spark.Launcher;
 import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.demo.DemoScenario;
 import org.sunder.spark.plan.RunPlan;
+import org.sunder.spark.run.BlockShapeOrigin;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
 import org.sunder.spark.run.TestContainers;
@@ -192,6 +196,41 @@ class CliRoughEdgesTest {
   }
 
   @Test
+  void aDefaultBlockShapeChangedByTheMemoryKeepsTheEarlierRunsShapeWithANote()
+      throws IOException {
+    Path wide = dir.resolve("wide.zarr");
+    TestContainers.withAffinities(wide, StorageFormat.ZARR, new long[] {24, 40, 84}, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    String container = "{\"input\": {\"container\": \"" + wide + "\"}, \"blocks\":"
+        + " {\"memoryPerTask\": ";
+    Path file = config("wide.json", container + "\"1g\"}}");
+    int[] first;
+    try (PreparedRun run = RunLoader.prepare(file, null, false)) {
+      first = run.settings().blockShape();
+      assertEquals(BlockShapeOrigin.CHOSEN, run.settings().blockOrigin().source());
+    }
+    // 1 KiB per task holds not even one chunk with its halo: the default would be one chunk.
+    Files.writeString(file, container + "1024}}");
+    Assumptions.assumeFalse(Arrays.equals(first, new int[] {14, 10, 6}),
+        "on this many cores the 1g default is one chunk too");
+    CliRun plan = CliRun.withoutSpark("plan", "--no-sample", file.toString());
+    assertEquals(0, plan.exitCode(), plan.err());
+    assertTrue(plan.out().contains("note       blocks.shape is not set: keeping "), plan.out());
+    assertTrue(plan.out().contains("the default for this configuration and memory would be"
+        + " [6, 10, 14]"), plan.out());
+    assertTrue(plan.out().contains("shape kept from the earlier run in the work dir"), plan.out());
+    try (PreparedRun again = RunLoader.prepare(file, null, false)) {
+      assertArrayEquals(first, again.settings().blockShape());
+      assertTrue(again.notes().get(0).startsWith("blocks.shape is not set: keeping"),
+          again.notes().toString());
+    }
+    CliRun fresh = CliRun.withoutSpark("plan", "--no-sample", "--fresh", file.toString());
+    assertEquals(0, fresh.exitCode(), fresh.err());
+    assertTrue(fresh.out().contains("blocks     shape [6, 10, 14]"), fresh.out());
+    assertTrue(fresh.out().contains("limited by the memory per task"), fresh.out());
+  }
+
+  @Test
   void planRefusesAWorkDirThatAnotherRunHolds() throws IOException {
     Path file = config("run.json", basic(""));
     try (PreparedRun first = RunLoader.prepare(file, null, false)) {
@@ -278,10 +317,11 @@ class CliRoughEdgesTest {
     assertEquals("3 min 5 s", RunPlan.duration(185));
     assertEquals("0.39 s", RunPlan.duration(0.39));
     // One task of 100 s on 8 cores takes 100 s, not 12.5 s.
-    String one = RunPlan.estimate(1, 100, 8);
+    String one = RunPlan.estimate("partition", 1, 100, 8);
     assertTrue(one.contains("about 1 min 40 s of work, 1 min 40 s on 8 cores (1 task of"), one);
     // 9 tasks of 10 s on 4 cores: three rounds, 30 s.
-    String nine = RunPlan.estimate(9, 10, 4);
+    String nine = RunPlan.estimate("seams", 9, 10, 4);
+    assertTrue(nine.startsWith("seams      about"), nine);
     assertTrue(nine.contains("about 1 min 30 s of work, 30.0 s on 4 cores (9 tasks of about"
         + " 10.0 s, 3 rounds)"), nine);
     assertEquals("1 block", RunPlan.count(1, "block"));

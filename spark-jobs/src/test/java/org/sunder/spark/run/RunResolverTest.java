@@ -6,11 +6,16 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.nio.file.Path;
+import java.util.List;
+import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.grid.BlockShapeChoice;
 import org.sunder.blockwise.store.Container;
+import org.sunder.blockwise.store.DataType;
+import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.spark.config.ConfigReader;
 import org.sunder.spark.config.RunConfig;
@@ -196,11 +201,98 @@ class RunResolverTest {
     assertTrue(e.getMessage().contains("[6, 10, 14] or [6, 20, 14]"), e.getMessage());
   }
 
+
+  // ------------------------------------------------------------ the default block shape
+
+  /** An affinity dataset of {@code zyx} voxels (metadata only) with the realistic 13 offsets. */
+  private static Path realistic(Path dir, long[] zyx) {
+    Path root = dir.resolve("big.zarr");
+    Container c = Container.create(root, StorageFormat.ZARR);
+    c.createDataset("affinities", DatasetSpec.of(new long[] {zyx[2], zyx[1], zyx[0], 13},
+        new int[] {64, 64, 16, 13}, DataType.FLOAT32));
+    c.mergeAttributes("affinities", Map.of("offsets", List.of(List.of(-1, 0, 0),
+        List.of(0, -1, 0), List.of(0, 0, -1), List.of(-2, 0, 0), List.of(0, -3, 0),
+        List.of(0, 0, -3), List.of(-3, 0, 0), List.of(0, -9, 0), List.of(0, 0, -9),
+        List.of(0, -9, -9), List.of(0, 9, -9), List.of(0, -27, 0), List.of(0, 0, -27))));
+    return root;
+  }
+
+  private static RunSettings resolve(String json, TaskBudget budget) {
+    return RunResolver.resolve(new ConfigReader().parse(json).withDefaults(), budget);
+  }
+
+  private static TaskBudget budget(int cores, long executorMemory, long perTask) {
+    return new TaskBudget(cores, executorMemory, cores, perTask, "test");
+  }
+
   @Test
-  void defaultBlockShapeGrowsTheSmallestAxis() {
-    int[] shape = RunResolver.defaultBlockShape(new long[] {1000, 1000, 100}, new int[] {64, 64, 16});
-    assertArrayEquals(new int[] {128, 128, 64}, shape);
-    int[] small = RunResolver.defaultBlockShape(new long[] {30, 20, 10}, new int[] {16, 16, 8});
-    assertArrayEquals(new int[] {32, 32, 16}, small);
+  void theDefaultShapeKeepsTheHaloOverheadAtTheTargetWhenMemoryAllows(@TempDir Path dir) {
+    Path root = realistic(dir, new long[] {192, 512, 512});
+    String json = "{\"input\": {\"container\": \"" + root + "\", \"missingChunks\": \"fill\"}}";
+    RunSettings s = resolve(json, budget(2, 8L << 30, 4L << 30));
+    // Halo 3 x 27 x 27 (zyx) from the longest offsets; the chooser's shape, whole chunks.
+    assertArrayEquals(new int[] {27, 27, 3}, s.halo());
+    BlockShapeOrigin origin = s.blockOrigin();
+    assertEquals(BlockShapeOrigin.CHOSEN, origin.source());
+    assertEquals(BlockShapeChoice.Limit.TARGET_REACHED, origin.limitedBy());
+    double overhead = BlockShapeChoice.overhead(s.volumeShape(), s.blockShape(), s.halo());
+    assertTrue(overhead <= BlockShapeChoice.TARGET_OVERHEAD, "overhead " + overhead);
+    assertEquals(overhead, origin.overhead(), 1e-12);
+    // The old default (128 x 128 x 64, about 2^20 voxels) read 1.84 x the volume: by hand,
+    // x and y: 4 blocks of 128, extents 155 + 182 + 182 + 155 = 674 of 512; z: 3 blocks of 64,
+    // extents 67 + 70 + 67 = 204 of 192; 674/512 x 674/512 x 204/192 = 1.841.
+    assertEquals(1.841, BlockShapeChoice.overhead(new long[] {512, 512, 192},
+        new int[] {128, 128, 64}, new int[] {27, 27, 3}), 0.001);
+    for (int d = 0; d < 3; d++) {
+      assertEquals(0, s.blockShape()[d] % s.chunkShape()[d]);
+    }
+    // Fragments-multicut: 13 x 4 + 150 + 8 bytes per extended voxel.
+    assertEquals(210, origin.bytesPerExtendedVoxel());
+    assertTrue(s.grid().blockCount() >= 4, "at least 2 blocks per core");
+  }
+
+  @Test
+  void aSmallBudgetLimitsTheShapeAndTheMethodSetsTheBytesPerVoxel(@TempDir Path dir) {
+    Path root = realistic(dir, new long[] {192, 512, 512});
+    String json = "{\"input\": {\"container\": \"" + root + "\", \"missingChunks\": \"fill\"},"
+        + " \"partition\": {\"method\": \"mutex-watershed\"}}";
+    long perTask = 512L << 20;
+    RunSettings s = resolve(json, budget(2, 8L << 30, perTask));
+    BlockShapeOrigin origin = s.blockOrigin();
+    // Mutex Watershed: 13 x 4 + 600 + 8 bytes per extended voxel (KernelBenchmark's figure).
+    assertEquals(660, origin.bytesPerExtendedVoxel());
+    assertEquals(BlockShapeChoice.Limit.MEMORY_BUDGET, origin.limitedBy());
+    long extended = BlockShapeChoice.largestExtendedVoxels(s.volumeShape(), s.blockShape(),
+        s.halo());
+    assertTrue(extended * 660 <= perTask, extended + " voxels");
+    assertTrue(origin.limitText().contains("memory per task"), origin.limitText());
+    // Many cores: the block count floor stops the growth first.
+    RunSettings many = resolve("{\"input\": {\"container\": \"" + root
+        + "\", \"missingChunks\": \"fill\"}}", budget(64, 1L << 40, 1L << 36));
+    assertEquals(BlockShapeChoice.Limit.BLOCK_COUNT, many.blockOrigin().limitedBy());
+    assertTrue(many.grid().blockCount() >= 128, "blocks " + many.grid().blockCount());
+  }
+
+  @Test
+  void aConfiguredShapeIsKeptAndATaskLargerThanTheExecutorIsRefused(@TempDir Path dir) {
+    Path root = realistic(dir, new long[] {192, 512, 512});
+    String json = "{\"input\": {\"container\": \"" + root + "\", \"missingChunks\": \"fill\"},"
+        + " \"blocks\": {\"shape\": [64, 128, 128]}}";
+    RunSettings s = resolve(json, budget(2, 8L << 30, 4L << 30));
+    assertArrayEquals(new int[] {128, 128, 64}, s.blockShape());
+    assertEquals(BlockShapeOrigin.CONFIGURED, s.blockOrigin().source());
+    // (64 + 6) x (128 + 54)^2 = 2318680 voxels x 210 bytes = 464.4 MiB > 256 MiB.
+    SunderException e = assertThrows(SunderException.class,
+        () -> resolve(json, budget(2, 256L << 20, 128L << 20)));
+    assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
+    assertTrue(e.getMessage().contains("blocks.shape: a block of [64, 128, 128] (zyx)"),
+        e.getMessage());
+    assertTrue(e.getMessage().contains("2318680 voxels") && e.getMessage().contains("464.4 MiB")
+        && e.getMessage().contains("256.0 MiB"), e.getMessage());
+    SunderException chosen = assertThrows(SunderException.class, () -> resolve(
+        "{\"input\": {\"container\": \"" + root + "\", \"missingChunks\": \"fill\"}}",
+        budget(2, 1L << 20, 1L << 20)));
+    assertTrue(chosen.getMessage().contains("choose a smaller blocks.memoryPerTask"),
+        chosen.getMessage());
   }
 }

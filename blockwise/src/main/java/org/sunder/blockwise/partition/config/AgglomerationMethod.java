@@ -42,4 +42,10 @@ public record AgglomerationMethod() implements PartitionMethod {
         "agglomeration " + config.linkage().jsonName()
             + (config.constraints() ? " with constraints" : ""));
   }
+
+  /** {@inheritDoc} (measured for mean linkage from voxels: 1173 on the three presets) */
+  @Override
+  public int workingBytesPerVoxel() {
+    return 1170;
+  }
 }

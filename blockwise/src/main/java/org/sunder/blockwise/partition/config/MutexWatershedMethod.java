@@ -57,4 +57,10 @@ public record MutexWatershedMethod() implements PartitionMethod {
   public SizeFilteredPartitioner.CannotLink cannotLink(PartitionConfig config) {
     return SizeFilteredPartitioner.CannotLink.REPULSIVE_EDGE;
   }
+
+  /** {@inheritDoc} (measured: 565 to 640 on the three presets) */
+  @Override
+  public int workingBytesPerVoxel() {
+    return 600;
+  }
 }

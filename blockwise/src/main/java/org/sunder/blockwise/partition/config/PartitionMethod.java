@@ -75,6 +75,14 @@ public sealed interface PartitionMethod extends Serializable
   /** The block partitioner of {@code config} (of this method), before any size filter. */
   Partitioner partitioner(PartitionConfig config);
 
+  /**
+   * Bytes the method's kernel allocates per voxel of its block, besides the affinities and the
+   * labels: the memory estimate of a partition task. Measured by {@code KernelBenchmark} (bytes
+   * allocated by the calling thread, 13 offsets, float32, central 128 x 128 x 64 blocks of the
+   * realistic tissue presets) where the method says so; allocated bytes bound the peak above.
+   */
+  int workingBytesPerVoxel();
+
   /** The global solve's solver for {@code config} (of this method). */
   ReducedGraphSolver solver(PartitionConfig config);
 
