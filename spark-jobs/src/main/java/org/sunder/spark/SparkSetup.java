@@ -29,8 +29,6 @@ public final class SparkSetup {
 
   /** Only the serializer settings (also used to read and write task records). */
   public static SparkConf kryo(SparkConf conf) {
-    return conf.set("spark.serializer", "org.apache.spark.serializer.KryoSerializer")
-        .set("spark.kryo.registrator", SunderKryoRegistrator.class.getName())
-        .set("spark.kryo.registrationRequired", "true");
+    return SunderKryoRegistrator.configure(conf);
   }
 }

@@ -37,7 +37,7 @@ public final class GlobalSolve {
   /** Solves the setup's run from every block's summary and every face's seam edges. */
   public static Result run(StitchingSetup setup, List<BlockSummary> summaries,
       List<SeamEdges> seams) {
-    return solve(setup.idLayout(), setup.grid().blockCount(), setup.partitionConfig(), summaries,
+    return solve(setup.idLayout(), setup.grid().blockCount(), setup.partition(), summaries,
         seams);
   }
 

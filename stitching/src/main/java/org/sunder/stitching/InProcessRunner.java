@@ -14,8 +14,7 @@ public final class InProcessRunner {
 
   /** Partition, seams, solve and relabel; returns the solve's result. */
   public static GlobalSolve.Result run(StitchingSetup setup) {
-    setup.validateInputs();
-    setup.createLabels();
+    setup.prepare();
     BlockGrid grid = setup.grid();
     List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
     for (int b = 0; b < grid.blockCount(); b++) {

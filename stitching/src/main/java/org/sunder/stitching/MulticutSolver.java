@@ -1,6 +1,5 @@
 package org.sunder.stitching;
 
-import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.partition.Linkage;
 import org.sunder.blockwise.partition.Multicut;
 
@@ -24,16 +23,6 @@ final class MulticutSolver implements ReducedGraphSolver {
 
   @Override
   public int[] clusters(ReducedGraph graph) {
-    EdgeStatistics edges = graph.edges();
-    int m = edges.size();
-    int[] u = new int[m];
-    int[] v = new int[m];
-    double[] w = new double[m];
-    for (int e = 0; e < m; e++) {
-      u[e] = (int) edges.u(e);
-      v[e] = (int) edges.v(e);
-      w[e] = linkage.value(edges.sum(e), edges.count(e), edges.min(e), edges.max(e));
-    }
-    return Multicut.solve(graph.nodeCount(), u, v, w).labels();
+    return Multicut.ofLinkage(graph.nodeCount(), graph.edges(), linkage, 0).labels();
   }
 }

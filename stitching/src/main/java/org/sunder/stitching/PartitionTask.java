@@ -30,7 +30,7 @@ public final class PartitionTask {
     Block block = setup.grid().block(blockIndex);
     AffinityBlock affinities =
         AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
-    PartitionConfig config = setup.partitionConfig();
+    PartitionConfig config = setup.partition();
     CoreSegments.Result result = partition(setup, block, affinities, config);
     Dataset labels = setup.openLabels();
     int[] shape = block.coreShape();
@@ -44,6 +44,20 @@ public final class PartitionTask {
     }
     labels.write(ArrayImgs.unsignedLongs(result.provisionalLabels(), dims), block.coreMin());
     return result.summary();
+  }
+
+  /**
+   * Runs the task's computation for block {@code blockIndex} (read the extended box, partition
+   * it, crop to the core) exactly as {@link #run} does, writing nothing, and returns its wall
+   * time in seconds: what {@code plan} times on a sample block.
+   */
+  public static double timeWithoutWriting(StitchingSetup setup, int blockIndex) {
+    long start = System.nanoTime();
+    Block block = setup.grid().block(blockIndex);
+    AffinityBlock affinities =
+        AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
+    partition(setup, block, affinities, setup.partition());
+    return (System.nanoTime() - start) / 1e9;
   }
 
   static CoreSegments.Result partition(StitchingSetup setup, Block block,

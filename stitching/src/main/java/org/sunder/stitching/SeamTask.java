@@ -26,7 +26,7 @@ public final class SeamTask {
     AffinityBlock affinities = AffinityReader.read(setup, slab.min(), slab.max());
     long[] labels = ((LongArray) setup.openLabels()
         .read(new FinalInterval(slab.min(), slab.max())).update(null)).getCurrentStorageArray();
-    PartitionConfig config = setup.partitionConfig();
+    PartitionConfig config = setup.partition();
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
     byte[] continuations = setup.tracksContinuations()
         ? ((ByteArray) setup.openContinuations().read(new FinalInterval(slab.min(), slab.max()))

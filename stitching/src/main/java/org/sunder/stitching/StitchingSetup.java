@@ -1,8 +1,11 @@
 package org.sunder.stitching;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.Serializable;
 import java.nio.file.Path;
 import java.util.Arrays;
+import java.util.Optional;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
@@ -15,10 +18,12 @@ import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.store.DatasetSpec;
 
 /**
- * Everything a task of a blockwise run needs to know, sent once to every worker: where the
- * affinities (and optional mask) are, where the labels go, the block grid, the offsets and the
- * partition configuration (kept as its serialisable parts, so the record serialises with plain
- * Java or Kryo). Tasks open the containers themselves.
+ * Everything a task of a blockwise run needs to know, validated once where the run is set up and
+ * sent once to every worker: where the affinities (and optional mask) are, where the labels go,
+ * the block grid, the offsets and the partition configuration. Java-serialisable (the Spark jobs
+ * broadcast it as it is). Tasks open the containers themselves. The in-process runner and the
+ * Spark jobs prepare a run with the same two calls, {@link #validateInputs()} and
+ * {@link #createLabels()}.
  *
  * @param inputRoot the container holding the affinities (and mask)
  * @param affinitiesPath affinity dataset, dims {@code (x, y, z, channel)}, FLOAT32 or UINT8
@@ -28,11 +33,12 @@ import org.sunder.blockwise.store.DatasetSpec;
  *     ids after the relabel stage
  * @param grid the block grid; its chunk shape is the label dataset's chunk shape
  * @param offsets one per affinity channel, memory order
- * @param partition the {@link PartitionConfig}'s settings
+ * @param partition the partition configuration, validated against the offsets
  */
 public record StitchingSetup(String inputRoot, String affinitiesPath, String maskPath,
-    String outputRoot, String labelsPath, BlockGrid grid, Offsets offsets, PartitionSettings partition)
-    implements Serializable {
+    String outputRoot, String labelsPath, BlockGrid grid, Offsets offsets,
+    PartitionConfig partition) implements Serializable {
+  private static final ObjectMapper JSON = new ObjectMapper();
 
   /** A setup; validates the partition configuration against the offsets. */
   public static StitchingSetup of(Path inputRoot, String affinitiesPath, String maskPathOrEmpty,
@@ -41,12 +47,42 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
     partition.validate(offsets);
     offsets.requireDimension(grid.numDimensions(), "offsets");
     return new StitchingSetup(inputRoot.toString(), affinitiesPath, maskPathOrEmpty,
-        outputRoot.toString(), labelsPath, grid, offsets, PartitionSettings.of(partition));
+        outputRoot.toString(), labelsPath, grid, offsets, partition);
   }
 
-  /** The partition configuration. */
-  public PartitionConfig partitionConfig() {
-    return partition.toConfig();
+  /**
+   * The setup of a run from its configuration's values: {@code offsets} one per channel in
+   * memory order, {@code partitionSection} the configuration's {@code "partition"} section,
+   * resolved and validated here (see {@link PartitionSection}) against the input's voxel size
+   * (slowest axis first, or null when unknown).
+   *
+   * @throws SunderException INVALID_CONFIG naming the key at fault
+   */
+  public static StitchingSetup resolve(Path inputRoot, String affinitiesPath,
+      String maskPathOrEmpty, Path outputRoot, String labelsPath, BlockGrid grid, int[][] offsets,
+      JsonNode partitionSection, double[] voxelSizeSlowestFirst) {
+    Offsets vectors = new Offsets(offsets);
+    return of(inputRoot, affinitiesPath, maskPathOrEmpty, outputRoot, labelsPath, grid, vectors,
+        PartitionSection.resolve(partitionSection, voxelSizeSlowestFirst, vectors));
+  }
+
+  /** The longest of {@code offsets} (memory order) along each axis: the default halo. */
+  public static int[] longestOffsets(int[][] offsets) {
+    return new Offsets(offsets).reach();
+  }
+
+  /**
+   * The partition configuration with every default written out, as JSON: what a run records
+   * and fingerprints, so two configurations that mean the same partition give the same text.
+   */
+  public JsonNode partitionJson() {
+    return JSON.valueToTree(partition);
+  }
+
+  /** The same run writing its labels to {@code otherLabelsPath} in the output container. */
+  public StitchingSetup withLabels(String otherLabelsPath) {
+    return new StitchingSetup(inputRoot, affinitiesPath, maskPath, outputRoot, otherLabelsPath,
+        grid, offsets, partition);
   }
 
   /** The provisional/final id layout of this grid. */
@@ -56,6 +92,11 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
 
   public boolean hasMask() {
     return !maskPath.isEmpty();
+  }
+
+  /** The mask dataset in the input container, if the run has one. */
+  public Optional<String> mask() {
+    return hasMask() ? Optional.of(maskPath) : Optional.empty();
   }
 
   public Container openInput() {
@@ -76,8 +117,7 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
    * first rejoin the halves of a fragment that a face cut (see {@link SeamEdges#continued()}).
    */
   public boolean tracksContinuations() {
-    return partition.method() == PartitionConfig.Method.FRAGMENTS_MULTICUT
-        || partition.method() == PartitionConfig.Method.FRAGMENTS_AGGLOMERATION;
+    return partition.method().usesFragments();
   }
 
   /**
@@ -95,7 +135,18 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
   }
 
   /**
-   * Checks the input datasets against the grid and offsets, before anything is written.
+   * The one preparation step of a run, in-process or on Spark: {@link #validateInputs()}, then
+   * {@link #createLabels()}.
+   */
+  public void prepare() {
+    validateInputs();
+    createLabels();
+  }
+
+  /**
+   * Checks the input datasets against the grid and offsets, before anything is written: the
+   * affinities' shape (the volume plus one channel per offset) and data type (FLOAT32 or UINT8),
+   * the mask's shape and data type (UINT8). Shapes in messages are slowest axis first.
    *
    * @throws SunderException INVALID_INPUT naming the dataset and what was expected
    */
@@ -108,21 +159,34 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
     if (shape.length != n + 1 || !Arrays.equals(Arrays.copyOf(shape, n), volume)
         || shape[n] != offsets.count()) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "affinities '" + affinitiesPath
-          + "' in " + inputRoot + " have shape " + Arrays.toString(shape) + " (memory order);"
-          + " expected " + Arrays.toString(volume) + " plus a channel axis of "
-          + offsets.count() + " (one per offset)");
+          + "' in " + inputRoot + " have shape " + slowestFirst(shape) + " (slowest axis first);"
+          + " expected " + offsets.count() + " channels (one per offset) and the volume "
+          + slowestFirst(volume));
     }
     if (affinities.dataType() != DataType.FLOAT32 && affinities.dataType() != DataType.UINT8) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "affinities '" + affinitiesPath
           + "' are " + affinities.dataType() + "; expected FLOAT32 or UINT8");
     }
     if (hasMask()) {
-      long[] maskShape = input.openDataset(maskPath).shape();
-      if (!Arrays.equals(maskShape, volume)) {
+      Dataset mask = input.openDataset(maskPath);
+      if (!Arrays.equals(mask.shape(), volume)) {
         throw new SunderException(ErrorKind.INVALID_INPUT, "mask '" + maskPath + "' has shape "
-            + Arrays.toString(maskShape) + "; expected the volume's " + Arrays.toString(volume));
+            + slowestFirst(mask.shape()) + "; expected the volume's " + slowestFirst(volume)
+            + " (slowest axis first)");
+      }
+      if (mask.dataType() != DataType.UINT8) {
+        throw new SunderException(ErrorKind.INVALID_INPUT, "mask '" + maskPath + "' is "
+            + mask.dataType() + "; expected UINT8 (1 = inside)");
       }
     }
+  }
+
+  private static String slowestFirst(long[] memoryOrder) {
+    long[] reversed = new long[memoryOrder.length];
+    for (int d = 0; d < reversed.length; d++) {
+      reversed[d] = memoryOrder[memoryOrder.length - 1 - d];
+    }
+    return Arrays.toString(reversed);
   }
 
   /**

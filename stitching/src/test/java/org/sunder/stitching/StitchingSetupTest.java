@@ -47,7 +47,24 @@ class StitchingSetupTest {
         Offsets.of(new int[] {-1, 0, 0}, new int[] {0, -1, 0}), good.partition());
     SunderException e = assertThrows(SunderException.class, () -> InProcessRunner.run(bad));
     assertEquals(ErrorKind.INVALID_INPUT, e.kind());
-    assertTrue(e.getMessage().contains("'affinities'") && e.getMessage().contains("of 2"),
+    assertTrue(e.getMessage().contains("'affinities'")
+        && e.getMessage().contains("expected 2 channels"),
+        e.getMessage());
+    assertTrue(!Container.open(root).datasetExists(good.labelsPath()));
+  }
+
+  /** The in-process runner refuses what the command line refuses: a mask that is not uint8. */
+  @Test
+  void aMaskThatIsNotUint8IsRejectedBeforeAnythingIsWritten() {
+    Path root = dir.resolve("m");
+    StitchingSetup good = setup(root, PartitionConfig.mutexWatershed(null, null));
+    Container.open(root).createDataset("mask",
+        DatasetSpec.of(good.grid().volumeShape(), CHUNK, DataType.FLOAT32));
+    StitchingSetup masked = new StitchingSetup(good.inputRoot(), good.affinitiesPath(), "mask",
+        good.outputRoot(), good.labelsPath(), good.grid(), good.offsets(), good.partition());
+    SunderException e = assertThrows(SunderException.class, () -> InProcessRunner.run(masked));
+    assertEquals(ErrorKind.INVALID_INPUT, e.kind());
+    assertTrue(e.getMessage().contains("mask 'mask'") && e.getMessage().contains("UINT8"),
         e.getMessage());
     assertTrue(!Container.open(root).datasetExists(good.labelsPath()));
   }
@@ -68,7 +85,7 @@ class StitchingSetupTest {
     Path root = dir.resolve("e");
     StitchingSetup setup = setup(root, PartitionConfig.agglomeration(Linkage.MEAN, false, null,
         Subsampling.hash(0.5, 3)));
-    assertEquals(setup.partitionConfig(), roundTrip(setup).partitionConfig());
+    assertEquals(setup.partition(), roundTrip(setup).partition());
     assertEquals(setup.grid(), roundTrip(setup).grid());
     setup.createLabels();
     List<BlockSummary> summaries = new ArrayList<>();

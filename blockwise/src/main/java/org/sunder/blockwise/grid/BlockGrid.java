@@ -377,22 +377,41 @@ public final class BlockGrid implements Serializable {
   }
 
   /**
-   * The axes along which the halo is shorter than the longest offset (empty when it is long
-   * enough everywhere). Offsets are in memory order, one vector per channel.
-   *
-   * @throws SunderException {@link ErrorKind#INVALID_CONFIG} if an offset has the wrong dimension
+   * Whole chunks, grown one chunk at a time along the axis with the fewest voxels that is still
+   * shorter than the volume, until the shape holds at least {@code minVoxels} voxels or covers
+   * the volume: the default block shape of a run and the box shape of an evaluation.
+   * O(n x chunks added).
    */
-  public List<HaloShortfall> haloShortfalls(int[][] offsets) {
-    int n = volumeShape.length;
-    int[] longest = new int[n];
-    for (int[] offset : offsets) {
-      if (offset.length != n) {
-        throw new SunderException(ErrorKind.INVALID_CONFIG, "offset " + Arrays.toString(offset)
-            + " has " + offset.length + " components; the volume has " + n + " dimensions");
-      }
+  public static int[] wholeChunkShape(long[] volume, int[] chunks, long minVoxels) {
+    int n = volume.length;
+    int[] shape = chunks.clone();
+    while (true) {
+      int grow = -1;
       for (int d = 0; d < n; d++) {
-        longest[d] = Math.max(longest[d], Math.abs(offset[d]));
+        if (shape[d] < volume[d] && (grow < 0 || shape[d] < shape[grow])) {
+          grow = d;
+        }
       }
+      if (Shapes.elementCount(shape) >= minVoxels || grow < 0) {
+        return shape;
+      }
+      shape[grow] += chunks[grow];
+    }
+  }
+
+  /**
+   * The axes along which the halo is shorter than the longest offset (empty when it is long
+   * enough everywhere).
+   *
+   * @param longest the longest offset along each axis, memory order (the offsets' {@code reach})
+   * @throws SunderException {@link ErrorKind#INVALID_CONFIG} if it has the wrong dimension
+   */
+  public List<HaloShortfall> haloShortfalls(int[] longest) {
+    int n = volumeShape.length;
+    if (longest.length != n) {
+      throw new SunderException(ErrorKind.INVALID_CONFIG, "longest offset "
+          + Arrays.toString(longest) + " has " + longest.length + " components; the volume has "
+          + n + " dimensions");
     }
     List<HaloShortfall> shortfalls = new ArrayList<>();
     for (int d = 0; d < n; d++) {

@@ -65,7 +65,14 @@ public final class Evaluator {
 
   /** The contingency table of one block's core, inside the region. */
   public ContingencyTable table(Block block) {
-    Interval core = block.core();
+    return table(block.core());
+  }
+
+  /**
+   * The contingency table of any box inside the volume (for instance a block core of another
+   * grid), inside the region. O(voxels of the box).
+   */
+  public ContingencyTable table(Interval core) {
     ContingencyTable table = new ContingencyTable();
     if (region instanceof EvaluationRegion.Boxes b && !touches(b.boxes(), core)) {
       return table;

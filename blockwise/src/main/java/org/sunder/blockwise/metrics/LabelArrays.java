@@ -5,11 +5,11 @@ import net.imglib2.img.basictypeaccess.array.ArrayDataAccess;
 import org.sunder.blockwise.store.DataType;
 
 /** Widens the primitive storage of an integer {@link ArrayImg} to labels or a mask. */
-final class LabelArrays {
+public final class LabelArrays {
   private LabelArrays() {}
 
   /** The values as {@code long}s; unsigned types are read as unsigned. */
-  static long[] labels(ArrayImg<?, ?> img, DataType type) {
+  public static long[] labels(ArrayImg<?, ?> img, DataType type) {
     Object storage = storage(img);
     boolean unsigned = type.isUnsigned();
     if (storage instanceof long[] l) {
@@ -40,7 +40,7 @@ final class LabelArrays {
   }
 
   /** 1 where the value is non-zero, else 0. */
-  static byte[] mask(ArrayImg<?, ?> img) {
+  public static byte[] mask(ArrayImg<?, ?> img) {
     Object storage = storage(img);
     if (storage instanceof byte[] v) {
       return v;

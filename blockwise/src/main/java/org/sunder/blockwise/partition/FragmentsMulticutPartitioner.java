@@ -45,16 +45,6 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
 
   /** The multicut of nodes 0..count−1 with the statistics of ids 1..count as edge costs. */
   static MulticutResult solve(int count, EdgeStatistics statistics, Linkage linkage) {
-    int m = statistics.size();
-    int[] u = new int[m];
-    int[] v = new int[m];
-    double[] w = new double[m];
-    for (int i = 0; i < m; i++) {
-      u[i] = (int) statistics.u(i) - 1;
-      v[i] = (int) statistics.v(i) - 1;
-      w[i] = linkage.value(statistics.sum(i), statistics.count(i), statistics.min(i),
-          statistics.max(i));
-    }
-    return Multicut.solve(count, u, v, w);
+    return Multicut.ofLinkage(count, statistics, linkage, 1);
   }
 }

@@ -1,6 +1,7 @@
 package org.sunder.blockwise.partition;
 
 import java.util.Objects;
+import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.SignedGraph;
 
 /**
@@ -49,6 +50,27 @@ public final class Multicut {
   public static double objective(SignedGraph graph, int[] labels) {
     Edges e = Edges.of(graph);
     return objective(e.u, e.v, e.w, labels);
+  }
+
+  /**
+   * The multicut of nodes {@code 0..nodeCount-1} whose edge costs are the {@link Linkage}
+   * values of aggregated statistics between ids {@code firstId..firstId+nodeCount-1} (node =
+   * id - firstId): the fragments' multicut inside a block and the global solve's multicut of the
+   * reduced graph. O(m) to build plus {@link #solve(int, int[], int[], double[])}.
+   */
+  public static MulticutResult ofLinkage(int nodeCount, EdgeStatistics statistics,
+      Linkage linkage, long firstId) {
+    int m = statistics.size();
+    int[] u = new int[m];
+    int[] v = new int[m];
+    double[] w = new double[m];
+    for (int i = 0; i < m; i++) {
+      u[i] = (int) (statistics.u(i) - firstId);
+      v[i] = (int) (statistics.v(i) - firstId);
+      w[i] = linkage.value(statistics.sum(i), statistics.count(i), statistics.min(i),
+          statistics.max(i));
+    }
+    return solve(nodeCount, u, v, w);
   }
 
   /** Greedy additive edge contraction followed by Kernighan–Lin refinement. */

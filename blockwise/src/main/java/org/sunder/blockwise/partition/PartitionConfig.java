@@ -57,7 +57,9 @@ import org.sunder.blockwise.graph.WeightRule;
  * as constructor parameters (null = default), its checks in {@link #validate(Offsets)} and a case
  * in {@link #create()} returning its {@link Partitioner}. Immutable.
  */
-public final class PartitionConfig {
+public final class PartitionConfig implements java.io.Serializable {
+  private static final long serialVersionUID = 1L;
+
 
   /** The partition methods by JSON name. */
   public enum Method {
@@ -75,6 +77,15 @@ public final class PartitionConfig {
     @JsonValue
     public String jsonName() {
       return jsonName;
+    }
+
+    /**
+     * Whether the method partitions fragments ({@link BlockFragments}) rather than voxels: it
+     * takes {@code fragments} options, and its blocks give back the fragments of the clusters
+     * they could not settle, which the global solve first rejoins across faces.
+     */
+    public boolean usesFragments() {
+      return this == FRAGMENTS_MULTICUT || this == FRAGMENTS_AGGLOMERATION;
     }
 
     @JsonCreator
@@ -153,8 +164,7 @@ public final class PartitionConfig {
         : method == Method.MUTEX_WATERSHED ? WeightRule.byChannelRole()
             : WeightRule.byValue(WeightRule.Transform.LOGIT, null);
     this.subsampling = subsampling != null ? subsampling : Subsampling.none();
-    boolean fromFragments = method == Method.FRAGMENTS_MULTICUT
-        || method == Method.FRAGMENTS_AGGLOMERATION;
+    boolean fromFragments = method.usesFragments();
     if (fragments != null && !fromFragments) {
       throw invalid("fragments: not used by method \"" + method.jsonName() + "\"; remove it or "
           + "use \"fragments-multicut\" or \"fragments-agglomeration\"");

@@ -13,6 +13,7 @@ import java.util.Set;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.graph.Offsets;
 
 class BlockGridTest {
 
@@ -144,11 +145,12 @@ class BlockGridTest {
 
   @Test
   void shortHaloIsReportedNotRejected() {
-    int[][] offsets = {{-1, 0, 0}, {0, -1, 0}, {0, 0, -1}, {-4, 0, 0}, {0, 2, -3}};
-    List<HaloShortfall> shortfalls = grid.haloShortfalls(offsets);
+    Offsets offsets = Offsets.of(new int[] {-1, 0, 0}, new int[] {0, -1, 0},
+        new int[] {0, 0, -1}, new int[] {-4, 0, 0}, new int[] {0, 2, -3});
+    List<HaloShortfall> shortfalls = grid.haloShortfalls(offsets.reach());
     assertEquals(List.of(new HaloShortfall(0, 3, 4), new HaloShortfall(2, 1, 3)), shortfalls);
     assertTrue(shortfalls.get(0).message().contains("axis x"));
-    assertTrue(grid.haloShortfalls(new int[][] {{-1, 0, 0}}).isEmpty());
+    assertTrue(grid.haloShortfalls(new int[] {1, 0, 0}).isEmpty());
   }
 
   @Test

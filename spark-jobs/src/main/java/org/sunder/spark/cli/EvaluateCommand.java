@@ -10,14 +10,14 @@ import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ConfigException;
-import org.sunder.spark.evaluate.BlockContingency;
 import org.sunder.spark.evaluate.EvaluateJob;
-import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.run.RunResolver;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.EvaluateTask;
+import org.sunder.stitching.EvaluationTarget;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -94,7 +94,7 @@ final class EvaluateCommand implements Callable<Integer> {
     EvaluationTarget target = new EvaluationTarget(seg[0], seg[1], gt[0], gt[1], m[0], m[1],
         ignoreBackground);
     Optional<Blocks> blocks = blocks(seg[0], seg[1]);
-    BlockContingency.requireComparable(target);
+    EvaluateTask.requireComparable(target);
     JavaSparkContext sc = cli.spark().open(spark.master);
     try {
       SegmentationScores scores = EvaluateJob.score(sc, target);

@@ -8,7 +8,6 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.run.RunLoader;
 import org.sunder.spark.run.RunSettings;
-import org.sunder.spark.run.TaskHooks;
 import org.sunder.spark.workdir.WorkDir;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -40,7 +39,7 @@ final class ReportCommand implements Callable<Integer> {
   @Override
   public Integer call() {
     spark.requireValid();
-    RunSettings settings = RunLoader.resolve(config, workDir, TaskHooks.NONE);
+    RunSettings settings = RunLoader.resolve(config, workDir);
     WorkDir work = new WorkDir(settings.workDirPath());
     if (work.manifest().isEmpty()) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "work dir " + work.root() + " holds no"

@@ -6,7 +6,7 @@ import java.nio.charset.StandardCharsets;
 import java.util.concurrent.Callable;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.spark.SparkContextSource;
-import org.sunder.spark.SunderVersion;
+import org.sunder.spark.workdir.SunderVersion;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 

@@ -7,28 +7,21 @@ import org.apache.spark.api.java.function.Function;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.metrics.ContingencyTable;
-import org.sunder.blockwise.metrics.ScoreOptions;
-import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.Dataset;
 import org.sunder.spark.progress.ProgressListener;
+import org.sunder.stitching.EvaluateTask;
+import org.sunder.stitching.EvaluationTarget;
 
 /**
- * Scores any segmentation against any ground truth on Spark, outside a run: one task per box of
- * whole segmentation chunks (about 2^20 voxels), the partial contingency tables summed on the
- * driver. O(voxels) work, O(label pairs) driver memory.
+ * Scores any segmentation against any ground truth on Spark, outside a run: one
+ * {@link EvaluateTask} per box of whole segmentation chunks ({@link EvaluateTask#boxes}), the
+ * partial contingency tables summed on the driver. O(voxels) work, O(label pairs) driver memory.
  */
 public final class EvaluateJob {
   private EvaluateJob() {}
 
   public static SegmentationScores score(JavaSparkContext sc, EvaluationTarget target) {
-    long[] shape = BlockContingency.requireComparable(target);
-    Dataset segmentation = Container.open(java.nio.file.Path.of(target.segmentationContainer()))
-        .openDataset(target.segmentation());
-    int[] chunks = segmentation.chunkShape();
-    int[] block = boxShape(shape, chunks);
-    BlockGrid grid = BlockGrid.of(shape, chunks, block, new int[shape.length]);
+    BlockGrid grid = EvaluateTask.boxes(target);
     List<Integer> indices = IntStream.range(0, grid.blockCount()).boxed().toList();
     sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, "evaluate");
     List<ContingencyTable.Pairs> parts;
@@ -38,32 +31,7 @@ public final class EvaluateJob {
     } finally {
       sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, null);
     }
-    ContingencyTable table = new ContingencyTable();
-    for (ContingencyTable.Pairs pairs : parts) {
-      for (int i = 0; i < pairs.size(); i++) {
-        table.add(pairs.groundTruth()[i], pairs.segment()[i], pairs.count()[i]);
-      }
-    }
-    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(target.ignoreBackground()))
-        .score(table);
-  }
-
-  static int[] boxShape(long[] shape, int[] chunks) {
-    int[] box = chunks.clone();
-    while (true) {
-      long voxels = 1;
-      int grow = -1;
-      for (int d = 0; d < box.length; d++) {
-        voxels *= box[d];
-        if (box[d] < shape[d] && (grow < 0 || box[d] < box[grow])) {
-          grow = d;
-        }
-      }
-      if (voxels >= (1L << 20) || grow < 0) {
-        return box;
-      }
-      box[grow] += chunks[grow];
-    }
+    return EvaluateTask.score(parts, target.ignoreBackground());
   }
 
   /** One box's contingency table. */
@@ -80,7 +48,7 @@ public final class EvaluateJob {
     @Override
     public ContingencyTable.Pairs call(Integer index) {
       Block block = grid.block(index);
-      return BlockContingency.count(target, block.coreMin(), block.coreMax());
+      return EvaluateTask.count(target, block.coreMin(), block.coreMax());
     }
   }
 }

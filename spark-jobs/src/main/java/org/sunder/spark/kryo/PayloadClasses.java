@@ -10,12 +10,19 @@ import java.util.List;
 public final class PayloadClasses {
   private PayloadClasses() {}
 
+  /**
+   * Payload classes that Kryo writes with Java serialisation: values of many nested types (grid,
+   * offsets, partition method) sent once per run, where a compact encoding gains nothing.
+   */
+  public static final java.util.Set<Class<?>> JAVA_SERIALIZED =
+      java.util.Set.of(org.sunder.stitching.StitchingSetup.class);
+
   /** Every payload class, including the arrays they hold. */
   public static final List<Class<?>> ALL = List.of(
       int[].class, long[].class, double[].class, float[].class, byte[].class, boolean[].class,
       int[][].class, long[][].class, String[].class, Object[].class,
       java.util.ArrayList.class, java.util.BitSet.class,
-      org.sunder.spark.run.RunSettings.class, org.sunder.spark.run.TaskHooks.class,
+      org.sunder.spark.run.RunSettings.class, org.sunder.stitching.StitchingSetup.class,
       org.sunder.blockwise.graph.EdgeStatistics.class,
       org.sunder.blockwise.grid.IdLayout.class,
       org.sunder.blockwise.metrics.ContingencyTable.Pairs.class,

@@ -6,7 +6,6 @@ import org.apache.spark.serializer.KryoSerializer;
 import org.apache.spark.serializer.SerializerInstance;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.SparkSetup;
 import scala.reflect.ClassTag;
 import scala.reflect.ClassTag$;
 
@@ -22,7 +21,7 @@ public final class PayloadCodec implements java.io.Serializable {
 
   private KryoSerializer serializer() {
     if (serializer == null) {
-      serializer = new KryoSerializer(SparkSetup.kryo(new SparkConf(false)));
+      serializer = new KryoSerializer(SunderKryoRegistrator.configure(new SparkConf(false)));
     }
     return serializer;
   }

@@ -1,52 +1,38 @@
 package org.sunder.spark.plan;
 
 import java.io.PrintStream;
-import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
-import net.imglib2.FinalInterval;
-import net.imglib2.img.array.ArrayImg;
 import org.apache.spark.SparkConf;
-import org.sunder.blockwise.graph.AffinityBlock;
-import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.HaloShortfall;
-import org.sunder.blockwise.partition.PartitionConfig;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.DataType;
-import org.sunder.blockwise.store.Dataset;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.progress.ProgressTracker;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.stitching.PartitionEstimate;
+import org.sunder.stitching.PartitionTask;
 
 /**
  * What a run will do, before it does it: the block grid, task counts per stage, memory per
- * partition task, and a time estimate from partitioning one sample block (the central one) in
- * this process.
- *
- * <p>Memory per partition task = extended block voxels x (channels x bytes per affinity +
- * {@value #PARTITION_BYTES_PER_VOXEL} bytes for the partition's graph and labels). The
- * per-voxel figure is the partition module's stated bound for the Mutex Watershed (150 bytes)
- * plus the provisional labels (8 bytes); agglomeration from voxels may need more.
+ * partition task ({@link PartitionEstimate}), and a time estimate from running the partition
+ * stage's own task computation on one sample block (the central one) in this process, writing
+ * nothing ({@link PartitionTask#timeWithoutWriting}).
  */
 public final class RunPlan {
-  static final int PARTITION_BYTES_PER_VOXEL = 158;
-
   private RunPlan() {}
 
   /** Prints the plan; times a sample block unless {@code sample} is false. */
   public static void print(RunSettings s, boolean sample, int cores, PrintStream out) {
     AxisOrder axes = new AxisOrder(s.axes());
     BlockGrid grid = s.grid();
-    Dataset affinities = Container.open(Path.of(s.inputContainer())).openDataset(s.affinities());
-    int channels = s.offsets().length;
-    int bytesPerValue = affinities.dataType() == DataType.UINT8 ? 1 : 4;
+    PartitionEstimate memory = PartitionEstimate.of(s.setup());
+    int channels = memory.channels();
     out.println("input      " + s.inputContainer() + "  dataset " + s.affinities());
     out.println("volume     " + Arrays.toString(axes.toFile(s.volumeShape())) + " (" + axes
-        + "), " + channels + " channels " + affinities.dataType().name().toLowerCase(Locale.ROOT)
+        + "), " + channels + " channels " + memory.valueType()
         + ", chunks " + Arrays.toString(axes.toFile(s.chunkShape())));
     int[][] zyx = new int[channels][];
     for (int k = 0; k < channels; k++) {
@@ -56,26 +42,27 @@ public final class RunPlan {
     out.println("blocks     shape " + Arrays.toString(axes.toFile(s.blockShape())) + ", halo "
         + Arrays.toString(axes.toFile(s.halo())) + ", grid "
         + Arrays.toString(axes.toFile(grid.gridShape())) + " = " + count(grid.blockCount(), "block"));
-    List<HaloShortfall> shortfalls = grid.haloShortfalls(s.offsets());
+    List<HaloShortfall> shortfalls = grid.haloShortfalls(s.setup().offsets().reach());
     for (HaloShortfall shortfall : shortfalls) {
       out.println("note       " + shortfall.message());
     }
     out.println("tasks      partition " + grid.blockCount() + ", seams " + grid.faceCount()
         + ", solve 1 (driver), relabel " + grid.blockCount() + " (" + count(grid.chunkCount(),
         "chunk") + ")" + (s.evaluates() ? ", evaluate " + grid.blockCount() : ""));
-    long extended = largestExtendedVoxels(grid);
-    long bytes = extended * ((long) channels * bytesPerValue + PARTITION_BYTES_PER_VOXEL);
+    long bytes = memory.bytes();
     out.println(String.format(Locale.ROOT, "memory     about %s per partition task (%d voxels"
         + " in the largest extended block x (%d channels x %d bytes + %d bytes))",
-        mebibytes(bytes), extended, channels, bytesPerValue, PARTITION_BYTES_PER_VOXEL));
+        mebibytes(bytes), memory.extendedVoxels(), channels, memory.bytesPerValue(),
+        memory.otherBytesPerVoxel()));
     SparkConf conf = new SparkConf();
     memoryWarning(bytes, conf.getInt("spark.executor.cores", cores), executorMemory(conf))
         .ifPresent(out::println);
     out.println("driver     reduced graph bound solve.maxDriverEdges = " + s.maxDriverEdges()
         + " edges (about " + mebibytes(s.maxDriverEdges() * 100) + ")");
     if (sample) {
-      Block block = grid.block(centralBlock(grid));
-      double seconds = timeSample(s, block);
+      int central = centralBlock(grid);
+      Block block = grid.block(central);
+      double seconds = PartitionTask.timeWithoutWriting(s.setup(), central);
       out.println(String.format(Locale.ROOT, "estimate   sample block at grid %s, voxels %s (%s),"
           + " partitioned here in %.3f s", Arrays.toString(axes.toFile(block.gridPosition())),
           voxelBox(block, axes), axes, seconds));
@@ -128,18 +115,6 @@ public final class RunPlan {
     return box.toString();
   }
 
-  /** Voxels of an extended box of a full block (cores at the border are smaller). */
-  private static long largestExtendedVoxels(BlockGrid grid) {
-    long[] volume = grid.volumeShape();
-    int[] block = grid.blockShape();
-    int[] halo = grid.halo();
-    long voxels = 1;
-    for (int d = 0; d < volume.length; d++) {
-      voxels *= Math.min(volume[d], block[d] + 2L * halo[d]);
-    }
-    return voxels;
-  }
-
   static int centralBlock(BlockGrid grid) {
     long[] grids = grid.gridShape();
     long[] middle = new long[grids.length];
@@ -147,24 +122,6 @@ public final class RunPlan {
       middle[d] = grids[d] / 2;
     }
     return grid.blockIndex(middle);
-  }
-
-  private static double timeSample(RunSettings s, Block block) {
-    Container input = Container.open(Path.of(s.inputContainer()));
-    Dataset affinities = input.openDataset(s.affinities());
-    int n = block.numDimensions();
-    long[] min = Arrays.copyOf(block.extendedMin(), n + 1);
-    long[] max = Arrays.copyOf(block.extendedMax(), n + 1);
-    max[n] = s.offsets().length - 1;
-    ArrayImg<?, ?> values = affinities.read(new FinalInterval(min, max));
-    ArrayImg<?, ?> mask = s.mask() == null ? null
-        : input.openDataset(s.mask()).read(block.extended());
-    PartitionConfig config = PartitionConfig.fromJson(s.partitionJson());
-    AffinityBlock affinityBlock = AffinityBlock.of(values, block.extendedMin(),
-        new Offsets(s.offsets()), mask);
-    long start = System.nanoTime();
-    config.create().partition(affinityBlock);
-    return (System.nanoTime() - start) / 1e9;
   }
 
   /**

@@ -13,7 +13,7 @@ import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.run.RunSettings;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.stage.StageReport;
 import org.sunder.spark.stage.StageRunner;
 import org.sunder.spark.stage.TaskBody;

@@ -11,7 +11,7 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.partition.BoundaryMap;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.Dataset;
-import org.sunder.spark.evaluate.LabelArrays;
+import org.sunder.blockwise.metrics.LabelArrays;
 
 /**
  * One axis-aligned plane of a 3D volume, cut to a window: {@code axis} is the memory axis held
@@ -97,7 +97,7 @@ record Plane(int axis, long[] min, long[] max) {
   static long[] labelsOfBox(String container, String dataset, long[] min, long[] max) {
     Dataset data = Container.open(Path.of(container)).openDataset(dataset);
     ArrayImg<?, ?> img = data.read(new FinalInterval(min, max));
-    return LabelArrays.toLongs(img, data.dataType(), "dataset " + dataset + " in " + container);
+    return LabelArrays.labels(img, data.dataType());
   }
 
   /** Throws the report's typed error unless the volume is 3D. */

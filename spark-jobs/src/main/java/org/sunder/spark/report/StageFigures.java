@@ -1,7 +1,7 @@
 package org.sunder.spark.report;
 
 import java.util.List;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.StageLedger;
 
 /**

@@ -1,6 +1,5 @@
 package org.sunder.spark.run;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -21,13 +20,14 @@ import java.util.TreeMap;
 import java.util.stream.Stream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.SunderVersion;
+import org.sunder.spark.workdir.SunderVersion;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.workdir.Manifest;
 
 /**
  * What identifies a run for resume: the canonical resolved configuration (file axis order, keys
- * sorted) with a SHA-256 per section, and a fingerprint of the input datasets' files (relative
+ * sorted, every default written out, so two configurations that mean the same run have the same
+ * hashes) with a SHA-256 per section, and a fingerprint of the input datasets' files (relative
  * path, size and modification time of every file, so an edited chunk shows; O(files)).
  */
 public final class RunIdentity {
@@ -49,7 +49,10 @@ public final class RunIdentity {
         sections, config, input.hash(), input.summary());
   }
 
-  /** The resolved configuration in the file's axis order, keys sorted. */
+  /**
+   * The resolved configuration in the file's axis order, keys sorted; the partition section is
+   * the validated partition method with every default written out, not the text of the file.
+   */
   public static ObjectNode canonicalConfig(RunSettings s) {
     AxisOrder axes = new AxisOrder(s.axes());
     ObjectNode root = JSON.createObjectNode();
@@ -62,18 +65,14 @@ public final class RunIdentity {
       offsets[k] = axes.toFile(s.offsets()[k]);
     }
     input.set("offsets", JSON.valueToTree(offsets));
-    input.put("mask", s.mask());
+    input.put("mask", s.mask().orElse(null));
     ObjectNode output = root.putObject("output");
     output.put("container", s.outputContainer());
     output.put("dataset", s.outputDataset());
     ObjectNode blocks = root.putObject("blocks");
     blocks.set("shape", JSON.valueToTree(axes.toFile(s.blockShape())));
     blocks.set("halo", JSON.valueToTree(axes.toFile(s.halo())));
-    try {
-      root.set("partition", JSON.readTree(s.partitionJson()));
-    } catch (JsonProcessingException e) {
-      throw new SunderException(ErrorKind.INTERNAL, "partition settings are not JSON: " + e, e);
-    }
+    root.set("partition", s.setup().partitionJson());
     root.putObject("solve").put("maxDriverEdges", s.maxDriverEdges());
     ObjectNode evaluate = root.putObject("evaluate");
     evaluate.put("container", s.truthContainer());
@@ -98,9 +97,7 @@ public final class RunIdentity {
   static Fingerprint fingerprint(RunSettings s) {
     Map<String, Path> datasets = new LinkedHashMap<>();
     datasets.put(s.affinities(), Path.of(s.inputContainer()).resolve(s.affinities()));
-    if (s.mask() != null) {
-      datasets.put(s.mask(), Path.of(s.inputContainer()).resolve(s.mask()));
-    }
+    s.mask().ifPresent(mask -> datasets.put(mask, Path.of(s.inputContainer()).resolve(mask)));
     MessageDigest digest = digest();
     long files = 0;
     long bytes = 0;

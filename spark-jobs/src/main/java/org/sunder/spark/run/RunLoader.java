@@ -1,7 +1,6 @@
 package org.sunder.spark.run;
 
 import java.nio.file.Path;
-import org.apache.spark.SparkConf;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.config.ConfigReader;
 import org.sunder.spark.config.RunConfig;
@@ -17,7 +16,7 @@ public final class RunLoader {
   private RunLoader() {}
 
   /** Reads and resolves {@code configFile}; {@code workDir} overrides the file's when not null. */
-  public static RunSettings resolve(Path configFile, Path workDir, TaskHooks hooks) {
+  public static RunSettings resolve(Path configFile, Path workDir) {
     RunConfig config = new ConfigReader().read(configFile);
     Path folder = configFile.toAbsolutePath().normalize().getParent();
     config = config.relativeTo(folder);
@@ -27,7 +26,7 @@ public final class RunLoader {
           config.solve(), config.evaluate());
     }
     try {
-      return RunResolver.resolve(config, hooks);
+      return RunResolver.resolve(config);
     } catch (ConfigException e) {
       throw new ConfigException(configFile + ": " + e.getMessage(), e);
     }
@@ -35,7 +34,7 @@ public final class RunLoader {
 
   /** Resolves and prepares the work dir and output ({@link RunPreparation}). */
   public static PreparedRun prepare(Path configFile, Path workDir, boolean fresh) {
-    RunSettings settings = resolve(configFile, workDir, TaskHooks.from(new SparkConf()));
+    RunSettings settings = resolve(configFile, workDir);
     return RunPreparation.prepare(settings, fresh);
   }
 
@@ -45,7 +44,7 @@ public final class RunLoader {
    * {@code run} refuses with the same message and exit code.
    */
   public static RunSettings check(Path configFile, Path workDir, boolean fresh) {
-    RunSettings settings = resolve(configFile, workDir, TaskHooks.NONE);
+    RunSettings settings = resolve(configFile, workDir);
     RunPreparation.check(settings, fresh);
     return settings;
   }

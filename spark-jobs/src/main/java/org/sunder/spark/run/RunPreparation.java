@@ -14,21 +14,15 @@ import java.util.UUID;
 import java.util.stream.Stream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.DataType;
-import org.sunder.blockwise.store.Dataset;
-import org.sunder.blockwise.store.DatasetSpec;
-import org.sunder.blockwise.store.StorageFormat;
-import org.sunder.spark.SunderVersion;
+import org.sunder.spark.workdir.SunderVersion;
 import org.sunder.spark.config.AxisOrder;
-import org.sunder.spark.stage.Stage;
-import org.sunder.spark.stage.StitchingSetups;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.ResumeDecision;
 import org.sunder.spark.workdir.ResumePlanner;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.spark.workdir.WorkDirLock;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.OutputContainer;
 
 /**
  * Readies the work dir and the output dataset for a run, refusing before anything is written
@@ -36,7 +30,8 @@ import org.sunder.stitching.StitchingSetup;
  * process holds the work dir's {@link WorkDirLock} (also with {@code --fresh}). The prepared run
  * holds that lock until it is closed. The output dataset carries the attribute {@value #MARKER}
  * with the run's id, which ties it to its work dir. Temporary chunk files that a killed run left
- * in the output dataset are removed.
+ * in the output dataset are removed. The inputs are checked and the output datasets created by
+ * the run's {@link org.sunder.stitching.StitchingSetup#prepare()}, as the in-process runner does.
  */
 public final class RunPreparation {
   /** Attribute of the output dataset naming the run that owns it. */
@@ -80,24 +75,24 @@ public final class RunPreparation {
   }
 
   /** What is on disk before a run: the output container, its owner run, the work dir's manifest. */
-  private record Found(Optional<Container> output, String outputRun, Optional<Manifest> previous) {}
+  private record Found(boolean output, String outputRun, Optional<Manifest> previous) {}
 
   /** Reads what is there and refuses on a conflict; writes nothing. */
   private static Found check(RunSettings settings, WorkDir work, boolean fresh) {
     Path outputRoot = Path.of(settings.outputContainer());
     String dataset = settings.outputDataset();
-    Optional<Container> output = existingOutput(outputRoot);
-    if (output.isEmpty()) {
+    boolean output = OutputContainer.exists(outputRoot);
+    if (!output) {
       requireCreatable(outputRoot, "output.container");
     }
     requireCreatable(work.root(), "workDir");
-    String outputRun = output.flatMap(c -> ownerRun(c, dataset, outputRoot)).orElse(null);
+    String outputRun = output ? ownerRun(dataset, outputRoot).orElse(null) : null;
     if (work.holdsForeignFiles()) {
       throw new SunderException(ErrorKind.CONFLICT, "work dir " + work.root()
           + " holds files that Sunder did not write; choose another work dir (key workDir)");
     }
     if (outputRun != null && !fresh) {
-      requireOutputFits(settings, output.get().openDataset(dataset), outputRoot);
+      requireOutputFits(settings, OutputContainer.layout(outputRoot, dataset), outputRoot);
     }
     Optional<Manifest> previous = work.manifest();
     if (previous.isPresent() && outputRun != null && !previous.get().runId().equals(outputRun)) {
@@ -117,7 +112,7 @@ public final class RunPreparation {
       boolean fresh, WorkDirLock lock) {
     Path outputRoot = Path.of(settings.outputContainer());
     String dataset = settings.outputDataset();
-    Optional<Container> output = found.output();
+    boolean output = found.output();
     String outputRun = found.outputRun();
     Optional<Manifest> previous = found.previous();
     List<String> notes = new ArrayList<>();
@@ -152,22 +147,19 @@ public final class RunPreparation {
       runId = UUID.randomUUID().toString();
       current = RunIdentity.manifest(settings, runId);
     }
-    Dataset labels = createOutput(settings, outputRoot, output, dataset, runId);
-    int stale = labels.removeStaleTemporaries();
+    createOutput(settings, outputRoot, output, dataset, runId);
+    int stale = OutputContainer.removeStaleTemporaries(outputRoot, dataset);
     if (stale > 0) {
       notes.add("removed " + stale + " temporary chunk file" + (stale == 1 ? "" : "s")
           + " that an interrupted run left in output dataset '" + dataset + "'");
-    }
-    StitchingSetup setup = StitchingSetups.of(settings);
-    if (setup.tracksContinuations()) {
-      setup.createContinuations();
     }
     work.writeManifest(current);
     return new PreparedRun(settings, work, current, notes, lock);
   }
 
   /** Refuses to resume into an output dataset whose shape or chunks no longer match the input. */
-  private static void requireOutputFits(RunSettings s, Dataset existing, Path root) {
+  private static void requireOutputFits(RunSettings s, OutputContainer.Layout existing,
+      Path root) {
     if (Arrays.equals(existing.shape(), s.volumeShape())
         && Arrays.equals(existing.chunkShape(), s.chunkShape())) {
       return;
@@ -195,53 +187,30 @@ public final class RunPreparation {
     }
   }
 
-  private static Optional<Container> existingOutput(Path root) {
-    if (!Files.exists(root)) {
-      return Optional.empty();
-    }
-    try {
-      return Optional.of(Container.open(root));
-    } catch (SunderException e) {
-      throw new SunderException(ErrorKind.CONFLICT, "output.container: " + root
-          + " exists and is not an N5 or Zarr container; choose another path", e);
-    }
+  private static Optional<String> ownerRun(String dataset, Path root) {
+    return OutputContainer.marker(root, dataset, MARKER).map(marker -> {
+      if (marker.get("runId") instanceof String id) {
+        return id;
+      }
+      throw new SunderException(ErrorKind.CONFLICT, "output.dataset: '" + dataset + "' in "
+          + root + " exists and was not written by Sunder; choose another output dataset or"
+          + " remove it");
+    });
   }
 
-  private static Optional<String> ownerRun(Container container, String dataset, Path root) {
-    if (!container.datasetExists(dataset)) {
-      if (container.groupExists(dataset) || Files.exists(root.resolve(dataset))) {
-        throw new SunderException(ErrorKind.CONFLICT, "output.dataset: '" + dataset + "' in "
-            + root + " exists and is not a dataset written by Sunder; choose another name");
-      }
-      return Optional.empty();
+  /**
+   * Creates the output container if needed, then the run's output datasets through the run's
+   * one preparation step ({@link org.sunder.stitching.StitchingSetup#prepare()}), and marks a
+   * new label dataset with the run's id.
+   */
+  private static void createOutput(RunSettings s, Path root, boolean existing, String dataset,
+      String runId) {
+    if (!existing) {
+      OutputContainer.create(root, Path.of(s.inputContainer()));
     }
-    Object marker = container.readAttributes(dataset).get(MARKER);
-    if (marker instanceof Map<?, ?> map && map.get("runId") instanceof String id) {
-      return Optional.of(id);
-    }
-    throw new SunderException(ErrorKind.CONFLICT, "output.dataset: '" + dataset + "' in " + root
-        + " exists and was not written by Sunder; choose another output dataset or remove it");
-  }
-
-  private static Dataset createOutput(RunSettings s, Path root, Optional<Container> existing,
-      String dataset, String runId) {
-    Container container;
-    if (existing.isPresent()) {
-      container = existing.get();
-    } else {
-      try {
-        Files.createDirectories(root.toAbsolutePath().getParent());
-      } catch (IOException e) {
-        throw new SunderException(ErrorKind.STORAGE, "output.container: cannot create "
-            + root + ": " + e, e);
-      }
-      StorageFormat format = root.getFileName().toString().endsWith(".n5") ? StorageFormat.N5
-          : formatOf(Path.of(s.inputContainer()));
-      container = Container.create(root, format);
-    }
-    if (!container.datasetExists(dataset)) {
-      container.createDataset(dataset,
-          DatasetSpec.of(s.volumeShape(), s.chunkShape(), DataType.UINT64));
+    boolean created = !OutputContainer.holds(root, dataset);
+    s.setup().prepare();
+    if (created) {
       Map<String, Object> marker = new LinkedHashMap<>();
       marker.put("runId", runId);
       marker.put("workDir", s.workDir());
@@ -249,20 +218,8 @@ public final class RunPreparation {
       Map<String, Object> attributes = new LinkedHashMap<>();
       attributes.put(MARKER, marker);
       attributes.put("axes", "zyx");
-      container.mergeAttributes(dataset, attributes);
+      OutputContainer.mergeAttributes(root, dataset, attributes);
     }
-    return container.openDataset(dataset);
-  }
-
-  private static StorageFormat formatOf(Path input) {
-    String name = input.getFileName().toString();
-    if (name.endsWith(".zarr")) {
-      return StorageFormat.ZARR;
-    }
-    if (name.endsWith(".n5")) {
-      return StorageFormat.N5;
-    }
-    return Container.open(input).format();
   }
 
   private static void deleteTree(Path dir) {

@@ -1,29 +1,19 @@
 package org.sunder.spark.run;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.DeserializationFeature;
-import com.fasterxml.jackson.databind.JsonMappingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.exc.UnrecognizedPropertyException;
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Map;
-import java.util.stream.Collectors;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.graph.Offsets;
-import org.sunder.blockwise.partition.FragmentOptions;
-import org.sunder.blockwise.partition.PartitionConfig;
-import org.sunder.blockwise.store.Container;
-import org.sunder.blockwise.store.DataType;
-import org.sunder.blockwise.store.Dataset;
+import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.config.RunConfig;
+import org.sunder.stitching.InputDataset;
+import org.sunder.stitching.StitchingSetup;
 
 /**
  * Checks a {@link RunConfig} against the input containers and fills in what depends on them:
@@ -38,8 +28,6 @@ public final class RunResolver {
   static final long MAX_ARRAY_VALUES = Integer.MAX_VALUE - 8L;
 
   private static final ObjectMapper JSON = new ObjectMapper();
-  private static final ObjectMapper STRICT = new ObjectMapper()
-      .enable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
 
   private RunResolver() {}
 
@@ -47,13 +35,13 @@ public final class RunResolver {
    * Resolves {@code config} (with defaults filled in); relative paths against the current
    * directory ({@link RunLoader} first resolves a file's paths against the file's folder).
    */
-  public static RunSettings resolve(RunConfig config, TaskHooks hooks) {
+  public static RunSettings resolve(RunConfig config) {
     AxisOrder axes = config.axisOrder();
     int n = axes.dimensions();
     Path inputPath = absolute(config.input().container());
-    Container input = openInput(inputPath, "input.container");
     String affName = config.input().affinities();
-    Dataset affinities = openDataset(input, affName, "input.affinities");
+    InputDataset affinities =
+        InputDataset.read(inputPath, "input.container", affName, "input.affinities");
     long[] shape = affinities.shape();
     if (shape.length != n + 1) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
@@ -68,24 +56,23 @@ public final class RunResolver {
           + "' in " + inputPath + " is empty: its shape is " + Arrays.toString(axes.toFile(volume))
           + " (" + axes + ") with " + channels + " channels; every size must be at least 1");
     }
-    DataType type = affinities.dataType();
-    if (type != DataType.FLOAT32 && type != DataType.UINT8) {
+    if (!affinities.holdsAffinityValues()) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
-          + "' in " + inputPath + " has data type " + type.name().toLowerCase()
+          + "' in " + inputPath + " has data type " + affinities.dataType()
           + "; affinities must be float32 in [0, 1] or uint8 (value / 255)");
     }
     int[] chunks = Arrays.copyOf(affinities.chunkShape(), n);
-    int[][] offsets = offsets(config, input, affName, axes, channels);
+    int[][] offsets = offsets(config, affinities, axes, channels);
     int[] blockShape = blockShape(config, axes, volume, chunks);
     int[] halo = halo(config, axes, offsets);
     requireArraySized(config, axes, volume, blockShape, halo, channels);
     String mask = config.input().mask();
     if (mask != null) {
-      Dataset m = openDataset(input, mask, "input.mask");
+      InputDataset m = InputDataset.read(inputPath, "input.container", mask, "input.mask");
       requireVolumeShape(m, volume, "input.mask", mask, axes);
-      if (m.dataType() != DataType.UINT8) {
+      if (!m.isUint8()) {
         throw new SunderException(ErrorKind.INVALID_INPUT, "input.mask: dataset '" + mask
-            + "' has data type " + m.dataType().name().toLowerCase() + "; expected uint8 (1 = inside)");
+            + "' has data type " + m.dataType() + "; expected uint8 (1 = inside)");
       }
     }
     Path outputPath = absolute(config.output().container());
@@ -94,28 +81,31 @@ public final class RunResolver {
         : absolute(config.workDir());
     requireOutsideInput(inputPath, affName, outputPath, outputDataset, workDir, config);
     if (config.input().missingChunks().equals(RunConfig.MISSING_REFUSE)) {
-      MissingChunks.refuse(affinities, affName, inputPath, axes);
+      MissingChunks.refuse(affinities, axes);
     }
     String truth = config.evaluate().groundTruth();
     Path truthPath = absolute(config.evaluate().container());
     if (truth != null) {
-      Container truthContainer = truthPath.equals(inputPath) ? input
-          : openInput(truthPath, "evaluate.container");
-      Dataset gt = openDataset(truthContainer, truth, "evaluate.groundTruth");
+      InputDataset gt = InputDataset.read(truthPath, truthPath.equals(inputPath)
+          ? "input.container" : "evaluate.container", truth, "evaluate.groundTruth");
       requireVolumeShape(gt, volume, "evaluate.groundTruth", truth, axes);
-      if (gt.dataType() == DataType.FLOAT32 || gt.dataType() == DataType.FLOAT64) {
+      if (gt.isFloat()) {
         throw new SunderException(ErrorKind.INVALID_INPUT, "evaluate.groundTruth: dataset '"
-            + truth + "' has data type " + gt.dataType().name().toLowerCase()
-            + "; expected integer labels");
+            + truth + "' has data type " + gt.dataType() + "; expected integer labels");
       }
     }
-    String partitionJson = partitionJson(config, offsets,
-        voxelSize(input.readAttributes(affName), axes));
-    RunSettings settings = new RunSettings(axes.letters(), inputPath.toString(), affName, offsets,
-        mask, outputPath.toString(), outputDataset, workDir.toString(), volume, chunks,
-        blockShape, halo, partitionJson, config.solve().maxDriverEdges(), truthPath.toString(),
-        truth, config.evaluate().ignoreBackground(), hooks);
-    return settings;
+    StitchingSetup setup;
+    try {
+      setup = StitchingSetup.resolve(inputPath, affName, mask == null ? "" : mask, outputPath,
+          outputDataset, BlockGrid.of(volume, chunks, blockShape, halo), offsets,
+          config.partition(), voxelSize(affinities.attributes(), axes));
+    } catch (SunderException e) {
+      throw e.kind() == ErrorKind.INVALID_CONFIG && !(e instanceof ConfigException)
+          ? new ConfigException(e.getMessage(), e) : e;
+    }
+    return new RunSettings(axes.letters(), setup, workDir.toString(),
+        config.solve().maxDriverEdges(), truthPath.toString(), truth,
+        config.evaluate().ignoreBackground());
   }
 
   /**
@@ -167,96 +157,6 @@ public final class RunResolver {
   }
 
   /**
-   * The partition section checked against the offsets. A fragment method without
-   * {@code fragments.voxelSize} or {@code fragments.perSlice} gets them fitted to the input's
-   * voxel size ({@link FragmentOptions#fittedTo}), written into the section so the manifest
-   * shows what ran.
-   */
-  private static String partitionJson(RunConfig config, int[][] offsets,
-      double[] voxelSizeSlowestFirst) {
-    PartitionConfig partition;
-    try {
-      ObjectNode section = config.partition().deepCopy();
-      completeDefault(section, voxelSizeSlowestFirst);
-      fitFragments(section, voxelSizeSlowestFirst);
-      String json = JSON.writeValueAsString(section);
-      requireKnownKeys(json);
-      partition = PartitionConfig.fromJson(json);
-      partition.validate(new Offsets(offsets));
-      return json;
-    } catch (JsonProcessingException e) {
-      throw new ConfigException("partition: cannot encode the section: " + e.getMessage(), e);
-    } catch (ConfigException e) {
-      throw e;
-    } catch (SunderException e) {
-      String message = e.getMessage();
-      throw new ConfigException(message.startsWith("partition") ? message
-          : "partition." + message, e);
-    }
-  }
-
-  /**
-   * Refuses an unknown key anywhere in the partition section in the words the reader uses for
-   * the rest of the file: the key path and the keys known there.
-   */
-  private static void requireKnownKeys(String json) {
-    try {
-      STRICT.readValue(json, PartitionConfig.class);
-    } catch (UnrecognizedPropertyException e) {
-      StringBuilder path = new StringBuilder("partition");
-      for (JsonMappingException.Reference ref : e.getPath()) {
-        if (ref.getFieldName() != null) {
-          path.append('.').append(ref.getFieldName());
-        } else if (ref.getIndex() >= 0) {
-          path.append('[').append(ref.getIndex()).append(']');
-        }
-      }
-      String known = e.getKnownPropertyIds() == null ? "" : e.getKnownPropertyIds().stream()
-          .map(Object::toString).sorted().collect(Collectors.joining(", "));
-      throw new ConfigException("unknown key '" + path + "'"
-          + (known.isEmpty() ? "" : "; known keys there: " + known), e);
-    } catch (JsonProcessingException e) {
-      // Other mistakes are reported by PartitionConfig.fromJson, naming the key.
-    }
-  }
-
-  /**
-   * A section naming no method gets {@link PartitionConfig#robustDefault}'s method and, unless
-   * it sets one, its minimum segment size for this voxel size.
-   */
-  private static void completeDefault(ObjectNode section, double[] voxelSizeSlowestFirst) {
-    if (section.has("method")) {
-      return;
-    }
-    section.put("method", RunConfig.DEFAULT_METHOD);
-    if (!section.has("minSegmentSize")) {
-      section.put("minSegmentSize", PartitionConfig.defaultMinSegmentSize(voxelSizeSlowestFirst));
-    }
-  }
-
-  private static void fitFragments(ObjectNode section, double[] voxelSizeSlowestFirst) {
-    String method = section.path("method").asText();
-    boolean fragmentMethod = method.equals(PartitionConfig.Method.FRAGMENTS_MULTICUT.jsonName())
-        || method.equals(PartitionConfig.Method.FRAGMENTS_AGGLOMERATION.jsonName());
-    if (!fragmentMethod || voxelSizeSlowestFirst == null
-        || (section.has("fragments") && !section.get("fragments").isObject())) {
-      return;
-    }
-    ObjectNode fragments = section.has("fragments") ? (ObjectNode) section.get("fragments")
-        : section.putObject("fragments");
-    if (fragments.has("voxelSize")) {
-      return;
-    }
-    ArrayNode size = fragments.putArray("voxelSize");
-    for (double v : voxelSizeSlowestFirst) {
-      size.add(v);
-    }
-    if (!fragments.has("perSlice")) {
-      fragments.put("perSlice", FragmentOptions.fittedToZyx(voxelSizeSlowestFirst).perSlice());
-    }
-  }
-
-  /**
    * The input's voxel size from its {@code voxelSize} attribute (slowest axis first, in the
    * dataset's {@code axes} order when it has one), in the configuration's axis order; null when
    * absent, malformed or of other axes.
@@ -292,34 +192,7 @@ public final class RunResolver {
     return Path.of(path).toAbsolutePath().normalize();
   }
 
-  static Container openInput(Path path, String key) {
-    if (!Files.isDirectory(path)) {
-      throw new SunderException(ErrorKind.INVALID_INPUT, key + ": " + path
-          + (Files.exists(path) ? " is not a directory" : " does not exist")
-          + "; expected an N5 or Zarr container");
-    }
-    try {
-      return Container.open(path);
-    } catch (SunderException e) {
-      throw new SunderException(e.kind(), key + ": " + e.getMessage(), e);
-    }
-  }
-
-  static Dataset openDataset(Container container, String name, String key) {
-    if (!container.datasetExists(name)) {
-      String why = container.datasetProblem(name);
-      if (why != null) {
-        throw new SunderException(ErrorKind.INVALID_INPUT, key + ": '" + name + "' in "
-            + container.root() + " is not a readable dataset: " + why);
-      }
-      List<String> members = container.list("");
-      throw new SunderException(ErrorKind.INVALID_INPUT, key + ": no dataset '" + name + "' in "
-          + container.root() + (members.isEmpty() ? " (it is empty)" : "; it holds " + members));
-    }
-    return container.openDataset(name);
-  }
-
-  private static void requireVolumeShape(Dataset dataset, long[] volume, String key, String name,
+  private static void requireVolumeShape(InputDataset dataset, long[] volume, String key, String name,
       AxisOrder axes) {
     if (!Arrays.equals(dataset.shape(), volume)) {
       throw new SunderException(ErrorKind.INVALID_INPUT, key + ": dataset '" + name + "' has shape "
@@ -328,20 +201,26 @@ public final class RunResolver {
     }
   }
 
-  private static int[][] offsets(RunConfig config, Container input, String affName, AxisOrder axes,
+  /**
+   * The offsets in memory order, from {@code input.offsets} or the dataset's attribute. Every
+   * error names where the offset came from and shows it as written there (file order).
+   */
+  private static int[][] offsets(RunConfig config, InputDataset affinities, AxisOrder axes,
       long channels) {
+    String affName = affinities.name();
     int[][] fileOrder = config.input().offsets();
     String source = "input.offsets";
     AxisOrder order = axes;
     if (fileOrder == null) {
-      Map<String, Object> attributes = input.readAttributes(affName);
+      Map<String, Object> attributes = affinities.attributes();
       Object stored = attributes.get("offsets");
       if (stored == null) {
         throw new ConfigException("input.offsets: missing, and dataset '" + affName
             + "' has no \"offsets\" attribute; give one offset per channel, e.g. "
             + example(axes) + " (" + axes + ")");
       }
-      source = "the \"offsets\" attribute of dataset '" + affName + "' in " + input.root();
+      source = "the \"offsets\" attribute of dataset '" + affName + "' in "
+          + affinities.container();
       try {
         fileOrder = JSON.convertValue(stored, int[][].class);
       } catch (IllegalArgumentException e) {
@@ -385,6 +264,13 @@ public final class RunResolver {
         throw new ConfigException(where + ": the zero offset connects a voxel"
             + " to itself; every offset needs a non-zero entry");
       }
+      for (int j = 0; j < k; j++) {
+        if (Arrays.equals(fileOrder[j], offset)) {
+          throw new ConfigException(where + ": " + Arrays.toString(offset) + " (" + order
+              + ") repeats " + (fromConfig ? "input.offsets[" + j + "]" : "offset " + j)
+              + "; every channel needs its own offset");
+        }
+      }
       memory[k] = order.toMemory(offset);
     }
     return memory;
@@ -426,37 +312,14 @@ public final class RunResolver {
 
   /** Whole chunks, grown along the axis with the fewest voxels until about 2^20 voxels. */
   static int[] defaultBlockShape(long[] volume, int[] chunks) {
-    int n = volume.length;
-    int[] shape = chunks.clone();
-    while (true) {
-      long voxels = 1;
-      for (int s : shape) {
-        voxels *= s;
-      }
-      int grow = -1;
-      for (int d = 0; d < n; d++) {
-        if (shape[d] < volume[d] && (grow < 0 || shape[d] < shape[grow])) {
-          grow = d;
-        }
-      }
-      if (voxels >= DEFAULT_BLOCK_VOXELS || grow < 0) {
-        return shape;
-      }
-      shape[grow] += chunks[grow];
-    }
+    return BlockGrid.wholeChunkShape(volume, chunks, DEFAULT_BLOCK_VOXELS);
   }
 
   private static int[] halo(RunConfig config, AxisOrder axes, int[][] offsets) {
     int n = axes.dimensions();
     int[] fileHalo = config.blocks().halo();
     if (fileHalo == null) {
-      int[] halo = new int[n];
-      for (int[] offset : offsets) {
-        for (int d = 0; d < n; d++) {
-          halo[d] = Math.max(halo[d], Math.abs(offset[d]));
-        }
-      }
-      return halo;
+      return StitchingSetup.longestOffsets(offsets);
     }
     if (fileHalo.length != n || Arrays.stream(fileHalo).anyMatch(h -> h < 0)) {
       throw new ConfigException("blocks.halo: expected " + n + " integers >= 0 (" + axes

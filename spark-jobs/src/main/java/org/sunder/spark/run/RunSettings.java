@@ -1,39 +1,32 @@
 package org.sunder.spark.run;
 
+import java.io.Serializable;
 import java.nio.file.Path;
+import java.util.Optional;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.Shapes;
+import org.sunder.stitching.StitchingSetup;
 
 /**
- * A run's settings with every default resolved, in memory order (dimension 0 fastest): what the
- * driver broadcasts to every task once. Paths are absolute strings.
+ * A run, every default resolved and validated once on the driver ({@link RunResolver}): the
+ * {@link StitchingSetup} every task uses, plus what only the driver and the evaluation need.
+ * The driver broadcasts it once; tasks read the setup from it and never parse or validate
+ * anything again. Paths are absolute strings; shapes are in memory order (dimension 0 fastest).
  *
  * @param axes axis order of the configuration file, for messages and reports
- * @param inputContainer container of the affinities
- * @param affinities affinity dataset (channel axis last in memory)
- * @param offsets one offset per channel, memory order
- * @param mask mask dataset in the input container, or {@code null}
- * @param outputContainer container of the segmentation
- * @param outputDataset segmentation dataset (uint64)
+ * @param setup input, output, grid, offsets and partition method of every task
  * @param workDir manifest and task records
- * @param volumeShape spatial shape of the affinities
- * @param chunkShape spatial chunk shape of the affinities and the segmentation
- * @param blockShape block core shape (whole chunks)
- * @param halo context per axis
- * @param partitionJson the partition section as JSON
  * @param maxDriverEdges largest reduced graph gathered on the driver
  * @param truthContainer container of the ground truth
  * @param groundTruth ground-truth dataset, or {@code null} (no evaluation)
  * @param ignoreBackground ignore ground-truth label 0 in scores
- * @param hooks test-only task behaviour
  */
-public record RunSettings(String axes, String inputContainer, String affinities, int[][] offsets,
-    String mask, String outputContainer, String outputDataset, String workDir, long[] volumeShape,
-    int[] chunkShape, int[] blockShape, int[] halo, String partitionJson, long maxDriverEdges,
-    String truthContainer, String groundTruth, boolean ignoreBackground, TaskHooks hooks) {
+public record RunSettings(String axes, StitchingSetup setup, String workDir, long maxDriverEdges,
+    String truthContainer, String groundTruth, boolean ignoreBackground) implements Serializable {
 
   /** The block grid of this run. */
   public BlockGrid grid() {
-    return BlockGrid.of(volumeShape, chunkShape, blockShape, halo);
+    return setup.grid();
   }
 
   public Path workDirPath() {
@@ -47,10 +40,48 @@ public record RunSettings(String axes, String inputContainer, String affinities,
 
   /** Number of spatial voxels. */
   public long voxelCount() {
-    long n = 1;
-    for (long s : volumeShape) {
-      n *= s;
-    }
-    return n;
+    return Shapes.elementCount(setup.grid().volumeShape());
+  }
+
+  public String inputContainer() {
+    return setup.inputRoot();
+  }
+
+  public String affinities() {
+    return setup.affinitiesPath();
+  }
+
+  /** One offset per channel, memory order. */
+  public int[][] offsets() {
+    return setup.offsets().vectors();
+  }
+
+  /** The mask dataset in the input container, if any. */
+  public Optional<String> mask() {
+    return setup.mask();
+  }
+
+  public String outputContainer() {
+    return setup.outputRoot();
+  }
+
+  public String outputDataset() {
+    return setup.labelsPath();
+  }
+
+  public long[] volumeShape() {
+    return setup.grid().volumeShape();
+  }
+
+  public int[] chunkShape() {
+    return setup.grid().chunkShape();
+  }
+
+  public int[] blockShape() {
+    return setup.grid().blockShape();
+  }
+
+  public int[] halo() {
+    return setup.grid().halo();
   }
 }

@@ -1,19 +1,18 @@
 package org.sunder.spark.stage;
 
+import org.sunder.spark.workdir.Stage;
 import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.BitSet;
 import java.util.List;
+import org.apache.spark.SparkConf;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.metrics.ContingencyTable;
-import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.ConfigException;
-import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
@@ -22,9 +21,11 @@ import org.sunder.spark.progress.ProgressTracker;
 import org.sunder.spark.pyramid.PyramidStep;
 import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.run.PreparedRun;
-import org.sunder.spark.run.RunReport;
+import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.EvaluateTask;
+import org.sunder.stitching.EvaluationTarget;
 import org.sunder.stitching.FinalIdMap;
 import org.sunder.stitching.GlobalSolve;
 
@@ -73,7 +74,9 @@ public final class Pipeline {
     long start = System.nanoTime();
     Broadcast<RunSettings> broadcast = sc.broadcast(settings);
     WorkDir work = run.workDir();
-    StageRunner runner = new StageRunner(sc, broadcast, work, out);
+    TaskHooks hooks = TaskHooks.from(new SparkConf());
+    StageRunner runner = new StageRunner(sc, broadcast, work, out, hooks);
+    SolveStep solve = new SolveStep(sc, work, out, hooks);
     BlockGrid grid = settings.grid();
     List<StageReport> reports = new ArrayList<>();
     GlobalSolve.Result solved = null;
@@ -89,10 +92,10 @@ public final class Pipeline {
       switch (stage) {
         case PARTITION -> reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Partition()));
         case SEAMS -> reports.add(runner.run(stage, grid.faceCount(), new StageBodies.Seams()));
-        case SOLVE -> solved = new SolveStep(sc, work, out).run(settings, reports);
+        case SOLVE -> solved = solve.run(settings, reports);
         case RELABEL -> {
           if (solved == null) {
-            solved = new SolveStep(sc, work, out).recorded();
+            solved = solve.recorded();
           }
           Broadcast<FinalIdMap> map = sc.broadcast(solved.finalIds());
           reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Relabel(map)));
@@ -113,7 +116,7 @@ public final class Pipeline {
     }
     broadcast.destroy();
     if (solved == null && work.ledger(Stage.SOLVE).isFinished(0)) {
-      solved = new SolveStep(sc, work, out).recorded();
+      solved = solve.recorded();
     }
     SeamAudit seams = null;
     boolean complete = work.ledger(Stage.RELABEL).finished().cardinality() == grid.blockCount();
@@ -136,16 +139,12 @@ public final class Pipeline {
   /** The scores from the evaluate stage's records of {@code blocks} blocks. */
   public static SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
     PayloadCodec codec = new PayloadCodec();
-    ContingencyTable table = new ContingencyTable();
+    List<ContingencyTable.Pairs> boxes = new ArrayList<>(blocks);
     for (int b = 0; b < blocks; b++) {
-      ContingencyTable.Pairs pairs = codec.decode(work.ledger(Stage.EVALUATE).read(b),
-          ContingencyTable.Pairs.class, "evaluate record " + b);
-      for (int i = 0; i < pairs.size(); i++) {
-        table.add(pairs.groundTruth()[i], pairs.segment()[i], pairs.count()[i]);
-      }
+      boxes.add(codec.decode(work.ledger(Stage.EVALUATE).read(b), ContingencyTable.Pairs.class,
+          "evaluate record " + b));
     }
-    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(ignoreBackground))
-        .score(table);
+    return EvaluateTask.score(boxes, ignoreBackground);
   }
 
   /** Throws unless every stage before {@code stage} has finished all its tasks. */

@@ -1,5 +1,6 @@
 package org.sunder.spark.stage;
 
+import org.sunder.spark.workdir.Stage;
 import java.util.Iterator;
 import java.util.List;
 import org.apache.spark.api.java.function.FlatMapFunction;

@@ -1,5 +1,6 @@
 package org.sunder.spark.stage;
 
+import org.sunder.spark.workdir.Stage;
 import java.util.Iterator;
 import org.apache.spark.api.java.function.VoidFunction;
 import org.apache.spark.broadcast.Broadcast;
@@ -21,12 +22,14 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
   private final Broadcast<RunSettings> settings;
   private final Stage stage;
   private final TaskBody body;
+  private final TaskHooks hooks;
   private final PayloadCodec codec = new PayloadCodec();
 
-  RecordingTask(Broadcast<RunSettings> settings, Stage stage, TaskBody body) {
+  RecordingTask(Broadcast<RunSettings> settings, Stage stage, TaskBody body, TaskHooks hooks) {
     this.settings = settings;
     this.stage = stage;
     this.body = body;
+    this.hooks = hooks;
   }
 
   @Override
@@ -40,7 +43,7 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
       long startMillis = System.currentTimeMillis();
       long start = System.nanoTime();
       try {
-        s.hooks().beforeTask(stage.cliName(), index, work.root());
+        hooks.beforeTask(stage.cliName(), index, work.root());
         result = body.run(s, index);
       } catch (OutOfMemoryError e) {
         throw new TaskOutOfMemory(stage.cliName() + " task " + index + " ran out of memory ("

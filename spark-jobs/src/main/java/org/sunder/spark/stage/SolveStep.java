@@ -1,5 +1,6 @@
 package org.sunder.spark.stage;
 
+import org.sunder.spark.workdir.Stage;
 import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.List;
@@ -28,12 +29,14 @@ final class SolveStep {
   private final JavaSparkContext sc;
   private final WorkDir work;
   private final PrintStream out;
+  private final TaskHooks hooks;
   private final PayloadCodec codec = new PayloadCodec();
 
-  SolveStep(JavaSparkContext sc, WorkDir work, PrintStream out) {
+  SolveStep(JavaSparkContext sc, WorkDir work, PrintStream out, TaskHooks hooks) {
     this.sc = sc;
     this.work = work;
     this.out = out;
+    this.hooks = hooks;
   }
 
   /** The recorded result, running the solve first if no earlier run recorded it. */
@@ -46,7 +49,7 @@ final class SolveStep {
     }
     long start = System.nanoTime();
     long startMillis = System.currentTimeMillis();
-    settings.hooks().beforeTask(Stage.SOLVE.cliName(), 0, work.root());
+    hooks.beforeTask(Stage.SOLVE.cliName(), 0, work.root());
     BlockGrid grid = settings.grid();
     long edges = countEdges(grid);
     if (edges > settings.maxDriverEdges()) {
@@ -55,7 +58,7 @@ final class SolveStep {
           + " (about 100 bytes each); raise solve.maxDriverEdges if the driver has the memory,"
           + " or use larger blocks (blocks.shape) for fewer boundary segments");
     }
-    StitchingSetup setup = StitchingSetups.of(settings);
+    StitchingSetup setup = settings.setup();
     List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
     for (int b = 0; b < grid.blockCount(); b++) {
       summaries.add(codec.decode(work.ledger(Stage.PARTITION).read(b), BlockSummary.class,

@@ -4,9 +4,9 @@ import java.util.List;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.spark.evaluate.BlockContingency;
-import org.sunder.spark.evaluate.EvaluationTarget;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.stitching.EvaluateTask;
+import org.sunder.stitching.EvaluationTarget;
 import org.sunder.stitching.FinalIdMap;
 import org.sunder.stitching.PartitionTask;
 import org.sunder.stitching.RelabelTask;
@@ -23,7 +23,7 @@ final class StageBodies {
 
     @Override
     public Object run(RunSettings settings, int block) {
-      return PartitionTask.run(StitchingSetups.of(settings), block);
+      return PartitionTask.run(settings.setup(), block);
     }
   }
 
@@ -33,7 +33,7 @@ final class StageBodies {
 
     @Override
     public Object run(RunSettings settings, int face) {
-      return SeamTask.run(StitchingSetups.of(settings), face);
+      return SeamTask.run(settings.setup(), face);
     }
   }
 
@@ -48,7 +48,7 @@ final class StageBodies {
 
     @Override
     public Object run(RunSettings settings, int block) {
-      StitchingSetup setup = StitchingSetups.of(settings);
+      StitchingSetup setup = settings.setup();
       FinalIdMap ids = map.value();
       long changed = 0;
       List<long[]> chunks = setup.grid().chunkPositionsOf(block);
@@ -67,13 +67,13 @@ final class StageBodies {
     public Object run(RunSettings settings, int block) {
       BlockGrid grid = settings.grid();
       Block b = grid.block(block);
-      return BlockContingency.count(target(settings), b.coreMin(), b.coreMax());
+      return EvaluateTask.count(target(settings), b.coreMin(), b.coreMax());
     }
   }
 
   static EvaluationTarget target(RunSettings s) {
     return new EvaluationTarget(s.outputContainer(), s.outputDataset(), s.truthContainer(),
-        s.groundTruth(), s.mask() == null ? null : s.inputContainer(), s.mask(),
+        s.groundTruth(), s.mask().isPresent() ? s.inputContainer() : null, s.mask().orElse(null),
         s.ignoreBackground());
   }
 }

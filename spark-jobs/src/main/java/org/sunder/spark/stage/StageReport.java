@@ -1,5 +1,6 @@
 package org.sunder.spark.stage;
 
+import org.sunder.spark.workdir.Stage;
 import java.util.Locale;
 
 /**

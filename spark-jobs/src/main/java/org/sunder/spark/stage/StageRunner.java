@@ -1,5 +1,6 @@
 package org.sunder.spark.stage;
 
+import org.sunder.spark.workdir.Stage;
 import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.BitSet;
@@ -23,13 +24,16 @@ public final class StageRunner {
   private final Broadcast<RunSettings> settings;
   private final WorkDir work;
   private final PrintStream out;
+  private final TaskHooks hooks;
 
+  /** A runner whose tasks run with {@code hooks} (test-only; {@link TaskHooks#NONE} in runs). */
   public StageRunner(JavaSparkContext sc, Broadcast<RunSettings> settings, WorkDir work,
-      PrintStream out) {
+      PrintStream out, TaskHooks hooks) {
     this.sc = sc;
     this.settings = settings;
     this.work = work;
     this.out = out;
+    this.hooks = hooks;
   }
 
   /** Runs every task of {@code stage} in {@code [0, taskCount)} that has no record yet. */
@@ -62,7 +66,7 @@ public final class StageRunner {
       sc.setJobDescription("sunder " + stage.cliName());
       try {
         sc.parallelize(todo, Math.min(todo.size(), MAX_PARTITIONS))
-            .foreachPartition(new RecordingTask(settings, stage, body));
+            .foreachPartition(new RecordingTask(settings, stage, body, hooks));
       } finally {
         sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, null);
         sc.setJobDescription(null);

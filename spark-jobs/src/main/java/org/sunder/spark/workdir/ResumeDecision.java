@@ -1,7 +1,6 @@
 package org.sunder.spark.workdir;
 
 import java.util.List;
-import org.sunder.spark.stage.Stage;
 
 /**
  * What a run does with an existing work dir.

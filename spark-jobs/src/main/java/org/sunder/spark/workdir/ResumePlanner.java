@@ -6,7 +6,6 @@ import java.util.Map;
 import java.util.Objects;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.stage.Stage;
 
 /**
  * Decides whether a rerun may continue an earlier run's work dir. The same configuration and

@@ -11,7 +11,6 @@ import java.util.BitSet;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.AtomicWrites;
-import org.sunder.spark.stage.Stage;
 
 /**
  * The record of one stage's finished tasks in a work dir: one file per task, named by the task's

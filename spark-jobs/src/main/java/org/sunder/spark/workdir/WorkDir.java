@@ -11,7 +11,6 @@ import java.util.Optional;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.AtomicWrites;
-import org.sunder.spark.stage.Stage;
 
 /**
  * A run's work dir: {@code manifest.json} and, per stage, a {@link StageLedger} under

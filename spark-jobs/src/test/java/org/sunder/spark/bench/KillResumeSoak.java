@@ -11,7 +11,7 @@ import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.spark.cli.ChildCli;
 import org.sunder.spark.it.Scenes;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 
 /**

@@ -19,14 +19,12 @@ import org.sunder.spark.it.Scenes;
 import org.sunder.spark.it.SharedSpark;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
-import org.sunder.spark.run.RunReport;
+import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.run.RunResolver;
 import org.sunder.spark.run.RunSettings;
-import org.sunder.spark.run.TaskHooks;
 import org.sunder.spark.stage.Pipeline;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.stage.StageReport;
-import org.sunder.spark.stage.StitchingSetups;
 import org.sunder.stitching.InProcessRunner;
 import org.sunder.stitching.StitchingSetup;
 
@@ -75,8 +73,8 @@ public final class PipelineBenchmark {
       sparkSeconds += stage.seconds();
     }
 
-    RunSettings s = RunResolver.resolve(new ConfigReader().read(config), TaskHooks.NONE);
-    StitchingSetup local = StitchingSetups.of(s, "in-process");
+    RunSettings s = RunResolver.resolve(new ConfigReader().read(config));
+    StitchingSetup local = s.setup().withLabels("in-process");
     long t1 = System.nanoTime();
     InProcessRunner.run(local);
     double localSeconds = (System.nanoTime() - t1) / 1e9;

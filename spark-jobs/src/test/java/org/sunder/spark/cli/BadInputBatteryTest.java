@@ -36,7 +36,7 @@ import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.it.SharedSpark;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
-import org.sunder.spark.run.TaskHooks;
+import org.sunder.spark.stage.TaskHooks;
 import org.sunder.spark.workdir.WorkDirLock;
 
 /**

@@ -130,7 +130,7 @@ class CliBadInputTest {
     Path work = dir.resolve("shared-work");
     String first = "{\"input\": {\"container\": \"" + input + "\"}, \"workDir\": \"" + work + "\"}";
     org.sunder.spark.run.RunPreparation.prepare(org.sunder.spark.run.RunLoader.resolve(
-        config(first), null, org.sunder.spark.run.TaskHooks.NONE), false).close();
+        config(first), null), false).close();
     fails(ErrorKind.CONFLICT, "{\"input\": {\"container\": \"" + input + "\"},"
         + " \"output\": {\"dataset\": \"other-seg\"}, \"workDir\": \"" + work + "\"}",
         "work dir " + work, "output.dataset", "--fresh");

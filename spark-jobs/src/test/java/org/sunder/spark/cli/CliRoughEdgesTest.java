@@ -25,7 +25,7 @@ import org.sunder.spark.plan.RunPlan;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
 import org.sunder.spark.run.TestContainers;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.stage.StageReport;
 
 /** The rough edges a new user met on the command line and in {@code plan}, each smoothed. */

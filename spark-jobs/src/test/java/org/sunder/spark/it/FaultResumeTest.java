@@ -26,8 +26,8 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.ChildCli;
 import org.sunder.spark.cli.CliRun;
-import org.sunder.spark.run.TaskHooks;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.stage.TaskHooks;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 
 /**

@@ -24,8 +24,7 @@ import org.sunder.spark.cli.SunderCli;
 import org.sunder.spark.config.ConfigReader;
 import org.sunder.spark.run.RunResolver;
 import org.sunder.spark.run.RunSettings;
-import org.sunder.spark.run.TaskHooks;
-import org.sunder.spark.stage.StitchingSetups;
+import org.sunder.spark.stage.TaskHooks;
 import org.sunder.stitching.InProcessRunner;
 import org.sunder.stitching.StitchingSetup;
 import org.sunder.testing.PythonReference;
@@ -63,8 +62,8 @@ class PipelineIntegrationTest {
 
   /** Runs the in-process runner of the stitching module on the same settings. */
   private static long[] inProcess(Path config, String labels) {
-    RunSettings s = RunResolver.resolve(new ConfigReader().read(config), TaskHooks.NONE);
-    StitchingSetup local = StitchingSetups.of(s, labels);
+    RunSettings s = RunResolver.resolve(new ConfigReader().read(config));
+    StitchingSetup local = s.setup().withLabels(labels);
     InProcessRunner.run(local);
     return Scenes.labels(Path.of(s.outputContainer()), labels);
   }

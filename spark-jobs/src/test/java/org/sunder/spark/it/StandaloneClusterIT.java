@@ -34,8 +34,8 @@ import org.sunder.blockwise.synth.SynthSpec;
 import org.sunder.blockwise.synth.SyntheticScenario;
 import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.CliRun;
-import org.sunder.spark.run.TaskHooks;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.stage.TaskHooks;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 
 /**

@@ -28,7 +28,7 @@ import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.CliRun;
 import org.sunder.spark.it.Scenes;
 import org.sunder.spark.it.SharedSpark;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.testing.PythonReference;
 

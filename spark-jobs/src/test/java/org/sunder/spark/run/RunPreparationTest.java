@@ -16,7 +16,7 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.spark.config.ConfigReader;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 
 class RunPreparationTest {
   private static final long[] VOLUME = {12, 20, 28};
@@ -24,7 +24,7 @@ class RunPreparationTest {
 
   private static RunSettings settings(Path root, String extra) {
     return RunResolver.resolve(new ConfigReader().parse("{\"input\": {\"container\": \"" + root
-        + "\"}" + extra + "}").withDefaults(), TaskHooks.NONE);
+        + "\"}" + extra + "}").withDefaults());
   }
 
   private static Path input(Path dir) {

@@ -21,7 +21,12 @@ class RunResolverTest {
 
   private static RunSettings resolve(String json) {
     RunConfig config = new ConfigReader().parse(json).withDefaults();
-    return RunResolver.resolve(config, TaskHooks.NONE);
+    return RunResolver.resolve(config);
+  }
+
+  /** The partition section as the manifest records it, defaults written out. */
+  private static String partitionJson(RunSettings s) {
+    return RunIdentity.canonicalConfig(s).get("partition").toString();
   }
 
   private static SunderException fails(String json) {
@@ -55,7 +60,7 @@ class RunResolverTest {
         TestContainers.OFFSETS_ZYX);
     c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(40, 8, 8)));
     com.fasterxml.jackson.databind.JsonNode p = new com.fasterxml.jackson.databind.ObjectMapper()
-        .readTree(resolve("{\"input\": {\"container\": \"" + root + "\"}}").partitionJson());
+        .readTree(partitionJson(resolve("{\"input\": {\"container\": \"" + root + "\"}}")));
     assertEquals("fragments-multicut", p.get("method").asText());
     assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
     assertTrue(p.get("fragments").get("perSlice").asBoolean(), "sections 5x coarser");
@@ -63,26 +68,26 @@ class RunResolverTest {
     assertEquals(205, p.get("minSegmentSize").asInt());
 
     c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(8, 8, 8)));
-    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(
-        resolve("{\"input\": {\"container\": \"" + root + "\"}}").partitionJson());
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(partitionJson(
+        resolve("{\"input\": {\"container\": \"" + root + "\"}}")));
     assertTrue(!p.get("fragments").get("perSlice").asBoolean(), "isotropic: 3D fragments");
     assertEquals(1023, p.get("minSegmentSize").asInt(), "523 599 nm^3 over 512 nm^3");
 
     // what the user wrote stands; the dataset's axes attribute orders its voxel size
     c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(8, 8, 40),
         "axes", "xyz"));
-    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(resolve(
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(partitionJson(resolve(
         "{\"input\": {\"container\": \"" + root + "\"}, \"partition\": {\"fragments\": "
-            + "{\"perSlice\": false}}}").partitionJson());
+            + "{\"perSlice\": false}}}")));
     assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
     assertTrue(!p.get("fragments").get("perSlice").asBoolean());
     assertEquals("fragments-multicut", p.get("method").asText());
 
     // a named method keeps its own defaults: no size filter unless asked for
-    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(resolve(
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(partitionJson(resolve(
         "{\"input\": {\"container\": \"" + root + "\"}, \"partition\": {\"method\": "
-            + "\"fragments-multicut\"}}").partitionJson());
-    assertTrue(!p.has("minSegmentSize"), p.toString());
+            + "\"fragments-multicut\"}}")));
+    assertEquals(0, p.get("minSegmentSize").asInt(), p.toString());
   }
 
   @Test
@@ -96,6 +101,39 @@ class RunResolverTest {
     assertArrayEquals(new int[] {14, 20, 6}, s.blockShape());
     assertArrayEquals(new int[] {1, 5, 2}, s.halo());
     assertEquals(2 * 1 * 2, s.grid().blockCount());
+  }
+
+  /** A repeated offset is named by its key and position as written, in the file's axis order. */
+  @Test
+  void aRepeatedOffsetIsNamedAsWritten(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    SunderException e = fails("{\"input\": {\"container\": \"" + root + "\", \"offsets\":"
+        + " [[-1, 0, 0], [0, -1, 0], [0, 0, -1], [-4, 0, 0], [0, -1, 0]]}}");
+    assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
+    assertTrue(e.getMessage().startsWith("input.offsets[4]: [0, -1, 0] (zyx) repeats"
+        + " input.offsets[1]"), e.getMessage());
+  }
+
+  /**
+   * Two partition sections that mean the same method (one writes a default out) give the same
+   * canonical section, so the same resume fingerprint.
+   */
+  @Test
+  void equivalentPartitionSectionsHaveOneFingerprint(@TempDir Path dir) {
+    Path root = dir.resolve("v.zarr");
+    TestContainers.withAffinities(root, StorageFormat.ZARR, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    String input = "{\"input\": {\"container\": \"" + root + "\"}, ";
+    RunSettings plain = resolve(input + "\"partition\": {\"method\": \"mutex-watershed\"}}");
+    RunSettings spelled = resolve(input + "\"partition\": {\"method\": \"mutex-watershed\","
+        + " \"weights\": {\"kind\": \"channel-role\"}, \"subsampling\": {\"kind\": \"none\"},"
+        + " \"minSegmentSize\": 0}}");
+    assertEquals(partitionJson(plain), partitionJson(spelled));
+    assertEquals(RunIdentity.manifest(plain, "r").sectionHashes().get("partition"),
+        RunIdentity.manifest(spelled, "r").sectionHashes().get("partition"));
+    assertTrue(partitionJson(plain).contains("\"weights\""), partitionJson(plain));
   }
 
   @Test

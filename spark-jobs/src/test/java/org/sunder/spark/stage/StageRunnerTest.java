@@ -1,5 +1,6 @@
 package org.sunder.spark.stage;
 
+import org.sunder.spark.workdir.Stage;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -21,8 +22,11 @@ import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.progress.ProgressListener;
 import org.sunder.spark.progress.ProgressPrinter;
 import org.sunder.spark.progress.ProgressTracker;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.partition.PartitionConfig;
 import org.sunder.spark.run.RunSettings;
-import org.sunder.spark.run.TaskHooks;
+import org.sunder.stitching.StitchingSetup;
 import org.sunder.spark.workdir.WorkDir;
 
 /** The stage runner in local mode with up to 3 attempts per task ({@code local[2,3]}). */
@@ -61,10 +65,12 @@ class StageRunnerTest {
     }
   }
 
-  private static RunSettings settings(Path dir, TaskHooks hooks) {
-    return new RunSettings("zyx", "in", "affinities", new int[][] {{0, 0, -1}}, null, "out",
-        "segmentation", dir.toString(), new long[] {8, 8, 8}, new int[] {4, 4, 4},
-        new int[] {4, 4, 4}, new int[] {1, 1, 1}, "{}", 10, "in", null, true, hooks);
+  private static RunSettings settings(Path dir) {
+    StitchingSetup setup = new StitchingSetup("in", "affinities", "", "out", "segmentation",
+        BlockGrid.of(new long[] {8, 8, 8}, new int[] {4, 4, 4}, new int[] {4, 4, 4},
+            new int[] {1, 1, 1}), Offsets.of(new int[] {0, 0, -1}),
+        PartitionConfig.mutexWatershed(null, null));
+    return new RunSettings("zyx", setup, dir.toString(), 10, "in", null, true);
   }
 
   private static long runs(Path dir) throws Exception {
@@ -75,10 +81,11 @@ class StageRunnerTest {
 
   @Test
   void runsMissingTasksOnlyAndRecordsResults(@TempDir Path dir) throws Exception {
-    Broadcast<RunSettings> b = sc.broadcast(settings(dir, TaskHooks.NONE));
+    Broadcast<RunSettings> b = sc.broadcast(settings(dir));
     WorkDir work = new WorkDir(dir);
     ByteArrayOutputStream text = new ByteArrayOutputStream();
-    StageRunner runner = new StageRunner(sc, b, work, new PrintStream(text, true, StandardCharsets.UTF_8));
+    StageRunner runner = new StageRunner(sc, b, work,
+        new PrintStream(text, true, StandardCharsets.UTF_8), TaskHooks.NONE);
     StageReport first = runner.run(Stage.SEAMS, 7, new SquareBody());
     assertEquals(new StageReport(Stage.SEAMS, 7, 0, 7, first.seconds()), first);
     assertEquals(7, runs(dir));
@@ -97,10 +104,11 @@ class StageRunnerTest {
 
   @Test
   void aTaskThatFailsOnceIsRetriedBySpark(@TempDir Path dir) throws Exception {
-    Broadcast<RunSettings> b = sc.broadcast(settings(dir, new TaskHooks(0, "relabel:3", "")));
+    Broadcast<RunSettings> b = sc.broadcast(settings(dir));
     WorkDir work = new WorkDir(dir);
     StageRunner runner = new StageRunner(sc, b, work,
-        new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8));
+        new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8),
+        new TaskHooks(0, "relabel:3", ""));
     StageReport report = runner.run(Stage.RELABEL, 5, new SquareBody());
     assertEquals(5, report.ran());
     assertEquals(5, work.ledger(Stage.RELABEL).finished().cardinality());

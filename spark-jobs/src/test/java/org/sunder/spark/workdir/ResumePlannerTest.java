@@ -10,7 +10,7 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 
 class ResumePlannerTest {
   private static final ObjectMapper JSON = new ObjectMapper();

@@ -10,7 +10,7 @@ import java.nio.file.Path;
 import java.util.BitSet;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.sunder.spark.stage.Stage;
+import org.sunder.spark.workdir.Stage;
 
 class StageLedgerTest {
   @Test

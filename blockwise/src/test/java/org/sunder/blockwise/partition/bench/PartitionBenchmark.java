@@ -26,7 +26,7 @@ import org.sunder.blockwise.partition.Segmentation;
  * <p>Run: {@code java -Xmx8g -cp <test classpath> org.sunder.blockwise.partition.bench.PartitionBenchmark [size] [repeats]}.
  */
 public final class PartitionBenchmark {
-  private static final Offsets OFFSETS = Offsets.fromZyx(new int[][] {
+  static final Offsets OFFSETS = Offsets.fromZyx(new int[][] {
       {-1, 0, 0}, {0, -1, 0}, {0, 0, -1},
       {-2, 0, 0}, {0, -9, 0}, {0, 0, -9}, {-4, 0, 0}, {0, -27, 0}, {0, 0, -27}});
   private static final double PUBLISHED_VOXELS_PER_SECOND = 30.0 * 512 * 512 / 43.3;

@@ -1,4 +1,4 @@
-package org.sunder.spark.run;
+package org.sunder.spark.stage;
 
 import java.io.PrintStream;
 import java.util.List;
@@ -8,7 +8,7 @@ import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.evaluate.ScoreReport;
-import org.sunder.spark.stage.StageReport;
+import org.sunder.spark.run.RunSettings;
 import org.sunder.stitching.SolveReport;
 
 /**

@@ -1,4 +1,4 @@
-package org.sunder.spark.run;
+package org.sunder.spark.stage;
 
 import java.io.IOException;
 import java.nio.file.FileAlreadyExistsException;
@@ -8,7 +8,9 @@ import org.apache.spark.SparkConf;
 
 /**
  * Test-only behaviour of tasks, off unless set through Spark properties (so a test can pass them
- * to a child JVM as {@code -Dspark.sunder.test...}): a delay before each task, so that a kill
+ * to a child JVM as {@code -Dspark.sunder.test...}); the {@link Pipeline} reads them from the
+ * driver's Spark configuration and hands them to each stage's {@link RecordingTask}, apart from
+ * the run's settings: a delay before each task, so that a kill
  * lands inside a stage, one injected failure of one task, so that Spark's retry shows, and an
  * injected out-of-memory error.
  *
@@ -17,7 +19,8 @@ import org.apache.spark.SparkConf;
  * @param outOfMemory {@code stage:index} of a task that throws an {@link OutOfMemoryError} on
  *     every attempt ({@value #MEMORY_KEY})
  */
-public record TaskHooks(long delayMillis, String failOnce, String outOfMemory) {
+public record TaskHooks(long delayMillis, String failOnce, String outOfMemory)
+    implements java.io.Serializable {
   public static final String DELAY_KEY = "spark.sunder.test.taskDelayMillis";
   public static final String FAIL_KEY = "spark.sunder.test.failOnce";
   public static final String MEMORY_KEY = "spark.sunder.test.outOfMemory";

@@ -1,4 +1,4 @@
-package org.sunder.spark;
+package org.sunder.spark.workdir;
 
 import java.io.IOException;
 import java.io.InputStream;

@@ -1,4 +1,4 @@
-package org.sunder.spark.evaluate;
+package org.sunder.stitching;
 
 /**
  * Which two label datasets to compare (and where), as absolute container paths.

@@ -1,4 +1,4 @@
-package org.sunder.spark.stage;
+package org.sunder.spark.workdir;
 
 import java.util.Arrays;
 import java.util.Locale;

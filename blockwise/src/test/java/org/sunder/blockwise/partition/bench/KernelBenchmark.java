@@ -1,0 +1,198 @@
+package org.sunder.blockwise.partition.bench;
+
+import java.io.IOException;
+import java.lang.management.ManagementFactory;
+import java.lang.management.MemoryPoolMXBean;
+import java.lang.management.MemoryType;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.Locale;
+import java.util.Random;
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.Subsampling;
+import org.sunder.blockwise.graph.WeightRule;
+import org.sunder.blockwise.partition.Agglomeration;
+import org.sunder.blockwise.partition.AgglomerationPartitioner;
+import org.sunder.blockwise.partition.Linkage;
+import org.sunder.blockwise.partition.MutexWatershedPartitioner;
+import org.sunder.blockwise.partition.Partitioner;
+import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.synth.SyntheticVolume;
+import org.sunder.blockwise.synth.TissuePreset;
+
+/**
+ * Partition-stage figures of the voxel-level kernels (the default Mutex Watershed and mean
+ * linkage agglomeration from voxels) on realistic data beside the clean block of
+ * {@link PartitionBenchmark}: per input, Mvoxels/s per core (the calling thread's CPU time,
+ * best of the repeats after one warm-up), bytes/voxel allocated by the thread during the call
+ * (every array the call makes, an upper bound on its peak retained heap), the growth of the
+ * heap pools' peak usage over the run after a full collection (retained plus not yet collected
+ * garbage) and a hash of the labels (to compare implementations).
+ *
+ * <p>Inputs: the clean block (Voronoi cells, 9 offsets, float32, noise 0.15, seed 13), and one
+ * block of each {@link TissuePreset} cut from the centre of its {@link
+ * TissuePreset#STANDARD_SHAPE} volume (13 offsets, float32), cached under
+ * {@code java.io.tmpdir/sunder-kernel-bench} because generating them takes a while.
+ *
+ * <p>Arguments: {@code [x y z] [repeats] [seed]}, default {@code 128 128 64 3 1}. System
+ * properties: {@code -Dmethods=mws,mean} (which kernels), {@code -Dinputs=clean,dense-neurites,...}
+ * (which inputs), {@code -DmeanRepeats=N} (repeats of the slower linkage run, default 1).
+ */
+public final class KernelBenchmark {
+  private KernelBenchmark() {}
+
+  public static void main(String[] args) throws IOException {
+    int[] shape = args.length >= 3 ? new int[] {Integer.parseInt(args[0]),
+        Integer.parseInt(args[1]), Integer.parseInt(args[2])} : new int[] {128, 128, 64};
+    int repeats = args.length >= 4 ? Integer.parseInt(args[3]) : 3;
+    long seed = args.length >= 5 ? Long.parseLong(args[4]) : 1;
+    String methods = System.getProperty("methods", "mws,mean");
+    String inputs = System.getProperty("inputs",
+        "clean,dense-neurites,compact-cells,bodies-and-neurites");
+    int meanRepeats = Integer.getInteger("meanRepeats", 1);
+    System.out.printf(Locale.ROOT, "preset blocks %d x %d x %d (x y z) cut from the standard "
+        + "shape, seed %d; %d processors, max heap %d MiB%n", shape[0], shape[1], shape[2],
+        seed, Runtime.getRuntime().availableProcessors(),
+        Runtime.getRuntime().maxMemory() >> 20);
+    Partitioner mws = new MutexWatershedPartitioner(WeightRule.byChannelRole(),
+        Subsampling.none());
+    Partitioner mean = new AgglomerationPartitioner(new Agglomeration(Linkage.MEAN, false),
+        WeightRule.byValue(WeightRule.Transform.LOGIT, null), Subsampling.none());
+    for (String input : inputs.split(",")) {
+      AffinityBlock block = input.equals("clean") ? cleanBlock() : presetBlock(
+          TissuePreset.named(input), seed, shape);
+      System.out.printf(Locale.ROOT, "%s: %d voxels, %d offsets%n", input, block.voxelCount(),
+          block.channelCount());
+      if (methods.contains("mws")) {
+        measure(input + " mutex watershed", block, mws, repeats);
+      }
+      if (methods.contains("mean")) {
+        measure(input + " mean linkage from voxels", block, mean, meanRepeats);
+      }
+    }
+  }
+
+  /** The block of {@link PartitionBenchmark}: 128^3 Voronoi cells with noise, 9 offsets. */
+  static AffinityBlock cleanBlock() {
+    int[] shape = {128, 128, 128};
+    Random random = new Random(13);
+    int[] truth = PartitionBenchmark.voronoi(shape, 300, random);
+    float[] floats = PartitionBenchmark.affinities(truth, shape, 0.15, random);
+    return AffinityBlock.ofFloats(floats, shape, new long[3], PartitionBenchmark.OFFSETS, null);
+  }
+
+  /** A block of {@code shape} from the centre of the preset's standard volume (cached). */
+  static AffinityBlock presetBlock(TissuePreset preset, long seed, int[] shape)
+      throws IOException {
+    Offsets offsets = TissuePreset.offsets();
+    int channels = offsets.count();
+    int n = shape[0] * shape[1] * shape[2];
+    Path cache = Path.of(System.getProperty("java.io.tmpdir"), "sunder-kernel-bench",
+        preset.presetName() + "-" + seed + "-" + shape[0] + "x" + shape[1] + "x" + shape[2]
+            + ".f32");
+    float[] cut = new float[n * channels];
+    if (Files.exists(cache)) {
+      ByteBuffer.wrap(Files.readAllBytes(cache)).order(ByteOrder.LITTLE_ENDIAN).asFloatBuffer()
+          .get(cut);
+      return AffinityBlock.ofFloats(cut, shape, new long[3], offsets, null);
+    }
+    long[] full = TissuePreset.STANDARD_SHAPE;
+    long t0 = System.nanoTime();
+    SyntheticVolume volume = preset.volume(seed, full);
+    float[] affinities = preset.affinities(volume, seed);
+    System.out.printf(Locale.ROOT, "  generated %s seed %d in %.1f s%n", preset.presetName(),
+        seed, (System.nanoTime() - t0) / 1e9);
+    int fx = (int) full[0];
+    int fy = (int) full[1];
+    int fz = (int) full[2];
+    int fn = fx * fy * fz;
+    int[] start = new int[3];
+    for (int d = 0; d < 3; d++) {
+      if (shape[d] > full[d]) {
+        throw new IllegalArgumentException("block shape " + Arrays.toString(shape)
+            + " exceeds the standard shape " + Arrays.toString(full));
+      }
+      start[d] = (int) (full[d] - shape[d]) / 2;
+    }
+    int i = 0;
+    for (int k = 0; k < channels; k++) {
+      for (int z = 0; z < shape[2]; z++) {
+        for (int y = 0; y < shape[1]; y++) {
+          int from = start[0] + fx * ((start[1] + y) + fy * (start[2] + z)) + k * fn;
+          System.arraycopy(affinities, from, cut, i, shape[0]);
+          i += shape[0];
+        }
+      }
+    }
+    Files.createDirectories(cache.getParent());
+    ByteBuffer bytes = ByteBuffer.allocate(4 * cut.length).order(ByteOrder.LITTLE_ENDIAN);
+    bytes.asFloatBuffer().put(cut);
+    Path temporary = Files.createTempFile(cache.getParent(), "cut", ".tmp");
+    Files.write(temporary, bytes.array());
+    Files.move(temporary, cache, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
+        java.nio.file.StandardCopyOption.ATOMIC_MOVE);
+    return AffinityBlock.ofFloats(cut, shape, new long[3], offsets, null);
+  }
+
+  private static void measure(String name, AffinityBlock block, Partitioner partitioner,
+      int repeats) {
+    com.sun.management.ThreadMXBean threads =
+        (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
+    long thread = Thread.currentThread().getId();
+    int voxels = block.voxelCount();
+    double bestCpu = Double.MAX_VALUE;
+    long bestBytes = Long.MAX_VALUE;
+    long bestPeak = Long.MAX_VALUE;
+    int hash = 0;
+    int segments = 0;
+    int runs = repeats > 1 ? repeats + 1 : 1;
+    for (int r = 0; r < runs; r++) {
+      System.gc();
+      long base = resetPeaks();
+      long bytes0 = threads.getThreadAllocatedBytes(thread);
+      long cpu0 = threads.getCurrentThreadCpuTime();
+      Segmentation s = partitioner.partition(block);
+      long cpu1 = threads.getCurrentThreadCpuTime();
+      long bytes1 = threads.getThreadAllocatedBytes(thread);
+      long peak = peakSum() - base;
+      hash = Arrays.hashCode(s.labels());
+      segments = s.segmentCount();
+      if (runs > 1 && r == 0) {
+        continue;  // warm-up
+      }
+      bestCpu = Math.min(bestCpu, (cpu1 - cpu0) / 1e9);
+      bestBytes = Math.min(bestBytes, bytes1 - bytes0);
+      bestPeak = Math.min(bestPeak, peak);
+    }
+    System.out.printf(Locale.ROOT, "  %-45s %7.3f Mvoxels/s per core (cpu %.2f s), %6.1f "
+        + "bytes/voxel allocated, %6.1f bytes/voxel heap peak growth, %d segments, labels hash "
+        + "%08x%n", name, voxels / bestCpu / 1e6, bestCpu, bestBytes / (double) voxels,
+        bestPeak / (double) voxels, segments, hash);
+  }
+
+  /** Resets the heap pools' peak usage; returns their current usage. */
+  private static long resetPeaks() {
+    long used = 0;
+    for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
+      if (pool.getType() == MemoryType.HEAP) {
+        pool.resetPeakUsage();
+        used += pool.getUsage().getUsed();
+      }
+    }
+    return used;
+  }
+
+  private static long peakSum() {
+    long peak = 0;
+    for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
+      if (pool.getType() == MemoryType.HEAP) {
+        peak += pool.getPeakUsage().getUsed();
+      }
+    }
+    return peak;
+  }
+}
