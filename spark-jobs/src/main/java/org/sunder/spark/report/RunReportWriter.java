@@ -229,8 +229,7 @@ public final class RunReportWriter {
   private void segments(ReportPage page) {
     List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
     for (int b = 0; b < grid.blockCount(); b++) {
-      summaries.add(CODEC.decode(work.ledger(Stage.PARTITION).read(b), BlockSummary.class,
-          "partition record " + b));
+      summaries.add(org.sunder.spark.stage.StageFiles.summary(work, b));
     }
     GlobalSolve.Result solve = CODEC.decode(work.ledger(Stage.SOLVE).read(0),
         GlobalSolve.Result.class, "solve record");

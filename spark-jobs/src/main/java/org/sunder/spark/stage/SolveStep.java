@@ -61,13 +61,11 @@ final class SolveStep {
     StitchingSetup setup = settings.setup();
     List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
     for (int b = 0; b < grid.blockCount(); b++) {
-      summaries.add(codec.decode(work.ledger(Stage.PARTITION).read(b), BlockSummary.class,
-          "partition record " + b));
+      summaries.add(StageFiles.summary(work, b));
     }
     List<SeamEdges> seams = new ArrayList<>(grid.faceCount());
     for (int f = 0; f < grid.faceCount(); f++) {
-      seams.add(codec.decode(work.ledger(Stage.SEAMS).read(f), SeamEdges.class,
-          "seams record " + f));
+      seams.add(StageFiles.seams(work, f));
     }
     GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
     DecisionsFile.write(ledger, SolveDecisions.leastCertain(seams, result.finalIds(),

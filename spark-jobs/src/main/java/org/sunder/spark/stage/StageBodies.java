@@ -5,11 +5,16 @@ import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.BlockSummary;
+import org.sunder.stitching.BlockSummaryFile;
 import org.sunder.stitching.EvaluateTask;
 import org.sunder.stitching.EvaluationTarget;
 import org.sunder.stitching.FinalIdMap;
 import org.sunder.stitching.PartitionTask;
 import org.sunder.stitching.RelabelTask;
+import org.sunder.stitching.SeamEdges;
+import org.sunder.stitching.SeamEdgesFile;
 import org.sunder.stitching.SeamTask;
 import org.sunder.stitching.StitchingSetup;
 
@@ -17,23 +22,33 @@ import org.sunder.stitching.StitchingSetup;
 final class StageBodies {
   private StageBodies() {}
 
-  /** Partition: block index -> provisional ids written, {@code BlockSummary} returned. */
+  /**
+   * Partition: block index -> provisional ids written, the block summary written to the work
+   * dir ({@link StageFiles#summaryFile}), its figures and checksum returned.
+   */
   static final class Partition implements TaskBody {
     private static final long serialVersionUID = 1L;
 
     @Override
     public Object run(RunSettings settings, int block) {
-      return PartitionTask.run(settings.setup(), block);
+      BlockSummary summary = PartitionTask.run(settings.setup(), block);
+      return BlockSummaryFile.write(
+          StageFiles.summaryFile(new WorkDir(settings.workDirPath()), block), summary);
     }
   }
 
-  /** Seams: face index -> {@code SeamEdges}. */
+  /**
+   * Seams: face index -> the face's seam edges written to the work dir
+   * ({@link StageFiles#seamFile}), their figures and checksum returned.
+   */
   static final class Seams implements TaskBody {
     private static final long serialVersionUID = 1L;
 
     @Override
     public Object run(RunSettings settings, int face) {
-      return SeamTask.run(settings.setup(), face);
+      SeamEdges seams = SeamTask.run(settings.setup(), face);
+      return SeamEdgesFile.write(StageFiles.seamFile(new WorkDir(settings.workDirPath()), face),
+          seams);
     }
   }
 

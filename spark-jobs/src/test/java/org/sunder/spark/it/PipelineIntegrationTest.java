@@ -84,6 +84,38 @@ class PipelineIntegrationTest {
     }
   }
 
+  /**
+   * Block summaries and seam edges reach the solve through files in the work dir: each task's
+   * record holds a few figures and its file's checksum, however large the block.
+   */
+  @Test
+  void tablesGoToTheWorkDirAndTaskRecordsStaySmall(@TempDir Path dir) {
+    Scenes.Scene scene = Scenes.write(dir, StorageFormat.ZARR, Degradation.moderate(13),
+        CHUNK_XYZ, MWS);
+    run("run", scene.config().toString());
+    org.sunder.spark.workdir.WorkDir work = new org.sunder.spark.workdir.WorkDir(
+        scene.container().resolveSibling(scene.container().getFileName() + ".sunder-work")
+            .resolve("segmentation"));
+    long segments = 0;
+    for (int b = 0; b < 8; b++) {
+      int size = work.ledger(org.sunder.spark.workdir.Stage.PARTITION).read(b).length;
+      assertTrue(size < 128, "partition record " + b + " has " + size + " bytes");
+      org.sunder.stitching.BlockSummaryFile.Stored stored =
+          org.sunder.spark.stage.StageFiles.summaryRecord(work, b);
+      org.sunder.stitching.BlockSummary summary =
+          org.sunder.spark.stage.StageFiles.summary(work, b);
+      assertEquals(summary.segmentCount(), stored.segments());
+      assertEquals(b, summary.block());
+      segments += summary.segmentCount();
+    }
+    assertTrue(segments > 8, "the blocks have segments: " + segments);
+    for (int f = 0; f < 12; f++) {
+      int size = work.ledger(org.sunder.spark.workdir.Stage.SEAMS).read(f).length;
+      assertTrue(size < 128, "seams record " + f + " has " + size + " bytes");
+      assertEquals(f, org.sunder.spark.stage.StageFiles.seams(work, f).face());
+    }
+  }
+
   @Test
   void undegradedAffinitiesGiveTheGroundTruthUpToRenaming(@TempDir Path dir) {
     Scenes.Scene scene = Scenes.write(dir, StorageFormat.ZARR, Degradation.none(), CHUNK_XYZ, MWS);
