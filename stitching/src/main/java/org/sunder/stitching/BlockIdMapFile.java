@@ -10,10 +10,17 @@ import org.sunder.blockwise.grid.IdLayout;
  * read by that block's relabel only. Big-endian, in the frame of {@link CheckedFile} (magic
  * {@code "SUNDIDMP"}): {@code int localBits}, {@code int block}, {@code int n},
  * {@code long[n] finalIds} (index 0 = 0). 8 bytes per segment; O(file size).
+ *
+ * <p>Also the compact form the solve writes per block, a {@link SolvedFinalIds.BlockPart}
+ * (magic {@code "SUNDIDPT"}): {@code int block}, {@code long offset}, {@code int n},
+ * {@code int[n] locals}, {@code long[n] finals} — 12 bytes per solved segment of the block,
+ * from which the block's task builds its whole map ({@link BlockIdMap#of}).
  */
 public final class BlockIdMapFile {
   private static final byte[] MAGIC = "SUNDIDMP".getBytes(StandardCharsets.US_ASCII);
   private static final String WHAT = "block id map";
+  private static final byte[] PART_MAGIC = "SUNDIDPT".getBytes(StandardCharsets.US_ASCII);
+  private static final String PART = "solved block ids";
 
   private BlockIdMapFile() {}
 
@@ -55,6 +62,37 @@ public final class BlockIdMapFile {
       return new BlockIdMap(new IdLayout(localBits), block, ids);
     } catch (java.nio.BufferUnderflowException | IllegalArgumentException e) {
       throw CheckedFile.bad(file, WHAT, "is truncated or invalid (" + e.getMessage() + ")");
+    }
+  }
+
+  /** Writes one block's part of the solve's numbering atomically; returns its checksum. */
+  public static long writePart(Path file, SolvedFinalIds.BlockPart part) {
+    int n = part.locals().length;
+    ByteBuffer out = CheckedFile.start(PART_MAGIC, 16 + 12L * n);
+    out.putInt(part.block()).putLong(part.offset()).putInt(n);
+    out.asIntBuffer().put(part.locals());
+    out.position(out.position() + 4 * n);
+    out.asLongBuffer().put(part.finals());
+    out.position(out.position() + 8 * n);
+    return CheckedFile.finish(file, out);
+  }
+
+  /** Reads block {@code block}'s part written by {@link #writePart}. */
+  public static SolvedFinalIds.BlockPart readPart(Path file, int block) {
+    ByteBuffer in = CheckedFile.open(file, PART_MAGIC, PART, -1);
+    try {
+      int stored = in.getInt();
+      if (stored != block) {
+        throw CheckedFile.bad(file, PART, "holds block " + stored + ", expected block " + block);
+      }
+      long offset = in.getLong();
+      int n = CheckedFile.count(in, 12, file, PART, "solved segment");
+      int[] locals = CheckedFile.ints(in, n);
+      long[] finals = CheckedFile.longs(in, n);
+      CheckedFile.requireConsumed(in, file, PART);
+      return new SolvedFinalIds.BlockPart(block, offset, locals, finals);
+    } catch (java.nio.BufferUnderflowException e) {
+      throw CheckedFile.bad(file, PART, "is truncated");
     }
   }
 }

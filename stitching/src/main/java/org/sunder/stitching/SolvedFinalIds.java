@@ -24,14 +24,18 @@ import org.sunder.blockwise.grid.IdLayout;
 public final class SolvedFinalIds implements Serializable {
   private static final long serialVersionUID = 1L;
 
+  private final IdLayout layout;
+  private final long[] segmentCounts;
   private final long[] offsets;
   private final int[] blockStart;
   private final int[] locals;
   private final long[] finals;
   private final long finalIdCount;
 
-  private SolvedFinalIds(long[] offsets, int[] blockStart, int[] locals, long[] finals,
-      long finalIdCount) {
+  private SolvedFinalIds(IdLayout layout, long[] segmentCounts, long[] offsets, int[] blockStart,
+      int[] locals, long[] finals, long finalIdCount) {
+    this.layout = layout;
+    this.segmentCounts = segmentCounts;
     this.offsets = offsets;
     this.blockStart = blockStart;
     this.locals = locals;
@@ -113,7 +117,8 @@ public final class SolvedFinalIds implements Serializable {
       }
     }
     long total = blocks == 0 ? 0 : offsets[blocks - 1] + owned[blocks - 1];
-    return new SolvedFinalIds(offsets, blockStart, locals, finals, total);
+    return new SolvedFinalIds(layout, segmentCounts.clone(), offsets, blockStart, locals, finals,
+        total);
   }
 
   /** The number of final ids (the largest one). */
@@ -133,8 +138,25 @@ public final class SolvedFinalIds implements Serializable {
         Arrays.copyOfRange(finals, from, to));
   }
 
+  /** Block {@code block}'s whole map (O(segments of the block)). */
+  public BlockIdMap blockMap(int block) {
+    return BlockIdMap.of(layout, segmentCounts[block], part(block));
+  }
+
+  /**
+   * The map of every block at once, as one value. Holds a number per segment of the volume:
+   * for tests and the in-process runner; a distributed run builds {@link #blockMap} per block.
+   */
+  public FinalIdMap toMap() {
+    long[][] ids = new long[offsets.length][];
+    for (int b = 0; b < ids.length; b++) {
+      ids[b] = blockMap(b).finalIds();
+    }
+    return new FinalIdMap(layout, ids, finalIdCount);
+  }
+
   /** The final id of solved segment {@code provisionalId}, or -1 if the solve did not see it. */
-  public long finalIdOf(IdLayout layout, long provisionalId) {
+  public long finalIdOf(long provisionalId) {
     int block = layout.blockOf(provisionalId);
     if (block >= offsets.length) {
       return -1;

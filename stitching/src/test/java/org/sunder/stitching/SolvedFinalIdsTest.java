@@ -127,8 +127,8 @@ class SolvedFinalIdsTest {
     assertEquals(4, ids.finalIdCount());
     assertArrayEquals(new long[] {0, 1, 2, 3}, BlockIdMap.of(LAYOUT, 3, ids.part(0)).finalIds());
     assertArrayEquals(new long[] {0, 2, 4}, BlockIdMap.of(LAYOUT, 2, ids.part(1)).finalIds());
-    assertEquals(2, ids.finalIdOf(LAYOUT, LAYOUT.provisional(1, 1)));
-    assertEquals(-1, ids.finalIdOf(LAYOUT, LAYOUT.provisional(1, 2)));
+    assertEquals(2, ids.finalIdOf(LAYOUT.provisional(1, 1)));
+    assertEquals(-1, ids.finalIdOf(LAYOUT.provisional(1, 2)));
   }
 
   @Test
@@ -137,6 +137,11 @@ class SolvedFinalIdsTest {
     SolvedFinalIds ids = SolvedFinalIds.number(LAYOUT, new long[] {2, 3}, solved,
         new int[] {0, 0});
     BlockIdMap map = BlockIdMap.of(LAYOUT, 3, ids.part(1));
+    Path partFile = dir.resolve("1.part");
+    BlockIdMapFile.writePart(partFile, ids.part(1));
+    SolvedFinalIds.BlockPart part = BlockIdMapFile.readPart(partFile, 1);
+    assertEquals(map, BlockIdMap.of(LAYOUT, 3, part), "the map from the part read back");
+    assertThrows(SunderException.class, () -> BlockIdMapFile.readPart(partFile, 0));
     Path file = dir.resolve("1.ids");
     BlockIdMapFile.Stored stored = BlockIdMapFile.write(file, map);
     assertEquals(map, BlockIdMapFile.read(file, 1, stored.checksum()));

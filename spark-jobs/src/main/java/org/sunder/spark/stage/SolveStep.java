@@ -15,9 +15,12 @@ import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.BlockSummary;
+import org.sunder.stitching.BlockIdMapFile;
 import org.sunder.stitching.GlobalSolve;
 import org.sunder.stitching.SeamEdges;
 import org.sunder.stitching.SolveDecisions;
+import org.sunder.stitching.SolveReport;
+import org.sunder.stitching.SolvedFinalIds;
 import org.sunder.stitching.StitchingSetup;
 
 /**
@@ -40,7 +43,7 @@ final class SolveStep {
   }
 
   /** The recorded result, running the solve first if no earlier run recorded it. */
-  GlobalSolve.Result run(RunSettings settings, List<StageReport> reports) {
+  SolveReport run(RunSettings settings, List<StageReport> reports) {
     StageLedger ledger = work.ledger(Stage.SOLVE);
     if (ledger.isFinished(0)) {
       out.println("solve: finished in an earlier run, skipped");
@@ -68,16 +71,20 @@ final class SolveStep {
       seams.add(StageFiles.seams(work, f));
     }
     GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
-    DecisionsFile.write(ledger, SolveDecisions.leastCertain(seams, result.finalIds(),
+    SolvedFinalIds solved = result.solved();
+    for (int b = 0; b < grid.blockCount(); b++) {
+      BlockIdMapFile.writePart(StageFiles.solvedPartFile(work, b), solved.part(b));
+    }
+    DecisionsFile.write(ledger, SolveDecisions.leastCertain(seams, solved::finalIdOf,
         DecisionsFile.PER_KIND, DecisionsFile.MIN_VOXEL_EDGES));
     ledger.recordTiming(0, startMillis, (System.nanoTime() - start) / 1e9);
-    ledger.record(0, codec.encode(result));
+    ledger.record(0, codec.encode(result.report()));
     reports.add(new StageReport(Stage.SOLVE, 1, 0, 1, (System.nanoTime() - start) / 1e9));
-    return result;
+    return result.report();
   }
 
-  GlobalSolve.Result recorded() {
-    return codec.decode(work.ledger(Stage.SOLVE).read(0), GlobalSolve.Result.class,
+  SolveReport recorded() {
+    return codec.decode(work.ledger(Stage.SOLVE).read(0), SolveReport.class,
         "solve record");
   }
 

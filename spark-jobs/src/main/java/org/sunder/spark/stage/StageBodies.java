@@ -1,7 +1,6 @@
 package org.sunder.spark.stage;
 
 import java.util.List;
-import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.spark.run.RunSettings;
@@ -10,7 +9,7 @@ import org.sunder.stitching.BlockSummary;
 import org.sunder.stitching.BlockSummaryFile;
 import org.sunder.stitching.EvaluateTask;
 import org.sunder.stitching.EvaluationTarget;
-import org.sunder.stitching.FinalIdMap;
+import org.sunder.stitching.BlockIdMap;
 import org.sunder.stitching.PartitionTask;
 import org.sunder.stitching.RelabelTask;
 import org.sunder.stitching.SeamEdges;
@@ -52,19 +51,19 @@ final class StageBodies {
     }
   }
 
-  /** Relabel: every chunk of one block's core rewritten with final ids; returns voxels changed. */
+  /**
+   * Relabel: every chunk of one block's core rewritten with final ids, from that block's map
+   * alone ({@link StageFiles#blockMap}: its segment count and its share of the solve's
+   * numbering); returns voxels changed.
+   */
   static final class Relabel implements TaskBody {
     private static final long serialVersionUID = 1L;
-    private final Broadcast<FinalIdMap> map;
-
-    Relabel(Broadcast<FinalIdMap> map) {
-      this.map = map;
-    }
 
     @Override
     public Object run(RunSettings settings, int block) {
       StitchingSetup setup = settings.setup();
-      FinalIdMap ids = map.value();
+      BlockIdMap ids = StageFiles.blockMap(new WorkDir(settings.workDirPath()), setup.idLayout(),
+          block);
       long changed = 0;
       List<long[]> chunks = setup.grid().chunkPositionsOf(block);
       for (long[] chunk : chunks) {

@@ -4,6 +4,9 @@ import java.nio.file.Path;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.stitching.BlockIdMap;
+import org.sunder.stitching.BlockIdMapFile;
 import org.sunder.stitching.BlockSummary;
 import org.sunder.stitching.BlockSummaryFile;
 import org.sunder.stitching.SeamEdges;
@@ -50,5 +53,20 @@ public final class StageFiles {
   /** The seam edges {@code face}'s task wrote (checked against its record). */
   public static SeamEdges seams(WorkDir work, int face) {
     return SeamEdgesFile.read(seamFile(work, face), seamRecord(work, face));
+  }
+
+  /** Where the solve leaves block {@code block}'s share of the final ids. */
+  public static Path solvedPartFile(WorkDir work, int block) {
+    return work.ledger(Stage.SOLVE).dir().resolve(block + ".part");
+  }
+
+  /**
+   * Block {@code block}'s provisional-to-final map, from its partition record (segment count)
+   * and its share of the solve's numbering: reads only that block's files. O(segments of the
+   * block).
+   */
+  public static BlockIdMap blockMap(WorkDir work, IdLayout layout, int block) {
+    return BlockIdMap.of(layout, summaryRecord(work, block).segments(),
+        BlockIdMapFile.readPart(solvedPartFile(work, block), block));
   }
 }
