@@ -3,6 +3,8 @@ package org.sunder.stitching;
 import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.function.IntFunction;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.PartitionConfig;
@@ -70,13 +72,24 @@ public final class SuperBlockSolve {
         : new MutexPartSolver();
     int rowsPerPair = linkage ? 4 : 2;
     SuperBlocks superBlocks = new SuperBlocks(grid, layout, FACTOR);
-    HierarchicalSolve.Result levels = HierarchicalSolve.run(superBlocks,
-        Math.multiplyHigh(pairs, rowsPerPair) != 0 ? Long.MAX_VALUE : pairs * rowsPerPair,
-        p -> PartInputs.levelOne(grid, superBlocks, Math.max(p, 0), linkage, summaryOf,
-            seamsOf),
-        Math.multiplyHigh(maxDriverEdges, rowsPerPair) != 0 ? Long.MAX_VALUE
-            : maxDriverEdges * rowsPerPair,
-        parts, workDir);
+    HierarchicalSolve.Result levels;
+    try {
+      levels = HierarchicalSolve.run(superBlocks,
+          Math.multiplyHigh(pairs, rowsPerPair) != 0 ? Long.MAX_VALUE : pairs * rowsPerPair,
+          p -> PartInputs.levelOne(grid, superBlocks, Math.max(p, 0), linkage, summaryOf,
+              seamsOf),
+          Math.multiplyHigh(maxDriverEdges, rowsPerPair) != 0 ? Long.MAX_VALUE
+              : maxDriverEdges * rowsPerPair,
+          parts, workDir);
+    } catch (SunderException e) {
+      if (e.kind() != ErrorKind.INVALID_CONFIG) {
+        throw e;
+      }
+      throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + parts.name() + " solve,"
+          + " level by level over super-blocks of " + FACTOR + "^level blocks per axis, still"
+          + " leaves the driver a graph with more than solve.maxDriverEdges = " + maxDriverEdges
+          + " pairs (" + e.getMessage() + "); raise solve.maxDriverEdges", e);
+    }
     RepresentativeMaps reps = levels.representatives();
     long[] segmentCounts = new long[grid.blockCount()];
     int nodes = 0;
