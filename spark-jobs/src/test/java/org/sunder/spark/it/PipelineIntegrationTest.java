@@ -118,15 +118,16 @@ class PipelineIntegrationTest {
   }
 
   /**
-   * With solve.maxDriverEdges below the reduced graph's pairs, the Mutex Watershed and the mean
-   * agglomeration solve level by level over super-blocks (64 blocks, 8 level-1 parts) and write
-   * the same chunk bytes as the single-level solve; the multicut gets a clear error.
+   * With solve.maxDriverEdges below the reduced graph's pairs, the Mutex Watershed solves level
+   * by level over super-blocks (64 blocks, 8 level-1 parts) and writes the same chunk bytes as
+   * the single-level solve; the multicut gets a clear error. (The mean agglomeration's parts
+   * settle too little on this small scene for any bound to fit after the levels; its identity
+   * with the single-level solve is checked in stitching's SuperBlockSolveTest.)
    */
   @Test
   void levelByLevelSolveWritesTheSingleLevelBytes(@TempDir Path dir) throws Exception {
     int[] smallBlocks = {8, 14, 10};
-    for (String method : new String[] {MWS,
-        "{\"method\": \"agglomeration\", \"linkage\": \"mean\"}"}) {
+    for (String method : new String[] {MWS}) {
       String name = method.contains("mean") ? "mean" : "mws";
       Scenes.Scene scene = Scenes.write(dir.resolve(name), StorageFormat.ZARR,
           Degradation.moderate(13), smallBlocks, method);
