@@ -20,7 +20,7 @@ import org.sunder.blockwise.grid.IdLayout;
  * @param finalIdCount the number of distinct final ids
  */
 public record FinalIdMap(IdLayout layout, long[][] finalIds, long finalIdCount)
-    implements Serializable {
+    implements IdRelabel, Serializable {
 
   /** The final id of {@code value} if it is provisional, else {@code value} itself. */
   public long apply(long value) {
@@ -37,7 +37,7 @@ public record FinalIdMap(IdLayout layout, long[][] finalIds, long finalIdCount)
     return finalIds[block][(int) local];
   }
 
-  /** Relabels {@code labels} in place; returns how many values changed. */
+  @Override
   public int applyInPlace(long[] labels) {
     int changed = 0;
     for (int i = 0; i < labels.length; i++) {

@@ -33,8 +33,16 @@ import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 public final class GlobalSolve {
   private GlobalSolve() {}
 
-  /** The final id map and the figures of the solve. */
-  public record Result(FinalIdMap finalIds, SolveReport report) implements Serializable {}
+  /**
+   * The final ids of the solved segments (with each block's offset) and the figures of the
+   * solve.
+   */
+  public record Result(SolvedFinalIds solved, SolveReport report) implements Serializable {
+    /** Every block's map as one value (a number per segment: tests and in-process runs). */
+    public FinalIdMap finalIds() {
+      return solved.toMap();
+    }
+  }
 
   /** Solves the setup's run from every block's summary and every face's seam edges. */
   public static Result run(StitchingSetup setup, List<BlockSummary> summaries,
@@ -51,15 +59,19 @@ public final class GlobalSolve {
     ReducedGraph graph = ReducedGraph.assemble(layout, blocks, seams);
     ReducedGraphSolver solver = solverFor(config);
     int[] clusters = clustersJoiningContinuations(graph, solver);
-    FinalIdMap map;
+    FinalIds.requireComplete(blockCount, blocks);
+    long[] segmentCounts = new long[blockCount];
+    for (BlockSummary s : blocks) {
+      segmentCounts[s.block()] = s.segmentCount();
+    }
+    SolvedFinalIds map;
     if (config.minSegmentSize() > 1) {
-      FinalIds.requireComplete(blockCount, blocks);
       FinalSizeFilter.Result filtered =
           FinalSizeFilter.apply(layout, blocks, graph, clusters, config);
-      map = FinalIds.assign(layout, blockCount, blocks, graph, filtered.clusterOfNode(),
+      map = solvedWithJoined(layout, segmentCounts, graph.nodeIds(), filtered.clusterOfNode(),
           filtered.joinedIds(), filtered.joinedCluster());
     } else {
-      map = FinalIds.assign(layout, blockCount, blocks, graph, clusters);
+      map = SolvedFinalIds.number(layout, segmentCounts, graph.nodeIds(), clusters);
     }
     double seconds = (System.nanoTime() - start) / 1e9;
     long segments = 0;
@@ -69,6 +81,28 @@ public final class GlobalSolve {
     SolveReport report = new SolveReport(solver.name(), segments, graph.nodeCount(),
         graph.edges().size(), map.finalIdCount(), seconds);
     return new Result(map, report);
+  }
+
+  /**
+   * The solved segments' final ids when a size filter joined segments outside the reduced graph
+   * ({@code joinedIds}, ascending) to its clusters: both lists merged in ascending id. O(n).
+   */
+  static SolvedFinalIds solvedWithJoined(IdLayout layout, long[] segmentCounts, long[] nodeIds,
+      int[] clusterOfNode, long[] joinedIds, int[] joinedCluster) {
+    long[] ids = new long[nodeIds.length + joinedIds.length];
+    int[] clusters = new int[ids.length];
+    int i = 0;
+    int j = 0;
+    for (int k = 0; k < ids.length; k++) {
+      if (j >= joinedIds.length || i < nodeIds.length && nodeIds[i] < joinedIds[j]) {
+        ids[k] = nodeIds[i];
+        clusters[k] = clusterOfNode[i++];
+      } else {
+        ids[k] = joinedIds[j];
+        clusters[k] = joinedCluster[j++];
+      }
+    }
+    return SolvedFinalIds.number(layout, segmentCounts, ids, clusters);
   }
 
   /**

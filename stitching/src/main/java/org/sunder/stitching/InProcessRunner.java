@@ -25,8 +25,11 @@ public final class InProcessRunner {
       seams.add(SeamTask.run(setup, f));
     }
     GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
-    for (long c = 0; c < grid.chunkCount(); c++) {
-      RelabelTask.run(setup, grid.chunkPosition(c), result.finalIds());
+    for (int b = 0; b < grid.blockCount(); b++) {
+      BlockIdMap map = result.solved().blockMap(b);
+      for (long[] chunk : grid.chunkPositionsOf(b)) {
+        RelabelTask.run(setup, chunk, map);
+      }
     }
     return result;
   }

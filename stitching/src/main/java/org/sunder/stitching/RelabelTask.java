@@ -18,12 +18,12 @@ public final class RelabelTask {
   private RelabelTask() {}
 
   /** Relabels chunk {@code chunkPosition} of the setup's label dataset; returns voxels changed. */
-  public static long run(StitchingSetup setup, long[] chunkPosition, FinalIdMap map) {
+  public static long run(StitchingSetup setup, long[] chunkPosition, IdRelabel map) {
     return relabel(setup.openLabels(), chunkPosition, map);
   }
 
   /** Relabels one chunk of {@code labels} (UINT64); returns the number of voxels changed. */
-  public static long relabel(Dataset labels, long[] chunkPosition, FinalIdMap map) {
+  public static long relabel(Dataset labels, long[] chunkPosition, IdRelabel map) {
     if (labels.dataType() != DataType.UINT64) {
       throw new SunderException(ErrorKind.INVALID_INPUT, labels + ": label datasets are UINT64,"
           + " this one is " + labels.dataType());

@@ -19,7 +19,8 @@ public final class SolveDecisions {
   private SolveDecisions() {}
 
   /** The decisions in ascending margin, at most {@code perKind} joins and {@code perKind} cuts. */
-  public static List<SolveDecision> leastCertain(List<SeamEdges> seams, FinalIdMap finalIds,
+  public static List<SolveDecision> leastCertain(List<SeamEdges> seams,
+      java.util.function.LongUnaryOperator finalIds,
       int perKind, long minVoxelEdges) {
     Objects.requireNonNull(finalIds, "finalIds");
     if (perKind < 0) {
@@ -35,8 +36,8 @@ public final class SolveDecisions {
         }
         long a = Math.min(edges.u(i), edges.v(i));
         long b = Math.max(edges.u(i), edges.v(i));
-        long fa = finalIds.apply(a);
-        long fb = finalIds.apply(b);
+        long fa = finalIds.applyAsLong(a);
+        long fb = finalIds.applyAsLong(b);
         SolveDecision d = new SolveDecision(fa == fb, seam.face(), a, b, fa, fb,
             edges.count(i), edges.mean(i));
         (d.joined() ? joins : cuts).add(d);

@@ -27,7 +27,7 @@ class SolveDecisionsTest {
     acc.add(a2, b1, 8 * 0.5, 8, 0.5, 0.5);      // cut against attraction: margin -0.5
     acc.add(a1, b2, 2 * 3.0, 2, 3, 3);          // grazing: below 4 edges, left out
     List<SolveDecision> d = SolveDecisions.leastCertain(
-        List.of(new SeamEdges(7, acc.build())), map, 5, 4);
+        List.of(new SeamEdges(7, acc.build())), map::apply, 5, 4);
     assertEquals(3, d.size());
     assertEquals(false, d.get(0).joined());
     assertEquals(-0.5, d.get(0).margin(), 1e-12);
@@ -61,8 +61,8 @@ class SolveDecisionsTest {
       }
       seams.add(new SeamEdges(f, acc.build()));
     }
-    List<SolveDecision> d = SolveDecisions.leastCertain(seams, map, 6, 3);
-    List<SolveDecision> all = SolveDecisions.leastCertain(seams, map, Integer.MAX_VALUE, 3);
+    List<SolveDecision> d = SolveDecisions.leastCertain(seams, map::apply, 6, 3);
+    List<SolveDecision> all = SolveDecisions.leastCertain(seams, map::apply, Integer.MAX_VALUE, 3);
     for (boolean joined : new boolean[] {true, false}) {
       List<SolveDecision> kind = all.stream().filter(x -> x.joined() == joined).toList();
       assertEquals(kind.subList(0, Math.min(6, kind.size())),

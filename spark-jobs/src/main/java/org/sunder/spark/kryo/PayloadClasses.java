@@ -34,5 +34,7 @@ public final class PayloadClasses {
       org.sunder.stitching.SolveReport.class,
       org.sunder.stitching.GlobalSolve.Result.class,
       org.sunder.blockwise.metrics.SeamPlanes.class,
-      org.sunder.blockwise.metrics.SeamTally.class);
+      org.sunder.blockwise.metrics.SeamTally.class,
+      org.sunder.stitching.BlockSummaryFile.Stored.class,
+      org.sunder.stitching.SeamEdgesFile.Stored.class);
 }

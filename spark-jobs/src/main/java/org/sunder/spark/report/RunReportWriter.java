@@ -39,6 +39,7 @@ import org.sunder.stitching.EvaluationTarget;
 import org.sunder.stitching.GlobalSolve;
 import org.sunder.stitching.LabelPyramid;
 import org.sunder.stitching.SolveDecision;
+import org.sunder.stitching.SolveReport;
 
 /**
  * Writes a run's report, {@code report.html} in its work dir: one self-contained page with the
@@ -230,14 +231,10 @@ public final class RunReportWriter {
   }
 
   private void segments(ReportPage page) {
-    List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
-    for (int b = 0; b < grid.blockCount(); b++) {
-      summaries.add(CODEC.decode(work.ledger(Stage.PARTITION).read(b), BlockSummary.class,
-          "partition record " + b));
-    }
-    GlobalSolve.Result solve = CODEC.decode(work.ledger(Stage.SOLVE).read(0),
-        GlobalSolve.Result.class, "solve record");
-    long[] sizes = SegmentSizes.of(summaries, solve.finalIds());
+    SolveReport solve = CODEC.decode(work.ledger(Stage.SOLVE).read(0), SolveReport.class,
+        "solve record");
+    long[] sizes = SegmentSizes.of(work, grid.blockCount(), s.setup().idLayout(),
+        solve.finalIdCount());
     long[] nonEmpty = Arrays.stream(sizes, 1, sizes.length).filter(v -> v > 0).sorted().toArray();
     page.heading("Segments");
     if (nonEmpty.length == 0) {
@@ -247,8 +244,8 @@ public final class RunReportWriter {
     page.paragraph(String.format(Locale.ROOT, "%d segments; sizes from %d to %d voxels,"
         + " median %d. The solve (%s) joined %d provisional segments into %d final ids.",
         nonEmpty.length, nonEmpty[0], nonEmpty[nonEmpty.length - 1],
-        nonEmpty[nonEmpty.length / 2], solve.report().method(), solve.report().segmentCount(),
-        solve.report().finalIdCount()));
+        nonEmpty[nonEmpty.length / 2], solve.method(), solve.segmentCount(),
+        solve.finalIdCount()));
     page.figure(Charts.sizeHistogram(SegmentSizes.log2Histogram(sizes), 640, 400),
         "Segment size histogram, log–log: segments per size bin (each bin spans a factor 2).");
   }

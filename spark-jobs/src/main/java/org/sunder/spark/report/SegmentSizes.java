@@ -1,29 +1,41 @@
 package org.sunder.spark.report;
 
-import java.util.List;
-import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.FinalIdMap;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.spark.stage.StageFiles;
+import org.sunder.spark.workdir.WorkDir;
 
 /**
  * The size of every final segment, from the partition stage's block summaries (voxels per local
- * id in each core) and the solve's final id map, without reading the segmentation.
+ * id in each core) and each block's final id map, without reading the segmentation.
  * O(provisional ids).
  */
 public final class SegmentSizes {
   private SegmentSizes() {}
 
-  /** {@code sizes[id]} voxels of final id {@code id}; index 0 unused. */
-  public static long[] of(List<BlockSummary> summaries, FinalIdMap map) {
-    long[] sizes = new long[Math.toIntExact(map.finalIdCount() + 1)];
-    for (BlockSummary s : summaries) {
-      long[] ids = map.finalIds()[s.block()];
-      long[] local = s.segmentSizes();
-      for (int k = 1; k <= local.length; k++) {
-        sizes[(int) ids[k]] += local[k - 1];
-      }
+  /**
+   * {@code sizes[id]} voxels of final id {@code id}; index 0 unused. Reads one block's summary
+   * and map at a time; holds one number per final id.
+   */
+  public static long[] of(WorkDir work, int blockCount, IdLayout layout, long finalIdCount) {
+    long[] sizes = new long[Math.toIntExact(finalIdCount + 1)];
+    for (int b = 0; b < blockCount; b++) {
+      addBlock(sizes, StageFiles.blockMap(work, layout, b).finalIds(),
+          StageFiles.summary(work, b).segmentSizes());
     }
     sizes[0] = 0;
     return sizes;
+  }
+
+  /**
+   * Adds one block's segments to {@code sizes}.
+   *
+   * @param finalIds the block's map, per local id (index 0 unused)
+   * @param segmentSizes voxels per local id ({@code segmentSizes[k - 1]})
+   */
+  public static void addBlock(long[] sizes, long[] finalIds, long[] segmentSizes) {
+    for (int k = 1; k <= segmentSizes.length; k++) {
+      sizes[(int) finalIds[k]] += segmentSizes[k - 1];
+    }
   }
 
   /**

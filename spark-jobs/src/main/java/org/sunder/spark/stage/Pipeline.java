@@ -23,8 +23,7 @@ import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.stitching.EvaluateTask;
 import org.sunder.stitching.EvaluationTarget;
-import org.sunder.stitching.FinalIdMap;
-import org.sunder.stitching.GlobalSolve;
+import org.sunder.stitching.SolveReport;
 
 /**
  * Runs the stages of a prepared run on Spark, in order: partition (per block), seams (per
@@ -76,7 +75,7 @@ public final class Pipeline {
     SolveStep solve = new SolveStep(sc, work, out, hooks);
     BlockGrid grid = settings.grid();
     List<StageReport> reports = new ArrayList<>();
-    GlobalSolve.Result solved = null;
+    SolveReport solved = null;
     SegmentationScores scores = null;
     boolean single = stages.size() == 1;
     for (Stage stage : Stage.values()) {
@@ -94,9 +93,7 @@ public final class Pipeline {
           if (solved == null) {
             solved = solve.recorded();
           }
-          Broadcast<FinalIdMap> map = sc.broadcast(solved.finalIds());
-          reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Relabel(map)));
-          map.destroy();
+          reports.add(runner.run(stage, grid.blockCount(), new StageBodies.Relabel()));
         }
         case EVALUATE -> {
           if (settings.evaluates()) {
@@ -120,7 +117,7 @@ public final class Pipeline {
     if (complete && (stages.contains(Stage.RELABEL) || stages.contains(Stage.EVALUATE))) {
       seams = SeamAuditJob.audit(sc, auditTarget(settings), settings.blockShape());
     }
-    RunReport report = new RunReport(settings, reports, solved == null ? null : solved.report(),
+    RunReport report = new RunReport(settings, reports, solved,
         scores, seams, (System.nanoTime() - start) / 1e9);
     return report;
   }

@@ -13,11 +13,15 @@ import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.BlockIdMapFile;
 import org.sunder.stitching.BlockSummary;
 import org.sunder.stitching.GlobalSolve;
 import org.sunder.stitching.SeamEdges;
 import org.sunder.stitching.SolveDecisions;
+import org.sunder.stitching.SolveReport;
+import org.sunder.stitching.SolvedFinalIds;
 import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.SuperBlockSolve;
 
 /**
  * The solve stage on the driver: checks the reduced graph's size against
@@ -39,7 +43,7 @@ final class SolveStep {
   }
 
   /** The recorded result, running the solve first if no earlier run recorded it. */
-  GlobalSolve.Result run(RunSettings settings, List<StageReport> reports) {
+  SolveReport run(RunSettings settings, List<StageReport> reports) {
     StageLedger ledger = work.ledger(Stage.SOLVE);
     if (ledger.isFinished(0)) {
       out.println("solve: finished in an earlier run, skipped");
@@ -51,34 +55,49 @@ final class SolveStep {
     hooks.beforeTask(Stage.SOLVE.cliName(), 0, work.root());
     BlockGrid grid = settings.grid();
     long edges = countEdges(grid);
-    if (edges > settings.maxDriverEdges()) {
-      throw new ConfigException("the reduced graph has up to " + edges + " edges, more than"
-          + " solve.maxDriverEdges = " + settings.maxDriverEdges() + " allows on the driver"
-          + " (about 100 bytes each); raise solve.maxDriverEdges if the driver has the memory,"
-          + " or use larger blocks (blocks.shape) for fewer boundary segments");
-    }
     StitchingSetup setup = settings.setup();
-    List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
-    for (int b = 0; b < grid.blockCount(); b++) {
-      summaries.add(codec.decode(work.ledger(Stage.PARTITION).read(b), BlockSummary.class,
-          "partition record " + b));
+    GlobalSolve.Result result;
+    if (edges > settings.maxDriverEdges()) {
+      if (!SuperBlockSolve.supports(setup.partition())) {
+        SuperBlockSolve.requireFits(setup.partition(), edges, settings.maxDriverEdges());
+      }
+      out.println("solve: the reduced graph has up to " + edges + " pairs, more than"
+          + " solve.maxDriverEdges = " + settings.maxDriverEdges() + "; solving it level by"
+          + " level over super-blocks");
+      result = SuperBlockSolve.run(setup, edges, settings.maxDriverEdges(),
+          b -> StageFiles.summary(work, b), f -> StageFiles.seams(work, f),
+          ledger.dir().resolve("levels"));
+      writeParts(grid, result.solved());
+      DecisionsFile.write(ledger, List.of());
+    } else {
+      List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
+      for (int b = 0; b < grid.blockCount(); b++) {
+        summaries.add(StageFiles.summary(work, b));
+      }
+      List<SeamEdges> seams = new ArrayList<>(grid.faceCount());
+      for (int f = 0; f < grid.faceCount(); f++) {
+        seams.add(StageFiles.seams(work, f));
+      }
+      result = GlobalSolve.run(setup, summaries, seams);
+      writeParts(grid, result.solved());
+      DecisionsFile.write(ledger, SolveDecisions.leastCertain(seams, result.solved()::finalIdOf,
+          DecisionsFile.PER_KIND, DecisionsFile.MIN_VOXEL_EDGES));
     }
-    List<SeamEdges> seams = new ArrayList<>(grid.faceCount());
-    for (int f = 0; f < grid.faceCount(); f++) {
-      seams.add(codec.decode(work.ledger(Stage.SEAMS).read(f), SeamEdges.class,
-          "seams record " + f));
-    }
-    GlobalSolve.Result result = GlobalSolve.run(setup, summaries, seams);
-    DecisionsFile.write(ledger, SolveDecisions.leastCertain(seams, result.finalIds(),
-        DecisionsFile.PER_KIND, DecisionsFile.MIN_VOXEL_EDGES));
     ledger.recordTiming(0, startMillis, (System.nanoTime() - start) / 1e9);
-    ledger.record(0, codec.encode(result));
+    ledger.record(0, codec.encode(result.report()));
     reports.add(new StageReport(Stage.SOLVE, 1, 0, 1, (System.nanoTime() - start) / 1e9));
-    return result;
+    return result.report();
   }
 
-  GlobalSolve.Result recorded() {
-    return codec.decode(work.ledger(Stage.SOLVE).read(0), GlobalSolve.Result.class,
+  /** Each block's share of the final ids, for its relabel task. */
+  private void writeParts(BlockGrid grid, SolvedFinalIds solved) {
+    for (int b = 0; b < grid.blockCount(); b++) {
+      BlockIdMapFile.writePart(StageFiles.solvedPartFile(work, b), solved.part(b));
+    }
+  }
+
+  SolveReport recorded() {
+    return codec.decode(work.ledger(Stage.SOLVE).read(0), SolveReport.class,
         "solve record");
   }
 

@@ -1,15 +1,19 @@
 package org.sunder.spark.stage;
 
 import java.util.List;
-import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.BlockIdMap;
+import org.sunder.stitching.BlockSummary;
+import org.sunder.stitching.BlockSummaryFile;
 import org.sunder.stitching.EvaluateTask;
 import org.sunder.stitching.EvaluationTarget;
-import org.sunder.stitching.FinalIdMap;
 import org.sunder.stitching.PartitionTask;
 import org.sunder.stitching.RelabelTask;
+import org.sunder.stitching.SeamEdges;
+import org.sunder.stitching.SeamEdgesFile;
 import org.sunder.stitching.SeamTask;
 import org.sunder.stitching.StitchingSetup;
 
@@ -17,39 +21,49 @@ import org.sunder.stitching.StitchingSetup;
 final class StageBodies {
   private StageBodies() {}
 
-  /** Partition: block index -> provisional ids written, {@code BlockSummary} returned. */
+  /**
+   * Partition: block index -> provisional ids written, the block summary written to the work
+   * dir ({@link StageFiles#summaryFile}), its figures and checksum returned.
+   */
   static final class Partition implements TaskBody {
     private static final long serialVersionUID = 1L;
 
     @Override
     public Object run(RunSettings settings, int block) {
-      return PartitionTask.run(settings.setup(), block);
+      BlockSummary summary = PartitionTask.run(settings.setup(), block);
+      return BlockSummaryFile.write(
+          StageFiles.summaryFile(new WorkDir(settings.workDirPath()), block), summary);
     }
   }
 
-  /** Seams: face index -> {@code SeamEdges}. */
+  /**
+   * Seams: face index -> the face's seam edges written to the work dir
+   * ({@link StageFiles#seamFile}), their figures and checksum returned.
+   */
   static final class Seams implements TaskBody {
     private static final long serialVersionUID = 1L;
 
     @Override
     public Object run(RunSettings settings, int face) {
-      return SeamTask.run(settings.setup(), face);
+      SeamEdges seams = SeamTask.run(settings.setup(), face);
+      return SeamEdgesFile.write(StageFiles.seamFile(new WorkDir(settings.workDirPath()), face),
+          seams);
     }
   }
 
-  /** Relabel: every chunk of one block's core rewritten with final ids; returns voxels changed. */
+  /**
+   * Relabel: every chunk of one block's core rewritten with final ids, from that block's map
+   * alone ({@link StageFiles#blockMap}: its segment count and its share of the solve's
+   * numbering); returns voxels changed.
+   */
   static final class Relabel implements TaskBody {
     private static final long serialVersionUID = 1L;
-    private final Broadcast<FinalIdMap> map;
-
-    Relabel(Broadcast<FinalIdMap> map) {
-      this.map = map;
-    }
 
     @Override
     public Object run(RunSettings settings, int block) {
       StitchingSetup setup = settings.setup();
-      FinalIdMap ids = map.value();
+      BlockIdMap ids = StageFiles.blockMap(new WorkDir(settings.workDirPath()), setup.idLayout(),
+          block);
       long changed = 0;
       List<long[]> chunks = setup.grid().chunkPositionsOf(block);
       for (long[] chunk : chunks) {

@@ -117,18 +117,21 @@ public final class StageLedger {
     return done;
   }
 
-  /** Removes every record of this stage. */
+  /**
+   * Removes every record of this stage, with the files its tasks left beside them (the solve's
+   * level files sit in a subdirectory).
+   */
   public void clear() {
     if (!Files.isDirectory(dir)) {
       return;
     }
-    try (DirectoryStream<Path> files = Files.newDirectoryStream(dir)) {
-      for (Path file : files) {
+    try (java.util.stream.Stream<Path> walk = Files.walk(dir)) {
+      for (Path file : walk.sorted(java.util.Comparator.reverseOrder()).toList()) {
         Files.delete(file);
       }
-      Files.delete(dir);
     } catch (IOException e) {
       throw new SunderException(ErrorKind.STORAGE, "cannot clear " + dir + ": " + e, e);
     }
   }
+
 }

@@ -8,6 +8,7 @@ import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.Locale;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
@@ -82,6 +83,95 @@ class PipelineIntegrationTest {
       assertArrayEquals(local, spark, format + ": Spark and in-process final ids differ");
       assertTrue(java.util.Arrays.stream(spark).allMatch(v -> v > 0), "every voxel labelled");
     }
+  }
+
+  /**
+   * Block summaries and seam edges reach the solve through files in the work dir: each task's
+   * record holds a few figures and its file's checksum, however large the block.
+   */
+  @Test
+  void tablesGoToTheWorkDirAndTaskRecordsStaySmall(@TempDir Path dir) {
+    Scenes.Scene scene = Scenes.write(dir, StorageFormat.ZARR, Degradation.moderate(13),
+        CHUNK_XYZ, MWS);
+    run("run", scene.config().toString());
+    org.sunder.spark.workdir.WorkDir work = new org.sunder.spark.workdir.WorkDir(
+        scene.container().resolveSibling(scene.container().getFileName() + ".sunder-work")
+            .resolve("segmentation"));
+    long segments = 0;
+    for (int b = 0; b < 8; b++) {
+      int size = work.ledger(org.sunder.spark.workdir.Stage.PARTITION).read(b).length;
+      assertTrue(size < 128, "partition record " + b + " has " + size + " bytes");
+      org.sunder.stitching.BlockSummaryFile.Stored stored =
+          org.sunder.spark.stage.StageFiles.summaryRecord(work, b);
+      org.sunder.stitching.BlockSummary summary =
+          org.sunder.spark.stage.StageFiles.summary(work, b);
+      assertEquals(summary.segmentCount(), stored.segments());
+      assertEquals(b, summary.block());
+      segments += summary.segmentCount();
+    }
+    assertTrue(segments > 8, "the blocks have segments: " + segments);
+    for (int f = 0; f < 12; f++) {
+      int size = work.ledger(org.sunder.spark.workdir.Stage.SEAMS).read(f).length;
+      assertTrue(size < 128, "seams record " + f + " has " + size + " bytes");
+      assertEquals(f, org.sunder.spark.stage.StageFiles.seams(work, f).face());
+    }
+  }
+
+  /**
+   * With solve.maxDriverEdges below the reduced graph's pairs, the Mutex Watershed solves level
+   * by level over super-blocks (64 blocks, 8 level-1 parts) and writes the same chunk bytes as
+   * the single-level solve; the multicut gets a clear error. (The mean agglomeration's parts
+   * settle too little on this small scene for any bound to fit after the levels; its identity
+   * with the single-level solve is checked in stitching's SuperBlockSolveTest.)
+   */
+  @Test
+  void levelByLevelSolveWritesTheSingleLevelBytes(@TempDir Path dir) throws Exception {
+    int[] smallBlocks = {8, 14, 10};
+    for (String method : new String[] {MWS}) {
+      String name = method.contains("mean") ? "mean" : "mws";
+      Scenes.Scene scene = Scenes.write(dir.resolve(name), StorageFormat.ZARR,
+          Degradation.moderate(13), smallBlocks, method);
+      run("run", scene.config().toString());
+      List<String> single = Scenes.chunkFiles(scene.container().resolve("segmentation"));
+      org.sunder.spark.workdir.WorkDir work = new org.sunder.spark.workdir.WorkDir(
+          scene.container().resolveSibling(scene.container().getFileName() + ".sunder-work")
+              .resolve("segmentation"));
+      long pairs = 0;
+      for (int b = 0; b < 64; b++) {
+        pairs += org.sunder.spark.stage.StageFiles.summaryRecord(work, b).pairs();
+      }
+      // the same scene in another container, solved under bounds below its pairs
+      Scenes.Scene other = Scenes.write(dir.resolve(name + "-bounded"), StorageFormat.ZARR,
+          Degradation.moderate(13), smallBlocks, method);
+      String json = java.nio.file.Files.readString(other.config());
+      boolean leveled = false;
+      for (long bound = pairs * 7 / 8; bound > pairs / 16 && !leveled; bound = bound * 3 / 4) {
+        java.nio.file.Files.writeString(other.config(), json.replace("\"evaluate\"",
+            "\"solve\": {\"maxDriverEdges\": " + bound + "}, \"evaluate\""));
+        CliRun bounded = CliRun.with(SparkContextSource.shared(sc), "run", "--fresh",
+            other.config().toString());
+        if (bounded.exitCode() != 0) {
+          assertTrue(bounded.err().contains("solve.maxDriverEdges = " + bound), bounded.err());
+          continue;
+        }
+        assertTrue(bounded.out().contains("solving it level by level over super-blocks"),
+            bounded.out());
+        leveled = !bounded.out().contains("(0 levels");
+        assertEquals(single, Scenes.chunkFiles(other.container().resolve("segmentation")),
+            method + " bound " + bound);
+      }
+      assertTrue(leveled, method + ": no bound made a level");
+    }
+    Scenes.Scene scene = Scenes.write(dir.resolve("multicut"), StorageFormat.ZARR,
+        Degradation.moderate(13), smallBlocks, "{\"method\": \"fragments-multicut\"}");
+    String json = java.nio.file.Files.readString(scene.config());
+    java.nio.file.Files.writeString(scene.config(), json.replace("\"evaluate\"",
+        "\"solve\": {\"maxDriverEdges\": 5}, \"evaluate\""));
+    CliRun multicut = CliRun.with(SparkContextSource.shared(sc), "run",
+        scene.config().toString());
+    assertEquals(2, multicut.exitCode(), multicut.err());
+    assertTrue(multicut.err().contains("fragments-multicut solve needs the whole reduced graph"),
+        multicut.err());
   }
 
   @Test

@@ -12,19 +12,17 @@ import java.util.List;
 import java.util.Set;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.EdgeStatistics;
-import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.FinalIdMap;
 
 class ReportPartsTest {
 
   @Test
   void segmentSizesAddUpThePiecesOfEachFinalId() {
-    IdLayout layout = new IdLayout(10);
     // block 0: pieces 5 and 7 voxels; block 1: 4, 9, 1 voxels. Final: 1 = 0:1 + 1:2, 2 = 0:2, 3 = 1:1 + 1:3
-    FinalIdMap map = new FinalIdMap(layout, new long[][] {{0, 1, 2}, {0, 3, 1, 3}}, 3);
-    List<BlockSummary> summaries = List.of(summary(0, 5, 7), summary(1, 4, 9, 1));
-    assertArrayEquals(new long[] {0, 14, 7, 5}, SegmentSizes.of(summaries, map));
+    long[] sizes = new long[4];
+    SegmentSizes.addBlock(sizes, new long[] {0, 1, 2}, summary(0, 5, 7).segmentSizes());
+    SegmentSizes.addBlock(sizes, new long[] {0, 3, 1, 3}, summary(1, 4, 9, 1).segmentSizes());
+    assertArrayEquals(new long[] {0, 14, 7, 5}, sizes);
   }
 
   private static BlockSummary summary(int block, long... sizes) {
