@@ -77,4 +77,12 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
   public long bytes() {
     return extendedVoxels * ((long) channels * bytesPerValue + otherBytesPerVoxel());
   }
+
+  /**
+   * The solve's seconds for a reduced graph of {@code edges} edges: the method's own cost per
+   * edge ({@link PartitionMethod#solveNanosPerEdge}, which names where it was measured).
+   */
+  public static double solveSeconds(StitchingSetup setup, long edges) {
+    return edges * setup.partition().method().solveNanosPerEdge() / 1e9;
+  }
 }

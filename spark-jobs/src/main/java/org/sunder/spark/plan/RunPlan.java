@@ -11,6 +11,7 @@ import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.BlockShapeChoice;
 import org.sunder.blockwise.grid.HaloShortfall;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ByteSize;
 import org.sunder.spark.progress.ProgressTracker;
@@ -18,6 +19,7 @@ import org.sunder.spark.run.BlockShapeOrigin;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.run.TaskBudget;
 import org.sunder.spark.stage.PyramidStep;
+import org.sunder.stitching.LabelPyramid;
 import org.sunder.stitching.PartitionEstimate;
 import org.sunder.stitching.PartitionSample;
 
@@ -102,10 +104,10 @@ public final class RunPlan {
           + " edges", Arrays.toString(axes.toFile(block.gridPosition())), voxelBox(block, axes),
           axes, measured.seconds(), measured.readSeconds(), measured.segments(),
           measured.boundarySegments(), measured.innerEdges()));
-      for (String line : stageTimes(s, measured, cores)) {
+      long edges = reducedGraphEdges(grid, measured);
+      for (String line : stageTimes(s, measured, edges, cores)) {
         out.println(line);
       }
-      long edges = reducedGraphEdges(grid, measured);
       out.println(String.format(Locale.ROOT, "driver     reduced graph about %d edges (estimate:"
           + " the sample's inner edges per block, and %s seam edge per boundary segment near"
           + " a face), %.1f%% of solve.maxDriverEdges = %d", edges,
@@ -129,7 +131,8 @@ public final class RunPlan {
    * One line per stage with its work and wall time on {@code cores}, each naming what it was
    * extrapolated from, and a total.
    */
-  static List<String> stageTimes(RunSettings s, PartitionSample sample, int cores) {
+  static List<String> stageTimes(RunSettings s, PartitionSample sample, long graphEdges,
+      int cores) {
     BlockGrid grid = s.grid();
     List<String> lines = new ArrayList<>();
     double partition = sample.seconds();
@@ -139,8 +142,9 @@ public final class RunPlan {
     lines.add("           " + estimate("seams", grid.faceCount(), seam, cores) + ": the sample's"
         + " " + count(sample.seamFaces(), "face") + ", slab read and graph (label read and"
         + " aggregation not timed)");
-    lines.add("           solve      on the driver, not timed: it grows with the reduced graph"
-        + " (below)");
+    double solve = PartitionEstimate.solveSeconds(s.setup(), graphEdges);
+    lines.add("           " + estimate("solve", 1, solve, cores) + ": the reduced graph's"
+        + " estimated edges (below) at the method's measured cost per edge");
     double relabel = sample.relabelSeconds();
     lines.add("           " + estimate("relabel", grid.blockCount(), relabel, cores)
         + ": the sample's chunks read, mapped and rewritten");
@@ -151,9 +155,33 @@ public final class RunPlan {
           + ": as relabel (two chunk reads in place of a read and a write)");
       total += rounds(grid.blockCount(), cores) * relabel;
     }
-    lines.add("           total      about " + duration(total) + " on " + count(cores, "core")
-        + " without the solve and the pyramid");
+    double pyramid = pyramidSeconds(s, sample);
+    int pyramidTasks = PyramidStep.taskOffsets(PyramidStep.plan(s))[PyramidStep.plan(s)
+        .levelCount()];
+    if (pyramidTasks > 0) {
+      lines.add("           " + estimate("pyramid", pyramidTasks, pyramid / pyramidTasks, cores)
+          + ": the sample's relabel time per voxel, for the voxels each level reads");
+    }
+    total += solve + rounds(pyramidTasks, cores) * (pyramidTasks == 0 ? 0 : pyramid / pyramidTasks);
+    lines.add("           total      about " + duration(total) + " on " + count(cores, "core"));
     return lines;
+  }
+
+  /**
+   * The pyramid's work in seconds: each level reads the voxels of the level before, at the
+   * sample's relabel cost per voxel (a chunk read, mapped and written).
+   */
+  static double pyramidSeconds(RunSettings s, PartitionSample sample) {
+    if (sample.relabelVoxels() == 0) {
+      return 0;
+    }
+    LabelPyramid pyramid = PyramidStep.plan(s);
+    double perVoxel = sample.relabelSeconds() / sample.relabelVoxels();
+    double voxels = 0;
+    for (int level = 1; level < pyramid.levelCount(); level++) {
+      voxels += Shapes.elementCount(pyramid.shapes()[level - 1]);
+    }
+    return voxels * perVoxel;
   }
 
   /**

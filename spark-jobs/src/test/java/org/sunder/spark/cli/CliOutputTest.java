@@ -84,9 +84,11 @@ class CliOutputTest {
         + ": the sample block's partition\n"
         + " +seams      about .+ on 2 cores \\(12 tasks of about .+, 6 rounds\\): the sample's"
         + " 3 faces, .+\n"
-        + " +solve      on the driver, not timed.+\n"
+        + " +solve      about .+ on 2 cores \\(1 task of about .+\\): the reduced graph's estimated"
+        + " edges \\(below\\) at the method's measured cost per edge\n"
         + " +relabel    about .+ on 2 cores \\(8 tasks of about .+, 4 rounds\\): .+\n"
-        + " +total      about .+ on 2 cores without the solve and the pyramid\n"
+        + "(?: +pyramid    about .+ on 2 cores \\([0-9]+ tasks? of about .+\\): .+\n)?"
+        + " +total      about .+ on 2 cores\n"
         + "driver     reduced graph about ([0-9]+) edges \\(estimate: .+\\), [0-9.]+% of"
         + " solve.maxDriverEdges = 20000000\n").matcher(out);
     assertTrue(estimate.find(), out);

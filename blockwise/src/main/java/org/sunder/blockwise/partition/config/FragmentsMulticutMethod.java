@@ -63,4 +63,10 @@ public record FragmentsMulticutMethod() implements PartitionMethod {
   public int workingBytesPerVoxel() {
     return 150;
   }
+
+  /** {@inheritDoc} (the default run of a 192 x 512 x 512 dense-neurite preset: 147.3 s for 5.79 M reduced-graph edges on a shared 2-core machine) */
+  @Override
+  public double solveNanosPerEdge() {
+    return 25400;
+  }
 }

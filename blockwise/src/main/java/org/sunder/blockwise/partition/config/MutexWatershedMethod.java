@@ -63,4 +63,10 @@ public record MutexWatershedMethod() implements PartitionMethod {
   public int workingBytesPerVoxel() {
     return 600;
   }
+
+  /** {@inheritDoc} (HierarchicalSolveBenchmark, Mutex Watershed on 95.6 M reduced-graph edges: 1572 ns per edge (871 at 0.85 M)) */
+  @Override
+  public double solveNanosPerEdge() {
+    return 1570;
+  }
 }

@@ -83,6 +83,12 @@ public sealed interface PartitionMethod extends Serializable
    */
   int workingBytesPerVoxel();
 
+  /**
+   * CPU nanoseconds the reduced-graph solve spends per edge: the solve's time estimate in
+   * {@code plan}. Each method names the run its figure was measured on.
+   */
+  double solveNanosPerEdge();
+
   /** The global solve's solver for {@code config} (of this method). */
   ReducedGraphSolver solver(PartitionConfig config);
 
