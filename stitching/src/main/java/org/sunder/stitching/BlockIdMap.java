@@ -47,6 +47,7 @@ public record BlockIdMap(IdLayout layout, int block, long[] finalIds)
   }
 
   /** The final id of {@code value} if it is provisional, else {@code value} itself. */
+  @Override
   public long apply(long value) {
     if (!IdLayout.isProvisional(value)) {
       return value;
@@ -59,19 +60,6 @@ public record BlockIdMap(IdLayout layout, int block, long[] finalIds)
           + " partition stage");
     }
     return finalIds[(int) local];
-  }
-
-  @Override
-  public int applyInPlace(long[] labels) {
-    int changed = 0;
-    for (int i = 0; i < labels.length; i++) {
-      long value = labels[i];
-      if (IdLayout.isProvisional(value)) {
-        labels[i] = apply(value);
-        changed++;
-      }
-    }
-    return changed;
   }
 
   @Override

@@ -23,6 +23,7 @@ public record FinalIdMap(IdLayout layout, long[][] finalIds, long finalIdCount)
     implements IdRelabel, Serializable {
 
   /** The final id of {@code value} if it is provisional, else {@code value} itself. */
+  @Override
   public long apply(long value) {
     if (!IdLayout.isProvisional(value)) {
       return value;
@@ -35,19 +36,6 @@ public record FinalIdMap(IdLayout layout, long[][] finalIds, long finalIdCount)
           + ") was not produced by the partition stage of this run");
     }
     return finalIds[block][(int) local];
-  }
-
-  @Override
-  public int applyInPlace(long[] labels) {
-    int changed = 0;
-    for (int i = 0; i < labels.length; i++) {
-      long value = labels[i];
-      if (IdLayout.isProvisional(value)) {
-        labels[i] = apply(value);
-        changed++;
-      }
-    }
-    return changed;
   }
 
   /** The number of segments (provisional ids) the map knows. */
