@@ -3,6 +3,14 @@ package org.sunder.stitching;
 import java.util.ArrayList;
 import java.util.List;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.BlockIdMap;
+import org.sunder.stitching.solve.GlobalSolve;
+import org.sunder.stitching.solve.RelabelTask;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.PartitionTask;
+import org.sunder.stitching.task.SeamEdges;
+import org.sunder.stitching.task.SeamTask;
 
 /**
  * Runs the stages of a blockwise run one after another in this thread: a loop over the tasks

@@ -17,6 +17,10 @@ import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 import org.sunder.stitching.solve.BlockFinalIds;
 import org.sunder.stitching.solve.BlockFinalIds.BlockClusters;
 import org.sunder.stitching.solve.BlockFinalIds.Numbered;
+import org.sunder.stitching.solve.FinalIdMap;
+import org.sunder.stitching.solve.FinalIds;
+import org.sunder.stitching.solve.ReducedGraph;
+import org.sunder.stitching.task.BlockSummary;
 
 /**
  * Per-block final ids equal the single map's ({@link FinalIds}), are consecutive from 1, and do

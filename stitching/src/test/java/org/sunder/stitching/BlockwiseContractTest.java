@@ -19,6 +19,7 @@ import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * What a blockwise run promises for every partition method, run in-process ({@link

@@ -36,6 +36,13 @@ import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.GlobalSolve;
+import org.sunder.stitching.solve.RelabelTask;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.PartitionTask;
+import org.sunder.stitching.task.SeamEdges;
+import org.sunder.stitching.task.SeamTask;
 import org.sunder.testing.PythonReference;
 
 /** Whole runs through the store with the in-process runner, on small synthetic tissue. */

@@ -14,10 +14,18 @@ import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.GlobalSolve;
 import org.sunder.stitching.solve.HierarchicalSolve;
+import org.sunder.stitching.solve.HierarchicalSolver;
 import org.sunder.stitching.solve.LinkagePartSolver;
 import org.sunder.stitching.solve.MutexPartSolver;
+import org.sunder.stitching.solve.ReducedGraph;
 import org.sunder.stitching.solve.SuperBlocks;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.PartitionTask;
+import org.sunder.stitching.task.SeamEdges;
+import org.sunder.stitching.task.SeamTask;
 
 /**
  * On the reduced graph of a blockwise run over synthetic tissue (exact and degraded
@@ -25,7 +33,7 @@ import org.sunder.stitching.solve.SuperBlocks;
  * and the hierarchical mean agglomeration with the lowest bounds its parts reach, give the
  * single-level solve's partition.
  */
-class HierarchicalTissueTest {
+public class HierarchicalTissueTest {
   private static final long[] SHAPE = {64, 56, 20};
   private static final int[] CHUNK = {8, 8, 4};
   private static final int[] BLOCK = {16, 8, 4};
@@ -96,7 +104,7 @@ class HierarchicalTissueTest {
   }
 
   /** The largest bound (a power of 2) under which the solve uses {@code levels} levels. */
-  static long boundForLevels(ReducedGraph graph, SuperBlocks superBlocks, int edges,
+  public static long boundForLevels(ReducedGraph graph, SuperBlocks superBlocks, int edges,
       int levels) {
     for (long bound = Long.highestOneBit(edges); bound >= 1; bound /= 2) {
       HierarchicalSolver solver =

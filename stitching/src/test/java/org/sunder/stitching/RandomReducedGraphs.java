@@ -5,6 +5,7 @@ import java.util.Random;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.stitching.solve.ReducedGraph;
 
 /**
  * Random reduced graphs over a block grid for the solve tests: each block holds a few boundary
@@ -13,15 +14,15 @@ import org.sunder.blockwise.grid.IdLayout;
  * (every pair inside an object at +1, every pair across objects at -1, so ties are everywhere)
  * or noisy (the sign flips with some probability, magnitudes vary).
  */
-final class RandomReducedGraphs {
+public final class RandomReducedGraphs {
   private RandomReducedGraphs() {}
 
-  static BlockGrid grid(int gx, int gy, int gz) {
+  public static BlockGrid grid(int gx, int gy, int gz) {
     return BlockGrid.of(new long[] {8L * gx, 6L * gy, 4L * gz}, new int[] {4, 3, 2},
         new int[] {8, 6, 4}, new int[] {1, 1, 1});
   }
 
-  static ReducedGraph graph(BlockGrid grid, IdLayout layout, Random random, boolean exact,
+  public static ReducedGraph graph(BlockGrid grid, IdLayout layout, Random random, boolean exact,
       int maxSegmentsPerBlock, double pairsPerSegment) {
     int blocks = grid.blockCount();
     int[] count = new int[blocks];
@@ -122,7 +123,7 @@ final class RandomReducedGraphs {
   }
 
   /** The clusters renumbered by first occurrence, so that equal partitions give equal arrays. */
-  static int[] canonical(int[] clusters) {
+  public static int[] canonical(int[] clusters) {
     int max = 0;
     for (int c : clusters) {
       max = Math.max(max, c);

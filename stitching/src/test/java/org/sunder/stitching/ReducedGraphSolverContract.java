@@ -18,6 +18,9 @@ import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.GlobalSolve;
+import org.sunder.stitching.solve.ReducedGraph;
 
 /**
  * The contract every {@link ReducedGraphSolver} keeps, run against each implementation by a

@@ -11,15 +11,16 @@ import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /** Writes a {@link TissueScene} into a container and builds the setup of a run over it. */
-final class SceneStore {
+public final class SceneStore {
   private SceneStore() {}
 
   static final String AFFINITIES = "affinities";
   static final String LABELS = "segmentation";
 
-  static void write(TissueScene scene, Path root, StorageFormat format, int[] chunk) {
+  public static void write(TissueScene scene, Path root, StorageFormat format, int[] chunk) {
     Container container = Container.create(root, format);
     int c = scene.offsets.length;
     long[] shape = {scene.shape[0], scene.shape[1], scene.shape[2], c};
@@ -28,7 +29,7 @@ final class SceneStore {
         .write(ArrayImgs.floats(scene.affinities.clone(), shape), new long[4]);
   }
 
-  static StitchingSetup setup(TissueScene scene, Path root, int[] chunk, int[] block, int[] halo,
+  public static StitchingSetup setup(TissueScene scene, Path root, int[] chunk, int[] block, int[] halo,
       PartitionConfig config) {
     long[] volume = {scene.shape[0], scene.shape[1], scene.shape[2]};
     BlockGrid grid = BlockGrid.of(volume, chunk, block, halo);
@@ -53,7 +54,7 @@ final class SceneStore {
         .read(new net.imglib2.FinalInterval(min, max)).update(null)).getCurrentStorageArray();
   }
 
-  static int[][] offsets() {
+  public static int[][] offsets() {
     return new int[][] {{-1, 0, 0}, {0, -1, 0}, {0, 0, -1}, {-3, 0, 0}, {0, -3, 0},
         {0, 0, -2}, {-2, -2, 0}, {2, -2, -1}};
   }

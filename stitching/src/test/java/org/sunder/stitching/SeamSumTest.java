@@ -15,6 +15,8 @@ import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
+import org.sunder.stitching.solve.ReducedGraphTest;
+import org.sunder.stitching.task.SeamExtraction;
 
 /**
  * The seam statistics of all faces together are exactly the whole volume's edges between

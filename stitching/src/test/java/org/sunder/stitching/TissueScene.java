@@ -9,7 +9,7 @@ import org.sunder.blockwise.synth.SyntheticVolume;
  * A synthetic test volume (the synth package's tissue generator): ground truth, offsets and
  * affinities (exact, or degraded), arrays in memory order, affinities channel last.
  */
-final class TissueScene {
+public final class TissueScene {
   final int[] shape;
   final long[] groundTruth;
   final float[] affinities;
@@ -34,7 +34,7 @@ final class TissueScene {
   }
 
   /** The small synthetic tissue of the given shape and seed. */
-  static TissueScene small(long seed, long[] shape, Degradation degradation) {
+  public static TissueScene small(long seed, long[] shape, Degradation degradation) {
     return generate(SynthSpec.small(seed).withShape(shape), SceneStore.offsets(), degradation);
   }
 
@@ -42,7 +42,7 @@ final class TissueScene {
     return shape[0] * shape[1] * shape[2];
   }
 
-  static void position(int index, int[] shape, int[] out) {
+  public static void position(int index, int[] shape, int[] out) {
     out[0] = index % shape[0];
     out[1] = index / shape[0] % shape[1];
     out[2] = index / (shape[0] * shape[1]);

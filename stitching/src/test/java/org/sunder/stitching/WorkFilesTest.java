@@ -14,6 +14,10 @@ import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.BlockSummaryFile;
+import org.sunder.stitching.task.SeamEdges;
+import org.sunder.stitching.task.SeamEdgesFile;
 import org.sunder.testing.PythonReference;
 
 /** The work dir's block summary and seam edge files: round trips, damage, and their layout. */

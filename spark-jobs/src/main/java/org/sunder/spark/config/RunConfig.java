@@ -2,7 +2,7 @@ package org.sunder.spark.config;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.node.JsonNodeFactory;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * A run configuration as written in its JSON file. Every coordinate list is in the order that

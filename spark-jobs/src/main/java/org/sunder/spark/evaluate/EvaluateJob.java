@@ -9,8 +9,8 @@ import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.progress.ProgressListener;
-import org.sunder.stitching.EvaluateTask;
-import org.sunder.stitching.EvaluationTarget;
+import org.sunder.stitching.setup.EvaluationTarget;
+import org.sunder.stitching.task.EvaluateTask;
 
 /**
  * Scores any segmentation against any ground truth on Spark, outside a run: one

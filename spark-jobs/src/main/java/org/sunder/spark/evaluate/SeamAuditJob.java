@@ -8,8 +8,8 @@ import org.apache.spark.api.java.function.Function2;
 import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.metrics.SeamTally;
 import org.sunder.spark.progress.ProgressListener;
-import org.sunder.stitching.EvaluationTarget;
-import org.sunder.stitching.SeamAuditTask;
+import org.sunder.stitching.setup.EvaluationTarget;
+import org.sunder.stitching.task.SeamAuditTask;
 
 /**
  * Audits the seams of a segmentation on Spark ({@link SeamAudit}): one {@link SeamAuditTask}

@@ -15,26 +15,26 @@ public final class PayloadClasses {
    * offsets, partition method) sent once per run, where a compact encoding gains nothing.
    */
   public static final java.util.Set<Class<?>> JAVA_SERIALIZED =
-      java.util.Set.of(org.sunder.stitching.StitchingSetup.class);
+      java.util.Set.of(org.sunder.stitching.setup.StitchingSetup.class);
 
   /** Every payload class, including the arrays they hold. */
   public static final List<Class<?>> ALL = List.of(
       int[].class, long[].class, double[].class, float[].class, byte[].class, boolean[].class,
       int[][].class, long[][].class, String[].class, Object[].class,
       java.util.ArrayList.class, java.util.BitSet.class,
-      org.sunder.spark.run.RunSettings.class, org.sunder.stitching.StitchingSetup.class,
+      org.sunder.spark.run.RunSettings.class, org.sunder.stitching.setup.StitchingSetup.class,
       org.sunder.spark.run.BlockShapeOrigin.class, org.sunder.spark.run.TaskBudget.class,
       org.sunder.blockwise.grid.BlockShapeChoice.Limit.class,
       org.sunder.blockwise.graph.EdgeStatistics.class,
       org.sunder.blockwise.grid.IdLayout.class,
       org.sunder.blockwise.metrics.ContingencyTable.Pairs.class,
-      org.sunder.stitching.BlockSummary.class,
-      org.sunder.stitching.SeamEdges.class,
-      org.sunder.stitching.FinalIdMap.class,
-      org.sunder.stitching.SolveReport.class,
-      org.sunder.stitching.GlobalSolve.Result.class,
+      org.sunder.stitching.task.BlockSummary.class,
+      org.sunder.stitching.task.SeamEdges.class,
+      org.sunder.stitching.solve.FinalIdMap.class,
+      org.sunder.stitching.solve.SolveReport.class,
+      org.sunder.stitching.solve.GlobalSolve.Result.class,
       org.sunder.blockwise.metrics.SeamPlanes.class,
       org.sunder.blockwise.metrics.SeamTally.class,
-      org.sunder.stitching.BlockSummaryFile.Stored.class,
-      org.sunder.stitching.SeamEdgesFile.Stored.class);
+      org.sunder.stitching.task.BlockSummaryFile.Stored.class,
+      org.sunder.stitching.task.SeamEdgesFile.Stored.class);
 }

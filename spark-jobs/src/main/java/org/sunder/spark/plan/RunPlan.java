@@ -19,9 +19,9 @@ import org.sunder.spark.run.BlockShapeOrigin;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.run.TaskBudget;
 import org.sunder.spark.stage.PyramidStep;
-import org.sunder.stitching.LabelPyramid;
-import org.sunder.stitching.PartitionEstimate;
-import org.sunder.stitching.PartitionSample;
+import org.sunder.stitching.setup.PartitionEstimate;
+import org.sunder.stitching.task.LabelPyramid;
+import org.sunder.stitching.task.PartitionSample;
 
 /**
  * What a run will do, before it does it: the block grid and where its shape came from (with its

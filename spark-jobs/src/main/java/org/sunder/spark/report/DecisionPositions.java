@@ -1,7 +1,7 @@
 package org.sunder.spark.report;
 
 import org.sunder.blockwise.grid.Face;
-import org.sunder.stitching.SolveDecision;
+import org.sunder.stitching.solve.SolveDecision;
 
 /**
  * Where on its face a decision of the solve lies in the final segmentation: the middle of the

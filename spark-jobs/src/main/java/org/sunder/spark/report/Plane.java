@@ -3,8 +3,8 @@ package org.sunder.spark.report;
 import java.util.Arrays;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.stitching.BoxReads;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.task.BoxReads;
 
 /**
  * One axis-aligned plane of a 3D volume, cut to a window: {@code axis} is the memory axis held

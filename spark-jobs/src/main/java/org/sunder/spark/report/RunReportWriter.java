@@ -34,12 +34,12 @@ import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.SunderVersion;
 import org.sunder.spark.workdir.WorkDir;
-import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.EvaluationTarget;
-import org.sunder.stitching.GlobalSolve;
-import org.sunder.stitching.LabelPyramid;
-import org.sunder.stitching.SolveDecision;
-import org.sunder.stitching.SolveReport;
+import org.sunder.stitching.setup.EvaluationTarget;
+import org.sunder.stitching.solve.GlobalSolve;
+import org.sunder.stitching.solve.SolveDecision;
+import org.sunder.stitching.solve.SolveReport;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.LabelPyramid;
 
 /**
  * Writes a run's report, {@code report.html} in its work dir: one self-contained page with the

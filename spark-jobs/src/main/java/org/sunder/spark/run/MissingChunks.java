@@ -8,7 +8,7 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.RunConfig;
-import org.sunder.stitching.InputDataset;
+import org.sunder.stitching.setup.InputDataset;
 
 /**
  * Checks that every chunk file of the affinity dataset exists, so that a chunk lost in a copy

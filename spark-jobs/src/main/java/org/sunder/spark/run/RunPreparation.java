@@ -22,7 +22,7 @@ import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.SunderVersion;
 import org.sunder.spark.workdir.WorkDir;
 import org.sunder.spark.workdir.WorkDirLock;
-import org.sunder.stitching.OutputContainer;
+import org.sunder.stitching.setup.OutputContainer;
 
 /**
  * Readies the work dir and the output dataset for a run, refusing before anything is written
@@ -31,7 +31,7 @@ import org.sunder.stitching.OutputContainer;
  * holds that lock until it is closed. The output dataset carries the attribute {@value #MARKER}
  * with the run's id, which ties it to its work dir. Temporary chunk files that a killed run left
  * in the output dataset are removed. The inputs are checked and the output datasets created by
- * the run's {@link org.sunder.stitching.StitchingSetup#prepare()}, as the in-process runner does.
+ * the run's {@link org.sunder.stitching.setup.StitchingSetup#prepare()}, as the in-process runner does.
  */
 public final class RunPreparation {
   /** Attribute of the output dataset naming the run that owns it. */
@@ -200,7 +200,7 @@ public final class RunPreparation {
 
   /**
    * Creates the output container if needed, then the run's output datasets through the run's
-   * one preparation step ({@link org.sunder.stitching.StitchingSetup#prepare()}), and marks a
+   * one preparation step ({@link org.sunder.stitching.setup.StitchingSetup#prepare()}), and marks a
    * new label dataset with the run's id.
    */
   private static void createOutput(RunSettings s, Path root, boolean existing, String dataset,

@@ -16,9 +16,9 @@ import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ByteSize;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.config.RunConfig;
-import org.sunder.stitching.InputDataset;
-import org.sunder.stitching.PartitionEstimate;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.InputDataset;
+import org.sunder.stitching.setup.PartitionEstimate;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * Checks a {@link RunConfig} against the input containers and fills in what depends on them:

@@ -5,7 +5,7 @@ import java.nio.file.Path;
 import java.util.Optional;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Shapes;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * A run, every default resolved and validated once on the driver ({@link RunResolver}): the

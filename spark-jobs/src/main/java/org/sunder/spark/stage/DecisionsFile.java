@@ -13,10 +13,10 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.AtomicWrites;
 import org.sunder.spark.workdir.StageLedger;
-import org.sunder.stitching.SolveDecision;
+import org.sunder.stitching.solve.SolveDecision;
 
 /**
- * The solve's least certain decisions ({@link org.sunder.stitching.SolveDecisions}), kept as
+ * The solve's least certain decisions ({@link org.sunder.stitching.solve.SolveDecisions}), kept as
  * {@value #NAME} beside the solve stage's record in the work dir, so the run report can list
  * them without redoing the solve. Cleared with the solve's records.
  */

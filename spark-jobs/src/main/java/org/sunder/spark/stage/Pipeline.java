@@ -21,9 +21,9 @@ import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
-import org.sunder.stitching.EvaluateTask;
-import org.sunder.stitching.EvaluationTarget;
-import org.sunder.stitching.SolveReport;
+import org.sunder.stitching.setup.EvaluationTarget;
+import org.sunder.stitching.solve.SolveReport;
+import org.sunder.stitching.task.EvaluateTask;
 
 /**
  * Runs the stages of a prepared run on Spark, in order: partition (per block), seams (per

@@ -7,9 +7,9 @@ import java.util.Map;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
-import org.sunder.stitching.LabelPyramid;
-import org.sunder.stitching.MultiscaleMetadata;
-import org.sunder.stitching.PyramidTask;
+import org.sunder.stitching.task.LabelPyramid;
+import org.sunder.stitching.task.MultiscaleMetadata;
+import org.sunder.stitching.task.PyramidTask;
 
 /**
  * The pyramid stage: the segmentation's coarser levels ({@link LabelPyramid}, mode

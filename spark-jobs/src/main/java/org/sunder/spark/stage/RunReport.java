@@ -9,7 +9,7 @@ import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.run.RunSettings;
-import org.sunder.stitching.SolveReport;
+import org.sunder.stitching.solve.SolveReport;
 
 /**
  * What a run did: per stage the tasks skipped and run and the time taken, the solve's figures,

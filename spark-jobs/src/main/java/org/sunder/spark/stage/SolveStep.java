@@ -13,15 +13,15 @@ import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.spark.workdir.WorkDir;
-import org.sunder.stitching.BlockIdMapFile;
-import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.GlobalSolve;
-import org.sunder.stitching.SeamEdges;
-import org.sunder.stitching.SolveDecisions;
-import org.sunder.stitching.SolveReport;
-import org.sunder.stitching.SolvedFinalIds;
-import org.sunder.stitching.StitchingSetup;
-import org.sunder.stitching.SuperBlockSolve;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.BlockIdMapFile;
+import org.sunder.stitching.solve.GlobalSolve;
+import org.sunder.stitching.solve.SolveDecisions;
+import org.sunder.stitching.solve.SolveReport;
+import org.sunder.stitching.solve.SolvedFinalIds;
+import org.sunder.stitching.solve.SuperBlockSolve;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.SeamEdges;
 
 /**
  * The solve stage on the driver: checks the reduced graph's size against

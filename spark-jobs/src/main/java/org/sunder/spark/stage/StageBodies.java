@@ -5,17 +5,17 @@ import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.WorkDir;
-import org.sunder.stitching.BlockIdMap;
-import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.BlockSummaryFile;
-import org.sunder.stitching.EvaluateTask;
-import org.sunder.stitching.EvaluationTarget;
-import org.sunder.stitching.PartitionTask;
-import org.sunder.stitching.RelabelTask;
-import org.sunder.stitching.SeamEdges;
-import org.sunder.stitching.SeamEdgesFile;
-import org.sunder.stitching.SeamTask;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.EvaluationTarget;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.BlockIdMap;
+import org.sunder.stitching.solve.RelabelTask;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.BlockSummaryFile;
+import org.sunder.stitching.task.EvaluateTask;
+import org.sunder.stitching.task.PartitionTask;
+import org.sunder.stitching.task.SeamEdges;
+import org.sunder.stitching.task.SeamEdgesFile;
+import org.sunder.stitching.task.SeamTask;
 
 /** The task bodies of the distributed stages: thin calls into the stitching task functions. */
 final class StageBodies {

@@ -5,12 +5,12 @@ import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
-import org.sunder.stitching.BlockIdMap;
-import org.sunder.stitching.BlockIdMapFile;
-import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.BlockSummaryFile;
-import org.sunder.stitching.SeamEdges;
-import org.sunder.stitching.SeamEdgesFile;
+import org.sunder.stitching.solve.BlockIdMap;
+import org.sunder.stitching.solve.BlockIdMapFile;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.BlockSummaryFile;
+import org.sunder.stitching.task.SeamEdges;
+import org.sunder.stitching.task.SeamEdgesFile;
 
 /**
  * Where the partition and seam tasks leave their tables in the work dir, beside their records

@@ -26,7 +26,7 @@ import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.stage.StageReport;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.stitching.InProcessRunner;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * The whole pipeline on a synthetic 128 x 512 x 512 (z, y, x) volume in {@code local[2]}:

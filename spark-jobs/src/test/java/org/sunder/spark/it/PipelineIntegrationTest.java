@@ -27,7 +27,7 @@ import org.sunder.spark.run.RunResolver;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.stage.TaskHooks;
 import org.sunder.stitching.InProcessRunner;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 import org.sunder.testing.PythonReference;
 
 /**
@@ -101,9 +101,9 @@ class PipelineIntegrationTest {
     for (int b = 0; b < 8; b++) {
       int size = work.ledger(org.sunder.spark.workdir.Stage.PARTITION).read(b).length;
       assertTrue(size < 128, "partition record " + b + " has " + size + " bytes");
-      org.sunder.stitching.BlockSummaryFile.Stored stored =
+      org.sunder.stitching.task.BlockSummaryFile.Stored stored =
           org.sunder.spark.stage.StageFiles.summaryRecord(work, b);
-      org.sunder.stitching.BlockSummary summary =
+      org.sunder.stitching.task.BlockSummary summary =
           org.sunder.spark.stage.StageFiles.summary(work, b);
       assertEquals(summary.segmentCount(), stored.segments());
       assertEquals(b, summary.block());

@@ -12,7 +12,7 @@ import java.util.List;
 import java.util.Set;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.EdgeStatistics;
-import org.sunder.stitching.BlockSummary;
+import org.sunder.stitching.task.BlockSummary;
 
 class ReportPartsTest {
 

@@ -27,7 +27,7 @@ import org.sunder.spark.progress.ProgressTracker;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /** The stage runner in local mode with up to 3 attempts per task ({@code local[2,3]}). */
 class StageRunnerTest {

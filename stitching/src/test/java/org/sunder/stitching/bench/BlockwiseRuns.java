@@ -22,13 +22,13 @@ import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
-import org.sunder.stitching.BlockSummary;
-import org.sunder.stitching.GlobalSolve;
-import org.sunder.stitching.PartitionTask;
-import org.sunder.stitching.RelabelTask;
-import org.sunder.stitching.SeamEdges;
-import org.sunder.stitching.SeamTask;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.GlobalSolve;
+import org.sunder.stitching.solve.RelabelTask;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.PartitionTask;
+import org.sunder.stitching.task.SeamEdges;
+import org.sunder.stitching.task.SeamTask;
 
 /**
  * What the stitching benchmarks share: affinities written to a Zarr container, the whole-volume

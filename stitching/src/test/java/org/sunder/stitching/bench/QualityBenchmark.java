@@ -36,7 +36,7 @@ import org.sunder.blockwise.partition.fragments.BaselineWatershed;
 import org.sunder.blockwise.partition.fragments.FragmentOptions;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * The quality benchmark: for every chosen partition method, each realistic tissue kind

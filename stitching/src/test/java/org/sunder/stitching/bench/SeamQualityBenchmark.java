@@ -27,7 +27,7 @@ import org.sunder.blockwise.synth.ExactAffinities;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.stitching.InProcessRunner;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * Does each method stitch seamlessly on realistic predictions? For every chosen preset, seed

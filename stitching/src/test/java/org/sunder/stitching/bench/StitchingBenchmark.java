@@ -24,7 +24,7 @@ import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.ExactAffinities;
 import org.sunder.blockwise.synth.SynthSpec;
 import org.sunder.blockwise.synth.SyntheticVolume;
-import org.sunder.stitching.StitchingSetup;
+import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * Blockwise against whole-volume partitioning on a synthetic tissue volume, for the Mutex

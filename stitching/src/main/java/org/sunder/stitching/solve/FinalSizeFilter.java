@@ -1,0 +1,152 @@
+package org.sunder.stitching.solve;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.sizefilter.SizeFilter;
+import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
+import org.sunder.stitching.task.BlockSummary;
+
+/**
+ * The size filter on the global solve's result. Each block filtered only the segments lying
+ * wholly inside its core away from the faces; the segments that reach a face (boundary
+ * segments) are judged here, by their size in the volume: a final segment is a cluster of
+ * boundary segments, its size the sum of their core voxels. Its neighbours are the other
+ * clusters (reduced-graph edges) and the blocks' other segments beside it
+ * ({@link BlockSummary#interiorEdges()}); the configured {@link SizeFilter} runs on that graph.
+ *
+ * <p>The outcome: per reduced-graph node a new cluster index, and per interior segment beside
+ * a boundary segment its cluster in the same numbering. {@code O(p log p)} for {@code p} pairs.
+ */
+final class FinalSizeFilter {
+  private FinalSizeFilter() {}
+
+  /**
+   * @param clusterOfNode per reduced-graph node, its cluster (indices below
+   *     {@code clusterOfNode.length + joinedIds.length})
+   * @param joinedIds the interior segments beside a boundary segment (provisional ids,
+   *     ascending); each may have joined a cluster or been joined by one
+   * @param joinedCluster per joined id, its cluster (same numbering as {@code clusterOfNode})
+   */
+  record Result(int[] clusterOfNode, long[] joinedIds, int[] joinedCluster) {}
+
+  /**
+   * @param blocks one summary per block, at its block index
+   * @param clusters per reduced-graph node, the solve's cluster (any numbering)
+   */
+  static Result apply(IdLayout layout, List<BlockSummary> blocks, ReducedGraph graph,
+      int[] clusters, PartitionConfig config) {
+    SizeFilter filter = config.createSizeFilter();
+    int nodes = graph.nodeCount();
+    int[] dense = denseClusters(clusters);
+    int clusterCount = 0;
+    for (int c : dense) {
+      clusterCount = Math.max(clusterCount, c + 1);
+    }
+    List<EdgeStatistics> parts = new ArrayList<>();
+    for (BlockSummary s : blocks) {
+      parts.add(s.interiorEdges());
+    }
+    EdgeStatistics interior = EdgeStatistics.mergeAll(parts);
+    long[] nodeIds = graph.nodeIds();
+    long[] interiorIds = interiorEnds(interior, nodeIds);
+    int total = clusterCount + interiorIds.length;
+    long[] sizes = new long[total];
+    for (int i = 0; i < nodes; i++) {
+      sizes[dense[i]] += sizeOf(layout, blocks, nodeIds[i]);
+    }
+    for (int j = 0; j < interiorIds.length; j++) {
+      sizes[clusterCount + j] = sizeOf(layout, blocks, interiorIds[j]);
+    }
+    EdgeStatistics statistics = clusterStatistics(graph.edges(), dense, interior, nodeIds,
+        interiorIds, clusterCount);
+    boolean[] flags = SizeFilteredPartitioner.cannotLinkFlags(config.sizeFilterCannotLink(),
+        statistics, config.linkage());
+    int[] group = filter.groups(sizes, statistics, flags, null);
+    int[] clusterOfNode = new int[nodes];
+    for (int i = 0; i < nodes; i++) {
+      clusterOfNode[i] = group[dense[i]];
+    }
+    int[] joinedCluster = new int[interiorIds.length];
+    for (int j = 0; j < interiorIds.length; j++) {
+      joinedCluster[j] = group[clusterCount + j];
+    }
+    return new Result(clusterOfNode, interiorIds, joinedCluster);
+  }
+
+  /** Clusters renumbered densely from 0 in order of first node. */
+  private static int[] denseClusters(int[] clusters) {
+    int max = -1;
+    for (int c : clusters) {
+      max = Math.max(max, c);
+    }
+    int[] index = new int[max + 1];
+    Arrays.fill(index, -1);
+    int[] dense = new int[clusters.length];
+    int next = 0;
+    for (int i = 0; i < clusters.length; i++) {
+      int c = clusters[i];
+      if (index[c] < 0) {
+        index[c] = next++;
+      }
+      dense[i] = index[c];
+    }
+    return dense;
+  }
+
+  /** The ends of {@code interior}'s pairs that are not boundary segments, ascending, unique. */
+  private static long[] interiorEnds(EdgeStatistics interior, long[] nodeIds) {
+    long[] ends = new long[interior.size()];
+    for (int e = 0; e < ends.length; e++) {
+      ends[e] = Arrays.binarySearch(nodeIds, interior.u(e)) >= 0 ? interior.v(e)
+          : interior.u(e);
+    }
+    return Arrays.stream(ends).sorted().distinct().toArray();
+  }
+
+  private static long sizeOf(IdLayout layout, List<BlockSummary> blocks, long provisionalId) {
+    return blocks.get(layout.blockOf(provisionalId)).segmentSizes()[
+        (int) layout.localOf(provisionalId) - 1];
+  }
+
+  /** Statistics between filter nodes, ids {@code 1..}: clusters first, then interior ids. */
+  private static EdgeStatistics clusterStatistics(EdgeStatistics edges, int[] dense,
+      EdgeStatistics interior, long[] nodeIds, long[] interiorIds, int clusterCount) {
+    int m = edges.size();
+    int k = interior.size();
+    long[] u = new long[m + k];
+    long[] v = new long[m + k];
+    for (int e = 0; e < m; e++) {
+      u[e] = dense[(int) edges.u(e)] + 1;
+      v[e] = dense[(int) edges.v(e)] + 1;
+    }
+    for (int e = 0; e < k; e++) {
+      u[m + e] = filterNode(interior.u(e), dense, nodeIds, interiorIds, clusterCount) + 1;
+      v[m + e] = filterNode(interior.v(e), dense, nodeIds, interiorIds, clusterCount) + 1;
+    }
+    return EdgeStatistics.of(u, v, concat(edges.copySum(), interior.copySum()),
+        concat(edges.copyCount(), interior.copyCount()),
+        concat(edges.copyMin(), interior.copyMin()), concat(edges.copyMax(), interior.copyMax()));
+  }
+
+  private static int filterNode(long id, int[] dense, long[] nodeIds, long[] interiorIds,
+      int clusterCount) {
+    int node = Arrays.binarySearch(nodeIds, id);
+    return node >= 0 ? dense[node] : clusterCount + Arrays.binarySearch(interiorIds, id);
+  }
+
+  private static double[] concat(double[] a, double[] b) {
+    double[] c = Arrays.copyOf(a, a.length + b.length);
+    System.arraycopy(b, 0, c, a.length, b.length);
+    return c;
+  }
+
+  private static long[] concat(long[] a, long[] b) {
+    long[] c = Arrays.copyOf(a, a.length + b.length);
+    System.arraycopy(b, 0, c, a.length, b.length);
+    return c;
+  }
+}

@@ -1,0 +1,139 @@
+package org.sunder.stitching.solve;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.function.IntFunction;
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.stitching.task.BlockSummary;
+import org.sunder.stitching.task.SeamEdges;
+
+/**
+ * Level 1's input of one part of the hierarchical solve, built from the block summaries of the
+ * part's blocks and the seam edges of the faces that can hold an edge with an end in the part,
+ * without assembling the whole reduced graph: the same edges, in the same order and with the
+ * same floating-point sums, as the whole graph's edges with an end in the part
+ * ({@link HierarchicalSolver#mutexEdges} or {@link HierarchicalSolver#linkageEdges} of the
+ * reduced graph, then distributed to the parts).
+ *
+ * <p>Which faces: a face owns the voxel edges whose lower end lies in the block below it (see
+ * {@link SeamEdges}); the other end lies in a block one step away along every axis at most (no
+ * offset is longer than a block). So the faces above every block within one step of the part
+ * suffice. Sums match because the tables are combined by {@link EdgeStatistics#mergeAll} over
+ * the same list as {@link ReducedGraph#assemble} (blocks, then faces, in index order) with the
+ * tables not read left empty: the merge tree, and so every pair's order of addition, is the
+ * same. Cost: O(rows read · log(blocks + faces)) and a reference per block and face.
+ */
+public final class PartInputs {
+  private PartInputs() {}
+
+  /**
+   * The blocks whose upper faces can hold an edge with an end in {@code part} of level 1: the
+   * part's blocks and their neighbours (26-neighbourhood), ascending.
+   */
+  public static int[] neighbourhood(BlockGrid grid, SuperBlocks superBlocks, int part) {
+    long[] shape = grid.gridShape();
+    boolean[] take = new boolean[grid.blockCount()];
+    for (int b = 0; b < grid.blockCount(); b++) {
+      if (superBlocks.partOfBlock(b, 1) != part) {
+        continue;
+      }
+      long[] g = grid.gridPosition(b);
+      int n = g.length;
+      int steps = (int) Math.pow(3, n);
+      long[] q = new long[n];
+      for (int s = 0; s < steps; s++) {
+        int rest = s;
+        boolean inside = true;
+        for (int d = 0; d < n; d++) {
+          q[d] = g[d] + rest % 3 - 1;
+          rest /= 3;
+          inside &= q[d] >= 0 && q[d] < shape[d];
+        }
+        if (inside) {
+          take[grid.blockIndex(q)] = true;
+        }
+      }
+    }
+    int count = 0;
+    for (boolean t : take) {
+      count += t ? 1 : 0;
+    }
+    int[] out = new int[count];
+    count = 0;
+    for (int b = 0; b < take.length; b++) {
+      if (take[b]) {
+        out[count++] = b;
+      }
+    }
+    return out;
+  }
+
+  /**
+   * The Mutex Watershed's level-1 input of {@code part} (or the linkage rows when
+   * {@code linkage}): separated pairs of its blocks first, then per pair with an end in the part
+   * its rows, keyed by provisional ids.
+   *
+   * @param summaryOf reads block {@code b}'s summary (called for the part's blocks only)
+   * @param seamsOf reads face {@code f}'s seam edges (called for the faces named above only)
+   */
+  public static SolveEdges levelOne(BlockGrid grid, SuperBlocks superBlocks, int part,
+      boolean linkage, IntFunction<BlockSummary> summaryOf, IntFunction<SeamEdges> seamsOf) {
+    IdLayout layout = superBlocks.layout();
+    List<EdgeStatistics> tables = new ArrayList<>(grid.blockCount() + grid.faceCount());
+    List<BlockSummary> own = new ArrayList<>();
+    for (int b = 0; b < grid.blockCount(); b++) {
+      if (superBlocks.partOfBlock(b, 1) == part) {
+        BlockSummary s = summaryOf.apply(b);
+        own.add(s);
+        tables.add(s.innerEdges());
+      } else {
+        tables.add(EdgeStatistics.empty());
+      }
+    }
+    EdgeStatistics[] faces = new EdgeStatistics[grid.faceCount()];
+    Arrays.fill(faces, EdgeStatistics.empty());
+    for (int b : neighbourhood(grid, superBlocks, part)) {
+      for (int axis = 0; axis < grid.gridShape().length; axis++) {
+        int f = grid.faceIndex(b, axis);
+        if (f >= 0) {
+          faces[f] = seamsOf.apply(f).edges();
+        }
+      }
+    }
+    tables.addAll(Arrays.asList(faces));
+    EdgeStatistics merged = EdgeStatistics.mergeAll(tables);
+    SolveEdges out = new SolveEdges(16);
+    if (!linkage) {
+      for (BlockSummary s : own) {
+        for (int i = 0; i < s.separatedU().length; i++) {
+          long a = s.separatedU()[i];
+          long b = s.separatedV()[i];
+          out.add(a, b, SolveEdges.APART, a, b, SolveEdges.SEPARATED);
+        }
+      }
+    }
+    for (int e = 0; e < merged.size(); e++) {
+      long a = merged.u(e);
+      long b = merged.v(e);
+      if (superBlocks.partOfBlock(layout.blockOf(a), 1) != part
+          && superBlocks.partOfBlock(layout.blockOf(b), 1) != part) {
+        continue;
+      }
+      if (linkage) {
+        LinkagePartSolver.addPair(out, a, b, merged.sum(e), merged.count(e), merged.min(e),
+            merged.max(e), a, b);
+      } else {
+        if (merged.max(e) > 0) {
+          out.add(a, b, merged.max(e), a, b, SolveEdges.MAX);
+        }
+        if (merged.min(e) < 0) {
+          out.add(a, b, merged.min(e), a, b, SolveEdges.MIN);
+        }
+      }
+    }
+    return out;
+  }
+}

@@ -1,0 +1,358 @@
+package org.sunder.stitching.task;
+
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.graph.GridGraph;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.RegionGraph;
+import org.sunder.blockwise.grid.Block;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.grid.Shapes;
+import org.sunder.blockwise.partition.Segmentation;
+import org.sunder.blockwise.partition.SettledPartition;
+
+/**
+ * From the partition of a block's extended box to its core: provisional labels and the
+ * {@link BlockSummary}.
+ *
+ * <p>The partition comes as a {@link SettledPartition} whose open voxels are those with edges
+ * leaving the extended box ({@link #openVoxels}): the core's segments are its pieces, so a merge
+ * the block made on the strength of its halo is left to the global solve, which sees all the
+ * edges. Boundary segments are the pieces near a face and the unsettled pieces.
+ *
+ * <p>Local ids are the pieces present in the core, renumbered from 1 in ascending order of the
+ * piece label; when the core is the whole extended box (one block covering the volume) local ids
+ * equal the partition's labels.
+ *
+ * <p>Inner edges count only edges with <em>both</em> ends in the core; edges reaching into the
+ * halo are left to the block that owns the other end or to the face that owns them (see
+ * {@link SeamEdges}). So every voxel edge of the volume is counted exactly once, and the reduced
+ * graph's statistics are those of the whole volume's region graph of the provisional labels,
+ * restricted to boundary segments.
+ *
+ * <p>Separated pairs: pairs of settled boundary segments joined by at least one repulsive edge
+ * (weight {@code < 0}) anywhere in the extended box. For the Mutex Watershed these are exactly
+ * the pairs the block kept apart by a mutual exclusion (every repulsive edge between two final
+ * clusters adds one) on the strength of its core alone; touching segments without such an edge
+ * were merely not connected inside the box, and the solve may still join them through another
+ * block. Unsettled pieces have no separated pairs: the solve decides them from their edges.
+ * O(extended voxels * offsets).
+ */
+public final class CoreSegments {
+  private CoreSegments() {}
+
+  /**
+   * The provisional labels of the core (core order), the block's summary and, when asked for,
+   * the core's continuation flags (core order, see {@link #continuations}), else null.
+   */
+  public record Result(long[] provisionalLabels, BlockSummary summary, byte[] continuations) {}
+
+  /**
+   * The open voxels of a block's extended box (memory order): those closer to a side of the box
+   * that lies inside the volume than the longest offset along that axis, so that some of their
+   * edges leave the box. None when the extended box is the whole volume.
+   */
+  static byte[] openVoxels(BlockGrid grid, Block block, Offsets offsets) {
+    int n = grid.numDimensions();
+    int[] shape = block.extendedShape();
+    int[] reach = offsets.reach();
+    int[] lowEnd = new int[n];
+    int[] highStart = new int[n];
+    long[] min = block.extendedMin();
+    long[] max = block.extendedMax();
+    for (int d = 0; d < n; d++) {
+      lowEnd[d] = min[d] > 0 ? reach[d] : 0;
+      highStart[d] = max[d] < grid.volumeShape()[d] - 1 ? shape[d] - reach[d] : Integer.MAX_VALUE;
+    }
+    int voxels = Shapes.intElementCount(shape);
+    byte[] open = new byte[voxels];
+    int[] p = new int[n];
+    for (int i = 0; i < voxels; i++) {
+      for (int d = 0; d < n; d++) {
+        if (p[d] < lowEnd[d] || p[d] >= highStart[d]) {
+          open[i] = 1;
+          break;
+        }
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < shape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return open;
+  }
+
+  /**
+   * The voxels of a block's extended box (memory order) whose segments a per-block size filter
+   * must leave alone because the block sees only part of them: the halo, and the core's voxels
+   * closer to a face than the longest offset along its axis (those of boundary segments). The
+   * complement is where whole non-boundary segments lie. O(extended voxels).
+   */
+  static byte[] partialVoxels(BlockGrid grid, Block block, Offsets offsets) {
+    int n = grid.numDimensions();
+    int[] shape = block.extendedShape();
+    int[] reach = offsets.reach();
+    long[] extMin = block.extendedMin();
+    long[] coreMin = block.coreMin();
+    int[] coreShape = block.coreShape();
+    int[] lowEnd = new int[n];
+    int[] highStart = new int[n];
+    for (int d = 0; d < n; d++) {
+      int origin = (int) (coreMin[d] - extMin[d]);
+      boolean lowFace = grid.faceIndex(block.index(), d, false) >= 0;
+      boolean highFace = grid.faceIndex(block.index(), d, true) >= 0;
+      lowEnd[d] = origin + (lowFace ? reach[d] : 0);
+      highStart[d] = origin + coreShape[d] - (highFace ? reach[d] : 0);
+    }
+    int voxels = Shapes.intElementCount(shape);
+    byte[] partial = new byte[voxels];
+    int[] p = new int[n];
+    for (int i = 0; i < voxels; i++) {
+      for (int d = 0; d < n; d++) {
+        if (p[d] < lowEnd[d] || p[d] >= highStart[d]) {
+          partial[i] = 1;
+          break;
+        }
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < shape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return partial;
+  }
+
+  /**
+   * @param withInteriorEdges whether to collect {@link BlockSummary#interiorEdges()} (for a size
+   *     filter after the solve)
+   * @param markContinuations whether to compute {@link #continuations} (fragment methods)
+   */
+  public static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
+      SettledPartition partition, GridGraph extendedGraph, boolean withInteriorEdges,
+      boolean markContinuations) {
+    Segmentation segmentation = partition.pieces();
+    int[] extShape = block.extendedShape();
+    int[] coreShape = block.coreShape();
+    int[] coreIndex = BoxIndex.subBoxIndices(extShape,
+        BoxIndex.origin(block.extendedMin(), block.coreMin()), coreShape);
+    int[] labels = segmentation.labels();
+    int[] localOf = new int[segmentation.segmentCount() + 1];
+    for (int i : coreIndex) {
+      localOf[labels[i]] = 1;
+    }
+    int localCount = 0;
+    for (int label = 1; label < localOf.length; label++) {
+      localOf[label] = localOf[label] == 0 ? 0 : ++localCount;
+    }
+    localOf[0] = 0;
+    long[] sizes = new long[localCount];
+    int[] coreLocal = new int[coreIndex.length];
+    for (int i = 0; i < coreIndex.length; i++) {
+      int local = localOf[labels[coreIndex[i]]];
+      coreLocal[i] = local;
+      if (local > 0) {
+        sizes[local - 1]++;
+      }
+    }
+    int[] sides = boundarySides(grid, block, offsets, coreShape, coreLocal, localCount);
+    boolean[] boundary = new boolean[localCount + 1];
+    boolean[] unsettled = new boolean[localCount + 1];
+    int boundaryCount = 0;
+    for (int label = 1; label < localOf.length; label++) {
+      int local = localOf[label];
+      if (local != 0) {
+        unsettled[local] = partition.unsettled()[label];
+        boundary[local] = sides[local] != 0 || unsettled[local];
+        boundaryCount += boundary[local] ? 1 : 0;
+      }
+    }
+    int[] boundaryIds = new int[boundaryCount];
+    int[] boundarySides = new int[boundaryCount];
+    int next = 0;
+    for (int k = 1; k <= localCount; k++) {
+      if (boundary[k]) {
+        boundaryIds[next] = k;
+        boundarySides[next++] = sides[k];
+      }
+    }
+    Inner inner = innerEdges(layout, block.index(), labels, localOf, coreIndex, boundary,
+        unsettled, extendedGraph, withInteriorEdges);
+    long[] provisional = new long[coreLocal.length];
+    for (int i = 0; i < coreLocal.length; i++) {
+      int local = coreLocal[i];
+      provisional[i] = local == 0 ? 0 : layout.provisional(block.index(), local);
+    }
+    return new Result(provisional,
+        new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, inner.edges(),
+            inner.separatedU(), inner.separatedV(), inner.interior()),
+        markContinuations ? continuations(grid, block, labels, coreIndex) : null);
+  }
+
+  /**
+   * Per core voxel (core order), the sides across which its piece continues: bit
+   * {@code 2 * axis + upper} is set when the voxel lies in the core's outermost layer on that
+   * side, the side has a face, and the voxel just across it (in the halo) carries the same
+   * non-zero piece label. Where both blocks of a face mark a voxel pair, both saw one piece run
+   * through it; see {@link SeamEdges#continued()}. O(core voxels).
+   */
+  static byte[] continuations(BlockGrid grid, Block block, int[] pieceLabels, int[] coreIndex) {
+    int n = grid.numDimensions();
+    int[] extShape = block.extendedShape();
+    int[] coreShape = block.coreShape();
+    int[] origin = BoxIndex.origin(block.extendedMin(), block.coreMin());
+    int[] stride = new int[n];
+    boolean[] low = new boolean[n];
+    boolean[] high = new boolean[n];
+    int s = 1;
+    for (int d = 0; d < n; d++) {
+      stride[d] = s;
+      s *= extShape[d];
+      low[d] = grid.faceIndex(block.index(), d, false) >= 0 && origin[d] > 0;
+      high[d] = grid.faceIndex(block.index(), d, true) >= 0
+          && origin[d] + coreShape[d] < extShape[d];
+    }
+    byte[] flags = new byte[coreIndex.length];
+    int[] p = new int[n];
+    for (int i = 0; i < coreIndex.length; i++) {
+      int at = coreIndex[i];
+      int label = pieceLabels[at];
+      if (label != 0) {
+        int mask = 0;
+        for (int d = 0; d < n; d++) {
+          if (low[d] && p[d] == 0 && pieceLabels[at - stride[d]] == label) {
+            mask |= 1 << (2 * d);
+          }
+          if (high[d] && p[d] == coreShape[d] - 1 && pieceLabels[at + stride[d]] == label) {
+            mask |= 1 << (2 * d + 1);
+          }
+        }
+        flags[i] = (byte) mask;
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < coreShape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return flags;
+  }
+
+  /**
+   * Per local id, the mask of sides (bit {@code 2 * axis + upper}) that have a face and that
+   * the segment comes closer to than the longest offset along the axis.
+   */
+  private static int[] boundarySides(BlockGrid grid, Block block, Offsets offsets,
+      int[] coreShape, int[] coreLocal, int localCount) {
+    int n = coreShape.length;
+    int[] depth = offsets.reach();
+    int[] lowEnd = new int[n];
+    int[] highStart = new int[n];
+    for (int d = 0; d < n; d++) {
+      boolean lowFace = grid.faceIndex(block.index(), d, false) >= 0;
+      boolean highFace = grid.faceIndex(block.index(), d, true) >= 0;
+      lowEnd[d] = lowFace ? depth[d] : 0;
+      highStart[d] = highFace ? coreShape[d] - depth[d] : Integer.MAX_VALUE;
+    }
+    int[] sides = new int[localCount + 1];
+    int[] p = new int[n];
+    for (int i = 0; i < coreLocal.length; i++) {
+      int local = coreLocal[i];
+      if (local != 0) {
+        int mask = 0;
+        for (int d = 0; d < n; d++) {
+          if (p[d] < lowEnd[d]) {
+            mask |= 1 << (2 * d);
+          }
+          if (p[d] >= highStart[d]) {
+            mask |= 1 << (2 * d + 1);
+          }
+        }
+        sides[local] |= mask;
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < coreShape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return sides;
+  }
+
+  /** Core-only statistics and separated pairs (extended box) of the boundary segments. */
+  private record Inner(EdgeStatistics edges, long[] separatedU, long[] separatedV,
+      EdgeStatistics interior) {}
+
+  private static Inner innerEdges(IdLayout layout, int block, int[] labels, int[] localOf,
+      int[] coreIndex, boolean[] boundary, boolean[] unsettled, GridGraph extendedGraph,
+      boolean withInteriorEdges) {
+    int[] boundaryOf = new int[localOf.length];
+    boolean any = false;
+    for (int label = 1; label < localOf.length; label++) {
+      int local = localOf[label];
+      if (local != 0 && boundary[local]) {
+        boundaryOf[label] = local;
+        any = true;
+      }
+    }
+    if (!any) {
+      return new Inner(EdgeStatistics.empty(), new long[0], new long[0],
+          EdgeStatistics.empty());
+    }
+    boolean[] inCore = new boolean[labels.length];
+    for (int i : coreIndex) {
+      inCore[i] = true;
+    }
+    EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
+    EdgeStatistics.Accumulator repulsive = new EdgeStatistics.Accumulator(256);
+    EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(256);
+    extendedGraph.forEachEdge((s, t, k, w) -> {
+      int a = boundaryOf[labels[s]];
+      int b = boundaryOf[labels[t]];
+      if (withInteriorEdges && (a == 0) != (b == 0) && inCore[s] && inCore[t]) {
+        int ls = localOf[labels[s]];
+        int lt = localOf[labels[t]];
+        if (ls != 0 && lt != 0) {
+          interior.add(ls, lt, w);
+        }
+        return;
+      }
+      if (a == 0 || b == 0 || a == b) {
+        return;
+      }
+      if (inCore[s] && inCore[t]) {
+        core.add(a, b, w);
+      }
+      if (w < 0 && !unsettled[a] && !unsettled[b]) {
+        repulsive.add(a, b, w);
+      }
+    });
+    EdgeStatistics edges = provisional(layout, block, core.build());
+    EdgeStatistics apart = repulsive.build();
+    long[] su = new long[apart.size()];
+    long[] sv = new long[apart.size()];
+    for (int e = 0; e < apart.size(); e++) {
+      su[e] = layout.provisional(block, apart.u(e));
+      sv[e] = layout.provisional(block, apart.v(e));
+    }
+    return new Inner(edges, su, sv, provisional(layout, block, interior.build()));
+  }
+
+  /** {@code local} with local ids replaced by provisional ids. */
+  private static EdgeStatistics provisional(IdLayout layout, int block, EdgeStatistics local) {
+    int m = local.size();
+    long[] u = new long[m];
+    long[] v = new long[m];
+    for (int e = 0; e < m; e++) {
+      u[e] = layout.provisional(block, local.u(e));
+      v[e] = layout.provisional(block, local.v(e));
+    }
+    return EdgeStatistics.of(u, v, local.copySum(), local.copyCount(), local.copyMin(),
+        local.copyMax());
+  }
+}

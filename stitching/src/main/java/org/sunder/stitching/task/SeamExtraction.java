@@ -1,0 +1,190 @@
+package org.sunder.stitching.task;
+
+import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.graph.GridGraph;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.Face;
+import org.sunder.blockwise.grid.Shapes;
+
+/**
+ * The edges a face owns (see {@link SeamEdges} for the ownership rule), aggregated per pair of
+ * provisional ids, from the labels and affinities of the face's slab. O(slab voxels * offsets).
+ */
+public final class SeamExtraction {
+  private SeamExtraction() {}
+
+  /** A box in global coordinates, inclusive maxima. */
+  public record Box(long[] min, long[] max) {}
+
+  /**
+   * The slab of {@code face}: along the face's axis as deep on each side as the longest offset
+   * component along it; across, the face's extent widened by the longest offset component
+   * along each other axis (for edges to diagonal neighbours); clipped to the volume.
+   */
+  public static Box slab(BlockGrid grid, Face face, Offsets offsets) {
+    int n = grid.numDimensions();
+    long[] volume = grid.volumeShape();
+    long[] min = face.lateralMin();
+    long[] max = face.lateralMax();
+    int[] longest = offsets.reach();
+    for (int d = 0; d < n; d++) {
+      int reach = longest[d];
+      if (d == face.axis()) {
+        min[d] = Math.max(0, face.position() - Math.max(1, reach));
+        max[d] = Math.min(volume[d] - 1, face.position() + Math.max(1, reach) - 1);
+      } else {
+        min[d] = Math.max(0, min[d] - reach);
+        max[d] = Math.min(volume[d] - 1, max[d] + reach);
+      }
+    }
+    return new Box(min, max);
+  }
+
+  /**
+   * The face's seam edges from {@code labels} (provisional ids over the slab, memory order) and
+   * {@code slabGraph} (the grid graph of the slab's affinities).
+   */
+  public static SeamEdges extract(BlockGrid grid, Face face, long[] labels, GridGraph slabGraph) {
+    return extract(grid, face, labels, null, slabGraph);
+  }
+
+  /**
+   * As {@link #extract(BlockGrid, Face, long[], GridGraph)}, and with {@code continuations}
+   * (the blocks' continuation flags over the slab, or null) the face's continued pairs.
+   */
+  public static SeamEdges extract(BlockGrid grid, Face face, long[] labels, byte[] continuations,
+      GridGraph slabGraph) {
+    int n = grid.numDimensions();
+    long[] min = slabGraph.block().globalMin();
+    int[] shape = slabGraph.block().shape();
+    int[] blockOf = blockIndices(grid, min, shape);
+    long[] gridShape = grid.gridShape();
+    int axis = face.axis();
+    int lower = face.lowerBlock();
+    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
+    slabGraph.forEachEdge((s, t, k, w) -> {
+      int bs = blockOf[s];
+      int bt = blockOf[t];
+      if (bs == bt) {
+        return;
+      }
+      long ls = labels[s];
+      long lt = labels[t];
+      if (ls == 0 || lt == 0 || ls == lt) {
+        return;
+      }
+      if (owner(bs, bt, gridShape, n, axis) == lower) {
+        acc.add(ls, lt, w);
+      }
+    });
+    EdgeStatistics continued = continuations == null ? EdgeStatistics.empty()
+        : continued(face, labels, continuations, min, shape);
+    return new SeamEdges(face.index(), acc.build(), continued);
+  }
+
+  /**
+   * Counts, per pair of provisional ids, the voxel pairs across the face that both blocks
+   * flagged as continuing (the lower voxel's upper-side bit and the upper voxel's lower-side
+   * bit along the face's axis). O(face area).
+   */
+  private static EdgeStatistics continued(Face face, long[] labels, byte[] flags, long[] min,
+      int[] shape) {
+    int n = shape.length;
+    int axis = face.axis();
+    int upperBit = 1 << (2 * axis + 1);
+    int lowerBit = 1 << (2 * axis);
+    long[] lateralMin = face.lateralMin();
+    long[] lateralMax = face.lateralMax();
+    int[] from = new int[n];
+    int[] to = new int[n];
+    int[] stride = new int[n];
+    int s = 1;
+    for (int d = 0; d < n; d++) {
+      stride[d] = s;
+      s *= shape[d];
+      from[d] = (int) (Math.max(lateralMin[d], min[d]) - min[d]);
+      to[d] = (int) (Math.min(lateralMax[d], min[d] + shape[d] - 1) - min[d]);
+    }
+    from[axis] = (int) (face.position() - min[axis]);
+    to[axis] = from[axis];
+    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(256);
+    if (from[axis] < 1 || from[axis] >= shape[axis]) {
+      return acc.build();
+    }
+    int[] p = from.clone();
+    while (true) {
+      int upper = 0;
+      for (int d = 0; d < n; d++) {
+        upper += p[d] * stride[d];
+      }
+      int lower = upper - stride[axis];
+      long a = labels[lower];
+      long b = labels[upper];
+      if (a != 0 && b != 0 && a != b && (flags[lower] & upperBit) != 0
+          && (flags[upper] & lowerBit) != 0) {
+        acc.add(a, b, 1);
+      }
+      int d = 0;
+      while (d < n && ++p[d] > to[d]) {
+        p[d] = from[d];
+        d++;
+      }
+      if (d == n) {
+        return acc.build();
+      }
+    }
+  }
+
+  /**
+   * The lower block of the owning face of an edge between blocks {@code bs != bt}, if that face
+   * is normal to {@code axis}; else -1.
+   */
+  private static int owner(int bs, int bt, long[] gridShape, int n, int axis) {
+    long rs = bs;
+    long rt = bt;
+    for (int d = 0; d < n; d++) {
+      long gs = rs % gridShape[d];
+      long gt = rt % gridShape[d];
+      if (gs != gt) {
+        if (d != axis) {
+          return -1;
+        }
+        return gs < gt ? bs : bt;
+      }
+      rs /= gridShape[d];
+      rt /= gridShape[d];
+    }
+    return -1;
+  }
+
+  private static int[] blockIndices(BlockGrid grid, long[] min, int[] shape) {
+    int n = shape.length;
+    int[] blockOf = new int[Shapes.intElementCount(shape)];
+    long[] gridShape = grid.gridShape();
+    long[][] partial = new long[n][];
+    long stride = 1;
+    for (int d = 0; d < n; d++) {
+      partial[d] = new long[shape[d]];
+      for (int x = 0; x < shape[d]; x++) {
+        partial[d][x] = grid.blockCoordinate(d, min[d] + x) * stride;
+      }
+      stride *= gridShape[d];
+    }
+    int[] p = new int[n];
+    for (int i = 0; i < blockOf.length; i++) {
+      long index = 0;
+      for (int d = 0; d < n; d++) {
+        index += partial[d][p[d]];
+      }
+      blockOf[i] = (int) index;
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < shape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return blockOf;
+  }
+}
