@@ -388,7 +388,6 @@ public final class LinkagePartSolver implements PartSolver {
           }
         }
       }
-      int changed = 0;
       for (int i = 0; i < n; i++) {
         int r = find(i);
         if (!seen[r]) {
@@ -396,18 +395,6 @@ public final class LinkagePartSolver implements PartSolver {
           ofRoot[r] = nodes[i];
         }
         rep[i] = ofRoot[r];
-        if (rep[i] != nodes[i]) {
-          changed++;
-        }
-      }
-      long[] merged = new long[changed];
-      long[] representative = new long[changed];
-      changed = 0;
-      for (int i = 0; i < n; i++) {
-        if (rep[i] != nodes[i]) {
-          merged[changed] = nodes[i];
-          representative[changed++] = rep[i];
-        }
       }
       SolveEdges remaining = new SolveEdges(16);
       for (int e = 0; e < p.size; e++) {
@@ -422,7 +409,7 @@ public final class LinkagePartSolver implements PartSolver {
         addPair(remaining, a, b, p.sum[e], (long) p.count[e], p.min[e], p.max[e], p.keyU[e],
             p.keyV[e], state[e] == CONSTRAINED);
       }
-      return new PartResult(merged, representative, remaining, decided, heldBack);
+      return PartResult.of(nodes, rep, remaining, decided, heldBack);
     }
 
     /**

@@ -155,22 +155,6 @@ public final class MutexPartSolver implements PartSolver {
 
   private static PartResult result(SolveEdges edges, int[] order, long[] nodes, int[] iu,
       int[] iv, long[] rep, boolean[] complete, long decided, long heldBack) {
-    int n = nodes.length;
-    int changed = 0;
-    for (int i = 0; i < n; i++) {
-      if (rep[i] != nodes[i]) {
-        changed++;
-      }
-    }
-    long[] merged = new long[changed];
-    long[] representative = new long[changed];
-    changed = 0;
-    for (int i = 0; i < n; i++) {
-      if (rep[i] != nodes[i]) {
-        merged[changed] = nodes[i];
-        representative[changed++] = rep[i];
-      }
-    }
     SolveEdges remaining = new SolveEdges((int) Math.min(edges.size(), heldBack * 2 + 16));
     LongPairSet firstAttractive = new LongPairSet(16);
     LongPairSet firstRepulsive = new LongPairSet(16);
@@ -191,7 +175,7 @@ public final class MutexPartSolver implements PartSolver {
       }
       remaining.add(edges, e, a, b);
     }
-    return new PartResult(merged, representative, remaining, decided, heldBack);
+    return PartResult.of(nodes, rep, remaining, decided, heldBack);
   }
 
   /** Union-find with exclusion sets and a frontier per root. */
