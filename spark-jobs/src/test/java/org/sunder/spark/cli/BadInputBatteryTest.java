@@ -216,8 +216,26 @@ class BadInputBatteryTest {
           "more memory", "blocks.shape");
     } finally {
       System.clearProperty(TaskHooks.MEMORY_KEY);
+      awaitNoRunningTasks();
     }
     assertEquals(inputBefore, checksums(input.resolve("affinities")));
+  }
+
+  /**
+   * Waits until the shared context runs no task: when a job fails, Spark cancels its other tasks
+   * asynchronously, and a task still writing its chunks would race the temporary folder's removal.
+   */
+  private static void awaitNoRunningTasks() {
+    long deadline = System.nanoTime() + 60_000_000_000L;
+    while (System.nanoTime() < deadline && java.util.Arrays.stream(spark().statusTracker()
+        .getExecutorInfos()).anyMatch(e -> e.numRunningTasks() > 0)) {
+      try {
+        Thread.sleep(50);
+      } catch (InterruptedException e) {
+        Thread.currentThread().interrupt();
+        return;
+      }
+    }
   }
 
   @Test
