@@ -9,7 +9,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Objects;
 import org.sunder.blockwise.ErrorKind;
-import org.sunder.blockwise.store.codec.Codecs;
+import org.sunder.blockwise.StoreException;
 
 /**
  * A handle on an N5 or Zarr v2 container: a root directory on the local file system holding

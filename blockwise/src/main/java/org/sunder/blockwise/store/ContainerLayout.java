@@ -2,6 +2,7 @@ package org.sunder.blockwise.store;
 
 import java.nio.file.Path;
 import java.util.Map;
+import org.sunder.blockwise.StoreException;
 import org.sunder.blockwise.store.codec.Codec;
 
 /**

@@ -12,9 +12,10 @@ import net.imglib2.Interval;
 import net.imglib2.img.array.ArrayImg;
 import net.imglib2.type.NativeType;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
+import org.sunder.blockwise.files.AtomicWrites;
 import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.store.codec.Codec;
-import org.sunder.blockwise.store.codec.Codecs;
 
 /**
  * A chunked dataset of one {@link DataType} in a {@link Container}: boxes of voxels are read

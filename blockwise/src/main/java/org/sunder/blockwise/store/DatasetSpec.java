@@ -4,7 +4,9 @@ import java.io.Serializable;
 import java.util.Arrays;
 import java.util.Objects;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 import org.sunder.blockwise.grid.Shapes;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * The layout of a dataset: shape and chunk shape in memory order (dimension 0 fastest), element

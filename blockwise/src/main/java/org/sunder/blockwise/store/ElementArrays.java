@@ -18,6 +18,7 @@ import net.imglib2.type.numeric.integer.UnsignedShortType;
 import net.imglib2.type.numeric.real.DoubleType;
 import net.imglib2.type.numeric.real.FloatType;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 
 /**
  * Type-generic operations on the primitive array behind a {@link DataType}: {@code byte[]},

@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Map;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 
 /**
  * Typed reads of the keys of one metadata file. Every failure is a {@link StoreException}

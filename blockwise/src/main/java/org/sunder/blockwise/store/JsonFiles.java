@@ -11,6 +11,8 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
+import org.sunder.blockwise.files.AtomicWrites;
 
 /**
  * Reads and writes the JSON metadata files of both formats as ordered maps. Reading accepts

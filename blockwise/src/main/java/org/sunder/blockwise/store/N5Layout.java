@@ -8,8 +8,9 @@ import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 import org.sunder.blockwise.store.codec.Codec;
-import org.sunder.blockwise.store.codec.Codecs;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * N5 on the file system (the N5 specification's "file-system specification"): every group and

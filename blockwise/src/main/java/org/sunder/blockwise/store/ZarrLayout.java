@@ -10,8 +10,9 @@ import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 import org.sunder.blockwise.store.codec.Codec;
-import org.sunder.blockwise.store.codec.Codecs;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * Zarr v2 on the file system ("Zarr Storage Specification Version 2"): groups hold

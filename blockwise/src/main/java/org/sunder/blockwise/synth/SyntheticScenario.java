@@ -6,13 +6,13 @@ import java.util.List;
 import java.util.Map;
 import net.imglib2.img.array.ArrayImgs;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.store.DatasetSpec;
-import org.sunder.blockwise.store.StoreException;
 
 /**
  * One call that puts a synthetic scenario into a container: datasets {@value #GROUND_TRUTH}

@@ -2,7 +2,7 @@ package org.sunder.blockwise.store;
 
 import org.junit.jupiter.api.Nested;
 import org.sunder.blockwise.store.codec.Codec;
-import org.sunder.blockwise.store.codec.Codecs;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * {@link CodecContract} run against every codec implementation: raw, gzip, zlib, zstd, lz4 in

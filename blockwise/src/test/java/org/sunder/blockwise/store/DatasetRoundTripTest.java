@@ -22,6 +22,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.Arguments;
 import org.junit.jupiter.params.provider.MethodSource;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * Writes random volumes in random boxes and whole chunks and reads random boxes back, against a

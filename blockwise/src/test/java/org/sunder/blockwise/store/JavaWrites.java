@@ -10,6 +10,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Random;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * Writes the arrays of the Java-to-Python interop check: every codec, element type, byte and

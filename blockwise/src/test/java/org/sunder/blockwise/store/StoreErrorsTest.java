@@ -22,6 +22,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.function.Executable;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * Every kind of bad input raises a {@link StoreException} of the right kind whose message names

@@ -19,6 +19,7 @@ import net.imglib2.FinalInterval;
 import net.imglib2.img.array.ArrayImg;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.StoreException;
 import org.sunder.testing.PythonReference;
 
 /**

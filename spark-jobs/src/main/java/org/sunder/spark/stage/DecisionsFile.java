@@ -11,7 +11,7 @@ import java.nio.file.Path;
 import java.util.List;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.store.AtomicWrites;
+import org.sunder.blockwise.files.AtomicWrites;
 import org.sunder.spark.workdir.StageLedger;
 import org.sunder.stitching.solve.SolveDecision;
 

@@ -10,7 +10,7 @@ import java.nio.file.Path;
 import java.util.BitSet;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.store.AtomicWrites;
+import org.sunder.blockwise.files.AtomicWrites;
 
 /**
  * The record of one stage's finished tasks in a work dir: one file per task, named by the task's

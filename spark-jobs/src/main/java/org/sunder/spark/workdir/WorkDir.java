@@ -10,7 +10,7 @@ import java.nio.file.Path;
 import java.util.Optional;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.store.AtomicWrites;
+import org.sunder.blockwise.files.AtomicWrites;
 
 /**
  * A run's work dir: {@code manifest.json} and, per stage, a {@link StageLedger} under

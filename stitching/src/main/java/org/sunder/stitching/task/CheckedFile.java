@@ -9,8 +9,8 @@ import java.util.Arrays;
 import java.util.zip.CRC32;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.files.AtomicWrites;
 import org.sunder.blockwise.graph.EdgeStatistics;
-import org.sunder.blockwise.store.AtomicWrites;
 
 /**
  * The frame of the work dir's binary files: an 8-byte magic, a format version (int), the body,

@@ -13,8 +13,7 @@ import net.jpountz.lz4.LZ4Compressor;
 import net.jpountz.lz4.LZ4Exception;
 import net.jpountz.lz4.LZ4Factory;
 import org.sunder.blockwise.ErrorKind;
-import org.sunder.blockwise.store.CodecSpec;
-import org.sunder.blockwise.store.StoreException;
+import org.sunder.blockwise.StoreException;
 import org.xerial.snappy.Snappy;
 
 /**
@@ -29,7 +28,7 @@ import org.xerial.snappy.Snappy;
  * blosclz), with the requested shuffle; like c-blosc, lz4/lz4hc/snappy blocks are split into
  * per-byte streams and zlib/zstd blocks are not, and incompressible data is stored memcpyed.
  */
-final class BloscCodec implements Codec {
+public final class BloscCodec implements Codec {
   static final int HEADER = 16;
   private static final int FLAG_SHUFFLE = 0x01;
   private static final int FLAG_MEMCPYED = 0x02;
@@ -46,7 +45,7 @@ final class BloscCodec implements Codec {
   private final int typeSize;
   private final int forcedBlockSize;
 
-  BloscCodec(CodecSpec spec, int typeSize) {
+  public BloscCodec(CodecSpec spec, int typeSize) {
     this.cname = spec.bloscCompressor();
     this.clevel = spec.level();
     this.typeSize = typeSize;
@@ -57,7 +56,7 @@ final class BloscCodec implements Codec {
   }
 
   /** Throws unless {@code spec} can be written (blosclz is decoded only). */
-  static void checkEncodable(CodecSpec spec) {
+  public static void checkEncodable(CodecSpec spec) {
     if ("blosclz".equals(spec.bloscCompressor())) {
       throw new StoreException(ErrorKind.INVALID_CONFIG, "blosc with cname 'blosclz' can be"
           + " read but not written; expected cname lz4, lz4hc, snappy, zlib or zstd for writing");

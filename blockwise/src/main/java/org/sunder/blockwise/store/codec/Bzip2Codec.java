@@ -11,10 +11,10 @@ import org.apache.commons.compress.compressors.bzip2.BZip2CompressorOutputStream
  * configured block size is written with the smallest block size that holds it (the same
  * output a larger block would give, but far less memory to encode and decode).
  */
-final class Bzip2Codec extends StreamCodec {
+public final class Bzip2Codec extends StreamCodec {
   private final int blockSize;
 
-  Bzip2Codec(int blockSize) {
+  public Bzip2Codec(int blockSize) {
     this.blockSize = blockSize;
   }
 

@@ -10,14 +10,14 @@ import java.util.zip.Inflater;
  * Deflate (RFC 1951) in a zlib stream (RFC 1950) or a gzip member (RFC 1952), with the JDK's
  * zlib. Gzip input may hold several concatenated members, as gzip files may.
  */
-final class DeflateCodec implements Codec {
+public final class DeflateCodec implements Codec {
   private static final int GZIP_HEADER = 10;
   private static final int GZIP_TRAILER = 8;
 
   private final boolean gzip;
   private final int level;
 
-  DeflateCodec(boolean gzip, int level) {
+  public DeflateCodec(boolean gzip, int level) {
     this.gzip = gzip;
     this.level = level;
   }

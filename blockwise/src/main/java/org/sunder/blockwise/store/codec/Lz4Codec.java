@@ -22,17 +22,17 @@ import net.jpountz.lz4.LZ4SafeDecompressor;
  *       use. Written for N5.
  * </ul>
  */
-final class Lz4Codec implements Codec {
+public final class Lz4Codec implements Codec {
   private static final byte[] MAGIC = "LZ4Block".getBytes(StandardCharsets.US_ASCII);
   private static final LZ4Factory FACTORY = LZ4Factory.fastestInstance();
 
   /** How the LZ4 data is framed. */
-  enum Framing { SIZE_PREFIXED, BLOCK_STREAM }
+  public enum Framing { SIZE_PREFIXED, BLOCK_STREAM }
 
   private final Framing framing;
   private final int blockSize;
 
-  Lz4Codec(Framing framing, int blockSize) {
+  public Lz4Codec(Framing framing, int blockSize) {
     this.framing = framing;
     this.blockSize = blockSize;
   }

@@ -4,7 +4,7 @@ import java.io.IOException;
 import java.util.Arrays;
 
 /** No compression: the bytes are stored as they are. */
-final class RawCodec implements Codec {
+public final class RawCodec implements Codec {
 
   @Override
   public byte[] encode(byte[] data) {

@@ -16,11 +16,11 @@ import org.tukaani.xz.XZOutputStream;
  * dictionary is capped at the chunk size (same output, less memory), and buffers are reused
  * through XZ for Java's {@link BasicArrayCache}.
  */
-final class XzCodec extends StreamCodec {
+public final class XzCodec extends StreamCodec {
 
   private final int preset;
 
-  XzCodec(int preset) {
+  public XzCodec(int preset) {
     this.preset = preset;
   }
 

@@ -5,10 +5,10 @@ import com.github.luben.zstd.ZstdException;
 import java.io.IOException;
 
 /** Zstandard frames (RFC 8878) through zstd-jni, which bundles its native library. */
-final class ZstdCodec implements Codec {
+public final class ZstdCodec implements Codec {
   private final int level;
 
-  ZstdCodec(int level) {
+  public ZstdCodec(int level) {
     this.level = level;
   }
 

@@ -11,12 +11,12 @@ import java.util.stream.Stream;
 import net.imglib2.FinalInterval;
 import net.imglib2.img.array.ArrayImg;
 import net.imglib2.img.array.ArrayImgs;
-import org.sunder.blockwise.store.CodecSpec;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
+import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
  * Write and read throughput of whole volumes through {@link Dataset} per codec, single-threaded,

@@ -14,7 +14,7 @@ import java.util.List;
 import java.util.Random;
 import java.util.zip.GZIPOutputStream;
 import org.junit.jupiter.api.Test;
-import org.sunder.blockwise.store.CodecSpec;
+import org.sunder.blockwise.store.Codecs;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.StorageFormat;
 

@@ -1,4 +1,4 @@
-package org.sunder.blockwise.store;
+package org.sunder.blockwise.files;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
@@ -18,6 +18,7 @@ import java.util.stream.Stream;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 
 /** The one atomic write: whole content or nothing, no temporaries left, typed failures. */
 class AtomicWritesTest {

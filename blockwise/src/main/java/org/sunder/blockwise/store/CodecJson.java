@@ -1,9 +1,9 @@
-package org.sunder.blockwise.store.codec;
+package org.sunder.blockwise.store;
 
 import java.util.Map;
 import java.util.function.Supplier;
 import org.sunder.blockwise.ErrorKind;
-import org.sunder.blockwise.store.StoreException;
+import org.sunder.blockwise.StoreException;
 
 /** Typed reads of a codec's JSON object with messages that name the file and key. */
 final class CodecJson {

@@ -1,12 +1,18 @@
-package org.sunder.blockwise.store.codec;
+package org.sunder.blockwise.store;
 
 import java.util.LinkedHashMap;
 import java.util.Map;
 import org.sunder.blockwise.ErrorKind;
-import org.sunder.blockwise.store.CodecSpec;
-import org.sunder.blockwise.store.DataType;
-import org.sunder.blockwise.store.StorageFormat;
-import org.sunder.blockwise.store.StoreException;
+import org.sunder.blockwise.StoreException;
+import org.sunder.blockwise.store.codec.BloscCodec;
+import org.sunder.blockwise.store.codec.Bzip2Codec;
+import org.sunder.blockwise.store.codec.Codec;
+import org.sunder.blockwise.store.codec.CodecSpec;
+import org.sunder.blockwise.store.codec.DeflateCodec;
+import org.sunder.blockwise.store.codec.Lz4Codec;
+import org.sunder.blockwise.store.codec.RawCodec;
+import org.sunder.blockwise.store.codec.XzCodec;
+import org.sunder.blockwise.store.codec.ZstdCodec;
 
 /**
  * The codec registry: makes a {@link Codec} from a {@link CodecSpec}, and maps specs to and from

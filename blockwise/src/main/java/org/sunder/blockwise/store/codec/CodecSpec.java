@@ -1,13 +1,15 @@
-package org.sunder.blockwise.store;
+package org.sunder.blockwise.store.codec;
 
 import java.io.Serializable;
 import java.util.Objects;
 import java.util.Set;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
+import org.sunder.blockwise.store.Codecs;
 
 /**
  * Which compression a dataset's chunks use, with its parameters. An immutable value; the codec
- * itself is made by {@link org.sunder.blockwise.store.codec.Codecs}.
+ * itself is made by {@link org.sunder.blockwise.store.Codecs}.
  *
  * <p>Names: {@code raw}, {@code gzip}, {@code zlib}, {@code zstd}, {@code lz4}, {@code bzip2},
  * {@code xz}, {@code blosc}. {@link #level()} is the compression level (gzip, zlib, zstd, blosc's

@@ -1,4 +1,4 @@
-package org.sunder.blockwise.store;
+package org.sunder.blockwise.files;
 
 import java.io.IOException;
 import java.nio.ByteBuffer;
@@ -11,6 +11,7 @@ import java.nio.file.StandardCopyOption;
 import java.nio.file.StandardOpenOption;
 import java.util.concurrent.ThreadLocalRandom;
 import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.StoreException;
 
 /**
  * Writes a file whole or not at all: the bytes go to a hidden temporary file in the target's

@@ -1,7 +1,5 @@
-package org.sunder.blockwise.store;
+package org.sunder.blockwise;
 
-import org.sunder.blockwise.ErrorKind;
-import org.sunder.blockwise.SunderException;
 
 /**
  * An error of the storage layer. Its kind tells what went wrong: {@link ErrorKind#INVALID_INPUT}
