@@ -1,15 +1,10 @@
 package org.sunder.spark.cli;
 
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.blockwise.SunderException;
-import org.sunder.blockwise.metrics.TunedBaseline;
-import org.sunder.blockwise.store.StorageFormat;
-import org.sunder.blockwise.synth.SyntheticScenario;
-import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.spark.Launcher;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.demo.DemoScenario;
@@ -19,6 +14,7 @@ import org.sunder.spark.run.RunLoader;
 import org.sunder.spark.stage.Pipeline;
 import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.workdir.Stage;
+import org.sunder.stitching.demo.DemoVolume;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
@@ -81,26 +77,25 @@ final class DemoCommand implements Callable<Integer> {
   @Override
   public Integer call() {
     spark.requireValid();
-    StorageFormat storage = switch (format.toLowerCase(java.util.Locale.ROOT)) {
-      case "zarr" -> StorageFormat.ZARR;
-      case "n5" -> StorageFormat.N5;
-      default -> throw new ConfigException("--format: expected zarr or n5, got '" + format + "'");
-    };
-    long[] shape = shape();
-    TissuePreset preset;
+    DemoVolume volume;
     try {
-      preset = TissuePreset.named(tissue);
+      volume = DemoVolume.in(dir, format);
+    } catch (SunderException e) {
+      throw new ConfigException("--format: " + e.getMessage());
+    }
+    long[] shape = shape();
+    try {
+      DemoVolume.requireTissue(tissue);
     } catch (SunderException e) {
       throw new ConfigException("--tissue: " + e.getMessage());
     }
-    Path volume = DemoScenario.container(dir, storage);
-    if (Files.isDirectory(volume.resolve(SyntheticScenario.AFFINITIES))) {
-      cli.out().println("demo: reusing the synthetic volume in " + volume + " (delete it to"
-          + " generate another with --shape, --tissue or --seed)");
+    if (volume.isWritten()) {
+      cli.out().println("demo: reusing the synthetic volume in " + volume.container()
+          + " (delete it to generate another with --shape, --tissue or --seed)");
     } else {
-      cli.out().println("demo: preparing a synthetic volume in " + volume);
+      cli.out().println("demo: preparing a synthetic volume in " + volume.container());
     }
-    Path config = DemoScenario.prepare(dir, storage, preset, shape, seed);
+    Path config = DemoScenario.prepare(dir, volume, tissue, shape, seed);
     RunReport report;
     String output;
     try (PreparedRun run = RunLoader.prepare(config, null, fresh)) {
@@ -115,12 +110,7 @@ final class DemoCommand implements Callable<Integer> {
       }
     }
     report.print(cli.out());
-    TunedBaseline naive = DemoScenario.baseline(DemoScenario.container(dir, storage));
-    cli.out().printf(java.util.Locale.ROOT, "yardstick: naive seeded watershed (threshold %.2f,"
-        + " the best of %s): adapted Rand error %.4f, VOI split %.4f, merge %.4f,"
-        + " %d segments%n", naive.threshold(), java.util.Arrays.toString(TunedBaseline.THRESHOLDS),
-        naive.scores().adaptedRandError(), naive.scores().voiSplit(),
-        naive.scores().voiMerge(), naive.segmentation().segmentCount());
+    cli.out().println(volume.yardstick());
     cli.out().println();
     cli.out().println("The demo volume is synthetic; automated segmentations of real data contain"
         + " errors and need proofreading.");

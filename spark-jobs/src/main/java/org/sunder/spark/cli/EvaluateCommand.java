@@ -6,16 +6,15 @@ import java.util.Arrays;
 import java.util.Optional;
 import java.util.concurrent.Callable;
 import org.apache.spark.api.java.JavaSparkContext;
-import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.evaluate.EvaluateJob;
-import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.run.RunResolver;
 import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.scores.EvaluationScores;
+import org.sunder.stitching.scores.SeamAuditResult;
 import org.sunder.stitching.setup.EvaluationTarget;
 import org.sunder.stitching.task.EvaluateTask;
 import picocli.CommandLine.Command;
@@ -97,11 +96,11 @@ final class EvaluateCommand implements Callable<Integer> {
     EvaluateTask.requireComparable(target);
     JavaSparkContext sc = cli.spark().open(spark.master);
     try {
-      SegmentationScores scores = EvaluateJob.score(sc, target);
-      ScoreReport.print(scores, ignoreBackground, cli.out());
+      EvaluationScores scores = EvaluateJob.score(sc, target);
+      scores.print(ignoreBackground, cli.out());
       if (blocks.isPresent()) {
-        SeamAudit audit = SeamAuditJob.audit(sc, target, blocks.get().memoryOrder());
-        ScoreReport.printSeamAudit(audit, blocks.get().text(), cli.out());
+        SeamAuditResult audit = SeamAuditJob.audit(sc, target, blocks.get().memoryOrder());
+        audit.print(blocks.get().text(), cli.out());
       } else {
         cli.out().println("seam audit: skipped, no block shape: give --block-shape, or evaluate"
             + " the output of a run whose work dir is " + runWorkDir(seg[0], seg[1])

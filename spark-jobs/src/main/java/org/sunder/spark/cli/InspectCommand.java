@@ -2,7 +2,7 @@ package org.sunder.spark.cli;
 
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
-import org.sunder.spark.inspect.ContainerReport;
+import org.sunder.stitching.inspect.ContainerReport;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.ParentCommand;

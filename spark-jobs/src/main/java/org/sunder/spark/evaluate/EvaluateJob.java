@@ -6,10 +6,10 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.api.java.function.Function;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.metrics.ContingencyTable;
-import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.progress.ProgressListener;
+import org.sunder.stitching.scores.EvaluationScores;
 import org.sunder.stitching.setup.EvaluationTarget;
+import org.sunder.stitching.task.BoxCounts;
 import org.sunder.stitching.task.EvaluateTask;
 
 /**
@@ -20,11 +20,11 @@ import org.sunder.stitching.task.EvaluateTask;
 public final class EvaluateJob {
   private EvaluateJob() {}
 
-  public static SegmentationScores score(JavaSparkContext sc, EvaluationTarget target) {
+  public static EvaluationScores score(JavaSparkContext sc, EvaluationTarget target) {
     BlockGrid grid = EvaluateTask.boxes(target);
     List<Integer> indices = IntStream.range(0, grid.blockCount()).boxed().toList();
     sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, "evaluate");
-    List<ContingencyTable.Pairs> parts;
+    List<BoxCounts> parts;
     try {
       parts = sc.parallelize(indices, Math.max(1, Math.min(indices.size(), 20_000)))
           .map(new CountBox(target, grid)).collect();
@@ -35,7 +35,7 @@ public final class EvaluateJob {
   }
 
   /** One box's contingency table. */
-  static final class CountBox implements Function<Integer, ContingencyTable.Pairs> {
+  static final class CountBox implements Function<Integer, BoxCounts> {
     private static final long serialVersionUID = 1L;
     private final EvaluationTarget target;
     private final BlockGrid grid;
@@ -46,7 +46,7 @@ public final class EvaluateJob {
     }
 
     @Override
-    public ContingencyTable.Pairs call(Integer index) {
+    public BoxCounts call(Integer index) {
       Block block = grid.block(index);
       return EvaluateTask.count(target, block.coreMin(), block.coreMax());
     }

@@ -5,14 +5,14 @@ import java.util.stream.IntStream;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.api.java.function.Function;
 import org.apache.spark.api.java.function.Function2;
-import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.SeamTally;
 import org.sunder.spark.progress.ProgressListener;
+import org.sunder.stitching.scores.SeamAuditResult;
 import org.sunder.stitching.setup.EvaluationTarget;
+import org.sunder.stitching.task.SeamAuditTally;
 import org.sunder.stitching.task.SeamAuditTask;
 
 /**
- * Audits the seams of a segmentation on Spark ({@link SeamAudit}): one {@link SeamAuditTask}
+ * Audits the seams of a segmentation on Spark ({@link SeamAuditResult}): one {@link SeamAuditTask}
  * per face; tallies are merged per partition on the executors and then on the driver. No voxel
  * array leaves a task; a tally holds two counts per plane and one entry per (plane, object) met.
  */
@@ -25,7 +25,7 @@ public final class SeamAuditJob {
    *
    * @param blockShape block core shape, memory order
    */
-  public static SeamAudit audit(JavaSparkContext sc, EvaluationTarget target, int[] blockShape) {
+  public static SeamAuditResult audit(JavaSparkContext sc, EvaluationTarget target, int[] blockShape) {
     SeamAuditTask task = SeamAuditTask.of(target, blockShape);
     if (task.faceCount() == 0) {
       return task.emptyTally().audit();
@@ -43,7 +43,7 @@ public final class SeamAuditJob {
   }
 
   /** Face index to the tally of its slabs. */
-  static final class TallyFace implements Function<Integer, SeamTally> {
+  static final class TallyFace implements Function<Integer, SeamAuditTally> {
     private static final long serialVersionUID = 1L;
     private final SeamAuditTask task;
 
@@ -52,19 +52,18 @@ public final class SeamAuditJob {
     }
 
     @Override
-    public SeamTally call(Integer face) {
+    public SeamAuditTally call(Integer face) {
       return task.tally(face);
     }
   }
 
   /** Merges the second tally into the first. */
-  static final class MergeTallies implements Function2<SeamTally, SeamTally, SeamTally> {
+  static final class MergeTallies implements Function2<SeamAuditTally, SeamAuditTally, SeamAuditTally> {
     private static final long serialVersionUID = 1L;
 
     @Override
-    public SeamTally call(SeamTally a, SeamTally b) {
-      a.merge(b);
-      return a;
+    public SeamAuditTally call(SeamAuditTally a, SeamAuditTally b) {
+      return a.merge(b);
     }
   }
 }

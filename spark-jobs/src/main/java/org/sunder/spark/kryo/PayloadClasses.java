@@ -1,6 +1,8 @@
 package org.sunder.spark.kryo;
 
 import java.util.List;
+import java.util.stream.Stream;
+import org.sunder.stitching.TaskPayloads;
 
 /**
  * The classes Sunder's stages send through Spark, in a fixed order (Kryo numbers registered
@@ -17,24 +19,16 @@ public final class PayloadClasses {
   public static final java.util.Set<Class<?>> JAVA_SERIALIZED =
       java.util.Set.of(org.sunder.stitching.setup.StitchingSetup.class);
 
-  /** Every payload class, including the arrays they hold. */
-  public static final List<Class<?>> ALL = List.of(
+  /**
+   * Every payload class, including the arrays they hold: the run's own classes, then the
+   * stitching tasks' results ({@link TaskPayloads#CLASSES}, where new task result classes go).
+   */
+  public static final List<Class<?>> ALL = Stream.concat(Stream.of(
       int[].class, long[].class, double[].class, float[].class, byte[].class, boolean[].class,
       int[][].class, long[][].class, String[].class, Object[].class,
       java.util.ArrayList.class, java.util.BitSet.class,
       org.sunder.spark.run.RunSettings.class, org.sunder.stitching.setup.StitchingSetup.class,
       org.sunder.spark.run.BlockShapeOrigin.class, org.sunder.spark.run.TaskBudget.class,
-      org.sunder.blockwise.grid.BlockShapeChoice.Limit.class,
-      org.sunder.blockwise.graph.EdgeStatistics.class,
-      org.sunder.blockwise.grid.IdLayout.class,
-      org.sunder.blockwise.metrics.ContingencyTable.Pairs.class,
-      org.sunder.stitching.task.BlockSummary.class,
-      org.sunder.stitching.task.SeamEdges.class,
-      org.sunder.stitching.solve.FinalIdMap.class,
-      org.sunder.stitching.solve.SolveReport.class,
-      org.sunder.stitching.solve.GlobalSolve.Result.class,
-      org.sunder.blockwise.metrics.SeamPlanes.class,
-      org.sunder.blockwise.metrics.SeamTally.class,
-      org.sunder.stitching.task.BlockSummaryFile.Stored.class,
-      org.sunder.stitching.task.SeamEdgesFile.Stored.class);
+      org.sunder.blockwise.grid.BlockShapeChoice.Limit.class),
+      TaskPayloads.CLASSES.stream()).toList();
 }

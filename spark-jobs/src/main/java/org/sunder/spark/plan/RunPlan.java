@@ -20,6 +20,7 @@ import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.run.TaskBudget;
 import org.sunder.spark.stage.PyramidStep;
 import org.sunder.stitching.setup.PartitionEstimate;
+import org.sunder.stitching.setup.StitchingSetup;
 import org.sunder.stitching.task.LabelPyramid;
 import org.sunder.stitching.task.PartitionSample;
 
@@ -70,7 +71,7 @@ public final class RunPlan {
     if (origin != null && origin.note() != null) {
       out.println("note       " + origin.note());
     }
-    List<HaloShortfall> shortfalls = grid.haloShortfalls(s.setup().offsets().reach());
+    List<HaloShortfall> shortfalls = grid.haloShortfalls(StitchingSetup.longestOffsets(s.offsets()));
     for (HaloShortfall shortfall : shortfalls) {
       out.println("note       " + shortfall.message());
     }

@@ -18,11 +18,7 @@ import org.sunder.blockwise.files.AtomicWrites;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
-import org.sunder.blockwise.metrics.ObjectOverlaps;
-import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;
-import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.run.RunSettings;
@@ -34,6 +30,9 @@ import org.sunder.spark.workdir.Manifest;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.SunderVersion;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.scores.EvaluationScores;
+import org.sunder.stitching.scores.Overlap;
+import org.sunder.stitching.scores.SeamAuditResult;
 import org.sunder.stitching.setup.EvaluationTarget;
 import org.sunder.stitching.solve.GlobalSolve;
 import org.sunder.stitching.solve.SolveDecision;
@@ -85,7 +84,7 @@ public final class RunReportWriter {
    *     evaluate records when complete)
    */
   public static Path write(JavaSparkContext sc, RunSettings settings, WorkDir work,
-      SeamAudit seams, SegmentationScores scores) {
+      SeamAuditResult seams, EvaluationScores scores) {
     Plane.requireThreeDimensions(settings.volumeShape());
     RunReportWriter writer = new RunReportWriter(sc, settings, work);
     ReportPage page = writer.page(seams, scores);
@@ -113,7 +112,7 @@ public final class RunReportWriter {
     return work.ledger(stage).finished().cardinality() >= tasks;
   }
 
-  private ReportPage page(SeamAudit seams, SegmentationScores scores) {
+  private ReportPage page(SeamAuditResult seams, EvaluationScores scores) {
     ReportPage page = new ReportPage("Sunder run report");
     page.paragraph("Segmentation " + s.outputContainer() + " : " + s.outputDataset()
         + "; written " + Instant.now().toString().substring(0, 19).replace('T', ' ')
@@ -309,15 +308,15 @@ public final class RunReportWriter {
         s.ignoreBackground());
   }
 
-  private void seamAudit(ReportPage page, SeamAudit audit) {
+  private void seamAudit(ReportPage page, SeamAuditResult audit) {
     page.heading("Seam audit");
-    page.preformatted(captured(out -> ScoreReport.printSeamAudit(audit,
+    page.preformatted(captured(out -> audit.print(
         Arrays.toString(axes.toFile(s.blockShape())) + " (" + axes + ")", out)));
   }
 
-  private void scores(ReportPage page, SegmentationScores scores) {
+  private void scores(ReportPage page, EvaluationScores scores) {
     page.heading("Scores against the ground truth");
-    page.preformatted(captured(out -> ScoreReport.print(scores, s.ignoreBackground(), out)));
+    page.preformatted(captured(out -> scores.print(s.ignoreBackground(), out)));
     worst(page, "Worst splits", scores.worstSplits(), true);
     worst(page, "Worst merges", scores.worstMerges(), false);
   }
@@ -328,20 +327,20 @@ public final class RunReportWriter {
    * centre along the slowest axis and colours, inside the object, the labels of the other side
    * (the segments of a split object, the objects of a merged segment).
    */
-  private void worst(ReportPage page, String title, List<ObjectOverlaps> list, boolean splits) {
+  private void worst(ReportPage page, String title, List<Overlap> list, boolean splits) {
     page.heading(title);
     if (list.isEmpty()) {
       page.paragraph(splits ? "No ground-truth object is split." : "No segment merges objects.");
       return;
     }
-    List<ObjectOverlaps> top = list.subList(0, Math.min(WORST, list.size()));
-    long[] labels = top.stream().mapToLong(ObjectOverlaps::label).toArray();
+    List<Overlap> top = list.subList(0, Math.min(WORST, list.size()));
+    long[] labels = top.stream().mapToLong(Overlap::label).toArray();
     String container = splits ? s.truthContainer() : s.outputContainer();
     String dataset = splits ? s.groundTruth() : s.outputDataset();
     long[][] boxes = ObjectBoxes.of(sc, container, dataset, grid, labels);
     List<List<String>> rows = new ArrayList<>();
     for (int i = 0; i < top.size(); i++) {
-      ObjectOverlaps o = top.get(i);
+      Overlap o = top.get(i);
       rows.add(List.of((splits ? "object " : "segment ") + Long.toUnsignedString(o.label()),
           String.valueOf(o.voxels()), String.valueOf(o.overlapCount()),
           String.valueOf(o.misassignedVoxels()), box(boxes[i])));

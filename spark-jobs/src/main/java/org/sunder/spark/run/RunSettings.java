@@ -69,7 +69,7 @@ public record RunSettings(String axes, StitchingSetup setup, String workDir, lon
 
   /** One offset per channel, memory order. */
   public int[][] offsets() {
-    return setup.offsets().vectors();
+    return setup.offsetVectors();
   }
 
   /** The mask dataset in the input container, if any. */

@@ -8,9 +8,6 @@ import org.apache.spark.SparkConf;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.apache.spark.broadcast.Broadcast;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.metrics.ContingencyTable;
-import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.evaluate.SeamAuditJob;
 import org.sunder.spark.kryo.PayloadCodec;
@@ -21,8 +18,11 @@ import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.WorkDir;
+import org.sunder.stitching.scores.EvaluationScores;
+import org.sunder.stitching.scores.SeamAuditResult;
 import org.sunder.stitching.setup.EvaluationTarget;
 import org.sunder.stitching.solve.SolveReport;
+import org.sunder.stitching.task.BoxCounts;
 import org.sunder.stitching.task.EvaluateTask;
 
 /**
@@ -31,7 +31,7 @@ import org.sunder.stitching.task.EvaluateTask;
  * truth is configured), pyramid (per chunk of each coarser level), and then writes the run
  * report (written by the commands). Settings are broadcast once; tasks read and write the containers
  * themselves; finished tasks are skipped. When relabel or evaluate ran and the final segmentation
- * is complete, a {@link SeamAudit} of it (per face, against the ground truth when configured)
+ * is complete, a {@link SeamAuditResult} of it (per face, against the ground truth when configured)
  * joins the report; it is not recorded, so a rerun audits again. Progress goes to
  * {@code progress}, results to {@code out}.
  */
@@ -76,7 +76,7 @@ public final class Pipeline {
     BlockGrid grid = settings.grid();
     List<StageReport> reports = new ArrayList<>();
     SolveReport solved = null;
-    SegmentationScores scores = null;
+    EvaluationScores scores = null;
     boolean single = stages.size() == 1;
     for (Stage stage : Stage.values()) {
       if (!stages.contains(stage)) {
@@ -112,7 +112,7 @@ public final class Pipeline {
     if (solved == null && work.ledger(Stage.SOLVE).isFinished(0)) {
       solved = solve.recorded();
     }
-    SeamAudit seams = null;
+    SeamAuditResult seams = null;
     boolean complete = work.ledger(Stage.RELABEL).finished().cardinality() == grid.blockCount();
     if (complete && (stages.contains(Stage.RELABEL) || stages.contains(Stage.EVALUATE))) {
       seams = SeamAuditJob.audit(sc, auditTarget(settings), settings.blockShape());
@@ -130,11 +130,11 @@ public final class Pipeline {
   }
 
   /** The scores from the evaluate stage's records of {@code blocks} blocks. */
-  public static SegmentationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
+  public static EvaluationScores scores(WorkDir work, int blocks, boolean ignoreBackground) {
     PayloadCodec codec = new PayloadCodec();
-    List<ContingencyTable.Pairs> boxes = new ArrayList<>(blocks);
+    List<BoxCounts> boxes = new ArrayList<>(blocks);
     for (int b = 0; b < blocks; b++) {
-      boxes.add(codec.decode(work.ledger(Stage.EVALUATE).read(b), ContingencyTable.Pairs.class,
+      boxes.add(codec.decode(work.ledger(Stage.EVALUATE).read(b), BoxCounts.class,
           "evaluate record " + b));
     }
     return EvaluateTask.score(boxes, ignoreBackground);

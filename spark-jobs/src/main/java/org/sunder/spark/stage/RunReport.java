@@ -4,11 +4,10 @@ import java.io.PrintStream;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
-import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.spark.config.AxisOrder;
-import org.sunder.spark.evaluate.ScoreReport;
 import org.sunder.spark.run.RunSettings;
+import org.sunder.stitching.scores.EvaluationScores;
+import org.sunder.stitching.scores.SeamAuditResult;
 import org.sunder.stitching.solve.SolveReport;
 
 /**
@@ -21,7 +20,7 @@ import org.sunder.stitching.solve.SolveReport;
  * @param seconds wall time of this run's stages
  */
 public record RunReport(RunSettings settings, List<StageReport> stages, SolveReport solve,
-    SegmentationScores scores, SeamAudit seams, double seconds) {
+    EvaluationScores scores, SeamAuditResult seams, double seconds) {
   public RunReport {
     stages = List.copyOf(stages);
   }
@@ -37,12 +36,11 @@ public record RunReport(RunSettings settings, List<StageReport> stages, SolveRep
           solve.finalIdCount()));
     }
     if (scores != null) {
-      ScoreReport.print(scores, settings.ignoreBackground(), out);
+      scores.print(settings.ignoreBackground(), out);
     }
     if (seams != null) {
       AxisOrder axes = new AxisOrder(settings.axes());
-      ScoreReport.printSeamAudit(seams, Arrays.toString(axes.toFile(settings.blockShape())) + " ("
-          + axes + ")", out);
+      seams.print(Arrays.toString(axes.toFile(settings.blockShape())) + " (" + axes + ")", out);
     }
     out.println(String.format(Locale.ROOT, "segmentation: %s  dataset %s  (this run's stages took %.2f s)",
         settings.outputContainer(), settings.outputDataset(), seconds));

@@ -20,7 +20,6 @@ import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.store.StorageFormat;
-import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.spark.Launcher;
 import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.demo.DemoScenario;
@@ -31,6 +30,7 @@ import org.sunder.spark.run.RunLoader;
 import org.sunder.spark.run.TestContainers;
 import org.sunder.spark.stage.StageReport;
 import org.sunder.spark.workdir.Stage;
+import org.sunder.stitching.demo.DemoVolume;
 
 /** The rough edges a new user met on the command line and in {@code plan}, each smoothed. */
 class CliRoughEdgesTest {
@@ -156,8 +156,9 @@ class CliRoughEdgesTest {
     // The demo's default --dir, sunder-demo, seen from the project folder; the example lives in
     // config-examples/ beside it.
     Path project = dir.resolve("project");
-    DemoScenario.prepare(project.resolve("sunder-demo"), StorageFormat.ZARR,
-        TissuePreset.COMPACT_CELLS, new long[] {8, 16, 16}, 13);
+    Path demo = project.resolve("sunder-demo");
+    DemoScenario.prepare(demo, DemoVolume.in(demo, "zarr"), "compact-cells",
+        new long[] {8, 16, 16}, 13);
     Path example = project.resolve("config-examples/local-demo.json");
     Files.createDirectories(example.getParent());
     Files.copy(Path.of("..", "config-examples", "local-demo.json"), example);

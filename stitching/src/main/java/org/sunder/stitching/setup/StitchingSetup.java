@@ -70,6 +70,11 @@ public record StitchingSetup(String inputRoot, String affinitiesPath, String mas
         PartitionSection.resolve(partitionSection, voxelSizeSlowestFirst, vectors));
   }
 
+  /** One offset vector per affinity channel, memory order. */
+  public int[][] offsetVectors() {
+    return offsets.vectors();
+  }
+
   /** The longest of {@code offsets} (memory order) along each axis: the default halo. */
   public static int[] longestOffsets(int[][] offsets) {
     return new Offsets(offsets).reach();

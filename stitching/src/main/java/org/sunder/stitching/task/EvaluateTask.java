@@ -13,10 +13,10 @@ import org.sunder.blockwise.metrics.EvaluationRegion;
 import org.sunder.blockwise.metrics.Evaluator;
 import org.sunder.blockwise.metrics.ScoreOptions;
 import org.sunder.blockwise.metrics.Scorer;
-import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
+import org.sunder.stitching.scores.EvaluationScores;
 import org.sunder.stitching.setup.EvaluationTarget;
 
 /**
@@ -33,28 +33,27 @@ public final class EvaluateTask {
   private EvaluateTask() {}
 
   /** Counts the voxels of the box {@code [min, max]} (memory order, inclusive). */
-  public static ContingencyTable.Pairs count(EvaluationTarget target, long[] min, long[] max) {
+  public static BoxCounts count(EvaluationTarget target, long[] min, long[] max) {
     Dataset segmentation = Container.open(Path.of(target.segmentationContainer()))
         .openDataset(target.segmentation());
     Dataset truth = Container.open(Path.of(target.truthContainer())).openDataset(target.truth());
     EvaluationRegion region = target.mask() == null ? EvaluationRegion.whole()
         : EvaluationRegion.mask(Container.open(Path.of(target.maskContainer()))
             .openDataset(target.mask()));
-    return new Evaluator(truth, segmentation, region, null)
-        .table(new FinalInterval(min, max)).sortedPairs();
+    return BoxCounts.of(new Evaluator(truth, segmentation, region, null)
+        .table(new FinalInterval(min, max)).sortedPairs());
   }
 
   /** The scores of the sum of the boxes' tables. */
-  public static SegmentationScores score(List<ContingencyTable.Pairs> boxes,
-      boolean ignoreBackground) {
+  public static EvaluationScores score(List<BoxCounts> boxes, boolean ignoreBackground) {
     ContingencyTable table = new ContingencyTable();
-    for (ContingencyTable.Pairs pairs : boxes) {
+    for (BoxCounts pairs : boxes) {
       for (int i = 0; i < pairs.size(); i++) {
         table.add(pairs.groundTruth()[i], pairs.segment()[i], pairs.count()[i]);
       }
     }
-    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(ignoreBackground))
-        .score(table);
+    return new EvaluationScores(new Scorer(ScoreOptions.DEFAULT
+        .withIgnoreGroundTruthZero(ignoreBackground)).score(table));
   }
 
   /**

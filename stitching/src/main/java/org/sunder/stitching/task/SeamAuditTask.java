@@ -20,8 +20,8 @@ import org.sunder.stitching.setup.EvaluationTarget;
 /**
  * The seam audit ({@link SeamAudit}) of a segmentation as tasks, one per face of the block grid
  * with the given core shape: {@link #tally(int)} reads the two voxel layers around the face and
- * around its control plane ({@link SeamPlanes#slabsOf}) and returns its {@link SeamTally};
- * tallies merge in any order. With the ground truth when the target names one. Voxels outside
+ * around its control plane ({@link SeamPlanes#slabsOf}) and returns its
+ * {@link SeamAuditTally}; tallies merge in any order. With the ground truth when the target names one. Voxels outside
  * the target's mask count as segment 0 (ignored). Reads about {@code 4 * face area} voxels per
  * face (whole chunks around each slab).
  *
@@ -56,17 +56,21 @@ public record SeamAuditTask(EvaluationTarget target, BlockGrid grid, SeamPlanes 
   }
 
   /** A tally with nothing counted yet (the result when there is no face). */
-  public SeamTally emptyTally() {
+  public SeamAuditTally emptyTally() {
+    return new SeamAuditTally(newCounts());
+  }
+
+  private SeamTally newCounts() {
     return new SeamTally(planes, target.truth() != null);
   }
 
   /** The tally of face {@code faceIndex}'s slabs (read here). */
-  public SeamTally tally(int faceIndex) {
+  public SeamAuditTally tally(int faceIndex) {
     Face face = grid.face(faceIndex);
-    SeamTally tally = emptyTally();
+    SeamTally tally = newCounts();
     Interval[] slabs = planes.slabsOf(face);
     if (slabs.length == 0) {
-      return tally;
+      return new SeamAuditTally(tally);
     }
     Dataset segmentation = Container.open(Path.of(target.segmentationContainer()))
         .openDataset(target.segmentation());
@@ -88,6 +92,6 @@ public record SeamAuditTask(EvaluationTarget target, BlockGrid grid, SeamPlanes 
       }
       tally.add(face.axis(), box.minAsLongArray(), box.maxAsLongArray(), gt, seg);
     }
-    return tally;
+    return new SeamAuditTally(tally);
   }
 }

@@ -1,53 +1,30 @@
-package org.sunder.spark.evaluate;
+package org.sunder.stitching.scores;
 
 import java.io.PrintStream;
 import java.util.Locale;
-import org.sunder.blockwise.metrics.ObjectOverlaps;
 import org.sunder.blockwise.metrics.SeamAudit;
-import org.sunder.blockwise.metrics.SegmentationScores;
 
 /**
- * Prints {@link SegmentationScores} and {@link SeamAudit}s for people (and, one value per line,
- * for scripts).
+ * The seam audit of a segmentation ({@link SeamAudit}: objects cut at block faces against
+ * control planes half a block away) as a run or a stand-alone evaluation hands it on, with its
+ * text.
  */
-public final class ScoreReport {
-  private ScoreReport() {}
+public final class SeamAuditResult {
+  private final SeamAudit audit;
 
-  public static void print(SegmentationScores s, boolean ignoreBackground, PrintStream out) {
-    out.println("scores over " + s.evaluatedVoxels() + " voxels"
-        + (ignoreBackground ? " (ground-truth label 0 ignored)" : ""));
-    out.println(String.format(Locale.ROOT, "  voi_split            %.6f bits", s.voiSplit()));
-    out.println(String.format(Locale.ROOT, "  voi_merge            %.6f bits", s.voiMerge()));
-    out.println(String.format(Locale.ROOT, "  adapted_rand_error   %.6f", s.adaptedRandError()));
-    out.println(String.format(Locale.ROOT, "  rand_precision       %.6f", s.randPrecision()));
-    out.println(String.format(Locale.ROOT, "  rand_recall          %.6f", s.randRecall()));
-    out.println(String.format(Locale.ROOT, "  adjusted_rand_index  %.6f", s.adjustedRandIndex()));
-    out.println("  segments             " + s.segmentCount());
-    out.println("  ground_truth_objects " + s.groundTruthObjectCount());
-    if (!s.worstSplits().isEmpty()) {
-      out.println("  worst splits (ground-truth object: voxels, pieces):");
-      for (ObjectOverlaps o : s.worstSplits().subList(0, Math.min(5, s.worstSplits().size()))) {
-        out.println("    " + Long.toUnsignedString(o.label()) + ": " + o.voxels() + " voxels in "
-            + o.overlapCount() + " segments");
-      }
-    }
-    if (!s.worstMerges().isEmpty()) {
-      out.println("  worst merges (segment: voxels, objects):");
-      for (ObjectOverlaps o : s.worstMerges().subList(0, Math.min(5, s.worstMerges().size()))) {
-        out.println("    " + Long.toUnsignedString(o.label()) + ": " + o.voxels()
-            + " voxels covering " + o.overlapCount() + " objects");
-      }
-    }
+  public SeamAuditResult(SeamAudit audit) {
+    this.audit = audit;
   }
 
   /**
-   * Prints a seam audit: with ground truth the objects cut at block faces against the control
+   * Prints the audit: with ground truth the objects cut at block faces against the control
    * planes, always the boundary share at both, and a verdict line that says whether the seams
    * are worse than the control.
    *
    * @param blocks the block core shape as the user writes it, e.g. {@code "[10, 28, 32] (zyx)"}
    */
-  public static void printSeamAudit(SeamAudit a, String blocks, PrintStream out) {
+  public void print(String blocks, PrintStream out) {
+    SeamAudit a = audit;
     out.println("seam audit: blocks " + blocks + ", " + a.facePlanes() + " face planes against"
         + " as many control planes half a block away");
     if (a.facePlanes() == 0) {

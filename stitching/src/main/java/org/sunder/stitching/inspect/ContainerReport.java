@@ -1,4 +1,4 @@
-package org.sunder.spark.inspect;
+package org.sunder.stitching.inspect;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
