@@ -84,34 +84,10 @@ public final class LinkagePartSolver implements PartSolver {
   @Override
   public PartResult solve(SolveEdges rows, LongPredicate inside) {
     Pairs p = Pairs.of(rows);
-    int m = p.size;
-    long[] nodes = insideNodes(p, inside);
-    int n = nodes.length;
-    int[] iu = new int[m];
-    int[] iv = new int[m];
-    boolean whole = true;
-    for (int e = 0; e < m; e++) {
-      iu[e] = Arrays.binarySearch(nodes, p.u[e]);
-      iv[e] = Arrays.binarySearch(nodes, p.v[e]);
-      whole &= iu[e] >= 0 && iv[e] >= 0;
-    }
-    Run run = new Run(p, n, iu, iv, whole);
+    PartNodes part = PartNodes.of(p.size, e -> p.u[e], e -> p.v[e], inside);
+    Run run = new Run(p, part.nodes().length, part.iu(), part.iv(), part.whole());
     run.agglomerate();
-    return run.result(nodes);
-  }
-
-  private static long[] insideNodes(Pairs p, LongPredicate inside) {
-    long[] ends = new long[2 * p.size];
-    int count = 0;
-    for (int e = 0; e < p.size; e++) {
-      if (inside.test(p.u[e])) {
-        ends[count++] = p.u[e];
-      }
-      if (inside.test(p.v[e])) {
-        ends[count++] = p.v[e];
-      }
-    }
-    return Arrays.stream(ends, 0, count).sorted().distinct().toArray();
+    return run.result(part.nodes());
   }
 
   /** Pair statistics grouped from rows. */
@@ -246,11 +222,7 @@ public final class LinkagePartSolver implements PartSolver {
     }
 
     int find(int x) {
-      while (parent[x] != x) {
-        parent[x] = parent[parent[x]];
-        x = parent[x];
-      }
-      return x;
+      return UnionFind.root(parent, x);
     }
 
     double value(int e) {

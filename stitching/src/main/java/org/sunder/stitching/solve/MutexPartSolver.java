@@ -53,14 +53,11 @@ public final class MutexPartSolver implements PartSolver {
   @Override
   public PartResult solve(SolveEdges edges, LongPredicate inside) {
     int m = edges.size();
-    long[] nodes = insideNodes(edges, inside);
+    PartNodes part = PartNodes.of(m, edges::u, edges::v, inside);
+    long[] nodes = part.nodes();
     int n = nodes.length;
-    int[] iu = new int[m];
-    int[] iv = new int[m];
-    for (int e = 0; e < m; e++) {
-      iu[e] = Arrays.binarySearch(nodes, edges.u(e));
-      iv[e] = Arrays.binarySearch(nodes, edges.v(e));
-    }
+    int[] iu = part.iu();
+    int[] iv = part.iv();
     int[] order = MutexOrder.sorted(edges);
     int[] frontier = new int[n];
     Arrays.fill(frontier, Integer.MAX_VALUE);
@@ -113,27 +110,6 @@ public final class MutexPartSolver implements PartSolver {
       complete[i] = clusters.frontier[clusters.find(i)] == Integer.MAX_VALUE;
     }
     return result(edges, order, nodes, iu, iv, rep, complete, decided, heldBack);
-  }
-
-  private static long[] insideNodes(SolveEdges edges, LongPredicate inside) {
-    long[] ends = new long[2 * edges.size()];
-    int count = 0;
-    for (int e = 0; e < edges.size(); e++) {
-      if (inside.test(edges.u(e))) {
-        ends[count++] = edges.u(e);
-      }
-      if (inside.test(edges.v(e))) {
-        ends[count++] = edges.v(e);
-      }
-    }
-    Arrays.sort(ends, 0, count);
-    int unique = 0;
-    for (int i = 0; i < count; i++) {
-      if (unique == 0 || ends[unique - 1] != ends[i]) {
-        ends[unique++] = ends[i];
-      }
-    }
-    return Arrays.copyOf(ends, unique);
   }
 
   /** Per node, the smallest provisional id of its cluster ({@code nodes} is ascending). */
@@ -204,11 +180,7 @@ public final class MutexPartSolver implements PartSolver {
     }
 
     int find(int x) {
-      while (parent[x] != x) {
-        parent[x] = parent[parent[x]];
-        x = parent[x];
-      }
-      return x;
+      return UnionFind.root(parent, x);
     }
 
     boolean exclusive(int a, int b) {

@@ -95,13 +95,13 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
     }
     for (int e = 0; e < continued.size(); e++) {
       if (continued.count(e) >= minPairs) {
-        int a = root(parent, (int) continued.u(e));
-        int b = root(parent, (int) continued.v(e));
+        int a = UnionFind.root(parent, (int) continued.u(e));
+        int b = UnionFind.root(parent, (int) continued.v(e));
         parent[Math.max(a, b)] = Math.min(a, b);
       }
     }
     for (int i = 0; i < parent.length; i++) {
-      parent[i] = root(parent, i);
+      parent[i] = UnionFind.root(parent, i);
     }
     return parent;
   }
@@ -121,14 +121,6 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
     }
     return new ReducedGraph(nodeIds, edges.relabel(from, to), separatedU, separatedV,
         EdgeStatistics.empty());
-  }
-
-  private static int root(int[] parent, int x) {
-    while (parent[x] != x) {
-      parent[x] = parent[parent[x]];
-      x = parent[x];
-    }
-    return x;
   }
 
   private static int node(long[] nodeIds, long id, IdLayout layout) {
