@@ -3,15 +3,12 @@ package org.sunder.spark.cli;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
-import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.blockwise.SunderException;
 import org.sunder.spark.Launcher;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.demo.DemoScenario;
-import org.sunder.spark.report.RunReportWriter;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
-import org.sunder.spark.stage.Pipeline;
 import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.workdir.Stage;
 import org.sunder.stitching.demo.DemoVolume;
@@ -100,14 +97,7 @@ final class DemoCommand implements Callable<Integer> {
     String output;
     try (PreparedRun run = RunLoader.prepare(config, null, fresh)) {
       output = run.settings().outputContainer();
-      JavaSparkContext sc = cli.spark().open(spark.master);
-      try {
-        report = new Pipeline(sc, cli.out(), cli.err(), cli.terminal())
-            .run(run, List.of(Stage.values()));
-        RunReportWriter.writeAfterRun(sc, report, cli.out());
-      } finally {
-        cli.spark().release(sc);
-      }
+      report = cli.runStages(run, List.of(Stage.values()), spark.master);
     }
     report.print(cli.out());
     cli.out().println(volume.yardstick());

@@ -1,14 +1,13 @@
 package org.sunder.spark.cli;
 
-import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.sunder.spark.config.ConfigException;
 import org.sunder.spark.plan.RunPlan;
 import org.sunder.spark.run.RunLoader;
 import org.sunder.spark.run.RunSettings;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
 import picocli.CommandLine.ParentCommand;
 
 /** {@code sunder plan CONFIG}. */
@@ -24,13 +23,8 @@ final class PlanCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;
 
-  @Parameters(index = "0", paramLabel = "CONFIG", description = "Run configuration (JSON)."
-      + " Relative paths in it are relative to the configuration file's folder.")
-  Path config;
-
-  @Option(names = "--work-dir", paramLabel = "DIR", description = "Work dir for the manifest and"
-      + " task records (default: the configuration's workDir, else <output container>.sunder-work/<dataset>).")
-  Path workDir;
+  @Mixin
+  RunLocation location;
 
   @Option(names = "--fresh", description = "Plan a run with --fresh: an earlier run's records"
       + " and output would be discarded, so they are not checked against this configuration.")
@@ -51,7 +45,8 @@ final class PlanCommand implements Callable<Integer> {
     if (cores != null && cores < 1) {
       throw new ConfigException("--cores: expected a number of cores >= 1, got " + cores);
     }
-    RunSettings settings = RunLoader.check(config, workDir, fresh, cores == null ? 0 : cores);
+    RunSettings settings = RunLoader.check(location.config, location.workDir, fresh,
+        cores == null ? 0 : cores);
     RunPlan.print(settings, !noSample, settings.blockOrigin().budget().cores(), cli.out());
     return 0;
   }

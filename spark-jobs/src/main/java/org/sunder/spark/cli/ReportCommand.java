@@ -1,6 +1,5 @@
 package org.sunder.spark.cli;
 
-import java.nio.file.Path;
 import java.util.concurrent.Callable;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.blockwise.ErrorKind;
@@ -11,8 +10,6 @@ import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.WorkDir;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
 import picocli.CommandLine.ParentCommand;
 
 /** {@code sunder report CONFIG}: (re)writes the run report of a run's work dir. */
@@ -25,13 +22,8 @@ final class ReportCommand implements Callable<Integer> {
   @ParentCommand
   SunderCli cli;
 
-  @Parameters(index = "0", paramLabel = "CONFIG", description = "Run configuration (JSON)."
-      + " Relative paths in it are relative to the configuration file's folder.")
-  Path config;
-
-  @Option(names = "--work-dir", paramLabel = "DIR", description = "Work dir of the run (default:"
-      + " the configuration's workDir, else <output container>.sunder-work/<dataset>).")
-  Path workDir;
+  @Mixin
+  RunLocation location;
 
   @Mixin
   SparkOptions spark;
@@ -39,12 +31,12 @@ final class ReportCommand implements Callable<Integer> {
   @Override
   public Integer call() {
     spark.requireValid();
-    RunSettings settings = RunLoader.resolve(config, workDir);
+    RunSettings settings = RunLoader.resolve(location.config, location.workDir);
     WorkDir work = new WorkDir(settings.workDirPath());
     if (work.manifest().isEmpty()) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "work dir " + work.root() + " holds no"
           + " run (no manifest.json); run '" + org.sunder.spark.Launcher.command() + " run "
-          + config + "' first");
+          + location.config + "' first");
     }
     JavaSparkContext sc = cli.spark().open(spark.master);
     try {

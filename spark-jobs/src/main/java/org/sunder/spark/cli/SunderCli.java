@@ -3,9 +3,16 @@ package org.sunder.spark.cli;
 import java.io.PrintStream;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
+import java.util.List;
 import java.util.concurrent.Callable;
+import org.apache.spark.api.java.JavaSparkContext;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.spark.SparkContextSource;
+import org.sunder.spark.report.RunReportWriter;
+import org.sunder.spark.run.PreparedRun;
+import org.sunder.spark.stage.Pipeline;
+import org.sunder.spark.stage.RunReport;
+import org.sunder.spark.workdir.Stage;
 import org.sunder.spark.workdir.SunderVersion;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
@@ -60,6 +67,21 @@ public final class SunderCli implements Callable<Integer> {
 
   boolean terminal() {
     return terminal;
+  }
+
+  /**
+   * Runs {@code stages} of {@code run} on Spark ({@code master} unless spark-submit set one),
+   * writes the run report after them and returns what the run did.
+   */
+  RunReport runStages(PreparedRun run, List<Stage> stages, String master) {
+    JavaSparkContext sc = spark.open(master);
+    try {
+      RunReport report = new Pipeline(sc, out, err, terminal).run(run, stages);
+      RunReportWriter.writeAfterRun(sc, report, out);
+      return report;
+    } finally {
+      spark.release(sc);
+    }
   }
 
   /** Without a command: the usage, on standard error, and the exit code of a usage error. */
