@@ -12,14 +12,11 @@ import java.util.List;
 import java.util.Locale;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
-import org.apache.spark.api.java.JavaSparkContext;
-import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
-import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.CliRun;
 import org.sunder.spark.cli.SunderCli;
 import org.sunder.spark.config.ConfigReader;
@@ -37,22 +34,13 @@ import org.sunder.testing.PythonReference;
 class PipelineIntegrationTest {
   private static final int[] CHUNK_XYZ = {32, 28, 10};
   private static final String MWS = "{\"method\": \"mutex-watershed\"}";
-  private static JavaSparkContext sc;
-
-  @BeforeAll
-  static void start() {
-    sc = SharedSpark.start("local[2,2]");
-  }
-
-  @AfterAll
-  static void stop() {
-    sc.stop();
-  }
+  @RegisterExtension
+  static final SharedSpark.PerClass SPARK = SharedSpark.perClass("local[2,2]");
 
   private static String run(String... args) {
     ByteArrayOutputStream out = new ByteArrayOutputStream();
     ByteArrayOutputStream err = new ByteArrayOutputStream();
-    int code = new SunderCli(SparkContextSource.shared(sc),
+    int code = new SunderCli(SPARK.source(),
         new PrintStream(out, true, StandardCharsets.UTF_8),
         new PrintStream(err, true, StandardCharsets.UTF_8), false).execute(args);
     String text = out.toString(StandardCharsets.UTF_8);
@@ -148,7 +136,7 @@ class PipelineIntegrationTest {
       for (long bound = pairs * 7 / 8; bound > pairs / 16 && !leveled; bound = bound * 3 / 4) {
         java.nio.file.Files.writeString(other.config(), json.replace("\"evaluate\"",
             "\"solve\": {\"maxDriverEdges\": " + bound + "}, \"evaluate\""));
-        CliRun bounded = CliRun.with(SparkContextSource.shared(sc), "run", "--fresh",
+        CliRun bounded = CliRun.with(SPARK.source(), "run", "--fresh",
             other.config().toString());
         if (bounded.exitCode() != 0) {
           assertTrue(bounded.err().contains("solve.maxDriverEdges = " + bound), bounded.err());
@@ -167,7 +155,7 @@ class PipelineIntegrationTest {
     String json = java.nio.file.Files.readString(scene.config());
     java.nio.file.Files.writeString(scene.config(), json.replace("\"evaluate\"",
         "\"solve\": {\"maxDriverEdges\": 5}, \"evaluate\""));
-    CliRun multicut = CliRun.with(SparkContextSource.shared(sc), "run",
+    CliRun multicut = CliRun.with(SPARK.source(), "run",
         scene.config().toString());
     assertEquals(2, multicut.exitCode(), multicut.err());
     assertTrue(multicut.err().contains("fragments-multicut solve needs the whole reduced graph"),
@@ -238,7 +226,7 @@ class PipelineIntegrationTest {
     System.setProperty(TaskHooks.FAIL_KEY, "seams:5");
     CliRun run;
     try {
-      run = CliRun.with(SparkContextSource.shared(sc), "run", scene.config().toString());
+      run = CliRun.with(SPARK.source(), "run", scene.config().toString());
     } finally {
       System.clearProperty(TaskHooks.FAIL_KEY);
     }
@@ -255,7 +243,7 @@ class PipelineIntegrationTest {
       throws Exception {
     Scenes.Scene scene = Scenes.write(dir, StorageFormat.ZARR, Degradation.moderate(13),
         CHUNK_XYZ, MWS);
-    CliRun early = CliRun.with(SparkContextSource.shared(sc), "stage", "seams",
+    CliRun early = CliRun.with(SPARK.source(), "stage", "seams",
         scene.config().toString());
     assertEquals(2, early.exitCode(), early.err());
     assertTrue(early.err().contains("stage seams needs stage partition to finish first"
@@ -267,7 +255,7 @@ class PipelineIntegrationTest {
     String json = java.nio.file.Files.readString(scene.config());
     java.nio.file.Files.writeString(scene.config(), json.replace("\"evaluate\"",
         "\"solve\": {\"maxDriverEdges\": 3}, \"evaluate\""));
-    CliRun bounded = CliRun.with(SparkContextSource.shared(sc), "stage", "solve",
+    CliRun bounded = CliRun.with(SPARK.source(), "stage", "solve",
         scene.config().toString());
     assertEquals(2, bounded.exitCode(), bounded.err());
     assertTrue(bounded.err().contains("more than solve.maxDriverEdges = 3"), bounded.err());

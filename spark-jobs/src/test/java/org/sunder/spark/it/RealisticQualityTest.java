@@ -4,9 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.nio.file.Path;
-import org.apache.spark.api.java.JavaSparkContext;
-import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.EnumSource;
@@ -19,7 +17,6 @@ import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.SyntheticScenario;
 import org.sunder.blockwise.synth.TissuePreset;
-import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.CliRun;
 
 /**
@@ -32,17 +29,8 @@ class RealisticQualityTest {
   private static final int[] CHUNK_XYZ = {64, 64, 16};
   /** The default's error must be at most this share of the tuned naive watershed's. */
   private static final double MARGIN = 0.6;
-  private static JavaSparkContext sc;
-
-  @BeforeAll
-  static void start() {
-    sc = SharedSpark.start("local[2]");
-  }
-
-  @AfterAll
-  static void stop() {
-    sc.stop();
-  }
+  @RegisterExtension
+  static final SharedSpark.PerClass SPARK = SharedSpark.perClass("local[2]");
 
   @ParameterizedTest
   @EnumSource(TissuePreset.class)
@@ -55,7 +43,7 @@ class RealisticQualityTest {
     Path config = dir.resolve("run.json");
     Scenes.writeConfig(config, root, CHUNK_XYZ, "{}", null);
 
-    CliRun run = CliRun.with(SparkContextSource.shared(sc), "run", config.toString());
+    CliRun run = CliRun.with(SPARK.source(), "run", config.toString());
     assertEquals(0, run.exitCode(), () -> run.out() + run.err());
 
     long[] truth = Scenes.labels(root, SyntheticScenario.GROUND_TRUTH);

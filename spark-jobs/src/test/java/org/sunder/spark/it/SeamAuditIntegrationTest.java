@@ -8,10 +8,8 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.nio.file.Path;
 import java.util.Map;
 import net.imglib2.img.array.ArrayImgs;
-import org.apache.spark.api.java.JavaSparkContext;
-import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.metrics.SeamAudit;
 import org.sunder.blockwise.store.Container;
@@ -19,7 +17,6 @@ import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
-import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.CliRun;
 import org.sunder.spark.run.RunResolver;
 import org.sunder.spark.workdir.Manifest;
@@ -31,17 +28,8 @@ import org.sunder.spark.workdir.WorkDir;
  */
 class SeamAuditIntegrationTest {
   private static final int[] CHUNK_XYZ = {32, 28, 10};
-  private static JavaSparkContext sc;
-
-  @BeforeAll
-  static void start() {
-    sc = SharedSpark.start("local[2]");
-  }
-
-  @AfterAll
-  static void stop() {
-    sc.stop();
-  }
+  @RegisterExtension
+  static final SharedSpark.PerClass SPARK = SharedSpark.perClass("local[2]");
 
   /** The ground truth relabelled per block of a grid with the given origin (x y z). */
   private static long[] cutPerBlock(long[] gt, long[] shape, int[] origin) {
@@ -70,7 +58,7 @@ class SeamAuditIntegrationTest {
         root + ":ground-truth"};
     String[] args = java.util.Arrays.copyOf(base, base.length + more.length);
     System.arraycopy(more, 0, args, base.length, more.length);
-    CliRun run = CliRun.with(SparkContextSource.shared(sc), args);
+    CliRun run = CliRun.with(SPARK.source(), args);
     assertEquals(0, run.exitCode(), run.out() + run.err());
     return run;
   }

@@ -12,9 +12,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
-import org.apache.spark.api.java.JavaSparkContext;
-import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.EnumSource;
@@ -24,7 +22,6 @@ import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.ScenarioOptions;
 import org.sunder.blockwise.synth.SynthSpec;
 import org.sunder.blockwise.synth.SyntheticScenario;
-import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.CliRun;
 import org.sunder.spark.it.Scenes;
 import org.sunder.spark.it.SharedSpark;
@@ -44,17 +41,8 @@ class PyramidIntegrationTest {
   private static final int[] CHUNK_XYZ = {16, 14, 5};
   private static final int[] BLOCK_XYZ = {32, 28, 10};
   private static final ObjectMapper JSON = new ObjectMapper();
-  private static JavaSparkContext sc;
-
-  @BeforeAll
-  static void start() {
-    sc = SharedSpark.start("local[2]");
-  }
-
-  @AfterAll
-  static void stop() {
-    sc.stop();
-  }
+  @RegisterExtension
+  static final SharedSpark.PerClass SPARK = SharedSpark.perClass("local[2]");
 
   private static Path resourceDir() throws URISyntaxException {
     return Path.of(PyramidIntegrationTest.class.getResource("check_pyramid.py").toURI())
@@ -68,7 +56,7 @@ class PyramidIntegrationTest {
   }
 
   private static CliRun run(Path config) {
-    CliRun run = CliRun.with(SparkContextSource.shared(sc), "run", config.toString());
+    CliRun run = CliRun.with(SPARK.source(), "run", config.toString());
     assertEquals(0, run.exitCode(), run.out() + run.err());
     return run;
   }

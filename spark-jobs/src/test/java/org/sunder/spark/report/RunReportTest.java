@@ -13,15 +13,13 @@ import java.util.Set;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import javax.imageio.ImageIO;
-import org.apache.spark.api.java.JavaSparkContext;
-import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.RegisterExtension;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.SyntheticScenario;
-import org.sunder.spark.SparkContextSource;
 import org.sunder.spark.cli.CliRun;
 import org.sunder.spark.it.Scenes;
 import org.sunder.spark.it.SharedSpark;
@@ -34,7 +32,8 @@ import org.sunder.testing.PythonReference;
  */
 class RunReportTest {
   private static final int[] CHUNK_XYZ = {32, 28, 10};
-  private static JavaSparkContext sc;
+  @RegisterExtension
+  static final SharedSpark.PerClass SPARK = SharedSpark.perClass("local[2]");
   @TempDir
   static Path dir;
   private static Path config;
@@ -43,21 +42,15 @@ class RunReportTest {
 
   @BeforeAll
   static void run() throws IOException {
-    sc = SharedSpark.start("local[2]");
     Scenes.Scene scene = Scenes.write(dir, StorageFormat.ZARR, Degradation.moderate(13),
         CHUNK_XYZ, "{}");
     config = scene.config();
-    CliRun run = CliRun.with(SparkContextSource.shared(sc), "run", config.toString());
+    CliRun run = CliRun.with(SPARK.source(), "run", config.toString());
     assertEquals(0, run.exitCode(), run.out() + run.err());
     Matcher m = Pattern.compile("report: (\\S+report\\.html)").matcher(run.out());
     assertTrue(m.find(), run.out());
     page = Path.of(m.group(1));
     html = Files.readString(page);
-  }
-
-  @AfterAll
-  static void stop() {
-    sc.stop();
   }
 
   private static int count(String text, String part) {
@@ -103,9 +96,9 @@ class RunReportTest {
     PythonReference.requireModules("zarr", "numpy", "scipy.ndimage");
     Path root = dir.resolve("scene.zarr");
     long[] labels = {1, 2, 5, 7, 123456};
-    long[][] boxes = ObjectBoxes.of(sc, root.toString(), SyntheticScenario.GROUND_TRUTH,
-        org.sunder.blockwise.grid.BlockGrid.of(new long[] {64, 56, 20}, CHUNK_XYZ, CHUNK_XYZ,
-            new int[3]), labels);
+    long[][] boxes = ObjectBoxes.of(SPARK.context(), root.toString(),
+        SyntheticScenario.GROUND_TRUTH, org.sunder.blockwise.grid.BlockGrid.of(
+            new long[] {64, 56, 20}, CHUNK_XYZ, CHUNK_XYZ, new int[3]), labels);
     // reference: scipy.ndimage.find_objects on the ground truth (zyx slices, stop exclusive)
     String out = PythonReference.runChecked("""
         import sys, zarr, numpy as np, scipy.ndimage as ndi
@@ -132,7 +125,7 @@ class RunReportTest {
     Path copy = dir.resolve("first-report.html");
     Files.copy(page, copy);
     Files.delete(page);
-    CliRun run = CliRun.with(SparkContextSource.shared(sc), "report", config.toString());
+    CliRun run = CliRun.with(SPARK.source(), "report", config.toString());
     assertEquals(0, run.exitCode(), run.out() + run.err());
     assertTrue(Files.isRegularFile(page));
     String again = Files.readString(page);
