@@ -5,6 +5,24 @@ public final class Shapes {
 
   private Shapes() {}
 
+  /** The extents in the opposite order (memory order to slowest axis first, and back). */
+  public static long[] reversed(long[] shape) {
+    long[] out = new long[shape.length];
+    for (int i = 0; i < shape.length; i++) {
+      out[i] = shape[shape.length - 1 - i];
+    }
+    return out;
+  }
+
+  /** The extents in the opposite order (memory order to slowest axis first, and back). */
+  public static int[] reversed(int[] shape) {
+    int[] out = new int[shape.length];
+    for (int i = 0; i < shape.length; i++) {
+      out[i] = shape[shape.length - 1 - i];
+    }
+    return out;
+  }
+
   /** The number of elements of an array of this shape; throws when it does not fit a long. */
   public static long elementCount(long[] shape) {
     long n = 1;

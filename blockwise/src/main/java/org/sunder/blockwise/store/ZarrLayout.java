@@ -11,6 +11,7 @@ import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.StoreException;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.store.codec.Codec;
 import org.sunder.blockwise.store.codec.CodecSpec;
 
@@ -88,8 +89,8 @@ final class ZarrLayout implements ContainerLayout {
   public void writeDatasetMetadata(Path dir, DatasetSpec spec) {
     Map<String, Object> json = new LinkedHashMap<>();
     json.put("zarr_format", 2);
-    json.put("shape", reversed(spec.shape()));
-    json.put("chunks", reversed(spec.chunkShape()));
+    json.put("shape", Shapes.reversed(spec.shape()));
+    json.put("chunks", Shapes.reversed(spec.chunkShape()));
     DataType type = spec.dataType();
     char order = type.bytes() == 1 ? '|' : spec.endianness().numpyCode();
     json.put("dtype", "" + order + type.numpyKind() + type.bytes());
@@ -120,22 +121,6 @@ final class ZarrLayout implements ContainerLayout {
         ? new BigInteger(Long.toUnsignedString(bits)) : (Object) bits;
   }
 
-  private static long[] reversed(long[] values) {
-    long[] out = new long[values.length];
-    for (int i = 0; i < values.length; i++) {
-      out[i] = values[values.length - 1 - i];
-    }
-    return out;
-  }
-
-  private static int[] reversed(int[] values) {
-    int[] out = new int[values.length];
-    for (int i = 0; i < values.length; i++) {
-      out[i] = values[values.length - 1 - i];
-    }
-    return out;
-  }
-
   @Override
   public DatasetSpec readDatasetMetadata(Path dir) {
     Path file = dir.resolve(ZARRAY);
@@ -149,11 +134,11 @@ final class ZarrLayout implements ContainerLayout {
     if (format != 2) {
       throw fields.invalid("zarr_format", String.valueOf(format), "2");
     }
-    long[] shape = reversed(fields.longArray("shape", 0));
-    int[] chunks = reversed(fields.positiveIntArray("chunks"));
+    long[] shape = Shapes.reversed(fields.longArray("shape", 0));
+    int[] chunks = Shapes.reversed(fields.positiveIntArray("chunks"));
     if (shape.length != chunks.length || shape.length == 0) {
-      throw fields.invalid("chunks", Arrays.toString(reversed(chunks)), shape.length
-          + " chunk sizes to match 'shape' " + Arrays.toString(reversed(shape)));
+      throw fields.invalid("chunks", Arrays.toString(Shapes.reversed(chunks)), shape.length
+          + " chunk sizes to match 'shape' " + Arrays.toString(Shapes.reversed(shape)));
     }
     String dtype = fields.string("dtype");
     Matcher m = DTYPE.matcher(dtype);

@@ -1,5 +1,6 @@
 package org.sunder.blockwise.grid;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
@@ -24,6 +25,23 @@ class ShapesTest {
       assertEquals(expected, Shapes.intElementCount(shape));
     }
     assertEquals(1, Shapes.elementCount(new int[0]), "an empty product is 1");
+  }
+
+  @Test
+  void reversedTurnsMemoryOrderIntoSlowestFirstAndBack() {
+    // Zarr's .zarray lists a C-order array's shape slowest axis first (Zarr v2 specification),
+    // the reverse of memory order x, y, z: memory [64, 56, 20] is Zarr [20, 56, 64].
+    assertArrayEquals(new long[] {20, 56, 64}, Shapes.reversed(new long[] {64, 56, 20}));
+    assertArrayEquals(new int[] {5, 14, 16}, Shapes.reversed(new int[] {16, 14, 5}));
+    Random random = new Random(5);
+    for (int trial = 0; trial < 50; trial++) {
+      long[] shape = random.longs(1 + random.nextInt(5), 1, 1000).toArray();
+      long[] back = Shapes.reversed(shape);
+      for (int d = 0; d < shape.length; d++) {
+        assertEquals(shape[d], back[shape.length - 1 - d]);
+      }
+      assertArrayEquals(shape, Shapes.reversed(back), "twice is the identity");
+    }
   }
 
   @Test

@@ -12,6 +12,7 @@ import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.BlockShapeChoice;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.config.ByteSize;
 import org.sunder.spark.config.ConfigException;
@@ -59,7 +60,7 @@ public final class RunResolver {
       throw new SunderException(ErrorKind.INVALID_INPUT, "input.affinities: dataset '" + affName
           + "' in " + inputPath + " is not an affinity dataset: expected " + (n + 1)
           + " dimensions (" + axes + " and channels), it has shape "
-          + Arrays.toString(reverse(shape)) + " (slowest axis first)");
+          + Arrays.toString(Shapes.reversed(shape)) + " (slowest axis first)");
     }
     long[] volume = Arrays.copyOf(shape, n);
     long channels = shape[n];
@@ -373,13 +374,5 @@ public final class RunResolver {
           + "), got " + Arrays.toString(fileHalo));
     }
     return axes.toMemory(fileHalo);
-  }
-
-  private static long[] reverse(long[] shape) {
-    long[] out = new long[shape.length];
-    for (int i = 0; i < shape.length; i++) {
-      out[i] = shape[shape.length - 1 - i];
-    }
-    return out;
   }
 }

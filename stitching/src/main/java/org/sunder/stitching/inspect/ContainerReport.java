@@ -10,6 +10,7 @@ import java.util.Locale;
 import java.util.Map;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.Dataset;
 
@@ -68,8 +69,9 @@ public final class ContainerReport {
     long[] shape = dataset.shape();
     String axes = axisNames(shape.length);
     out.println(indent + path + "  dataset");
-    out.println(indent + "  shape   " + Arrays.toString(reverse(shape)) + "  (" + axes + ")");
-    out.println(indent + "  chunks  " + Arrays.toString(reverse(dataset.chunkShape())));
+    out.println(indent + "  shape   " + Arrays.toString(Shapes.reversed(shape)) + "  (" + axes
+        + ")");
+    out.println(indent + "  chunks  " + Arrays.toString(Shapes.reversed(dataset.chunkShape())));
     out.println(indent + "  dtype   " + dataset.dataType().name().toLowerCase(Locale.ROOT));
     out.println(indent + "  codec   " + dataset.spec().codec());
     attributes(container, path, indent + "  ", out);
@@ -104,21 +106,5 @@ public final class ContainerReport {
       return b.toString();
     }
     return String.join(", ", names);
-  }
-
-  private static long[] reverse(long[] values) {
-    long[] out = new long[values.length];
-    for (int i = 0; i < values.length; i++) {
-      out[i] = values[values.length - 1 - i];
-    }
-    return out;
-  }
-
-  private static int[] reverse(int[] values) {
-    int[] out = new int[values.length];
-    for (int i = 0; i < values.length; i++) {
-      out[i] = values[values.length - 1 - i];
-    }
-    return out;
   }
 }

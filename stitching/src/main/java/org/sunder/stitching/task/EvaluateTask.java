@@ -8,6 +8,7 @@ import net.imglib2.FinalInterval;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.metrics.ContingencyTable;
 import org.sunder.blockwise.metrics.EvaluationRegion;
 import org.sunder.blockwise.metrics.Evaluator;
@@ -80,8 +81,8 @@ public final class EvaluateTask {
     Dataset truth = open(target.truthContainer(), target.truth(), "ground truth");
     if (!Arrays.equals(segmentation.shape(), truth.shape())) {
       throw new SunderException(ErrorKind.INVALID_INPUT, "segmentation '" + target.segmentation()
-          + "' has shape " + Arrays.toString(reverse(segmentation.shape())) + " but ground truth '"
-          + target.truth() + "' has shape " + Arrays.toString(reverse(truth.shape()))
+          + "' has shape " + Arrays.toString(Shapes.reversed(segmentation.shape()))
+          + " but ground truth '" + target.truth() + "' has shape " + Arrays.toString(Shapes.reversed(truth.shape()))
           + " (slowest axis first); they must be equal");
     }
     requireLabels(segmentation, "segmentation '" + target.segmentation() + "'");
@@ -96,9 +97,10 @@ public final class EvaluateTask {
       }
       if (!Arrays.equals(segmentation.shape(), mask.shape())) {
         throw new SunderException(ErrorKind.INVALID_INPUT, "mask '" + target.mask() + "' in "
-            + target.maskContainer() + " has shape " + Arrays.toString(reverse(mask.shape()))
+            + target.maskContainer() + " has shape "
+            + Arrays.toString(Shapes.reversed(mask.shape()))
             + " but segmentation '" + target.segmentation() + "' has shape "
-            + Arrays.toString(reverse(segmentation.shape()))
+            + Arrays.toString(Shapes.reversed(segmentation.shape()))
             + " (slowest axis first); they must be equal");
       }
     }
@@ -128,13 +130,5 @@ public final class EvaluateTask {
           + "' in " + container);
     }
     return c.openDataset(dataset);
-  }
-
-  private static long[] reverse(long[] shape) {
-    long[] out = new long[shape.length];
-    for (int i = 0; i < shape.length; i++) {
-      out[i] = shape[shape.length - 1 - i];
-    }
-    return out;
   }
 }
