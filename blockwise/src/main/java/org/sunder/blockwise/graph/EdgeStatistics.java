@@ -285,11 +285,15 @@ public final class EdgeStatistics implements Serializable {
   /**
    * Accumulates single edges or partial statistics in any order, hashed by pair; {@link #build}
    * sorts into canonical order. Expected {@code O(1)} per add, {@code O(p log p)} to build for
-   * {@code p} pairs. Not thread-safe.
+   * {@code p} pairs. A run of adds of one pair (neighbouring voxels along a boundary) finds its
+   * row without hashing. Not thread-safe.
    */
   public static final class Accumulator {
     private final PairIndex index;
     private final Builder rows;
+    private long lastX = -1;
+    private long lastY = -1;
+    private int lastRow = -1;
 
     public Accumulator(int expectedPairs) {
       this.index = new PairIndex(expectedPairs);
@@ -308,13 +312,17 @@ public final class EdgeStatistics implements Serializable {
       if (x == y) {
         throw new IllegalArgumentException("edge from " + a + " to itself");
       }
-      int row = index.get(x, y);
+      int row = x == lastX && y == lastY ? lastRow : index.get(x, y);
       if (row < 0) {
-        index.put(x, y, rows.size);
+        row = rows.size;
+        index.put(x, y, row);
         rows.append(x, y, sum, count, min, max);
       } else {
         rows.combine(row, sum, count, min, max);
       }
+      lastX = x;
+      lastY = y;
+      lastRow = row;
     }
 
     /** Number of distinct pairs so far. */

@@ -23,10 +23,16 @@ class EdgeStatisticsTest {
     Map<List<Long>, double[]> expected = new HashMap<>();
     EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(4);
     for (int e = 0; e < m; e++) {
-      u[e] = random.nextInt(40) + (1L << 40);
-      do {
-        v[e] = random.nextInt(40) + (1L << 40);
-      } while (v[e] == u[e]);
+      if (e > 0 && random.nextInt(3) == 0) {  // runs of one pair, in either order
+        boolean swap = random.nextBoolean();
+        u[e] = swap ? v[e - 1] : u[e - 1];
+        v[e] = swap ? u[e - 1] : v[e - 1];
+      } else {
+        u[e] = random.nextInt(40) + (1L << 40);
+        do {
+          v[e] = random.nextInt(40) + (1L << 40);
+        } while (v[e] == u[e]);
+      }
       w[e] = random.nextInt(9) - 4;
       acc.add(u[e], v[e], w[e]);
       double[] s = expected.computeIfAbsent(List.of(Math.min(u[e], v[e]), Math.max(u[e], v[e])),
