@@ -230,6 +230,24 @@ public final class EdgeStatistics implements Serializable {
     return of(a, b, sum, count, min, max);
   }
 
+  /**
+   * The table with each id replaced by its position in {@code sortedIds} (ascending, unique), or
+   * null when an id is not listed. The map is increasing, so the canonical order is kept and
+   * nothing is sorted or merged: {@code O(size log ids)}.
+   */
+  public EdgeStatistics renumbered(long[] sortedIds) {
+    long[] a = new long[u.length];
+    long[] b = new long[u.length];
+    for (int i = 0; i < u.length; i++) {
+      a[i] = Arrays.binarySearch(sortedIds, u[i]);
+      b[i] = Arrays.binarySearch(sortedIds, v[i]);
+      if (a[i] < 0 || b[i] < 0) {
+        return null;
+      }
+    }
+    return new EdgeStatistics(a, b, sum, count, min, max);
+  }
+
   private static long map(long id, long[] oldIds, long[] newIds) {
     int at = Arrays.binarySearch(oldIds, id);
     return at >= 0 ? newIds[at] : id;

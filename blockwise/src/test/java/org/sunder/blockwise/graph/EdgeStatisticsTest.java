@@ -125,6 +125,39 @@ class EdgeStatisticsTest {
     }
   }
 
+  @Test
+  void renumberedEqualsRelabelToPositionsAndIsNullForAnUnlistedId() {
+    Random random = new Random(55);
+    for (int trial = 0; trial < 20; trial++) {
+      java.util.TreeSet<Long> idSet = new java.util.TreeSet<>();
+      while (idSet.size() < 30) {
+        idSet.add((long) random.nextInt(1 << 20) << 20);
+      }
+      long[] ids = idSet.stream().mapToLong(Long::longValue).toArray();
+      long[] positions = new long[ids.length];
+      for (int i = 0; i < ids.length; i++) {
+        positions[i] = i;
+      }
+      int m = 200;
+      long[] u = new long[m];
+      long[] v = new long[m];
+      double[] w = new double[m];
+      for (int e = 0; e < m; e++) {
+        u[e] = ids[random.nextInt(ids.length)];
+        v[e] = ids[random.nextInt(ids.length)];
+        w[e] = random.nextGaussian();
+      }
+      EdgeStatistics s = EdgeStatistics.ofEdges(u, v, w);
+      assertEquals(s.relabel(ids, positions), s.renumbered(ids));
+      long[] fewer = java.util.Arrays.copyOfRange(ids, 1, ids.length);
+      boolean usesFirst = false;
+      for (int i = 0; i < s.size(); i++) {
+        usesFirst |= s.u(i) == ids[0] || s.v(i) == ids[0];
+      }
+      assertEquals(usesFirst, s.renumbered(fewer) == null);
+    }
+  }
+
   private static long[] slice(long[] a, int from, int to) {
     return java.util.Arrays.copyOfRange(a, from, to);
   }
