@@ -230,6 +230,24 @@ public final class EdgeStatistics implements Serializable {
     return of(a, b, sum, count, min, max);
   }
 
+  /**
+   * The table with each id replaced by its position in {@code sortedIds} (ascending, unique), or
+   * null when an id is not listed. The map is increasing, so the canonical order is kept and
+   * nothing is sorted or merged: {@code O(size log ids)}.
+   */
+  public EdgeStatistics renumbered(long[] sortedIds) {
+    long[] a = new long[u.length];
+    long[] b = new long[u.length];
+    for (int i = 0; i < u.length; i++) {
+      a[i] = Arrays.binarySearch(sortedIds, u[i]);
+      b[i] = Arrays.binarySearch(sortedIds, v[i]);
+      if (a[i] < 0 || b[i] < 0) {
+        return null;
+      }
+    }
+    return new EdgeStatistics(a, b, sum, count, min, max);
+  }
+
   private static long map(long id, long[] oldIds, long[] newIds) {
     int at = Arrays.binarySearch(oldIds, id);
     return at >= 0 ? newIds[at] : id;
@@ -285,11 +303,15 @@ public final class EdgeStatistics implements Serializable {
   /**
    * Accumulates single edges or partial statistics in any order, hashed by pair; {@link #build}
    * sorts into canonical order. Expected {@code O(1)} per add, {@code O(p log p)} to build for
-   * {@code p} pairs. Not thread-safe.
+   * {@code p} pairs. A run of adds of one pair (neighbouring voxels along a boundary) finds its
+   * row without hashing. Not thread-safe.
    */
   public static final class Accumulator {
     private final PairIndex index;
     private final Builder rows;
+    private long lastX = -1;
+    private long lastY = -1;
+    private int lastRow = -1;
 
     public Accumulator(int expectedPairs) {
       this.index = new PairIndex(expectedPairs);
@@ -308,13 +330,17 @@ public final class EdgeStatistics implements Serializable {
       if (x == y) {
         throw new IllegalArgumentException("edge from " + a + " to itself");
       }
-      int row = index.get(x, y);
+      int row = x == lastX && y == lastY ? lastRow : index.get(x, y);
       if (row < 0) {
-        index.put(x, y, rows.size);
+        row = rows.size;
+        index.put(x, y, row);
         rows.append(x, y, sum, count, min, max);
       } else {
         rows.combine(row, sum, count, min, max);
       }
+      lastX = x;
+      lastY = y;
+      lastRow = row;
     }
 
     /** Number of distinct pairs so far. */

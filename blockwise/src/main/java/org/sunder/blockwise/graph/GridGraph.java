@@ -141,7 +141,40 @@ public final class GridGraph {
   /** Visits the present edges of offset {@code k} in ascending source voxel. */
   public void forEachEdge(int k, EdgeVisitor visitor) {
     forEachRow(k, (start, length, global, thin, mask) ->
-        visitRow(k, start, length, global, thin, mask, visitor));
+        visitRow(k, start, length, global, thin, mask, null, null, visitor));
+  }
+
+  /**
+   * Visits, in ascending edge id, the present edges whose ends carry different labels
+   * ({@code labels} per voxel of the box; label 0 is a label like any other here). The same
+   * edges and weights as {@link #forEachEdge} with a {@code labels[s] != labels[t]} test in the
+   * visitor, but the weight is computed only for the edges visited: the cheap pass over a
+   * segmentation's boundaries, where most edges join voxels of one segment.
+   */
+  public void forEachEdgeAcross(int[] labels, EdgeVisitor visitor) {
+    requireLabels(labels.length);
+    for (int k = 0; k < offsetCount; k++) {
+      int kk = k;
+      forEachRow(k, (start, length, global, thin, mask) ->
+          visitRow(kk, start, length, global, thin, mask, labels, null, visitor));
+    }
+  }
+
+  /** As {@link #forEachEdgeAcross(int[], EdgeVisitor)} for 64-bit labels. */
+  public void forEachEdgeAcross(long[] labels, EdgeVisitor visitor) {
+    requireLabels(labels.length);
+    for (int k = 0; k < offsetCount; k++) {
+      int kk = k;
+      forEachRow(k, (start, length, global, thin, mask) ->
+          visitRow(kk, start, length, global, thin, mask, null, labels, visitor));
+    }
+  }
+
+  private void requireLabels(int length) {
+    if (length != nodeCount) {
+      throw new GraphInputException(org.sunder.blockwise.ErrorKind.INVALID_INPUT,
+          "labels: " + length + " values but the block has " + nodeCount + " voxels");
+    }
   }
 
   /**
@@ -214,8 +247,9 @@ public final class GridGraph {
     }
   }
 
+  /** One row of edges; with {@code intLabels} or {@code longLabels}, only edges across labels. */
   private void visitRow(int k, int start, int length, long[] global, boolean thin, byte[] mask,
-      EdgeVisitor visitor) {
+      int[] intLabels, long[] longLabels, EdgeVisitor visitor) {
     int dk = delta[k];
     int base = k * nodeCount;
     long x0 = global[0];
@@ -225,6 +259,10 @@ public final class GridGraph {
     for (int i = 0; i < length; i++) {
       int source = start + i;
       int target = source + dk;
+      if (intLabels != null ? intLabels[source] == intLabels[target]
+          : longLabels != null && longLabels[source] == longLabels[target]) {
+        continue;
+      }
       if (!kept(source, target, k, global, x0 + i, thin, mask)) {
         continue;
       }

@@ -4,8 +4,8 @@ package org.sunder.blockwise.graph;
  * The graph of segments of a label array: one row of {@link EdgeStatistics} per pair of
  * distinct labels joined by at least one present edge of a {@link GridGraph} (every offset,
  * long-range ones included, after masking and subsampling). Label 0 means "no segment": edges
- * touching it are skipped. Built in one pass over the edges, {@code O(nodeCount * offsetCount)}
- * expected time plus {@code O(p log p)} for {@code p} pairs. Immutable.
+ * touching it are skipped. Built in one pass over the edges ({@link GridGraph#forEachEdgeAcross}),
+ * {@code O(nodeCount * offsetCount)} expected time plus {@code O(p log p)} for {@code p} pairs. Immutable.
  */
 public final class RegionGraph {
   private final EdgeStatistics statistics;
@@ -16,12 +16,11 @@ public final class RegionGraph {
 
   /** Region graph of {@code labels} (box voxels in memory order) over {@code graph}'s edges. */
   public static RegionGraph of(int[] labels, GridGraph graph) {
-    requireLength(labels.length, graph);
     EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
-    graph.forEachEdge((s, t, k, w) -> {
+    graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
       int a = labels[s];
       int b = labels[t];
-      if (a != b && a != 0 && b != 0) {
+      if (a != 0 && b != 0) {
         acc.add(a, b, w);
       }
     });
@@ -30,12 +29,11 @@ public final class RegionGraph {
 
   /** As {@link #of(int[], GridGraph)} for 64-bit labels. */
   public static RegionGraph of(long[] labels, GridGraph graph) {
-    requireLength(labels.length, graph);
     EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
-    graph.forEachEdge((s, t, k, w) -> {
+    graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
       long a = labels[s];
       long b = labels[t];
-      if (a != b && a != 0 && b != 0) {
+      if (a != 0 && b != 0) {
         acc.add(a, b, w);
       }
     });
@@ -45,12 +43,5 @@ public final class RegionGraph {
   /** The statistics per touching pair of labels, canonical order. */
   public EdgeStatistics statistics() {
     return statistics;
-  }
-
-  private static void requireLength(int length, GridGraph graph) {
-    if (length != graph.nodeCount()) {
-      throw new GraphInputException(org.sunder.blockwise.ErrorKind.INVALID_INPUT,
-          "labels: " + length + " values but the block has " + graph.nodeCount() + " voxels");
-    }
   }
 }

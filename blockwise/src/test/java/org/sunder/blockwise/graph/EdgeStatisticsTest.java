@@ -23,10 +23,16 @@ class EdgeStatisticsTest {
     Map<List<Long>, double[]> expected = new HashMap<>();
     EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(4);
     for (int e = 0; e < m; e++) {
-      u[e] = random.nextInt(40) + (1L << 40);
-      do {
-        v[e] = random.nextInt(40) + (1L << 40);
-      } while (v[e] == u[e]);
+      if (e > 0 && random.nextInt(3) == 0) {  // runs of one pair, in either order
+        boolean swap = random.nextBoolean();
+        u[e] = swap ? v[e - 1] : u[e - 1];
+        v[e] = swap ? u[e - 1] : v[e - 1];
+      } else {
+        u[e] = random.nextInt(40) + (1L << 40);
+        do {
+          v[e] = random.nextInt(40) + (1L << 40);
+        } while (v[e] == u[e]);
+      }
       w[e] = random.nextInt(9) - 4;
       acc.add(u[e], v[e], w[e]);
       double[] s = expected.computeIfAbsent(List.of(Math.min(u[e], v[e]), Math.max(u[e], v[e])),
@@ -116,6 +122,39 @@ class EdgeStatisticsTest {
         assertEquals(expected == null ? -1 : expected, index.get(a, b));
       }
       assertEquals(reference.size(), index.size());
+    }
+  }
+
+  @Test
+  void renumberedEqualsRelabelToPositionsAndIsNullForAnUnlistedId() {
+    Random random = new Random(55);
+    for (int trial = 0; trial < 20; trial++) {
+      java.util.TreeSet<Long> idSet = new java.util.TreeSet<>();
+      while (idSet.size() < 30) {
+        idSet.add((long) random.nextInt(1 << 20) << 20);
+      }
+      long[] ids = idSet.stream().mapToLong(Long::longValue).toArray();
+      long[] positions = new long[ids.length];
+      for (int i = 0; i < ids.length; i++) {
+        positions[i] = i;
+      }
+      int m = 200;
+      long[] u = new long[m];
+      long[] v = new long[m];
+      double[] w = new double[m];
+      for (int e = 0; e < m; e++) {
+        u[e] = ids[random.nextInt(ids.length)];
+        v[e] = ids[random.nextInt(ids.length)];
+        w[e] = random.nextGaussian();
+      }
+      EdgeStatistics s = EdgeStatistics.ofEdges(u, v, w);
+      assertEquals(s.relabel(ids, positions), s.renumbered(ids));
+      long[] fewer = java.util.Arrays.copyOfRange(ids, 1, ids.length);
+      boolean usesFirst = false;
+      for (int i = 0; i < s.size(); i++) {
+        usesFirst |= s.u(i) == ids[0] || s.v(i) == ids[0];
+      }
+      assertEquals(usesFirst, s.renumbered(fewer) == null);
     }
   }
 

@@ -104,6 +104,42 @@ class GridGraphTest {
   }
 
   @Test
+  void edgesAcrossLabelsAreTheFilteredEdgesInTheSameOrder() {
+    Random random = new Random(34);
+    int[] shape = {9, 6, 5};
+    int n = 270;
+    for (int trial = 0; trial < 6; trial++) {
+      byte[] mask = new byte[n];
+      int[] labels = new int[n];
+      long[] wide = new long[n];
+      for (int i = 0; i < n; i++) {
+        mask[i] = (byte) (random.nextInt(5) == 0 ? 0 : 1);
+        labels[i] = random.nextInt(1 + trial);  // trial 0: one label, nothing across
+        wide[i] = labels[i] * (1L << 36);
+      }
+      AffinityBlock block = AffinityBlock.ofFloats(randomAffinities(n, 6, random), shape,
+          new long[] {3, 1, 4}, OFFSETS, trial % 2 == 0 ? mask : null);
+      Subsampling sub = trial < 3 ? Subsampling.none() : Subsampling.hash(0.5, trial);
+      GridGraph graph = GridGraph.of(block, WeightRule.byValue(WeightRule.Transform.LOGIT,
+          null), sub);
+      List<String> expected = new ArrayList<>();
+      graph.forEachEdge((s, t, k, w) -> {
+        if (labels[s] != labels[t]) {
+          expected.add(s + ">" + t + "@" + k + "=" + w);
+        }
+      });
+      List<String> across = new ArrayList<>();
+      graph.forEachEdgeAcross(labels, (s, t, k, w) -> across.add(s + ">" + t + "@" + k + "=" + w));
+      List<String> acrossWide = new ArrayList<>();
+      graph.forEachEdgeAcross(wide, (s, t, k, w) -> acrossWide.add(s + ">" + t + "@" + k + "="
+          + w));
+      assertEquals(expected, across);
+      assertEquals(expected, acrossWide);
+      assertEquals(trial == 0, expected.isEmpty());
+    }
+  }
+
+  @Test
   void channelRoleWeights() {
     float[] a = new float[3 * 2 * 6];
     for (int i = 0; i < a.length; i++) {

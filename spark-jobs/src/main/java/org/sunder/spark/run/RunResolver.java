@@ -5,7 +5,6 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;
-import java.util.List;
 import java.util.Map;
 import org.apache.spark.SparkConf;
 import org.sunder.blockwise.ErrorKind;
@@ -20,6 +19,7 @@ import org.sunder.spark.config.RunConfig;
 import org.sunder.stitching.setup.InputDataset;
 import org.sunder.stitching.setup.PartitionEstimate;
 import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.setup.VoxelSize;
 
 /**
  * Checks a {@link RunConfig} against the input containers and fills in what depends on them:
@@ -126,7 +126,7 @@ public final class RunResolver {
     try {
       setup = StitchingSetup.resolve(inputPath, affName, mask == null ? "" : mask, outputPath,
           outputDataset, BlockGrid.of(volume, chunks, blockShape, halo), offsets,
-          config.partition(), voxelSize(affinities.attributes(), axes));
+          config.partition(), voxelSizeSlowestFirst(affinities.attributes(), axes));
     } catch (SunderException e) {
       throw e.kind() == ErrorKind.INVALID_CONFIG && !(e instanceof ConfigException)
           ? new ConfigException(e.getMessage(), e) : e;
@@ -212,30 +212,10 @@ public final class RunResolver {
     }
   }
 
-  /**
-   * The input's voxel size from its {@code voxelSize} attribute (slowest axis first, in the
-   * dataset's {@code axes} order when it has one), in the configuration's axis order; null when
-   * absent, malformed or of other axes.
-   */
-  static double[] voxelSize(Map<String, Object> attributes, AxisOrder axes) {
-    if (!(attributes.get("voxelSize") instanceof List<?> values)
-        || values.size() != axes.dimensions()) {
-      return null;
-    }
-    String dataAxes = attributes.get("axes") instanceof String a ? a : axes.letters();
-    if (dataAxes.length() != values.size()) {
-      return null;
-    }
-    double[] size = new double[values.size()];
-    for (int d = 0; d < size.length; d++) {
-      int at = dataAxes.indexOf(axes.letters().charAt(d));
-      if (at < 0 || !(values.get(at) instanceof Number v) || !(v.doubleValue() > 0)
-          || Double.isInfinite(v.doubleValue())) {
-        return null;
-      }
-      size[d] = v.doubleValue();
-    }
-    return size;
+  /** The input's voxel size (see {@link VoxelSize}) slowest axis first, or null. */
+  private static double[] voxelSizeSlowestFirst(Map<String, Object> attributes, AxisOrder axes) {
+    double[] memory = VoxelSize.fromAttributes(attributes, axes.dimensions(), axes.letters());
+    return memory == null ? null : VoxelSize.slowestFirst(memory);
   }
 
   /** {@code <container>.sunder-work/<dataset>} beside the output container. */

@@ -2,11 +2,9 @@ package org.sunder.spark.stage;
 
 import java.io.PrintStream;
 import java.util.Arrays;
-import java.util.List;
-import java.util.Map;
-import org.sunder.spark.config.AxisOrder;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
+import org.sunder.stitching.setup.VoxelSize;
 import org.sunder.stitching.task.LabelPyramid;
 import org.sunder.stitching.task.MultiscaleMetadata;
 import org.sunder.stitching.task.PyramidTask;
@@ -62,35 +60,15 @@ public final class PyramidStep {
     return new StageReport(Stage.PYRAMID, total, skipped, ran, (System.nanoTime() - start) / 1e9);
   }
 
-  /**
-   * The input's voxel size in memory order from the affinity dataset's {@code voxelSize}
-   * attribute (slowest axis first, in its {@code axes} order, else the configuration's), or
-   * ones when it has none that fits.
-   */
+  /** The input's voxel size in memory order (see {@link VoxelSize}), or ones when unknown. */
   public static double[] voxelSize(RunSettings s) {
     int n = s.volumeShape().length;
-    double[] ones = new double[n];
-    Arrays.fill(ones, 1);
-    Map<String, Object> attributes = PyramidTask.inputAttributes(s.setup());
-    if (!(attributes.get("voxelSize") instanceof List<?> values) || values.size() != n) {
-      return ones;
+    double[] size = VoxelSize.fromAttributes(PyramidTask.inputAttributes(s.setup()), n, s.axes());
+    if (size == null) {
+      size = new double[n];
+      Arrays.fill(size, 1);
     }
-    String order = attributes.get("axes") instanceof String a && a.length() == n ? a : s.axes();
-    AxisOrder axes;
-    try {
-      axes = new AxisOrder(order);
-    } catch (RuntimeException e) {
-      return ones;
-    }
-    double[] memory = new double[n];
-    for (int d = 0; d < n; d++) {
-      if (!(values.get(axes.filePosition(d)) instanceof Number v) || !(v.doubleValue() > 0)
-          || Double.isInfinite(v.doubleValue())) {
-        return ones;
-      }
-      memory[d] = v.doubleValue();
-    }
-    return memory;
+    return size;
   }
 
   private static String unit(RunSettings s) {

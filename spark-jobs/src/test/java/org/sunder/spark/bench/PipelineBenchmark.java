@@ -2,89 +2,170 @@ package org.sunder.spark.bench;
 
 import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
+import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import org.apache.spark.api.java.JavaSparkContext;
+import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.StorageFormat;
-import org.sunder.blockwise.synth.Degradation;
-import org.sunder.blockwise.synth.ScenarioOptions;
-import org.sunder.blockwise.synth.SynthSpec;
 import org.sunder.blockwise.synth.SyntheticScenario;
-import org.sunder.spark.config.ConfigReader;
-import org.sunder.spark.it.Scenes;
+import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.spark.it.SharedSpark;
 import org.sunder.spark.run.PreparedRun;
 import org.sunder.spark.run.RunLoader;
-import org.sunder.spark.run.RunResolver;
-import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.stage.Pipeline;
 import org.sunder.spark.stage.RunReport;
 import org.sunder.spark.stage.StageReport;
 import org.sunder.spark.workdir.Stage;
-import org.sunder.stitching.InProcessRunner;
 import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.task.PartitionTask;
+import org.sunder.testing.HeapPeak;
 
 /**
- * The whole pipeline on a synthetic 128 x 512 x 512 (z, y, x) volume in {@code local[2]}:
- * voxels per second end to end, seconds per stage, and the ratio to the stitching module's
- * in-process runner (one thread) on the same volume and settings, measured in the same run.
- * Not a test. Arguments: {@code [dir] [z y x]}; needs about 6 GB of heap to generate the volume.
+ * The whole run of the default configuration on a realistic tissue preset in {@code local[2]},
+ * at one or more volume sizes of the same tissue (the preset scaled, not made denser), next to
+ * the partition kernel alone measured in the same run.
+ *
+ * <p>Per stage: wall seconds, seconds per million voxels, process CPU seconds over wall seconds
+ * (2.0 means both cores busy the whole stage) and the growth of the heap's peak over the stage
+ * (all concurrent tasks and the driver together; the JVM is shared in local mode). Per size: the
+ * whole run in Mvoxels/s per core (volume voxels over process CPU seconds of all stages), the
+ * partition kernel's Mvoxels/s per core (see {@link #kernelRate}) and the ratio of the two (goal: at least 0.7).
+ *
+ * <p>Not a test. Arguments: {@code [tissue] [seed] [z,y,x ...]}, default
+ * {@code dense-neurites 1 96,256,256 192,512,512}. Volumes are generated once under
+ * {@code java.io.tmpdir/sunder-pipeline-bench} (the larger one needs about 12 GB of heap).
  */
 public final class PipelineBenchmark {
+  private static final List<Stage> STAGES =
+      List.of(Stage.PARTITION, Stage.SEAMS, Stage.SOLVE, Stage.RELABEL);
+  private static final int KERNEL_SAMPLES = 3;
+
   private PipelineBenchmark() {}
 
   public static void main(String[] args) throws Exception {
-    Path dir = args.length > 0 ? Path.of(args[0]) : Files.createTempDirectory("sunder-bench");
-    long[] zyx = args.length >= 4 ? new long[] {Long.parseLong(args[1]), Long.parseLong(args[2]),
-        Long.parseLong(args[3])} : new long[] {128, 512, 512};
-    Path root = dir.resolve("bench.zarr");
-    int[] chunkXyz = {64, 64, 32};
-    long voxels = zyx[0] * zyx[1] * zyx[2];
-    long t0 = System.nanoTime();
-    double scale = voxels / (64.0 * 56 * 20);
-    SynthSpec spec = SynthSpec.small(13).withShape(zyx[2], zyx[1], zyx[0])
-        .withCounts((int) (30 * scale), (int) Math.max(1, 4 * scale), (int) Math.max(1, scale));
-    SyntheticScenario.write(Container.create(root, StorageFormat.ZARR), spec,
-        ScenarioOptions.defaults().withDegradation(Degradation.moderate(13))
-            .withChunkShape(chunkXyz));
-    System.out.printf(Locale.ROOT, "generated %d x %d x %d (zyx) in %.1f s%n", zyx[0], zyx[1],
-        zyx[2], (System.nanoTime() - t0) / 1e9);
-    Path config = dir.resolve("bench.json");
-    int[] blockXyz = {128, 128, 64};
-    Scenes.writeConfig(config, root, blockXyz, "{\"method\": \"mutex-watershed\"}", null);
-
+    TissuePreset tissue = TissuePreset.named(args.length > 0 ? args[0] : "dense-neurites");
+    long seed = args.length > 1 ? Long.parseLong(args[1]) : 1;
+    List<long[]> sizes = new ArrayList<>();
+    for (int i = 2; i < args.length; i++) {
+      String[] parts = args[i].split(",");
+      sizes.add(new long[] {Long.parseLong(parts[0]), Long.parseLong(parts[1]),
+          Long.parseLong(parts[2])});
+    }
+    if (sizes.isEmpty()) {
+      sizes.add(new long[] {96, 256, 256});
+      sizes.add(new long[] {192, 512, 512});
+    }
+    Path cache = Path.of(System.getProperty("java.io.tmpdir"), "sunder-pipeline-bench");
+    System.out.printf(Locale.ROOT, "%s, seed %d, default configuration, local[2]; %d "
+        + "processors, max heap %d MiB%n", tissue.presetName(), seed,
+        Runtime.getRuntime().availableProcessors(), Runtime.getRuntime().maxMemory() >> 20);
     JavaSparkContext sc = SharedSpark.start("local[2]");
-    RunReport report;
-    try (PreparedRun run = RunLoader.prepare(config, null, true)) {
-      ByteArrayOutputStream progress = new ByteArrayOutputStream();
-      report = new Pipeline(sc, System.out, new PrintStream(progress, true,
-          StandardCharsets.UTF_8), false).run(run, List.of(Stage.PARTITION, Stage.SEAMS,
-              Stage.SOLVE, Stage.RELABEL));
+    try {
+      for (long[] zyx : sizes) {
+        measure(sc, cache, tissue, seed, zyx);
+      }
     } finally {
       sc.stop();
     }
-    double sparkSeconds = 0;
-    for (StageReport stage : report.stages()) {
-      System.out.println(stage.line());
-      sparkSeconds += stage.seconds();
-    }
+  }
 
-    RunSettings s = RunResolver.resolve(new ConfigReader().read(config));
-    StitchingSetup local = s.setup().withLabels("in-process");
-    long t1 = System.nanoTime();
-    InProcessRunner.run(local);
-    double localSeconds = (System.nanoTime() - t1) / 1e9;
-    boolean same = java.util.Arrays.equals(Scenes.labels(root, "segmentation"),
-        Scenes.labels(root, "in-process"));
-    System.out.printf(Locale.ROOT, "spark local[2]: %.2f s, %.0f voxels/s end to end%n",
-        sparkSeconds, voxels / sparkSeconds);
-    System.out.printf(Locale.ROOT, "in-process (1 thread): %.2f s, %.0f voxels/s%n", localSeconds,
-        voxels / localSeconds);
-    System.out.printf(Locale.ROOT, "speed-up of local[2] over in-process: %.2f; same ids: %s%n",
-        localSeconds / sparkSeconds, same);
+  private static void measure(JavaSparkContext sc, Path cache, TissuePreset tissue, long seed,
+      long[] zyx) throws Exception {
+    long voxels = zyx[0] * zyx[1] * zyx[2];
+    String name = tissue.presetName() + "-" + seed + "-" + zyx[0] + "x" + zyx[1] + "x" + zyx[2];
+    Path dir = cache.resolve(name);
+    Path root = dir.resolve("volume.zarr");
+    if (!Files.isDirectory(root.resolve(SyntheticScenario.AFFINITIES))) {
+      long t0 = System.nanoTime();
+      long[] xyz = {zyx[2], zyx[1], zyx[0]};
+      SyntheticScenario.write(Container.create(root, StorageFormat.ZARR),
+          tissue.volume(seed, xyz), tissue.scenarioOptions(seed));
+      System.out.printf(Locale.ROOT, "generated %s in %.1f s%n", name,
+          (System.nanoTime() - t0) / 1e9);
+    }
+    Path config = dir.resolve("run.json");
+    Files.writeString(config, "{\"axes\": \"zyx\", \"input\": {\"container\": \""
+        + root + "\", \"affinities\": \"" + SyntheticScenario.AFFINITIES + "\"}, "
+        + "\"output\": {\"dataset\": \"segmentation\"}}");
+
+    System.out.printf(Locale.ROOT, "%n%d x %d x %d (z y x) = %.1f M voxels%n", zyx[0], zyx[1],
+        zyx[2], voxels / 1e6);
+    double cpuTotal = 0;
+    double wallTotal = 0;
+    StitchingSetup setup;
+    try (PreparedRun run = RunLoader.prepare(config, null, true)) {
+      setup = run.settings().setup();
+      BlockGrid grid = setup.grid();
+      System.out.printf(Locale.ROOT, "%d blocks of %s (x y z) voxels%n", grid.blockCount(),
+          Arrays.toString(grid.blockShape()));
+      Pipeline pipeline = new Pipeline(sc, new PrintStream(new ByteArrayOutputStream(), true,
+          StandardCharsets.UTF_8), new PrintStream(new ByteArrayOutputStream(), true,
+          StandardCharsets.UTF_8), false);
+      System.out.printf(Locale.ROOT, "  %-9s %8s %10s %9s %9s %14s%n", "stage", "tasks",
+          "wall s", "s/Mvox", "cpu/wall", "heap peak MiB");
+      for (Stage stage : STAGES) {
+        System.gc();
+        HeapPeak heap = HeapPeak.start();
+        double cpu0 = processCpuSeconds();
+        RunReport report = pipeline.run(run, List.of(stage));
+        double cpu = processCpuSeconds() - cpu0;
+        long heapPeak = heap.growth();
+        StageReport stageReport = report.stages().get(0);
+        double wall = stageReport.seconds();
+        cpuTotal += cpu;
+        wallTotal += wall;
+        System.out.printf(Locale.ROOT, "  %-9s %8d %10.1f %9.2f %9.2f %14d%n",
+            stage.cliName(), stageReport.total(), wall, wall / (voxels / 1e6), cpu / wall,
+            heapPeak >> 20);
+      }
+    }
+    double runRate = voxels / cpuTotal / 1e6;
+    System.out.printf(Locale.ROOT, "  whole run: %.1f s wall, %.1f s CPU, %.2f s/Mvoxel wall, "
+        + "%.3f Mvoxels/s per core%n", wallTotal, cpuTotal, wallTotal / (voxels / 1e6), runRate);
+    double kernelRate = kernelRate(setup);
+    System.out.printf(Locale.ROOT, "  partition kernel alone: %.3f Mvoxels/s per core (core "
+        + "voxels, %d interior blocks); whole run / kernel = %.2f%n", kernelRate,
+        KERNEL_SAMPLES, runRate / kernelRate);
+  }
+
+  /**
+   * Core voxels per CPU second of this thread over a few interior blocks' partition
+   * computations ({@link PartitionTask#timeWithoutWriting}: the task's read, partition and
+   * summary, without its writes), run while Spark is idle.
+   */
+  private static double kernelRate(StitchingSetup setup) {
+    BlockGrid grid = setup.grid();
+    List<Integer> interior = new ArrayList<>();
+    for (int b = 0; b < grid.blockCount(); b++) {
+      if (Arrays.equals(grid.block(b).coreShape(), grid.blockShape())) {
+        interior.add(b);
+      }
+    }
+    PartitionTask.timeWithoutWriting(setup, interior.get(0));  // warm-up
+    long voxels = 0;
+    double cpu0 = threadCpuSeconds();
+    for (int i = 0; i < KERNEL_SAMPLES; i++) {
+      int b = interior.get(i * interior.size() / KERNEL_SAMPLES);
+      PartitionTask.timeWithoutWriting(setup, b);
+      voxels += Shapes.elementCount(grid.block(b).coreShape());
+    }
+    return voxels / (threadCpuSeconds() - cpu0) / 1e6;
+  }
+
+  private static double threadCpuSeconds() {
+    return ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() / 1e9;
+  }
+
+  private static double processCpuSeconds() {
+    return ((com.sun.management.OperatingSystemMXBean) ManagementFactory
+        .getOperatingSystemMXBean()).getProcessCpuTime() / 1e9;
   }
 }

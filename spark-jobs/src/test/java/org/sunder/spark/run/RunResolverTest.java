@@ -88,6 +88,23 @@ class RunResolverTest {
     assertTrue(!p.get("fragments").get("perSlice").asBoolean());
     assertEquals("fragments-multicut", p.get("method").asText());
 
+    // a configuration in x, y, z order still fits the fragments slowest axis first
+    c.mergeAttributes("affinities", java.util.Map.of("voxelSize", java.util.List.of(40, 8, 8),
+        "axes", "zyx"));
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(partitionJson(resolve(
+        "{\"axes\": \"xyz\", \"input\": {\"container\": \"" + root + "\"}}")));
+    assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
+    assertTrue(p.get("fragments").get("perSlice").asBoolean());
+
+    // the N5 convention, x first, when the tool's own attribute is absent
+    Path n5 = dir.resolve("v.n5");
+    TestContainers.withAffinities(n5, StorageFormat.N5, VOLUME, CHUNKS,
+        TestContainers.OFFSETS_ZYX).mergeAttributes("affinities",
+        java.util.Map.of("resolution", java.util.List.of(8, 8, 40)));
+    p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(partitionJson(resolve(
+        "{\"input\": {\"container\": \"" + n5 + "\"}}")));
+    assertEquals("[40.0,8.0,8.0]", p.get("fragments").get("voxelSize").toString());
+
     // a named method keeps its own defaults: no size filter unless asked for
     p = new com.fasterxml.jackson.databind.ObjectMapper().readTree(partitionJson(resolve(
         "{\"input\": {\"container\": \"" + root + "\"}, \"partition\": {\"method\": "

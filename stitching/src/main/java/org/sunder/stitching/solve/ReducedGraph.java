@@ -59,13 +59,7 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
       parts.add(seam.edges());
       continuedParts.add(seam.continued());
     }
-    EdgeStatistics merged = EdgeStatistics.mergeAll(parts);
-    long[] indices = new long[nodeCount];
-    for (int i = 0; i < nodeCount; i++) {
-      indices[i] = i;
-    }
-    requireNodes(merged, nodeIds, layout);
-    EdgeStatistics edges = merged.relabel(nodeIds, indices);
+    EdgeStatistics edges = toNodeIndices(EdgeStatistics.mergeAll(parts), nodeIds, layout);
     int separated = 0;
     for (BlockSummary s : blocks) {
       separated += s.separatedU().length;
@@ -79,9 +73,8 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
         sv[row++] = node(nodeIds, s.separatedV()[i], layout);
       }
     }
-    EdgeStatistics continued = EdgeStatistics.mergeAll(continuedParts);
-    requireNodes(continued, nodeIds, layout);
-    return new ReducedGraph(nodeIds, edges, su, sv, continued.relabel(nodeIds, indices));
+    return new ReducedGraph(nodeIds, edges, su, sv,
+        toNodeIndices(EdgeStatistics.mergeAll(continuedParts), nodeIds, layout));
   }
 
   /**
@@ -138,7 +131,13 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
         + " summaries and seams are from different runs");
   }
 
-  private static void requireNodes(EdgeStatistics edges, long[] nodeIds, IdLayout layout) {
+  /** {@code edges} over node indices; throws naming the first provisional id not a node. */
+  private static EdgeStatistics toNodeIndices(EdgeStatistics edges, long[] nodeIds,
+      IdLayout layout) {
+    EdgeStatistics renumbered = edges.renumbered(nodeIds);
+    if (renumbered != null) {
+      return renumbered;
+    }
     for (int e = 0; e < edges.size(); e++) {
       for (long id : new long[] {edges.u(e), edges.v(e)}) {
         if (Arrays.binarySearch(nodeIds, id) < 0) {
@@ -146,5 +145,6 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
         }
       }
     }
+    throw new IllegalStateException("every id is a node");
   }
 }

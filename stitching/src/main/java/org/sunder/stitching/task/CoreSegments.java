@@ -311,7 +311,7 @@ public final class CoreSegments {
     EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
     EdgeStatistics.Accumulator repulsive = new EdgeStatistics.Accumulator(256);
     EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(256);
-    extendedGraph.forEachEdge((s, t, k, w) -> {
+    extendedGraph.forEachEdgeAcross(labels, (s, t, k, w) -> {
       int a = boundaryOf[labels[s]];
       int b = boundaryOf[labels[t]];
       if (withInteriorEdges && (a == 0) != (b == 0) && inCore[s] && inCore[t]) {

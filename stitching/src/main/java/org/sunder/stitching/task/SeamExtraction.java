@@ -63,7 +63,7 @@ public final class SeamExtraction {
     int axis = face.axis();
     int lower = face.lowerBlock();
     EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
-    slabGraph.forEachEdge((s, t, k, w) -> {
+    slabGraph.forEachEdgeAcross(labels, (s, t, k, w) -> {
       int bs = blockOf[s];
       int bt = blockOf[t];
       if (bs == bt) {
@@ -71,7 +71,7 @@ public final class SeamExtraction {
       }
       long ls = labels[s];
       long lt = labels[t];
-      if (ls == 0 || lt == 0 || ls == lt) {
+      if (ls == 0 || lt == 0) {
         return;
       }
       if (owner(bs, bt, gridShape, n, axis) == lower) {

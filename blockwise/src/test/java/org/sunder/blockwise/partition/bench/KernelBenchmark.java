@@ -2,8 +2,6 @@ package org.sunder.blockwise.partition.bench;
 
 import java.io.IOException;
 import java.lang.management.ManagementFactory;
-import java.lang.management.MemoryPoolMXBean;
-import java.lang.management.MemoryType;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.file.Files;
@@ -20,13 +18,15 @@ import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.agglomeration.Agglomeration;
 import org.sunder.blockwise.partition.agglomeration.AgglomerationPartitioner;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.partition.mutex.MutexWatershedPartitioner;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
+import org.sunder.testing.HeapPeak;
 
 /**
- * Partition-stage figures of the voxel-level kernels (the default Mutex Watershed and mean
- * linkage agglomeration from voxels) on realistic data beside the clean block of
+ * Partition-stage figures of the kernels (the Mutex Watershed, mean linkage agglomeration
+ * from voxels, and the default method: fitted fragments + multicut + size filter) on realistic data beside the clean block of
  * {@link PartitionBenchmark}: per input, Mvoxels/s per core (the calling thread's CPU time,
  * best of the repeats after one warm-up), bytes/voxel allocated by the thread during the call
  * (every array the call makes, an upper bound on its peak retained heap), the growth of the
@@ -39,7 +39,7 @@ import org.sunder.blockwise.synth.TissuePreset;
  * {@code java.io.tmpdir/sunder-kernel-bench} because generating them takes a while.
  *
  * <p>Arguments: {@code [x y z] [repeats] [seed]}, default {@code 128 128 64 3 1}. System
- * properties: {@code -Dmethods=mws,mean} (which kernels), {@code -Dinputs=clean,dense-neurites,...}
+ * properties: {@code -Dmethods=mws,mean,default} (which kernels), {@code -Dinputs=clean,dense-neurites,...}
  * (which inputs), {@code -DmeanRepeats=N} (repeats of the slower linkage run, default 1).
  */
 public final class KernelBenchmark {
@@ -50,7 +50,7 @@ public final class KernelBenchmark {
         Integer.parseInt(args[1]), Integer.parseInt(args[2])} : new int[] {128, 128, 64};
     int repeats = args.length >= 4 ? Integer.parseInt(args[3]) : 3;
     long seed = args.length >= 5 ? Long.parseLong(args[4]) : 1;
-    String methods = System.getProperty("methods", "mws,mean");
+    String methods = System.getProperty("methods", "mws,mean,default");
     String inputs = System.getProperty("inputs",
         "clean,dense-neurites,compact-cells,bodies-and-neurites");
     int meanRepeats = Integer.getInteger("meanRepeats", 1);
@@ -72,6 +72,12 @@ public final class KernelBenchmark {
       }
       if (methods.contains("mean")) {
         measure(input + " mean linkage from voxels", block, mean, meanRepeats);
+      }
+      if (methods.contains("default")) {
+        double[] voxelSize = input.equals("clean") ? null
+            : TissuePreset.named(input).spec(seed).voxelSize();
+        measure(input + " default (fragments + multicut)", block,
+            PartitionConfig.robustDefault(voxelSize).create(), repeats);
       }
     }
   }
@@ -152,13 +158,13 @@ public final class KernelBenchmark {
     int runs = repeats > 1 ? repeats + 1 : 1;
     for (int r = 0; r < runs; r++) {
       System.gc();
-      long base = resetPeaks();
+      HeapPeak heap = HeapPeak.start();
       long bytes0 = threads.getThreadAllocatedBytes(thread);
       long cpu0 = threads.getCurrentThreadCpuTime();
       Segmentation s = partitioner.partition(block);
       long cpu1 = threads.getCurrentThreadCpuTime();
       long bytes1 = threads.getThreadAllocatedBytes(thread);
-      long peak = peakSum() - base;
+      long peak = heap.growth();
       hash = Arrays.hashCode(s.labels());
       segments = s.segmentCount();
       if (runs > 1 && r == 0) {
@@ -172,27 +178,5 @@ public final class KernelBenchmark {
         + "bytes/voxel allocated, %6.1f bytes/voxel heap peak growth, %d segments, labels hash "
         + "%08x%n", name, voxels / bestCpu / 1e6, bestCpu, bestBytes / (double) voxels,
         bestPeak / (double) voxels, segments, hash);
-  }
-
-  /** Resets the heap pools' peak usage; returns their current usage. */
-  private static long resetPeaks() {
-    long used = 0;
-    for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
-      if (pool.getType() == MemoryType.HEAP) {
-        pool.resetPeakUsage();
-        used += pool.getUsage().getUsed();
-      }
-    }
-    return used;
-  }
-
-  private static long peakSum() {
-    long peak = 0;
-    for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
-      if (pool.getType() == MemoryType.HEAP) {
-        peak += pool.getPeakUsage().getUsed();
-      }
-    }
-    return peak;
   }
 }
