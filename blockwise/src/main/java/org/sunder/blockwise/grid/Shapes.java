@@ -23,6 +23,15 @@ public final class Shapes {
     return out;
   }
 
+  /** The values in the opposite order (a voxel size in memory order to slowest axis first). */
+  public static double[] reversed(double[] values) {
+    double[] out = new double[values.length];
+    for (int i = 0; i < values.length; i++) {
+      out[i] = values[values.length - 1 - i];
+    }
+    return out;
+  }
+
   /** The number of elements of an array of this shape; throws when it does not fit a long. */
   public static long elementCount(long[] shape) {
     long n = 1;

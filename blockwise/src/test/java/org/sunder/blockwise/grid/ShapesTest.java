@@ -33,6 +33,7 @@ class ShapesTest {
     // the reverse of memory order x, y, z: memory [64, 56, 20] is Zarr [20, 56, 64].
     assertArrayEquals(new long[] {20, 56, 64}, Shapes.reversed(new long[] {64, 56, 20}));
     assertArrayEquals(new int[] {5, 14, 16}, Shapes.reversed(new int[] {16, 14, 5}));
+    assertArrayEquals(new double[] {32, 8, 4}, Shapes.reversed(new double[] {4, 8, 32}));
     Random random = new Random(5);
     for (int trial = 0; trial < 50; trial++) {
       long[] shape = random.longs(1 + random.nextInt(5), 1, 1000).toArray();

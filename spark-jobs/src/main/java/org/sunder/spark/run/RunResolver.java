@@ -215,7 +215,7 @@ public final class RunResolver {
   /** The input's voxel size (see {@link VoxelSize}) slowest axis first, or null. */
   private static double[] voxelSizeSlowestFirst(Map<String, Object> attributes, AxisOrder axes) {
     double[] memory = VoxelSize.fromAttributes(attributes, axes.dimensions(), axes.letters());
-    return memory == null ? null : VoxelSize.slowestFirst(memory);
+    return memory == null ? null : Shapes.reversed(memory);
   }
 
   /** {@code <container>.sunder-work/<dataset>} beside the output container. */

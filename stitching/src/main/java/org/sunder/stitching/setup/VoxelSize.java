@@ -46,15 +46,6 @@ public final class VoxelSize {
         ? positive(pixel.get("dimensions"), spatialAxes) : null;
   }
 
-  /** The voxel size with the slowest axis first (memory order reversed). */
-  public static double[] slowestFirst(double[] memoryOrder) {
-    double[] reversed = new double[memoryOrder.length];
-    for (int d = 0; d < reversed.length; d++) {
-      reversed[d] = memoryOrder[memoryOrder.length - 1 - d];
-    }
-    return reversed;
-  }
-
   private static double[] slowestFirstList(Object value, int spatialAxes, String letters) {
     double[] listed = positive(value, spatialAxes);
     if (listed == null || letters.length() != spatialAxes) {

@@ -49,8 +49,13 @@ public final class MultiscaleMetadata {
       for (int i = 0; i < n; i++) {
         scale.add(size[n - 1 - i]);
       }
-      datasets.add(Map.of("path", levelPaths.get(level),
-          "coordinateTransformations", List.of(Map.of("type", "scale", "scale", scale))));
+      Map<String, Object> transformation = new LinkedHashMap<>();
+      transformation.put("type", "scale");
+      transformation.put("scale", scale);
+      Map<String, Object> dataset = new LinkedHashMap<>();
+      dataset.put("path", levelPaths.get(level));
+      dataset.put("coordinateTransformations", List.of(transformation));
+      datasets.add(dataset);
     }
     Map<String, Object> multiscale = new LinkedHashMap<>();
     multiscale.put("version", VERSION);

@@ -43,9 +43,4 @@ class VoxelSizeTest {
         3, "zyx"));
     assertNull(VoxelSize.fromAttributes(Map.of("pixelResolution", "4,4,40"), 3, "zyx"));
   }
-
-  @Test
-  void slowestFirstReversesMemoryOrder() {
-    assertArrayEquals(new double[] {32, 8, 4}, VoxelSize.slowestFirst(new double[] {4, 8, 32}));
-  }
 }
