@@ -36,5 +36,9 @@ public final class PayloadClasses {
       org.sunder.blockwise.metrics.SeamPlanes.class,
       org.sunder.blockwise.metrics.SeamTally.class,
       org.sunder.stitching.task.BlockSummaryFile.Stored.class,
-      org.sunder.stitching.task.SeamEdgesFile.Stored.class);
+      org.sunder.stitching.task.SeamEdgesFile.Stored.class,
+      org.sunder.stitching.solve.LevelTasks.PartRecord.class,
+      org.sunder.stitching.solve.LevelTasks.DriverRecord.class,
+      org.sunder.stitching.solve.LevelTasks.DownRecord.class,
+      org.sunder.stitching.solve.LevelTasks.IdsRecord.class);
 }
