@@ -34,12 +34,15 @@ final class SolveLevels {
   private final WorkDir work;
   private final StageRunner runner;
   private final PrintStream out;
+  private final TaskHooks hooks;
   private final PayloadCodec codec = new PayloadCodec();
 
-  SolveLevels(WorkDir work, StageRunner runner, PrintStream out) {
+  /** @param hooks the test hooks of the driver's step (its tasks' come with the runner) */
+  SolveLevels(WorkDir work, StageRunner runner, PrintStream out, TaskHooks hooks) {
     this.work = work;
     this.runner = runner;
     this.out = out;
+    this.hooks = hooks;
   }
 
   /** The files' folder of a work dir. */
@@ -141,6 +144,7 @@ final class SolveLevels {
       return codec.decode(ledger.read(0), LevelTasks.DriverRecord.class, "solve driver record");
     }
     long startMillis = System.currentTimeMillis();
+    hooks.beforeTask(Stage.SOLVE.cliName() + "-driver", 0, work.root());
     LevelTasks.DriverRecord r = LevelTasks.driver(setup, files(work), levels, top);
     ledger.recordTiming(0, startMillis, r.seconds());
     ledger.record(0, codec.encode(r));

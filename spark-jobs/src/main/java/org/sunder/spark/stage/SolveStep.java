@@ -69,7 +69,7 @@ final class SolveStep {
       out.println("solve: the reduced graph has up to " + edges + " pairs, more than"
           + " solve.maxDriverEdges = " + settings.maxDriverEdges() + "; solving it level by"
           + " level over super-blocks");
-      SolveReport report = new SolveLevels(work, runner, out).run(settings, edges);
+      SolveReport report = new SolveLevels(work, runner, out, hooks).run(settings, edges);
       DecisionsFile.write(ledger, List.of());
       ledger.recordTiming(0, startMillis, (System.nanoTime() - start) / 1e9);
       ledger.record(0, codec.encode(report));
