@@ -34,8 +34,10 @@ import org.sunder.stitching.solve.LevelTasks;
  * and the driver thread's allocation over the whole solve stage (in local mode the executors
  * share the driver's JVM, so its heap is not the driver's alone: the driver thread's allocated
  * bytes, {@code com.sun.management.ThreadMXBean}, bound what the driver held). Not a test.
- * Arguments: {@code [dir] [bound]}; the sizes are 64 x 192 x 192 and 64 x 384 x 384 (z y x),
- * blocks of 16 x 32 x 32.
+ * Arguments: {@code [dir] [bound] [side...]}; the sizes are 64 x side x side (z y x), by default
+ * 192 and 384, blocks of 16 x 32 x 32. A scene already in {@code dir} is reused (its finished
+ * tasks skipped); a bound the rest does not fit under after the levels is doubled and the solve
+ * redone.
  */
 public final class LevelSolveBenchmark {
   private static final int[] BLOCK_XYZ = {32, 32, 16};
@@ -44,10 +46,14 @@ public final class LevelSolveBenchmark {
 
   public static void main(String[] args) throws Exception {
     Path dir = args.length > 0 ? Path.of(args[0]) : Files.createTempDirectory("sunder-levels");
-    long bound = args.length > 1 ? Long.parseLong(args[1]) : 4000;
+    long bound = args.length > 1 ? Long.parseLong(args[1]) : 1_000_000;
+    long[] sides = args.length > 2 ? new long[args.length - 2] : new long[] {192, 384};
+    for (int i = 2; i < args.length; i++) {
+      sides[i - 2] = Long.parseLong(args[i]);
+    }
     JavaSparkContext sc = SharedSpark.start("local[2]");
     try {
-      for (long side : new long[] {192, 384}) {
+      for (long side : sides) {
         run(sc, dir.resolve("v" + side), new long[] {64, side, side}, bound);
       }
     } finally {
@@ -59,33 +65,46 @@ public final class LevelSolveBenchmark {
       throws Exception {
     Path root = dir.resolve("bench.zarr");
     long voxels = zyx[0] * zyx[1] * zyx[2];
-    double scale = voxels / (64.0 * 56 * 20);
-    SynthSpec spec = SynthSpec.small(13).withShape(zyx[2], zyx[1], zyx[0])
-        .withCounts((int) (30 * scale), (int) Math.max(1, 4 * scale), (int) Math.max(1, scale));
-    SyntheticScenario.write(Container.create(root, StorageFormat.ZARR), spec,
-        ScenarioOptions.defaults().withDegradation(Degradation.moderate(13))
-            .withChunkShape(BLOCK_XYZ));
     Path config = dir.resolve("bench.json");
-    Scenes.writeConfig(config, root, BLOCK_XYZ, "{\"method\": \"mutex-watershed\"}", null);
-    String json = Files.readString(config);
-    Files.writeString(config, json.replace("\"evaluate\"",
-        "\"solve\": {\"maxDriverEdges\": " + bound + "}, \"evaluate\""));
+    if (!Files.exists(config)) {
+      double scale = voxels / (64.0 * 56 * 20);
+      SynthSpec spec = SynthSpec.small(13).withShape(zyx[2], zyx[1], zyx[0]).withCounts(
+          (int) (30 * scale), (int) Math.max(1, 4 * scale), (int) Math.max(1, scale));
+      SyntheticScenario.write(Container.create(root, StorageFormat.ZARR), spec,
+          ScenarioOptions.defaults().withDegradation(Degradation.moderate(13))
+              .withChunkShape(BLOCK_XYZ));
+      Scenes.writeConfig(config, root, BLOCK_XYZ, "{\"method\": \"mutex-watershed\"}", null);
+    }
+    String json = Files.readString(config).replaceAll(
+        "\"solve\":\\s*\\{\"maxDriverEdges\":\\s*[0-9]+\\},\\s*", "");
     ByteArrayOutputStream log = new ByteArrayOutputStream();
     PrintStream quiet = new PrintStream(log, true, StandardCharsets.UTF_8);
     WorkDir work;
-    try (PreparedRun run = RunLoader.prepare(config, null, true)) {
-      work = run.workDir();
-      new Pipeline(sc, quiet, quiet, false).run(run, List.of(Stage.PARTITION, Stage.SEAMS));
-    }
     com.sun.management.ThreadMXBean threads =
         (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
-    long allocated = threads.getCurrentThreadAllocatedBytes();
-    long start = System.nanoTime();
-    try (PreparedRun run = RunLoader.prepare(config, null, false)) {
-      new Pipeline(sc, quiet, quiet, false).run(run, List.of(Stage.SOLVE));
+    long driverAllocated;
+    double solveSeconds;
+    while (true) {
+      Files.writeString(config, json.replace("\"evaluate\"",
+          "\"solve\":{\"maxDriverEdges\":" + bound + "},\"evaluate\""));
+      try (PreparedRun run = RunLoader.prepare(config, null, false)) {
+        work = run.workDir();
+        new Pipeline(sc, quiet, quiet, false).run(run, List.of(Stage.PARTITION, Stage.SEAMS));
+      }
+      long allocated = threads.getCurrentThreadAllocatedBytes();
+      long start = System.nanoTime();
+      try (PreparedRun run = RunLoader.prepare(config, null, false)) {
+        new Pipeline(sc, quiet, quiet, false).run(run, List.of(Stage.SOLVE));
+      } catch (org.sunder.blockwise.SunderException tooLow) {
+        System.out.println("bound " + bound + " too low: " + tooLow.getMessage());
+        bound *= 2;
+        log.reset();
+        continue;
+      }
+      solveSeconds = (System.nanoTime() - start) / 1e9;
+      driverAllocated = threads.getCurrentThreadAllocatedBytes() - allocated;
+      break;
     }
-    double solveSeconds = (System.nanoTime() - start) / 1e9;
-    long driverAllocated = threads.getCurrentThreadAllocatedBytes() - allocated;
     int blocks = 0;
     long pairs = 0;
     while (work.ledger(Stage.PARTITION).isFinished(blocks)) {

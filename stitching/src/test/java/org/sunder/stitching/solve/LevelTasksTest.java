@@ -89,6 +89,15 @@ class LevelTasksTest {
     }
     int levels = level - 1;
     assertTrue(levels >= 2, "levels " + levels);
+    // the plan's model (half the edges handed up per level) predicts this run's levels
+    LevelEstimate estimate = LevelEstimate.of(setup, pairs, pairs / 3);
+    assertEquals(levels, estimate.levels());
+    long records = 2 + grid.blockCount();
+    for (int l = 1; l <= levels; l++) {
+      records += 2L * superBlocks.partCount(l);
+    }
+    assertEquals(records, estimate.taskRecords());
+    assertEquals(0, LevelEstimate.of(setup, pairs, pairs).levels());
     long[] finals = LevelTasks.driver(setup, files, levels, below).finalsChecksums();
     long[] blockChecksums = new long[grid.blockCount()];
     long[] notOwned = new long[grid.blockCount()];
