@@ -121,8 +121,9 @@ final class SolveLevels {
     long[] segments = new long[blocks];
     long nodes = 0;
     for (int b = 0; b < blocks; b++) {
-      segments[b] = StageFiles.summaryRecord(work, b).segments();
-      nodes += StageFiles.summaryRecord(work, b).boundarySegments();
+      org.sunder.stitching.task.BlockSummaryFile.Stored record = StageFiles.summaryRecord(work, b);
+      segments[b] = record.segments();
+      nodes += record.boundarySegments();
     }
     long[] offsets = LevelTasks.offsets(segments, notOwned);
     runner.runStep(Stage.SOLVE, "ids", blocks, new BlockIds(offsets, blockChecksums));

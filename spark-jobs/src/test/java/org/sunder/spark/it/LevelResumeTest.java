@@ -180,6 +180,53 @@ class LevelResumeTest {
         "output bytes differ from the single-level run");
   }
 
+  /**
+   * A child JVM runs the level-by-level solve and is killed (SIGKILL) inside level 1 on the way
+   * up, inside level 2, and inside level 1 on the way down, in turn; each rerun skips what the
+   * killed run recorded, and the last one ends with the single-level bytes.
+   */
+  @Test
+  void killedInsideEachLevelResumesToTheSingleLevelBytes(@TempDir Path dir) throws Exception {
+    Scenes.Scene single = Scenes.write(dir.resolve("single"), StorageFormat.ZARR,
+        Degradation.moderate(13), BLOCK_XYZ, MWS);
+    long bound = boundFor(single, 2);
+    List<String> reference = Scenes.chunkFiles(single.container().resolve("segmentation"));
+    Scenes.Scene scene = Scenes.write(dir.resolve("levels"), StorageFormat.ZARR,
+        Degradation.moderate(13), BLOCK_XYZ, MWS);
+    writeBound(scene, Files.readString(scene.config()), bound);
+    WorkDir work = workDir(scene);
+    Map<Path, FileTime> records = new HashMap<>();
+    for (String step : List.of("up-1", "up-2", "down-1")) {
+      org.sunder.spark.workdir.StageLedger ledger = work.ledger(Stage.SOLVE).step(step);
+      List<String> command = org.sunder.spark.cli.ChildCli.command("1g",
+          List.of("-D" + TaskHooks.DELAY_KEY + "=300"), "run", scene.config().toString(),
+          "--master", "local[2]");
+      Path log = Files.createTempFile(dir, "child", ".log");
+      Process child = new ProcessBuilder(command).redirectErrorStream(true)
+          .redirectOutput(log.toFile()).start();
+      long deadline = System.nanoTime() + 180_000_000_000L;
+      while (ledger.finished().cardinality() < 1) {
+        assertTrue(child.isAlive(), step + ": child ended before the kill\n"
+            + Files.readString(log));
+        assertTrue(System.nanoTime() < deadline, step + ": not reached\n" + Files.readString(log));
+        Thread.sleep(20);
+      }
+      child.destroyForcibly();
+      child.waitFor();
+      assertTrue(!work.ledger(Stage.SOLVE).isFinished(0), step + ": the solve finished");
+      assertUntouched(records, "kill in " + step);
+      records = recordTimes(work);
+    }
+    CliRun last = cli("run", scene.config().toString());
+    assertEquals(0, last.exitCode(), last.err());
+    assertTrue(last.out().contains("solve driver: finished in an earlier run, skipped"),
+        last.out());
+    assertTrue(last.out().contains("solve up-1: "), last.out());
+    assertUntouched(records, "last run");
+    assertEquals(reference, Scenes.chunkFiles(scene.container().resolve("segmentation")),
+        "output bytes differ from the single-level run");
+  }
+
   /** Every task record under the solve's folder (its steps included) with its time. */
   private static Map<Path, FileTime> recordTimes(WorkDir work) throws IOException {
     Map<Path, FileTime> times = new HashMap<>();
