@@ -4,6 +4,8 @@ import java.io.PrintStream;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import org.sunder.blockwise.ErrorKind;
+import org.sunder.blockwise.SunderException;
 import org.sunder.spark.kryo.PayloadCodec;
 import org.sunder.spark.run.RunSettings;
 import org.sunder.spark.workdir.Stage;
@@ -91,8 +93,10 @@ final class SolveLevels {
     int levels = level - 1;
     LevelTasks.requireDriverFits(setup.partition(), levels, rows, settings.maxDriverEdges());
     if (levels == 0) {
-      // one super-block holds the whole grid: nothing to do level by level
-      throw new IllegalStateException("level-by-level solve of a graph that fits");
+      // above the bound with one super-block, requireDriverFits has thrown; below it, the
+      // driver solves the graph whole and never comes here
+      throw new SunderException(ErrorKind.INTERNAL, "level-by-level solve of a graph of "
+          + pairs + " pairs under solve.maxDriverEdges = " + settings.maxDriverEdges());
     }
     LevelTasks.DriverRecord driver = driver(setup, levels, below);
     out.println(String.format(Locale.ROOT, "solve driver: %d edges solved whole (%.1f MB"

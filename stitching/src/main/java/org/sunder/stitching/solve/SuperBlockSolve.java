@@ -94,10 +94,8 @@ public final class SuperBlockSolve {
     int levels = level - 1;
     LevelTasks.requireDriverFits(config, levels, rows, maxDriverEdges);
     if (levels == 0) {
-      throw new SunderException(ErrorKind.INVALID_CONFIG, "the hierarchical solve needs more"
-          + " than one super-block: the grid of " + grid.blockCount() + " blocks fits in one"
-          + " super-block of " + FACTOR + " blocks per axis, and its graph of " + rows
-          + " edges is above solve.maxDriverEdges = " + maxDriverEdges);
+      throw new IllegalArgumentException(pairs + " pairs fit under solve.maxDriverEdges = "
+          + maxDriverEdges + ": solve them whole (GlobalSolve)");
     }
     long[] finals = LevelTasks.driver(setup, files, levels, below).finalsChecksums();
     long[] blockChecksums = new long[grid.blockCount()];
