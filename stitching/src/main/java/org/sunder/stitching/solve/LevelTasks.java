@@ -172,7 +172,7 @@ public final class LevelTasks {
           !config.isMutexWatershed(), summaryOf, seamsOf);
     } else {
       SolveEdges all = new SolveEdges(16);
-      for (int below : HierarchicalSolve.childrenOf(superBlocks, level - 1)[part]) {
+      for (int below : superBlocks.subParts(level, part)) {
         all.addAll(EdgeFile.read(files.edges(level - 1, below), belowChecksums[below]));
       }
       input = all.joinCopies();
@@ -271,7 +271,7 @@ public final class LevelTasks {
         childOf[k] = layout.blockOf(nodes[k]);
       }
     } else {
-      children = HierarchicalSolve.childrenOf(superBlocks, level - 1)[part];
+      children = superBlocks.subParts(level, part);
       for (int k = 0; k < n; k++) {
         childOf[k] = superBlocks.partOfNode(nodes[k], level - 1);
       }

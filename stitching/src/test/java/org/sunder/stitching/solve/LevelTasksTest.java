@@ -135,6 +135,23 @@ class LevelTasksTest {
     }
   }
 
+  @Test
+  void subPartsFromTheGridsShapeAreTheChildrenFoundFromEveryBlock() {
+    // a grid of 7 x 5 x 3 blocks: cut-off super-blocks along every axis
+    BlockGrid grid = BlockGrid.of(new long[] {28, 15, 6}, new int[] {4, 3, 2},
+        new int[] {4, 3, 2}, new int[] {1, 1, 1});
+    SuperBlocks superBlocks = new SuperBlocks(grid,
+        org.sunder.blockwise.grid.IdLayout.forGrid(grid), 2);
+    for (int level = 2; superBlocks.partCount(level - 1) > 1; level++) {
+      int[][] children = HierarchicalSolve.childrenOf(superBlocks, level - 1);
+      for (int p = 0; p < superBlocks.partCount(level); p++) {
+        assertEquals(java.util.Arrays.toString(children[p]),
+            java.util.Arrays.toString(superBlocks.subParts(level, p)), "level " + level
+            + " part " + p);
+      }
+    }
+  }
+
   private static List<Integer> shuffled(int n, Random random) {
     List<Integer> order = new ArrayList<>();
     for (int i = 0; i < n; i++) {
