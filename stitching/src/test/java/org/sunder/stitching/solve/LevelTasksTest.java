@@ -178,5 +178,15 @@ class LevelTasksTest {
     assertThrows(SunderException.class, () -> MergeMapFile.read(file, -1));
     assertThrows(IllegalArgumentException.class,
         () -> new MergeMap(new long[] {4, 4}, new long[] {1, 1}));
+    SolveEdges edges = new SolveEdges(2);
+    edges.add(5, 9, 0.25, 5, 9, SolveEdges.MAX);
+    edges.add(5, 11, -0.5, 5, 11, SolveEdges.MIN);
+    Path edgeFile = dir.resolve("p.edges");
+    long edgesChecksum = EdgeFile.write(edgeFile, edges);
+    assertEquals(edges, EdgeFile.read(edgeFile, edgesChecksum));
+    SunderException stale = assertThrows(SunderException.class,
+        () -> EdgeFile.read(edgeFile, edgesChecksum ^ 1));
+    assertTrue(stale.getMessage().contains(edgeFile.toString())
+        && stale.getMessage().contains("recorded"), stale.getMessage());
   }
 }
