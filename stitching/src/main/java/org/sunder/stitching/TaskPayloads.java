@@ -24,5 +24,9 @@ public final class TaskPayloads {
       org.sunder.blockwise.metrics.SeamTally.class,
       org.sunder.stitching.task.BlockSummaryFile.Stored.class,
       org.sunder.stitching.task.SeamEdgesFile.Stored.class,
-      org.sunder.stitching.task.SeamAuditTally.class);
+      org.sunder.stitching.task.SeamAuditTally.class,
+      org.sunder.stitching.solve.LevelTasks.PartRecord.class,
+      org.sunder.stitching.solve.LevelTasks.DriverRecord.class,
+      org.sunder.stitching.solve.LevelTasks.DownRecord.class,
+      org.sunder.stitching.solve.LevelTasks.IdsRecord.class);
 }

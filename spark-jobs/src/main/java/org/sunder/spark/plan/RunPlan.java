@@ -21,6 +21,8 @@ import org.sunder.spark.run.TaskBudget;
 import org.sunder.spark.stage.PyramidStep;
 import org.sunder.stitching.setup.PartitionEstimate;
 import org.sunder.stitching.setup.StitchingSetup;
+import org.sunder.stitching.solve.LevelEstimate;
+import org.sunder.stitching.solve.SuperBlockSolve;
 import org.sunder.stitching.task.LabelPyramid;
 import org.sunder.stitching.task.PartitionSample;
 
@@ -114,7 +116,11 @@ public final class RunPlan {
           + " a face), %.1f%% of solve.maxDriverEdges = %d", edges,
           trim(SEAM_EDGES_PER_BOUNDARY_SEGMENT), 100.0 * edges / s.maxDriverEdges(),
           s.maxDriverEdges()));
-      if (edges > s.maxDriverEdges()) {
+      if (edges > s.maxDriverEdges() && SuperBlockSolve.supports(s.setup().partition())) {
+        for (String line : levelLines(s, edges)) {
+          out.println(line);
+        }
+      } else if (edges > s.maxDriverEdges()) {
         out.println("warning    the reduced graph may exceed solve.maxDriverEdges; the solve"
             + " would stop before gathering it: raise the bound (and the driver's memory) or"
             + " choose larger blocks");
@@ -126,6 +132,26 @@ public final class RunPlan {
     out.println("output     " + s.outputContainer() + "  dataset " + s.outputDataset()
         + " (uint64, chunks " + Arrays.toString(axes.toFile(s.chunkShape())) + ")");
     out.println("work dir   " + s.workDir());
+  }
+
+  /**
+   * The level-by-level solve's shape ({@link LevelEstimate}) for a reduced graph of about
+   * {@code pairs} pairs above the driver bound: levels, the largest task's graph and the
+   * driver's share, with their memory.
+   */
+  static List<String> levelLines(RunSettings s, long pairs) {
+    LevelEstimate e = LevelEstimate.of(s.setup(), pairs, s.maxDriverEdges());
+    List<String> lines = new ArrayList<>();
+    lines.add(String.format(Locale.ROOT, "levels     the solve runs level by level over"
+        + " super-blocks: %d levels (each taken to hand up %s of its edges), %s records",
+        e.levels(), trim(LevelEstimate.HANDED_UP_PER_LEVEL), e.taskRecords()));
+    lines.add(String.format(Locale.ROOT, "           largest task about %d edges (%s); the"
+        + " driver's share about %d edges (%s)%s", e.largestTaskEdges(),
+        ByteSize.format(LevelEstimate.bytes(e.largestTaskEdges())), e.driverEdges(),
+        ByteSize.format(LevelEstimate.bytes(e.driverEdges())), e.fits() ? ""
+        : "; above solve.maxDriverEdges after the last level: the solve would stop, raise the"
+        + " bound or choose larger blocks"));
+    return lines;
   }
 
   /**

@@ -72,7 +72,7 @@ public final class Pipeline {
     WorkDir work = run.workDir();
     TaskHooks hooks = TaskHooks.from(new SparkConf());
     StageRunner runner = new StageRunner(sc, broadcast, work, out, hooks);
-    SolveStep solve = new SolveStep(sc, work, out, hooks);
+    SolveStep solve = new SolveStep(sc, work, out, hooks, runner);
     BlockGrid grid = settings.grid();
     List<StageReport> reports = new ArrayList<>();
     SolveReport solved = null;

@@ -21,13 +21,21 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
 
   private final Broadcast<RunSettings> settings;
   private final Stage stage;
+  private final String step;
   private final TaskBody body;
   private final TaskHooks hooks;
   private final PayloadCodec codec = new PayloadCodec();
 
   RecordingTask(Broadcast<RunSettings> settings, Stage stage, TaskBody body, TaskHooks hooks) {
+    this(settings, stage, null, body, hooks);
+  }
+
+  /** The function of step {@code step} of {@code stage} ({@link StageLedger#step}), or null. */
+  RecordingTask(Broadcast<RunSettings> settings, Stage stage, String step, TaskBody body,
+      TaskHooks hooks) {
     this.settings = settings;
     this.stage = stage;
+    this.step = step;
     this.body = body;
     this.hooks = hooks;
   }
@@ -36,17 +44,18 @@ final class RecordingTask implements VoidFunction<Iterator<Integer>> {
   public void call(Iterator<Integer> indices) {
     RunSettings s = settings.value();
     WorkDir work = new WorkDir(s.workDirPath());
-    StageLedger ledger = work.ledger(stage);
+    StageLedger ledger = step == null ? work.ledger(stage) : work.ledger(stage).step(step);
+    String name = step == null ? stage.cliName() : stage.cliName() + "-" + step;
     while (indices.hasNext()) {
       int index = indices.next();
       Object result;
       long startMillis = System.currentTimeMillis();
       long start = System.nanoTime();
       try {
-        hooks.beforeTask(stage.cliName(), index, work.root());
+        hooks.beforeTask(name, index, work.root());
         result = body.run(s, index);
       } catch (OutOfMemoryError e) {
-        throw new TaskOutOfMemory(stage.cliName() + " task " + index + " ran out of memory ("
+        throw new TaskOutOfMemory(name + " task " + index + " ran out of memory ("
             + e.getMessage() + ")");
       }
       ledger.recordTiming(index, startMillis, (System.nanoTime() - start) / 1e9);

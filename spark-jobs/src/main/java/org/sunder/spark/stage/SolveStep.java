@@ -24,19 +24,24 @@ import org.sunder.stitching.task.BlockSummary;
 import org.sunder.stitching.task.SeamEdges;
 
 /**
- * The solve stage on the driver: checks the reduced graph's size against
- * {@code solve.maxDriverEdges} (counted on the executors), loads the block summaries and seam
- * edges, solves, and records the final id map as the stage's single task.
+ * The solve stage: checks the reduced graph's size against {@code solve.maxDriverEdges}
+ * (counted on the executors). When it fits, loads the block summaries and seam edges on the
+ * driver, solves, and writes each block's share of the final ids; above the bound, runs the
+ * level-by-level solve as steps of Spark tasks ({@link SolveLevels}). Either way the stage's
+ * own record (task 0, the {@link SolveReport}) is written last.
  */
 final class SolveStep {
   private final JavaSparkContext sc;
   private final WorkDir work;
   private final PrintStream out;
   private final TaskHooks hooks;
+  private final StageRunner runner;
   private final PayloadCodec codec = new PayloadCodec();
 
-  SolveStep(JavaSparkContext sc, WorkDir work, PrintStream out, TaskHooks hooks) {
+  SolveStep(JavaSparkContext sc, WorkDir work, PrintStream out, TaskHooks hooks,
+      StageRunner runner) {
     this.sc = sc;
+    this.runner = runner;
     this.work = work;
     this.out = out;
     this.hooks = hooks;
@@ -64,11 +69,12 @@ final class SolveStep {
       out.println("solve: the reduced graph has up to " + edges + " pairs, more than"
           + " solve.maxDriverEdges = " + settings.maxDriverEdges() + "; solving it level by"
           + " level over super-blocks");
-      result = SuperBlockSolve.run(setup, edges, settings.maxDriverEdges(),
-          b -> StageFiles.summary(work, b), f -> StageFiles.seams(work, f),
-          ledger.dir().resolve("levels"));
-      writeParts(grid, result.solved());
+      SolveReport report = new SolveLevels(work, runner, out, hooks).run(settings, edges);
       DecisionsFile.write(ledger, List.of());
+      ledger.recordTiming(0, startMillis, (System.nanoTime() - start) / 1e9);
+      ledger.record(0, codec.encode(report));
+      reports.add(new StageReport(Stage.SOLVE, 1, 0, 1, (System.nanoTime() - start) / 1e9));
+      return report;
     } else {
       List<BlockSummary> summaries = new ArrayList<>(grid.blockCount());
       for (int b = 0; b < grid.blockCount(); b++) {

@@ -46,8 +46,23 @@ public final class StageRunner {
    * whose tasks form groups that must finish one after another).
    */
   public StageReport run(Stage stage, int first, int end, TaskBody body) {
+    return run(stage, null, first, end, body);
+  }
+
+  /**
+   * Runs every task of step {@code step} of {@code stage} ({@link StageLedger#step}) in
+   * {@code [0, taskCount)} that has no record yet, as one Spark job: a stage whose steps must
+   * finish one after another, each with its own records (the levels of the hierarchical solve).
+   * Its hooks name the task {@code <stage>-<step>:<index>}.
+   */
+  public StageReport runStep(Stage stage, String step, int taskCount, TaskBody body) {
+    return run(stage, step, 0, taskCount, body);
+  }
+
+  private StageReport run(Stage stage, String step, int first, int end, TaskBody body) {
     long start = System.nanoTime();
-    StageLedger ledger = work.ledger(stage);
+    StageLedger ledger = step == null ? work.ledger(stage) : work.ledger(stage).step(step);
+    String name = step == null ? stage.cliName() : stage.cliName() + " " + step;
     BitSet finished = ledger.finished();
     List<Integer> todo = new ArrayList<>();
     for (int i = first; i < end; i++) {
@@ -58,15 +73,15 @@ public final class StageRunner {
     int taskCount = end - first;
     int skipped = taskCount - todo.size();
     if (skipped > 0) {
-      out.println(stage.cliName() + ": " + skipped + " of " + taskCount
+      out.println(name + ": " + skipped + " of " + taskCount
           + " tasks finished in an earlier run, skipped");
     }
     if (!todo.isEmpty()) {
       sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, stage.cliName());
-      sc.setJobDescription("sunder " + stage.cliName());
+      sc.setJobDescription("sunder " + name);
       try {
         sc.parallelize(todo, Math.min(todo.size(), MAX_PARTITIONS))
-            .foreachPartition(new RecordingTask(settings, stage, body, hooks));
+            .foreachPartition(new RecordingTask(settings, stage, step, body, hooks));
       } finally {
         sc.setLocalProperty(ProgressListener.STAGE_PROPERTY, null);
         sc.setJobDescription(null);

@@ -27,8 +27,24 @@ public final class StageLedger {
   private final Path dir;
 
   StageLedger(Path stagesDir, Stage stage) {
+    this(stage, stagesDir.resolve(stage.cliName()));
+  }
+
+  private StageLedger(Stage stage, Path dir) {
     this.stage = stage;
-    this.dir = stagesDir.resolve(stage.cliName());
+    this.dir = dir;
+  }
+
+  /**
+   * The ledger of one step of this stage whose tasks run as a Spark job of their own (a level of
+   * the hierarchical solve), in the subfolder {@code name}: cleared with the stage, not counted
+   * among its own records.
+   */
+  public StageLedger step(String name) {
+    if (!name.matches("[a-z0-9-]+")) {
+      throw new IllegalArgumentException("step name '" + name + "'");
+    }
+    return new StageLedger(stage, dir.resolve(name));
   }
 
   public Stage stage() {

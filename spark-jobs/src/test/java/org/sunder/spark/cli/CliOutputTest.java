@@ -112,6 +112,30 @@ class CliOutputTest {
   }
 
   @Test
+  void planShowsTheLevelsOfASolveAboveTheDriverBound(@TempDir Path dir) throws Exception {
+    Path root = dir.resolve("v.n5");
+    TestContainers.withAffinities(root, StorageFormat.N5, new long[] {12, 40, 56}, CHUNKS,
+        TestContainers.OFFSETS_ZYX);
+    Path config = dir.resolve("run.json");
+    // blocks [6, 10, 14] of [12, 40, 56]: a grid of 2 x 4 x 4 = 32 blocks, 4 super-blocks of
+    // 2 x 2 x 2 at level 1 and 1 at level 2, so one level; a bound of 1 pair (2 edges) that
+    // the rest cannot fit under
+    Files.writeString(config, "{\"input\": {\"container\": \"" + root + "\"},"
+        + " \"blocks\": {\"shape\": [6, 10, 14], \"halo\": [1, 2, 2]},"
+        + " \"partition\": {\"method\": \"mutex-watershed\"},"
+        + " \"solve\": {\"maxDriverEdges\": 1}}");
+    CliRun run = CliRun.withoutSpark("plan", config.toString(), "--cores", "2");
+    assertEquals(0, run.exitCode(), run.err());
+    String out = run.out();
+    // records: the stage's own 1 + 4 parts up and down + the driver's 1 + 32 blocks' ids = 42
+    assertTrue(out.contains("levels     the solve runs level by level over super-blocks: 1"
+        + " levels (each taken to hand up 0.5 of its edges), 42 records\n"), out);
+    assertTrue(Pattern.compile("           largest task about [0-9]+ edges \\(.+\\); the driver's"
+        + " share about [0-9]+ edges \\(.+\\); above solve.maxDriverEdges after the last level")
+        .matcher(out).find(), out);
+  }
+
+  @Test
   void helpNamesEveryCommandAndStatesDefaults() {
     CliRun top = CliRun.withoutSpark("--help");
     assertEquals(0, top.exitCode());

@@ -42,9 +42,10 @@ public final class EdgeFile {
 
   private EdgeFile() {}
 
-  /** Writes {@code edges} to {@code file} atomically. */
-  public static void write(Path file, SolveEdges edges) {
+  /** Writes {@code edges} to {@code file} atomically; returns the file's CRC-32. */
+  public static long write(Path file, SolveEdges edges) {
     Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
+    long checksum;
     try {
       Files.createDirectories(file.toAbsolutePath().getParent());
       CRC32 crc = new CRC32();
@@ -75,9 +76,11 @@ public final class EdgeFile {
           out.writeByte(edges.kind(e));
         }
         out.flush();
-        out.writeLong(crc.getValue());
+        checksum = crc.getValue();
+        out.writeLong(checksum);
       }
       Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+      return checksum;
     } catch (IOException ex) {
       throw new SunderException(ErrorKind.STORAGE, "cannot write edge file " + file + ": "
           + ex.getMessage(), ex);
@@ -86,6 +89,14 @@ public final class EdgeFile {
 
   /** Reads a file written by {@link #write}; a typed error names the file if it is not one. */
   public static SolveEdges read(Path file) {
+    return read(file, -1);
+  }
+
+  /**
+   * Reads a file written by {@link #write} whose writer recorded {@code expectedChecksum} (-1
+   * accepts any valid file); a typed error names the file if it is not that one.
+   */
+  public static SolveEdges read(Path file, long expectedChecksum) {
     CRC32 crc = new CRC32();
     try (InputStream raw = Files.newInputStream(file);
         CheckedInputStream checked =
@@ -133,6 +144,9 @@ public final class EdgeFile {
       }
       if (in.read() != -1) {
         throw bad(file, "has bytes after its checksum");
+      }
+      if (expectedChecksum != -1 && stored != expectedChecksum) {
+        throw bad(file, "has checksum " + stored + " but its task recorded " + expectedChecksum);
       }
       SolveEdges edges = new SolveEdges(m);
       for (int e = 0; e < m; e++) {

@@ -130,12 +130,7 @@ public final class HierarchicalSolve {
         decided += r.decidedEdges();
         heldBack += r.heldBackEdges();
         SolveEdges out = r.remaining();
-        for (int e = 0; e < out.size(); e++) {
-          // an edge leaving the part has a second copy in the part at its other end
-          boolean inner = superBlocks.partOfNode(out.u(e), level) == part
-              && superBlocks.partOfNode(out.v(e), level) == part;
-          halves += inner ? 2 : 1;
-        }
+        halves += handedUpHalves(superBlocks, level, part, out);
         next.put(p, out);
         results.add(new PartResult(r.merged(), r.representative(), new SolveEdges(0),
             r.decidedEdges(), r.heldBackEdges()));
@@ -183,6 +178,21 @@ public final class HierarchicalSolve {
           + " of driver memory per edge), or use mutex-watershed or agglomeration, whose solve"
           + " runs level by level over super-blocks");
     }
+  }
+
+  /**
+   * Twice the distinct edges a part's output {@code out} adds to the next level's graph: an
+   * edge inside the part counts 2, an edge leaving it 1 (its second copy is in the part at its
+   * other end). Summed over a level's parts and halved: the next level's edge count. O(m).
+   */
+  static long handedUpHalves(SuperBlocks superBlocks, int level, int part, SolveEdges out) {
+    long halves = 0;
+    for (int e = 0; e < out.size(); e++) {
+      boolean inner = superBlocks.partOfNode(out.u(e), level) == part
+          && superBlocks.partOfNode(out.v(e), level) == part;
+      halves += inner ? 2 : 1;
+    }
+    return halves;
   }
 
   /** Per part of {@code level + 1}, its parts of {@code level}, ascending. O(blocks). */

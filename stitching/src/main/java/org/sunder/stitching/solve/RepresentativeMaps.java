@@ -9,8 +9,9 @@ import java.util.List;
  * nodes it merged (the representatives level {@code l - 1} left) to their new representative.
  * A segment's final representative is its id passed through every level in turn.
  *
- * <p>This holds every level's merges in one place, which suits the in-process runner and tests;
- * a distributed run resolves the same chain with one join per level. Lookup O(L log k) for L
+ * <p>This holds every level's merges in one place, which suits the in-process level driver
+ * ({@link HierarchicalSolve}) and tests; the solve of a run resolves the same chain part by part
+ * from files, on the way down ({@link LevelTasks#down}). Lookup O(L log k) for L
  * levels of k merges. An immutable value.
  */
 public final class RepresentativeMaps implements Serializable {

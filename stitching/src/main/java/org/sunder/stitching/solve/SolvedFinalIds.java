@@ -2,6 +2,7 @@ package org.sunder.stitching.solve;
 
 import java.io.Serializable;
 import java.util.Arrays;
+import java.util.List;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.IdLayout;
@@ -119,6 +120,38 @@ public final class SolvedFinalIds implements Serializable {
     long total = blocks == 0 ? 0 : offsets[blocks - 1] + owned[blocks - 1];
     return new SolvedFinalIds(layout, segmentCounts.clone(), offsets, blockStart, locals, finals,
         total);
+  }
+
+  /**
+   * The final ids from each block's share, as the tasks of a hierarchical solve write them
+   * ({@link LevelTasks#blockIds}: there a share lists only the segments whose cluster another
+   * segment represents, so {@link #finalIdOf} knows only those). Holds every share: for tests
+   * and the in-process runner. O(blocks + entries).
+   *
+   * @param parts per block index, its share
+   */
+  public static SolvedFinalIds ofParts(IdLayout layout, long[] segmentCounts,
+      List<BlockPart> parts, long finalIdCount) {
+    int blocks = segmentCounts.length;
+    int[] blockStart = new int[blocks + 1];
+    long[] offsets = new long[blocks];
+    for (int b = 0; b < blocks; b++) {
+      BlockPart part = parts.get(b);
+      if (part.block() != b) {
+        throw new IllegalArgumentException("share " + b + " is block " + part.block() + "'s");
+      }
+      offsets[b] = part.offset();
+      blockStart[b + 1] = blockStart[b] + part.locals().length;
+    }
+    int[] locals = new int[blockStart[blocks]];
+    long[] finals = new long[blockStart[blocks]];
+    for (int b = 0; b < blocks; b++) {
+      BlockPart part = parts.get(b);
+      System.arraycopy(part.locals(), 0, locals, blockStart[b], part.locals().length);
+      System.arraycopy(part.finals(), 0, finals, blockStart[b], part.finals().length);
+    }
+    return new SolvedFinalIds(layout, segmentCounts.clone(), offsets, blockStart, locals, finals,
+        finalIdCount);
   }
 
   /** The number of final ids (the largest one). */

@@ -1,12 +1,13 @@
 package org.sunder.stitching.solve;
 
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 import java.util.function.IntFunction;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.config.AgglomerationMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.stitching.setup.StitchingSetup;
@@ -14,18 +15,19 @@ import org.sunder.stitching.task.BlockSummary;
 import org.sunder.stitching.task.SeamEdges;
 
 /**
- * The global solve of a reduced graph larger than the driver bound, without assembling it: the
- * level driver ({@link HierarchicalSolve}) reads each level-1 part's input from that part's own
- * block summaries and nearby seam edges ({@link PartInputs}), the parts' outputs go to edge
- * files in the work dir, and the final ids are numbered from each block's representatives
- * ({@link SolvedFinalIds}). Gives the clusters, and so the final ids, of the single-level solve
- * of the method (Mutex Watershed, or agglomeration of voxels with its linkage); the fragment
- * methods, whose solve first joins continued pieces, and the multicut, which needs the whole
- * graph, get a clear error, as does a size filter (it needs every final segment's neighbours).
+ * The global solve of a reduced graph larger than the driver bound, without assembling it:
+ * level by level over super-blocks, each part of a level a task ({@link LevelTasks}) that reads
+ * its input from its own blocks' summaries and nearby seam edges ({@link PartInputs}) or from
+ * the files its sub-parts wrote, the driver solving only what the top level hands up, and the
+ * final ids composed on the way down and numbered per block, from files. Gives the clusters,
+ * and so the final ids, of the single-level solve of the method (Mutex Watershed, or
+ * agglomeration of voxels with its linkage); the fragment methods, whose solve first joins
+ * continued pieces, and the multicut, which needs the whole graph, get a clear error, as does a
+ * size filter (it needs every final segment's neighbours).
  *
- * <p>The level driver bounds rows, not pairs: a pair is at most 2 Mutex Watershed rows (its
- * largest and smallest weight) and 4 linkage rows, so the bound of {@code solve.maxDriverEdges}
- * pairs becomes that many times as many rows.
+ * <p>The levels bound rows, not pairs: a pair is at most 2 Mutex Watershed rows (its largest and
+ * smallest weight) and 4 linkage rows, so the bound of {@code solve.maxDriverEdges} pairs
+ * becomes that many times as many rows ({@link LevelTasks#rows}).
  */
 public final class SuperBlockSolve {
   /** Blocks per axis of a level's super-block in those of the level below. */
@@ -48,12 +50,14 @@ public final class SuperBlockSolve {
   }
 
   /**
-   * Solves the run level by level.
+   * Solves the run level by level in this thread, through the same task functions and files a
+   * cluster run uses ({@link LevelTasks}), one task after another (the in-process runner and
+   * tests; the Spark runner schedules each level's parts as tasks).
    *
    * @param pairs an upper bound of the reduced graph's pairs (from the tasks' records)
-   * @param summaryOf reads one block's summary (each read at most twice)
+   * @param summaryOf reads one block's summary
    * @param seamsOf reads one face's seam edges
-   * @param workDir where the levels' edge files go
+   * @param workDir where the levels' files go ({@link LevelFiles})
    */
   public static GlobalSolve.Result run(StitchingSetup setup, long pairs, long maxDriverEdges,
       IntFunction<BlockSummary> summaryOf, IntFunction<SeamEdges> seamsOf, Path workDir) {
@@ -63,70 +67,77 @@ public final class SuperBlockSolve {
       requireFits(config, pairs, maxDriverEdges);
     }
     BlockGrid grid = setup.grid();
-    IdLayout layout = setup.idLayout();
-    boolean linkage = !config.isMutexWatershed();
-    PartSolver parts = linkage
-        ? new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold())
-        : new MutexPartSolver();
-    int rowsPerPair = linkage ? 4 : 2;
-    SuperBlocks superBlocks = new SuperBlocks(grid, layout, FACTOR);
-    HierarchicalSolve.Result levels;
-    try {
-      levels = HierarchicalSolve.run(superBlocks,
-          Math.multiplyHigh(pairs, rowsPerPair) != 0 ? Long.MAX_VALUE : pairs * rowsPerPair,
-          p -> PartInputs.levelOne(grid, superBlocks, Math.max(p, 0), linkage, summaryOf,
-              seamsOf),
-          Math.multiplyHigh(maxDriverEdges, rowsPerPair) != 0 ? Long.MAX_VALUE
-              : maxDriverEdges * rowsPerPair,
-          parts, workDir);
-    } catch (SunderException e) {
-      if (e.kind() != ErrorKind.INVALID_CONFIG) {
-        throw e;
+    LevelFiles files = new LevelFiles(workDir);
+    SuperBlocks superBlocks = LevelTasks.superBlocks(setup);
+    long maxRows = LevelTasks.rows(config, maxDriverEdges);
+    long rows = LevelTasks.rows(config, pairs);
+    List<long[]> mergesChecksums = new ArrayList<>();
+    long[] below = new long[0];
+    int level = 1;
+    while (LevelTasks.needsLevel(superBlocks, level, rows, maxRows)) {
+      int parts = superBlocks.partCount(level);
+      List<LevelTasks.PartRecord> records = new ArrayList<>();
+      long[] edges = new long[parts];
+      long[] merges = new long[parts];
+      for (int p = 0; p < parts; p++) {
+        LevelTasks.PartRecord r = LevelTasks.up(setup, files, level, p, below, summaryOf,
+            seamsOf);
+        records.add(r);
+        edges[p] = r.edgesChecksum();
+        merges[p] = r.mergesChecksum();
       }
-      throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + parts.name() + " solve,"
-          + " level by level over super-blocks of " + FACTOR + "^level blocks per axis, still"
-          + " leaves the driver a graph with more than solve.maxDriverEdges = " + maxDriverEdges
-          + " pairs (" + e.getMessage() + "); raise solve.maxDriverEdges", e);
+      mergesChecksums.add(merges);
+      below = edges;
+      rows = LevelTasks.nextLevelEdges(records);
+      level++;
     }
-    RepresentativeMaps reps = levels.representatives();
+    int levels = level - 1;
+    LevelTasks.requireDriverFits(config, levels, rows, maxDriverEdges);
+    if (levels == 0) {
+      throw new IllegalArgumentException(pairs + " pairs fit under solve.maxDriverEdges = "
+          + maxDriverEdges + ": solve them whole (GlobalSolve)");
+    }
+    long[] finals = LevelTasks.driver(setup, files, levels, below).finalsChecksums();
+    long[] blockChecksums = new long[grid.blockCount()];
+    long[] notOwned = new long[grid.blockCount()];
+    for (int l = levels; l >= 1; l--) {
+      long[] next = new long[superBlocks.partCount(l - 1 == 0 ? 1 : l - 1)];
+      for (int p = 0; p < superBlocks.partCount(l); p++) {
+        LevelTasks.DownRecord r = LevelTasks.down(setup, files, l, p, finals[p],
+            mergesChecksums.get(l - 1)[p]);
+        for (int c = 0; c < r.children().length; c++) {
+          if (l == 1) {
+            blockChecksums[r.children()[c]] = r.checksums()[c];
+            notOwned[r.children()[c]] = r.entries()[c];
+          } else {
+            next[r.children()[c]] = r.checksums()[c];
+          }
+        }
+      }
+      finals = next;
+    }
     long[] segmentCounts = new long[grid.blockCount()];
-    int nodes = 0;
+    long nodes = 0;
     for (int b = 0; b < grid.blockCount(); b++) {
       BlockSummary s = summaryOf.apply(b);
       segmentCounts[b] = s.segmentCount();
       nodes += s.boundaryLocalIds().length;
     }
-    long[] nodeIds = new long[nodes];
-    int at = 0;
+    long[] offsets = LevelTasks.offsets(segmentCounts, notOwned);
+    List<SolvedFinalIds.BlockPart> parts = new ArrayList<>();
+    Path shares = workDir.resolve("ids");
     for (int b = 0; b < grid.blockCount(); b++) {
-      for (int local : summaryOf.apply(b).boundaryLocalIds()) {
-        nodeIds[at++] = layout.provisional(b, local);
-      }
+      Path file = shares.resolve(b + ".part");
+      LevelTasks.blockIds(setup, files, b, offsets, blockChecksums, file);
+      parts.add(BlockIdMapFile.readPart(file, b));
     }
-    long[] representative = reps.resolve(nodeIds);
-    SolvedFinalIds solved = SolvedFinalIds.number(layout, segmentCounts, nodeIds,
-        denseClusters(representative));
-    long segments = Arrays.stream(segmentCounts).sum();
-    SolveReport report = new SolveReport(parts.name() + " (" + levels.levels().size()
-        + " levels of super-blocks)", segments, nodes, (int) Math.min(Integer.MAX_VALUE, pairs),
-        solved.finalIdCount(), (System.nanoTime() - start) / 1e9);
+    long finalIds = offsets[grid.blockCount()];
+    SolvedFinalIds solved = SolvedFinalIds.ofParts(setup.idLayout(), segmentCounts, parts,
+        finalIds);
+    SolveReport report = new SolveReport(LevelTasks.partSolver(config).name() + " (" + levels
+        + " levels of super-blocks)", Arrays.stream(segmentCounts).sum(),
+        (int) Math.min(Integer.MAX_VALUE, nodes), (int) Math.min(Integer.MAX_VALUE, pairs),
+        finalIds, (System.nanoTime() - start) / 1e9);
     return new GlobalSolve.Result(solved, report);
-  }
-
-  /** Equal values get equal cluster indices (0, 1, ...). O(n log n). */
-  static int[] denseClusters(long[] values) {
-    long[] sorted = values.clone();
-    Arrays.sort(sorted);
-    int unique = 0;
-    for (int i = 0; i < sorted.length; i++) {
-      if (i == 0 || sorted[i] != sorted[i - 1]) {
-        sorted[unique++] = sorted[i];
-      }
-    }
-    int[] out = new int[values.length];
-    for (int i = 0; i < values.length; i++) {
-      out[i] = Arrays.binarySearch(sorted, 0, unique, values[i]);
-    }
-    return out;
   }
 }

@@ -78,6 +78,48 @@ public final class SuperBlocks implements Serializable {
     return partOfBlock(layout.blockOf(node), level);
   }
 
+  /**
+   * The super-blocks of {@code level - 1} inside super-block {@code part} of {@code level}
+   * ({@code level >= 2}), ascending. O(factor^n), from the grid's shape alone.
+   */
+  public int[] subParts(int level, int part) {
+    if (level < 2) {
+      throw new IllegalArgumentException("level " + level + ": sub-parts exist from level 2");
+    }
+    int n = gridShape.length;
+    long span = span(level);
+    long below = span(level - 1);
+    long[] subCounts = new long[n];
+    long[] first = new long[n];
+    long[] end = new long[n];
+    long rest = part;
+    int total = 1;
+    for (int d = 0; d < n; d++) {
+      long counts = (gridShape[d] + span - 1) / span;
+      subCounts[d] = (gridShape[d] + below - 1) / below;
+      first[d] = rest % counts * factor;
+      rest /= counts;
+      end[d] = Math.min(first[d] + factor, subCounts[d]);
+      total *= (int) (end[d] - first[d]);
+    }
+    int[] out = new int[total];
+    long[] at = first.clone();
+    for (int i = 0; i < total; i++) {
+      long index = 0;
+      for (int d = n - 1; d >= 0; d--) {
+        index = index * subCounts[d] + at[d];
+      }
+      out[i] = (int) index;
+      for (int d = 0; d < n; d++) {
+        if (++at[d] < end[d]) {
+          break;
+        }
+        at[d] = first[d];
+      }
+    }
+    return out;
+  }
+
   /** Per block, its super-block at {@code level}. */
   public int[] partsOfBlocks(int level) {
     int[] parts = new int[blockPositions.length];
