@@ -3,18 +3,19 @@ package org.sunder.blockwise.collections;
 import java.util.Arrays;
 
 /**
- * A fixed number of hash sets of ints in {@code 0 .. 2^31 - 2}, sets {@code 0 .. setCount - 1}, stored
- * together in one pooled array: each set is an open-addressing table (linear probing, deletion
- * by backward shift, so no tombstones) of a power-of-two capacity of at least 4, at most 3/4
- * full, grown by doubling. A slot holds its value plus one, so 0 is empty and fresh pool memory
- * (zeroed by the JVM) needs no filling. Freed tables are zeroed while still in cache and go to
- * one free list per capacity for reuse.
- * Expected {@code O(1)} per operation; a set's members lie together, so walking a set reads one
- * run of memory.
+ * A fixed number of hash sets of ints in {@code 0 .. 2^31 - 2}, sets
+ * {@code 0 .. setCount - 1}, stored together in pooled pages: each set is an open-addressing
+ * table (linear probing, deletion by backward shift, so no tombstones) of a power-of-two
+ * capacity of at least 4, at most 3/4 full, grown by doubling. Expected {@code O(1)} per
+ * operation; a set's members lie together, so walking a set reads one run of memory.
  *
- * <p>Each set also carries one int of the caller's ({@link #tag}), kept beside the set's own
- * bookkeeping so that both come in one cache line: 16 bytes per set plus 4 bytes per slot.
- * Not thread-safe.
+ * <p>Storage: tables are cut from pages of up to {@code 2^20} ints (a table larger than that
+ * gets a page of its own), so the pool grows without copying; pages start small and double.
+ * A slot holds its value plus one, so 0 is empty and fresh pages (zeroed by the JVM) need no
+ * filling. Freed tables are zeroed while still in cache and go to one free list per capacity
+ * for reuse. Each set also carries one int of the caller's ({@link #tag}), kept beside the
+ * set's own bookkeeping so that both come in one cache line: 16 bytes per set plus 4 bytes per
+ * slot. Not thread-safe.
  */
 public final class IntSetPool {
   private static final int TAG = 0;
@@ -23,11 +24,16 @@ public final class IntSetPool {
   private static final int LOG = 3;
   private static final int EMPTY = 0;
   private static final int MIN_LOG = 2;
+  /** A table's address is {@code page << PAGE_BITS | offset}. */
+  private static final int PAGE_BITS = 20;
+  private static final int PAGE_MASK = (1 << PAGE_BITS) - 1;
   /** Per set {@code s}: {@code meta[4 s + TAG | START | COUNT | LOG]}; START -1: no table. */
   private final int[] meta;
-  private int[] pool;
+  private int[][] pages = new int[4][];
+  private int pageCount;
+  /** Slots taken, from the start, in the last page. */
   private int used;
-  /** Start of the first free table of capacity {@code 1 << log}, or -1; chained through slot 0. */
+  /** Address of the first free table of capacity {@code 1 << log}, or -1; linked via slot 0. */
   private final int[] freeHead = new int[32];
 
   /** Empty sets {@code 0 .. setCount - 1} with tag 0 and room for about {@code expected} slots. */
@@ -40,7 +46,8 @@ public final class IntSetPool {
     for (int s = 0; s < setCount; s++) {
       meta[4 * s + START] = -1;
     }
-    pool = new int[Math.max(16, expected)];
+    pages[0] = new int[Math.min(1 << PAGE_BITS, Math.max(16, expected))];
+    pageCount = 1;
     Arrays.fill(freeHead, -1);
   }
 
@@ -68,13 +75,14 @@ public final class IntSetPool {
     if (meta[m + COUNT] == 0) {
       return false;
     }
-    int[] p = pool;
-    int start = meta[m + START];
+    int address = meta[m + START];
+    int[] p = pages[address >>> PAGE_BITS];
+    int base = address & PAGE_MASK;
     int log = meta[m + LOG];
     int mask = (1 << log) - 1;
     int stored = value + 1;
     for (int i = slot(value, log); ; i = (i + 1) & mask) {
-      int x = p[start + i];
+      int x = p[base + i];
       if (x == stored) {
         return true;
       }
@@ -94,13 +102,14 @@ public final class IntSetPool {
       meta[m + START] = allocate(MIN_LOG);
       meta[m + LOG] = MIN_LOG;
     }
-    int[] p = pool;
-    int start = meta[m + START];
+    int address = meta[m + START];
+    int[] p = pages[address >>> PAGE_BITS];
+    int base = address & PAGE_MASK;
     int log = meta[m + LOG];
     int mask = (1 << log) - 1;
     int stored = value + 1;
     int i = slot(value, log);
-    for (int x; (x = p[start + i]) != EMPTY; i = (i + 1) & mask) {
+    for (int x; (x = p[base + i]) != EMPTY; i = (i + 1) & mask) {
       if (x == stored) {
         return false;
       }
@@ -110,7 +119,7 @@ public final class IntSetPool {
       grow(set);
       insertNew(set, value);
     } else {
-      p[start + i] = stored;
+      p[base + i] = stored;
     }
     meta[m + COUNT] = count;
     return true;
@@ -122,13 +131,14 @@ public final class IntSetPool {
     if (meta[m + COUNT] == 0) {
       return false;
     }
-    int[] p = pool;
-    int start = meta[m + START];
+    int address = meta[m + START];
+    int[] p = pages[address >>> PAGE_BITS];
+    int base = address & PAGE_MASK;
     int log = meta[m + LOG];
     int mask = (1 << log) - 1;
     int stored = value + 1;
     int i = slot(value, log);
-    for (int x; (x = p[start + i]) != stored; i = (i + 1) & mask) {
+    for (int x; (x = p[base + i]) != stored; i = (i + 1) & mask) {
       if (x == EMPTY) {
         return false;
       }
@@ -136,18 +146,18 @@ public final class IntSetPool {
     // backward shift: move later entries of the run into the hole unless already home
     int hole = i;
     for (int j = (hole + 1) & mask; ; j = (j + 1) & mask) {
-      int x = p[start + j];
+      int x = p[base + j];
       if (x == EMPTY) {
         break;
       }
       int home = slot(x - 1, log);
       // x may move to the hole if its home is not in (hole, j] cyclically
       if (((j - home) & mask) >= ((j - hole) & mask)) {
-        p[start + hole] = x;
+        p[base + hole] = x;
         hole = j;
       }
     }
-    p[start + hole] = EMPTY;
+    p[base + hole] = EMPTY;
     meta[m + COUNT]--;
     return true;
   }
@@ -158,15 +168,15 @@ public final class IntSetPool {
    */
   public int copyTo(int set, int[] target) {
     int m = 4 * set;
-    int count = meta[m + COUNT];
-    if (count == 0) {
+    if (meta[m + COUNT] == 0) {
       return 0;
     }
-    int[] p = pool;
-    int start = meta[m + START];
-    int end = start + (1 << meta[m + LOG]);
+    int address = meta[m + START];
+    int[] p = pages[address >>> PAGE_BITS];
+    int base = address & PAGE_MASK;
+    int end = base + (1 << meta[m + LOG]);
     int n = 0;
-    for (int i = start; i < end; i++) {
+    for (int i = base; i < end; i++) {
       int x = p[i];
       if (x != EMPTY) {
         target[n++] = x - 1;
@@ -185,9 +195,13 @@ public final class IntSetPool {
     }
   }
 
-  /** Slots in the pool, taken or free: the pool's footprint. */
-  public int poolLength() {
-    return pool.length;
+  /** Slots in the pages, taken or free: the pool's footprint. */
+  public long poolLength() {
+    long total = 0;
+    for (int i = 0; i < pageCount; i++) {
+      total += pages[i].length;
+    }
+    return total;
   }
 
   private static int slot(int value, int log) {
@@ -196,69 +210,92 @@ public final class IntSetPool {
 
   private void grow(int set) {
     int m = 4 * set;
-    int oldStart = meta[m + START];
+    int oldAddress = meta[m + START];
     int oldLog = meta[m + LOG];
     int log = oldLog + 1;
-    int start = allocate(log);
-    int[] p = pool;
+    int address = allocate(log);
+    int[] source = pages[oldAddress >>> PAGE_BITS];
+    int oldBase = oldAddress & PAGE_MASK;
+    int[] p = pages[address >>> PAGE_BITS];
+    int base = address & PAGE_MASK;
     int mask = (1 << log) - 1;
-    for (int i = oldStart, end = oldStart + (1 << oldLog); i < end; i++) {
-      int x = p[i];
+    for (int i = oldBase, end = oldBase + (1 << oldLog); i < end; i++) {
+      int x = source[i];
       if (x != EMPTY) {
         int j = slot(x - 1, log);
-        while (p[start + j] != EMPTY) {
+        while (p[base + j] != EMPTY) {
           j = (j + 1) & mask;
         }
-        p[start + j] = x;
+        p[base + j] = x;
       }
     }
-    release(oldStart, oldLog);
-    meta[m + START] = start;
+    release(oldAddress, oldLog);
+    meta[m + START] = address;
     meta[m + LOG] = log;
   }
 
   /** Puts {@code value}, known absent, into the table of {@code set} (which has room). */
   private void insertNew(int set, int value) {
     int m = 4 * set;
-    int[] p = pool;
-    int start = meta[m + START];
-    int log = meta[m + LOG];
-    int mask = (1 << log) - 1;
-    int i = slot(value, log);
-    while (p[start + i] != EMPTY) {
+    int address = meta[m + START];
+    int[] p = pages[address >>> PAGE_BITS];
+    int base = address & PAGE_MASK;
+    int mask = (1 << meta[m + LOG]) - 1;
+    int i = slot(value, meta[m + LOG]);
+    while (p[base + i] != EMPTY) {
       i = (i + 1) & mask;
     }
-    p[start + i] = value + 1;
+    p[base + i] = value + 1;
   }
 
-  /** A table of {@code 1 << log} empty slots; returns its start. */
+  /** An empty table of {@code 1 << log} slots; returns its address. */
   private int allocate(int log) {
-    int length = 1 << log;
-    int start = freeHead[log];
-    if (start >= 0) {
-      freeHead[log] = pool[start];
-      pool[start] = EMPTY;
-    } else {
-      if (used + length > pool.length) {
-        long wanted = Math.max((long) used + length, pool.length + (long) (pool.length >> 1));
-        if (wanted > Integer.MAX_VALUE - 8) {
-          wanted = (long) used + length;
-          if (wanted > Integer.MAX_VALUE - 8) {
-            throw new IllegalStateException("IntSetPool: more than 2^31 slots");
-          }
-        }
-        pool = Arrays.copyOf(pool, (int) wanted);
-      }
-      start = used;
-      used += length;
+    int address = freeHead[log];
+    if (address >= 0) {
+      int[] p = pages[address >>> PAGE_BITS];
+      int base = address & PAGE_MASK;
+      freeHead[log] = p[base];
+      p[base] = EMPTY;
+      return address;
     }
-    return start;
+    int length = 1 << log;
+    int[] last = pages[pageCount - 1];
+    if (used + length > last.length) {
+      freeTail(last);
+      if (pageCount == 1 << (31 - PAGE_BITS)) {
+        throw new IllegalStateException("IntSetPool: more than " + pageCount + " pages");
+      }
+      if (pageCount == pages.length) {
+        pages = Arrays.copyOf(pages, 2 * pageCount);
+      }
+      int pageLength = Math.max(length, Math.min(1 << PAGE_BITS, 2 * last.length));
+      pages[pageCount++] = new int[pageLength];
+      used = 0;
+    }
+    address = ((pageCount - 1) << PAGE_BITS) | used;
+    // a table larger than a page fills its own page, whose offsets then exceed PAGE_MASK
+    used = length > (1 << PAGE_BITS) ? Integer.MAX_VALUE / 2 : used + length;
+    return address;
+  }
+
+  /** Puts what is left of the last page on the free lists, as tables of falling capacity. */
+  private void freeTail(int[] last) {
+    int page = pageCount - 1;
+    while (last.length - used >= 1 << MIN_LOG && used <= PAGE_MASK) {
+      int log = 31 - Integer.numberOfLeadingZeros(last.length - used);
+      int address = (page << PAGE_BITS) | used;
+      last[used] = freeHead[log];
+      freeHead[log] = address;
+      used += 1 << log;
+    }
   }
 
   /** Zeroes a table and puts it on its free list, linked through its slot 0. */
-  private void release(int start, int log) {
-    Arrays.fill(pool, start, start + (1 << log), EMPTY);
-    pool[start] = freeHead[log];
-    freeHead[log] = start;
+  private void release(int address, int log) {
+    int[] p = pages[address >>> PAGE_BITS];
+    int base = address & PAGE_MASK;
+    Arrays.fill(p, base, base + (1 << log), EMPTY);
+    p[base] = freeHead[log];
+    freeHead[log] = address;
   }
 }

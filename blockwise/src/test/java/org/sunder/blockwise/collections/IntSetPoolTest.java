@@ -81,7 +81,7 @@ class IntSetPoolTest {
         pool.add(s, v * 7 + s);
       }
     }
-    int footprint = pool.poolLength();
+    long footprint = pool.poolLength();
     for (int round = 0; round < 5; round++) {
       for (int s = 0; s < 100; s++) {
         pool.clear(s);
@@ -95,6 +95,36 @@ class IntSetPoolTest {
       }
       assertEquals(footprint, pool.poolLength());
     }
+  }
+
+  /** A set outgrowing a page (2^20 slots) gets a page of its own; small sets go on around it. */
+  @Test
+  void tablesLargerThanAPage() {
+    IntSetPool pool = new IntSetPool(3, 0);
+    int big = 1_000_000;
+    for (int v = 0; v < big; v++) {
+      assertTrue(pool.add(1, 3 * v));
+      if (v % 1000 == 0) {
+        assertTrue(pool.add(0, v));
+        assertTrue(pool.add(2, v + 1));
+      }
+    }
+    assertEquals(big, pool.size(1));
+    assertTrue(pool.poolLength() >= 2 * big, "table of 2^21 slots at most 3/4 full");
+    for (int v = 0; v < big; v += 7) {
+      assertTrue(pool.contains(1, 3 * v));
+      assertFalse(pool.contains(1, 3 * v + 1));
+    }
+    for (int v = 0; v < big; v += 1000) {
+      assertTrue(pool.contains(0, v));
+      assertTrue(pool.contains(2, v + 1));
+      assertFalse(pool.contains(2, v));
+    }
+    for (int v = 0; v < big; v += 2) {
+      assertTrue(pool.remove(1, 3 * v));
+    }
+    assertEquals(big / 2, pool.size(1));
+    assertEquals(big / 2, members(pool, 1).size());
   }
 
   @Test
