@@ -122,10 +122,13 @@ final class MutexClusters {
 
   /**
    * The final segmentation: clusters numbered from 1 in order of first node, 0 where
-   * {@code mask} is 0.
+   * {@code mask} is 0. Uses the cluster sizes as scratch, so call it once, last.
    */
   Segmentation segmentation(byte[] maskOrNull) {
-    int[] labelOfRoot = new int[parent.length];
+    IntSetPool labelOfRoot = partners;
+    for (int i = 0; i < parent.length; i++) {
+      labelOfRoot.setTag(i, 0);
+    }
     int[] labels = new int[parent.length];
     int next = 0;
     for (int i = 0; i < labels.length; i++) {
@@ -133,10 +136,10 @@ final class MutexClusters {
         continue;
       }
       int r = find(i);
-      if (labelOfRoot[r] == 0) {
-        labelOfRoot[r] = ++next;
+      if (labelOfRoot.tag(r) == 0) {
+        labelOfRoot.setTag(r, ++next);
       }
-      labels[i] = labelOfRoot[r];
+      labels[i] = labelOfRoot.tag(r);
     }
     return new Segmentation(labels, next);
   }
