@@ -22,8 +22,8 @@ import org.sunder.blockwise.partition.SettledPartition;
  * weights by a counting sort of the edge ids on the top bits of a 32-bit key and a radix sort
  * of the 64-bit (key, edge id) entries of the buckets out of order, stable and {@code O(E)}; sparse graphs by a stable LSD radix sort of 64-bit keys. Then
  * {@code O(E α(N))} union-find work plus the constraint bookkeeping of {@link MutexClusters}.
- * Memory on the grid: 4 bytes per present edge plus 1 byte per edge slot and 28 per voxel,
- * plus the constraints (about 8 to 20 bytes per live constraint); float weights add 1 bit per
+ * Memory on the grid: 4 bytes per present edge plus 1 byte per edge slot and 24 per voxel,
+ * plus the constraints (about 11 to 22 bytes per live constraint, in {@link MutexClusters}); float weights add 1 bit per
  * edge slot and two scratch arrays of 8 bytes per edge of the largest bucket out of order. Static functions,
  * thread-safe (no state); {@link MutexWatershedPartitioner} is the configured method.
  */
