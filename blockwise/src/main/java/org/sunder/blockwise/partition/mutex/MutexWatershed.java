@@ -19,12 +19,12 @@ import org.sunder.blockwise.partition.SettledPartition;
  *
  * <p>Sorting without boxing: 8-bit affinities by a counting sort over the at most
  * {@code 256 * offsetCount} distinct weights ({@code O(E)}, one {@code int} per edge); float
- * weights by a 32-bit key per edge slot and a radix sort of the 64-bit (key, edge id) entries,
- * stable and {@code O(E)}; sparse graphs by a stable LSD radix sort of 64-bit keys. Then
+ * weights by a counting sort of the edge ids on the top bits of a 32-bit key and a radix sort
+ * of the 64-bit (key, edge id) entries of the buckets out of order, stable and {@code O(E)}; sparse graphs by a stable LSD radix sort of 64-bit keys. Then
  * {@code O(E α(N))} union-find work plus the constraint bookkeeping of {@link MutexClusters}.
- * Memory on the grid: 4 bytes per present edge plus 1 byte per edge slot and 20 per voxel,
- * plus the constraints; float weights add 4 bytes per edge slot, 4 more per edge in a bucket
- * out of order and a scratch of 8 bytes per edge of the largest such bucket. Static functions,
+ * Memory on the grid: 4 bytes per present edge plus 1 byte per edge slot and 24 per voxel,
+ * plus the constraints (about 11 to 22 bytes per live constraint, in {@link MutexClusters}); float weights add 1 bit per
+ * edge slot and two scratch arrays of 8 bytes per edge of the largest bucket out of order. Static functions,
  * thread-safe (no state); {@link MutexWatershedPartitioner} is the configured method.
  */
 public final class MutexWatershed {
@@ -97,25 +97,23 @@ public final class MutexWatershed {
     return Math.max(1, 32 - Integer.numberOfLeadingZeros(nodeCount - 1));
   }
 
-  /** Absent slot in the key array of {@link #runFloat}. */
-  private static final int NO_EDGE = -1;
-
   /**
-   * Float weights: a 32-bit key per edge slot (inverted magnitude, then attractive before
-   * repulsive) and a most-significant-digit radix sort of the present slots' packed edge ids
+   * Float weights: a 32-bit key per edge (inverted magnitude, then attractive before
+   * repulsive), computed from the weight where needed rather than stored per slot, and a
+   * most-significant-digit radix sort of the present slots' packed edge ids
    * {@code (k << bits) | voxel} (same order as the edge id, decoded without a division): a
    * stable counting sort by the top {@code 32 - LOW_BITS} key bits (exponent and top mantissa
-   * bits; few enough buckets for the scatter to stay in cache). A bucket whose keys ascend with
-   * the edge id (ties, typically; the key pass notes which) holds bare ids and runs as it is.
-   * Any other bucket holds 64-bit entries, the key with its top bit flipped (so signed order is
-   * unsigned key order) above the id, sorted by a stable least-significant-digit radix sort of
-   * the low {@code LOW_BITS} bits in two passes. Stable passes over ids generated in ascending
-   * order give exactly (key, edge id) order.
+   * bits; few enough buckets for the scatter to stay in cache), one {@code int} per edge, the
+   * sign kept in one bit per edge slot. A bucket whose keys ascend with the edge id (ties,
+   * typically; the counting pass notes which) runs as it is. Any other bucket is copied into
+   * 64-bit entries, the key recomputed with its top bit flipped (so signed order is unsigned key
+   * order) above the id, sorted by a stable least-significant-digit radix sort of the low
+   * {@code LOW_BITS} bits in two passes. Stable passes over ids generated in ascending order
+   * give exactly (key, edge id) order. The weight of an edge is computed two to three times.
    */
   private static void runFloat(GridGraph graph, MutexClusters clusters) {
     int n = graph.nodeCount();
     byte[] present = graph.presentSlots();
-    int[] key = new int[present.length];
     int[] size = new int[HIGH_BUCKETS];
     int[] last = new int[HIGH_BUCKETS];
     java.util.Arrays.fill(last, Integer.MIN_VALUE);
@@ -123,9 +121,8 @@ public final class MutexWatershed {
     for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
       for (int v = 0; v < n; v++, slot++) {
         float w = present[slot] == 0 ? 0 : graph.weight(v, k);
-        int x = w == 0 ? NO_EDGE : floatKey(w);
-        key[slot] = x;
-        if (x != NO_EDGE) {
+        if (w != 0) {
+          int x = floatKey(w);
           int b = x >>> LOW_BITS;
           size[b]++;
           int ordered = x ^ Integer.MIN_VALUE;
@@ -136,48 +133,48 @@ public final class MutexWatershed {
     }
     int[] start = new int[HIGH_BUCKETS];
     int idCount = 0;
-    int entryCount = 0;
     int largest = 0;
     for (int b = 0; b < HIGH_BUCKETS; b++) {
+      start[b] = idCount;
+      idCount += size[b];
       if (disordered[b]) {
-        start[b] = entryCount;
-        entryCount += size[b];
         largest = Math.max(largest, size[b]);
-      } else {
-        start[b] = idCount;
-        idCount += size[b];
       }
     }
     int[] ids = new int[idCount];
-    long[] entries = new long[entryCount];
+    long[] repulsive = new long[(present.length + 63) >>> 6];
     int[] next = start.clone();
     int bits = voxelBits(n);
     for (int k = 0, slot = 0; k < graph.offsetCount(); k++) {
       for (int v = 0; v < n; v++, slot++) {
-        int x = key[slot];
-        if (x != NO_EDGE) {
-          int b = x >>> LOW_BITS;
-          int id = (k << bits) | v;
-          if (disordered[b]) {
-            entries[next[b]++] = entry(x, id);
-          } else {
-            ids[next[b]++] = id;
+        float w = present[slot] == 0 ? 0 : graph.weight(v, k);
+        if (w != 0) {
+          int x = floatKey(w);
+          ids[next[x >>> LOW_BITS]++] = (k << bits) | v;
+          if ((x & 1) != 0) {
+            repulsive[slot >>> 6] |= 1L << slot;
           }
         }
       }
     }
     int[] delta = deltas(graph);
+    long[] entries = new long[largest];
     long[] scratch = new long[largest];
     int[] count = new int[DIGIT_BUCKETS];
+    int voxelMask = (1 << bits) - 1;
     for (int b = 0; b < HIGH_BUCKETS; b++) {
       int from = start[b];
       int to = from + size[b];
       if (disordered[b]) {
-        digitPass(entries, from, to, scratch, 0, 0, count);
-        digitPass(scratch, 0, to - from, entries, from, DIGIT_BITS, count);
-        process(entries, from, to, bits, delta, clusters);
+        for (int i = from; i < to; i++) {
+          int id = ids[i];
+          entries[i - from] = entry(floatKey(graph.weight(id & voxelMask, id >>> bits)), id);
+        }
+        digitPass(entries, 0, to - from, scratch, 0, 0, count);
+        digitPass(scratch, 0, to - from, entries, 0, DIGIT_BITS, count);
+        process(entries, 0, to - from, bits, delta, clusters);
       } else {
-        processIds(key, ids, from, to, bits, n, delta, clusters);
+        processIds(repulsive, ids, from, to, bits, n, delta, clusters);
       }
     }
   }
@@ -187,15 +184,16 @@ public final class MutexWatershed {
     return (id >>> bits) * n + (id & ((1 << bits) - 1));
   }
 
-  /** Runs packed edge ids already in (key, edge id) order; the key gives each edge's sign. */
-  private static void processIds(int[] key, int[] ids, int from, int to, int bits, int n,
+  /** Runs packed edge ids already in (key, edge id) order; one bit per slot gives the sign. */
+  private static void processIds(long[] repulsive, int[] ids, int from, int to, int bits, int n,
       int[] delta, MutexClusters clusters) {
     int voxelMask = (1 << bits) - 1;
     for (int i = from; i < to; i++) {
       int id = ids[i];
       int source = id & voxelMask;
       int target = source + delta[id >>> bits];
-      if ((key[slotOf(id, bits, n)] & 1) == 0) {
+      int slot = slotOf(id, bits, n);
+      if ((repulsive[slot >>> 6] & (1L << slot)) == 0) {
         clusters.attract(source, target);
       } else {
         clusters.repel(source, target);
