@@ -130,6 +130,10 @@ public final class Agglomeration {
 
   /** Clusters the voxels of a grid graph, each voxel edge starting as its own statistic. */
   public Result run(GridGraph graph) {
+    AgglomerationState direct = AgglomerationState.ofGrid(this, graph);
+    if (direct != null) {
+      return direct.run();
+    }
     long present = graph.presentEdgeCount();
     AgglomerationState state = new AgglomerationState(this, graph.nodeCount(),
         Math.toIntExact(present));

@@ -3,14 +3,27 @@ package org.sunder.blockwise.partition.agglomeration;
 import java.util.Arrays;
 import org.sunder.blockwise.collections.PairMap;
 import org.sunder.blockwise.collections.PairSet;
+import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.partition.Clustering;
 
 /**
  * The working arrays of one {@link Agglomeration} run; see there for the contract.
  *
+ * <p>Edges: one aggregated edge per adjacent cluster pair, its statistics in primitive arrays
+ * indexed by edge id. On a grid the id is the grid edge id (voxel {@code + k * n}), whose ends
+ * follow from the id, so no endpoint arrays exist; elsewhere ids are dense and the ends are
+ * stored. Ends are never rewritten: the clusters of an edge are the union-find roots of its
+ * ends. Adjacency: a {@link ClusterAdjacency} from neighbour cluster to edge. Contraction moves
+ * the adjacency of the cluster with fewer neighbours into the other; per moved neighbour one
+ * look-up in the survivor's map and one in-place rename in the neighbour's map, and where both
+ * clusters had an edge to it the two combine into the one of smaller id. Candidates wait in an
+ * {@link EdgeQueue} with lazy deletion: a changed edge gets a new entry; an entry whose edge is
+ * no longer alive or whose value or rank differs is skipped when it reaches the top. So the
+ * merges happen in exactly the order of the indexed heap this replaced.
+ *
  * <p>With {@link Linkage#ABS_MAX} and constraints each aggregated edge also keeps the id of the
  * edge holding its max and of the edge holding its min (the smallest id among equal values);
- * the heap breaks ties by the id on the side the linkage takes, which is where the Mutex
+ * the queue breaks ties by the id on the side the linkage takes, which is where the Mutex
  * Watershed's order puts the pair's first edge.
  */
 final class AgglomerationState {
@@ -22,63 +35,129 @@ final class AgglomerationState {
   private final boolean constraints;
   private final double threshold;
   private final int nodeCount;
+  private final boolean recordTree;
+  private final boolean mutexOrder;
+
+  // edges: sparse input (dense ids, stored ends) or grid (grid edge ids, ends from the id)
   private int edgeCount;
   private int[] eu;
   private int[] ev;
+  private int[] gridDelta;
+  private PairMap pairs;
+
   private double[] a;
   private double[] b;
+  private int[] count;
   private byte[] state;
   private int[] maxId;
   private int[] minId;
-  private final int[] head;
-  private final int[] degree;
-  private int[] next;
-  private int[] entryEdge;
+
   private final int[] parent;
-  private final PairMap pairs;
-  private final boolean recordTree;
+  private ClusterAdjacency adjacency;
+  private EdgeQueue queue;
+
   private int[] treeId;
   private int[] first;
   private int[] second;
   private double[] heights;
   private int merges;
-  private int[] order;
 
-  AgglomerationState(Agglomeration options, int nodeCount, int expectedEdges) {
+  private AgglomerationState(Agglomeration options, int nodeCount) {
     this.linkage = options.linkage();
     this.constraints = options.constraints();
     this.threshold = options.threshold();
     this.recordTree = options.recordsTree();
+    this.mutexOrder = linkage == Linkage.ABS_MAX && constraints;
     this.nodeCount = nodeCount;
-    int m = Math.max(4, expectedEdges);
-    eu = new int[m];
-    ev = new int[m];
-    a = new double[m];
-    b = needsSecond() ? new double[m] : null;
-    if (linkage == Linkage.ABS_MAX && constraints) {
-      maxId = new int[m];
-      minId = new int[m];
-    }
-    state = new byte[m];
-    next = new int[2 * m];
-    entryEdge = new int[2 * m];
-    head = new int[nodeCount];
-    Arrays.fill(head, -1);
-    degree = new int[nodeCount];
     parent = new int[nodeCount];
     for (int i = 0; i < nodeCount; i++) {
       parent[i] = i;
     }
+  }
+
+  /** A state for a sparse input, filled by {@link #addEdge}. */
+  AgglomerationState(Agglomeration options, int nodeCount, int expectedEdges) {
+    this(options, nodeCount);
+    int m = Math.max(4, expectedEdges);
+    eu = new int[m];
+    ev = new int[m];
+    allocateStatistics(m);
     pairs = new PairMap(expectedEdges);
   }
 
-  private boolean needsSecond() {
-    return linkage == Linkage.MEAN || linkage == Linkage.ABS_MAX;
+  /**
+   * A state holding every present edge of {@code grid} under its grid edge id, or null when an
+   * offset's index step is 0, two offsets can join the same voxel pair (equal or opposite index
+   * steps) or the arrays would overflow an {@code int} index; then the caller adds the edges one
+   * by one.
+   */
+  static AgglomerationState ofGrid(Agglomeration options, GridGraph grid) {
+    int n = grid.nodeCount();
+    int offsets = grid.offsetCount();
+    if (4L * n * offsets > Integer.MAX_VALUE - 8) {
+      return null;
+    }
+    int[] delta = new int[offsets];
+    for (int k = 0; k < offsets; k++) {
+      delta[k] = grid.delta(k);
+      if (delta[k] == 0) {
+        return null;
+      }
+      for (int j = 0; j < k; j++) {
+        if (Math.abs(delta[j]) == Math.abs(delta[k])) {
+          return null;
+        }
+      }
+    }
+    AgglomerationState s = new AgglomerationState(options, n);
+    s.gridDelta = delta;
+    int slots = n * offsets;
+    s.edgeCount = slots;
+    s.allocateStatistics(slots);
+    Arrays.fill(s.state, DEAD);
+    s.adjacency = new ClusterAdjacency(n, Math.max(1, 2 * offsets));
+    s.queue = new EdgeQueue(s.constraints, s.mutexOrder, slots / 2);
+    grid.forEachEdge((source, target, k, w) -> s.addGridEdge(source, target, source + k * n, w));
+    return s;
+  }
+
+  private void allocateStatistics(int m) {
+    a = new double[m];
+    if (linkage == Linkage.ABS_MAX || (linkage == Linkage.MEAN && gridDelta == null)) {
+      b = new double[m];
+    }
+    if (linkage == Linkage.MEAN && gridDelta != null) {
+      count = new int[m];
+    }
+    state = new byte[m];
+    if (mutexOrder) {
+      maxId = new int[m];
+      minId = new int[m];
+    }
+  }
+
+  private void addGridEdge(int source, int target, int e, double w) {
+    a[e] = w;
+    if (b != null) {
+      b[e] = w;
+    }
+    if (count != null) {
+      count[e] = 1;
+    }
+    if (maxId != null) {
+      maxId[e] = e;
+      minId[e] = e;
+    }
+    state[e] = ALIVE;
+    adjacency.addNew(source, target, e);
+    adjacency.addNew(target, source, e);
+    offer(e);
   }
 
   /**
-   * Adds statistics between nodes {@code u != v}; a pair seen before is combined. {@code id}
-   * orders ties under ABS_MAX with constraints (ascending; distinct per call).
+   * Adds statistics between nodes {@code u != v} of a sparse input; a pair seen before is
+   * combined. {@code id} orders ties under ABS_MAX with constraints (ascending; distinct per
+   * call).
    */
   void addEdge(int u, int v, double sum, long count, double min, double max, int id) {
     if (u == v) {
@@ -105,10 +184,6 @@ final class AgglomerationState {
       minId[e] = id;
     }
     pairs.put(key, e);
-    link(u, e, 2 * e);
-    link(v, e, 2 * e + 1);
-    degree[u]++;
-    degree[v]++;
   }
 
   private double first(double sum, double min, double max) {
@@ -121,57 +196,6 @@ final class AgglomerationState {
 
   private double second(long count, double min) {
     return linkage == Linkage.MEAN ? count : min;
-  }
-
-  private void combine(int into, double first, double second, int firstId, int secondId) {
-    if (maxId != null) {
-      combineIds(into, first, second, firstId, secondId);
-    }
-    switch (linkage) {
-      case SUM -> a[into] += first;
-      case MEAN -> {
-        a[into] += first;
-        b[into] += second;
-      }
-      case MAX -> a[into] = Math.max(a[into], first);
-      case MIN -> a[into] = Math.min(a[into], first);
-      case ABS_MAX -> {
-        a[into] = Math.max(a[into], first);
-        b[into] = Math.min(b[into], second);
-      }
-    }
-  }
-
-  /** Keeps the smallest id among the edges at the max and at the min; before {@link #combine}. */
-  private void combineIds(int into, double max, double min, int idOfMax, int idOfMin) {
-    if (max > a[into] || (max == a[into] && idOfMax < maxId[into])) {
-      maxId[into] = idOfMax;
-    }
-    if (min < b[into] || (min == b[into] && idOfMin < minId[into])) {
-      minId[into] = idOfMin;
-    }
-  }
-
-  /** The tie-breaking rank of edge {@code e}: its index, or its representative edge's id. */
-  private int rank(int e) {
-    if (maxId == null) {
-      return e;
-    }
-    return Math.abs(a[e]) >= Math.abs(b[e]) ? maxId[e] : minId[e];
-  }
-
-  private double value(int e) {
-    return switch (linkage) {
-      case SUM, MAX, MIN -> a[e];
-      case MEAN -> a[e] / b[e];
-      case ABS_MAX -> Math.abs(a[e]) >= Math.abs(b[e]) ? a[e] : b[e];
-    };
-  }
-
-  private void link(int cluster, int e, int entry) {
-    entryEdge[entry] = e;
-    next[entry] = head[cluster];
-    head[cluster] = entry;
   }
 
   private void growEdges() {
@@ -187,22 +211,115 @@ final class AgglomerationState {
       maxId = Arrays.copyOf(maxId, m);
       minId = Arrays.copyOf(minId, m);
     }
-    next = Arrays.copyOf(next, 2 * m);
-    entryEdge = Arrays.copyOf(entryEdge, 2 * m);
+  }
+
+  /** Builds adjacency and queue of a sparse input once every edge is added. */
+  private void finishSparse() {
+    pairs = null;
+    int[] degree = new int[nodeCount];
+    for (int e = 0; e < edgeCount; e++) {
+      degree[eu[e]]++;
+      degree[ev[e]]++;
+    }
+    int largest = 0;
+    for (int d : degree) {
+      largest = Math.max(largest, d);
+    }
+    // nodes above the packed capacity start in their own table
+    adjacency = new ClusterAdjacency(nodeCount, Math.max(1, Math.min(largest, 8)));
+    queue = new EdgeQueue(constraints, mutexOrder, edgeCount);
+    for (int e = 0; e < edgeCount; e++) {
+      adjacency.addNew(eu[e], ev[e], e);
+      adjacency.addNew(ev[e], eu[e], e);
+      offer(e);
+    }
+  }
+
+  /** Appends edge {@code e} to the (not yet ordered) queue if it is a candidate. */
+  private void offer(int e) {
+    double value = value(e);
+    if (isCandidate(e, value)) {
+      queue.append(value, rank(e), e);
+    }
+  }
+
+  private void combine(int into, double first, double second, int firstId, int secondId) {
+    if (maxId != null) {
+      combineIds(into, first, second, firstId, secondId);
+    }
+    switch (linkage) {
+      case SUM -> a[into] += first;
+      case MEAN -> {
+        a[into] += first;
+        if (count != null) {
+          count[into] += (int) second;
+        } else {
+          b[into] += second;
+        }
+      }
+      case MAX -> a[into] = Math.max(a[into], first);
+      case MIN -> a[into] = Math.min(a[into], first);
+      case ABS_MAX -> {
+        a[into] = Math.max(a[into], first);
+        b[into] = Math.min(b[into], second);
+      }
+    }
+  }
+
+  /** Combines edge {@code drop}'s statistics into edge {@code keep}'s. */
+  private void combineEdges(int keep, int drop) {
+    double second = linkage == Linkage.MEAN && count != null ? count[drop]
+        : b == null ? 0 : b[drop];
+    combine(keep, a[drop], second, maxId == null ? 0 : maxId[drop],
+        minId == null ? 0 : minId[drop]);
+  }
+
+  /** Keeps the smallest id among the edges at the max and at the min; before {@link #combine}. */
+  private void combineIds(int into, double max, double min, int idOfMax, int idOfMin) {
+    if (max > a[into] || (max == a[into] && idOfMax < maxId[into])) {
+      maxId[into] = idOfMax;
+    }
+    if (min < b[into] || (min == b[into] && idOfMin < minId[into])) {
+      minId[into] = idOfMin;
+    }
+  }
+
+  /** The tie-breaking rank of edge {@code e}: its id, or its representative edge's id. */
+  private int rank(int e) {
+    if (maxId == null) {
+      return e;
+    }
+    return Math.abs(a[e]) >= Math.abs(b[e]) ? maxId[e] : minId[e];
+  }
+
+  private double value(int e) {
+    return switch (linkage) {
+      case SUM, MAX, MIN -> a[e];
+      case MEAN -> count != null ? a[e] / count[e] : a[e] / b[e];
+      case ABS_MAX -> Math.abs(a[e]) >= Math.abs(b[e]) ? a[e] : b[e];
+    };
+  }
+
+  private boolean isCandidate(int e, double value) {
+    if (state[e] != ALIVE) {
+      return false;
+    }
+    return constraints ? Math.abs(value) > 0 : value > threshold;
+  }
+
+  private int endU(int e) {
+    return gridDelta == null ? eu[e] : e % nodeCount;
+  }
+
+  private int endV(int e) {
+    return gridDelta == null ? ev[e] : e % nodeCount + gridDelta[e / nodeCount];
   }
 
   Agglomeration.Result run() {
-    double[] priority = new double[edgeCount];
-    byte[] tie = new byte[edgeCount];
-    order = new int[edgeCount];
-    boolean[] candidate = new boolean[edgeCount];
-    for (int e = 0; e < edgeCount; e++) {
-      setPriority(e, priority, tie);
-      candidate[e] = isCandidate(e, priority);
+    if (gridDelta == null) {
+      finishSparse();
     }
-    EdgeHeap heap = new EdgeHeap(priority, tie, order, edgeCount);
-    heap.build(candidate);
-    candidate = null;
+    queue.heapify();
     if (recordTree) {
       treeId = new int[nodeCount];
       for (int i = 0; i < nodeCount; i++) {
@@ -212,13 +329,18 @@ final class AgglomerationState {
       second = new int[16];
       heights = new double[16];
     }
-    while (heap.size() > 0) {
-      int e = heap.pop();
-      double value = value(e);
+    while (queue.size() > 0) {
+      double value = queue.topValue();
+      int e = queue.topEdge();
+      int entryRank = queue.topRank();
+      queue.pop();
+      if (state[e] != ALIVE || value(e) != value || (mutexOrder && rank(e) != entryRank)) {
+        continue;  // stale: the edge died, or changed and has a newer entry
+      }
       if (constraints && value < 0) {
         state[e] = CONSTRAINED;
       } else {
-        merge(e, value, heap, priority, tie);
+        merge(e, value);
       }
     }
     int[] roots = new int[nodeCount];
@@ -232,20 +354,6 @@ final class AgglomerationState {
     return new Agglomeration.Result(Clustering.fromRepresentatives(roots), tree);
   }
 
-  private void setPriority(int e, double[] priority, byte[] tie) {
-    double value = value(e);
-    priority[e] = constraints ? Math.abs(value) : value;
-    tie[e] = (byte) (value > 0 ? 0 : 1);
-    order[e] = rank(e);
-  }
-
-  private boolean isCandidate(int e, double[] priority) {
-    if (state[e] != ALIVE) {
-      return false;
-    }
-    return constraints ? priority[e] > 0 : priority[e] > threshold;
-  }
-
   private int find(int x) {
     while (parent[x] != x) {
       parent[x] = parent[parent[x]];
@@ -254,71 +362,56 @@ final class AgglomerationState {
     return x;
   }
 
-  private void merge(int e, double value, EdgeHeap heap, double[] priority, byte[] tie) {
-    int u = eu[e];
-    int v = ev[e];
+  private void merge(int e, double value) {
+    int u = find(endU(e));
+    int v = find(endV(e));
     state[e] = DEAD;
-    pairs.remove(PairSet.pair(u, v));
-    degree[u]--;
-    degree[v]--;
-    int large = degree[u] >= degree[v] ? u : v;
+    adjacency.remove(u, v);
+    adjacency.remove(v, u);
+    int large = adjacency.size(u) >= adjacency.size(v) ? u : v;
     int small = large == u ? v : u;
     parent[small] = large;
     if (recordTree) {
       recordMerge(u, v, large, value);
     }
-    for (int entry = head[small]; entry >= 0; ) {
-      int following = next[entry];
-      int f = entryEdge[entry];
-      if (state[f] != DEAD) {
-        moveEdge(entry, f, small, large, heap, priority, tie);
+    int slots = adjacency.slotCount(small);
+    for (int slot = 0; slot < slots; slot++) {
+      int other = adjacency.neighbourAt(small, slot);
+      if (other != ClusterAdjacency.ABSENT) {
+        moveEdge(adjacency.edgeAt(small, slot), other, small, large);
       }
-      entry = following;
     }
-    head[small] = -1;
-    degree[small] = 0;
+    adjacency.clear(small);
   }
 
-  private void moveEdge(int entry, int f, int small, int large, EdgeHeap heap,
-      double[] priority, byte[] tie) {
-    int other = eu[f] == small ? ev[f] : eu[f];
-    pairs.remove(PairSet.pair(small, other));
-    long key = PairSet.pair(large, other);
-    int g = pairs.get(key);
+  /** Moves edge {@code f} (small, other) to large, combining it with a (large, other) edge. */
+  private void moveEdge(int f, int other, int small, int large) {
+    int g = adjacency.get(large, other);
     if (g < 0) {
-      retarget(f, small, large);
-      link(large, f, entry);
-      degree[large]++;
-      pairs.put(key, f);
+      adjacency.put(large, other, f);
+      adjacency.rename(other, small, large, f);
       return;
     }
     int keep = Math.min(f, g);
     int drop = Math.max(f, g);
+    boolean wasCandidate = state[keep] == ALIVE;
+    double oldValue = wasCandidate ? value(keep) : 0;
+    int oldRank = wasCandidate ? rank(keep) : 0;
     byte constrained = state[f] == CONSTRAINED || state[g] == CONSTRAINED ? CONSTRAINED : ALIVE;
-    combine(keep, a[drop], b == null ? 0 : b[drop], maxId == null ? 0 : maxId[drop],
-        minId == null ? 0 : minId[drop]);
+    combineEdges(keep, drop);
     state[drop] = DEAD;
-    heap.remove(drop);
     state[keep] = constrained;
-    degree[other]--;
-    if (keep == f) {
-      retarget(f, small, large);
-      link(large, f, entry);
+    if (keep != g) {
+      adjacency.put(large, other, keep);
     }
-    pairs.put(key, keep);
-    setPriority(keep, priority, tie);
-    if (isCandidate(keep, priority)) {
-      heap.update(keep);
-    } else {
-      heap.remove(keep);
-    }
-  }
-
-  private void retarget(int f, int from, int to) {
-    if (eu[f] == from) {
-      eu[f] = to;
-    } else {
-      ev[f] = to;
+    adjacency.rename(other, small, large, keep);
+    double value = value(keep);
+    if (isCandidate(keep, value)) {
+      int rank = rank(keep);
+      boolean queued = wasCandidate && isCandidate(keep, oldValue);
+      if (!queued || value != oldValue || rank != oldRank) {
+        queue.push(value, rank, keep);
+      }
     }
   }
 

@@ -8,8 +8,8 @@ import java.util.Random;
 import java.util.TreeSet;
 import org.junit.jupiter.api.Test;
 
-/** {@link EdgeHeap} against a {@link java.util.TreeSet} with the same order (reference). */
-class EdgeHeapTest {
+/** {@link PreviousEdgeHeap} against a {@link java.util.TreeSet} with the same order (reference). */
+class PreviousEdgeHeapTest {
 
   @Test
   void popsInTheOrderOfATreeSetUnderRandomChanges() {
@@ -28,7 +28,7 @@ class EdgeHeapTest {
           .thenComparingInt(e -> tie[e]).thenComparingInt(e -> order[e])
           .thenComparingInt(e -> e);
       TreeSet<Integer> reference = new TreeSet<>(byHeapOrder);
-      EdgeHeap heap = new EdgeHeap(priority, tie, order, m);
+      PreviousEdgeHeap heap = new PreviousEdgeHeap(priority, tie, order, m);
       heap.build(include);
       for (int e = 0; e < m; e++) {
         if (include[e]) {
