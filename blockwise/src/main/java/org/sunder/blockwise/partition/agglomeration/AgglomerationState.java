@@ -27,10 +27,6 @@ import org.sunder.blockwise.partition.Clustering;
  * Watershed's order puts the pair's first edge.
  */
 final class AgglomerationState {
-  private static final byte ALIVE = 0;
-  private static final byte CONSTRAINED = 1;
-  private static final byte DEAD = 2;
-
   private final Linkage linkage;
   private final boolean constraints;
   private final double threshold;
@@ -45,10 +41,11 @@ final class AgglomerationState {
   private int[] gridDelta;
   private PairMap pairs;
 
-  private double[] a;
-  private double[] b;
-  private int[] count;
-  private byte[] state;
+  /** Per edge {@code stride} statistics (first, then second if any); NaN once the edge died. */
+  private double[] stat;
+  private final int stride;
+  /** Only with constraints: whether a live edge became a cannot-link constraint. */
+  private boolean[] constrained;
   private int[] maxId;
   private int[] minId;
 
@@ -69,6 +66,7 @@ final class AgglomerationState {
     this.recordTree = options.recordsTree();
     this.mutexOrder = linkage == Linkage.ABS_MAX && constraints;
     this.nodeCount = nodeCount;
+    this.stride = linkage == Linkage.MEAN || linkage == Linkage.ABS_MAX ? 2 : 1;
     parent = new int[nodeCount];
     for (int i = 0; i < nodeCount; i++) {
       parent[i] = i;
@@ -114,7 +112,6 @@ final class AgglomerationState {
     int slots = n * offsets;
     s.edgeCount = slots;
     s.allocateStatistics(slots);
-    Arrays.fill(s.state, DEAD);
     s.adjacency = new ClusterAdjacency(n, Math.max(1, 2 * offsets));
     s.queue = new EdgeQueue(s.constraints, s.mutexOrder, slots / 2);
     grid.forEachEdge((source, target, k, w) -> s.addGridEdge(source, target, source + k * n, w));
@@ -122,14 +119,10 @@ final class AgglomerationState {
   }
 
   private void allocateStatistics(int m) {
-    a = new double[m];
-    if (linkage == Linkage.ABS_MAX || (linkage == Linkage.MEAN && gridDelta == null)) {
-      b = new double[m];
+    stat = new double[Math.multiplyExact(stride, m)];
+    if (constraints) {
+      constrained = new boolean[m];
     }
-    if (linkage == Linkage.MEAN && gridDelta != null) {
-      count = new int[m];
-    }
-    state = new byte[m];
     if (mutexOrder) {
       maxId = new int[m];
       minId = new int[m];
@@ -137,18 +130,14 @@ final class AgglomerationState {
   }
 
   private void addGridEdge(int source, int target, int e, double w) {
-    a[e] = w;
-    if (b != null) {
-      b[e] = w;
-    }
-    if (count != null) {
-      count[e] = 1;
+    stat[stride * e] = w;
+    if (stride == 2) {
+      stat[2 * e + 1] = linkage == Linkage.MEAN ? 1 : w;
     }
     if (maxId != null) {
       maxId[e] = e;
       minId[e] = e;
     }
-    state[e] = ALIVE;
     adjacency.addNew(source, target, e);
     adjacency.addNew(target, source, e);
     offer(e);
@@ -175,9 +164,9 @@ final class AgglomerationState {
     e = edgeCount++;
     eu[e] = u;
     ev[e] = v;
-    a[e] = first(sum, min, max);
-    if (b != null) {
-      b[e] = second(count, min);
+    stat[stride * e] = first(sum, min, max);
+    if (stride == 2) {
+      stat[2 * e + 1] = second(count, min);
     }
     if (maxId != null) {
       maxId[e] = id;
@@ -202,11 +191,10 @@ final class AgglomerationState {
     int m = eu.length * 2;
     eu = Arrays.copyOf(eu, m);
     ev = Arrays.copyOf(ev, m);
-    a = Arrays.copyOf(a, m);
-    if (b != null) {
-      b = Arrays.copyOf(b, m);
+    stat = Arrays.copyOf(stat, stride * m);
+    if (constrained != null) {
+      constrained = Arrays.copyOf(constrained, m);
     }
-    state = Arrays.copyOf(state, m);
     if (maxId != null) {
       maxId = Arrays.copyOf(maxId, m);
       minId = Arrays.copyOf(minId, m);
@@ -244,42 +232,49 @@ final class AgglomerationState {
   }
 
   private void combine(int into, double first, double second, int firstId, int secondId) {
+    int i = stride * into;
     if (maxId != null) {
       combineIds(into, first, second, firstId, secondId);
     }
     switch (linkage) {
-      case SUM -> a[into] += first;
+      case SUM -> stat[i] += first;
       case MEAN -> {
-        a[into] += first;
-        if (count != null) {
-          count[into] += (int) second;
-        } else {
-          b[into] += second;
-        }
+        stat[i] += first;
+        stat[i + 1] += second;
       }
-      case MAX -> a[into] = Math.max(a[into], first);
-      case MIN -> a[into] = Math.min(a[into], first);
+      case MAX -> stat[i] = Math.max(stat[i], first);
+      case MIN -> stat[i] = Math.min(stat[i], first);
       case ABS_MAX -> {
-        a[into] = Math.max(a[into], first);
-        b[into] = Math.min(b[into], second);
+        stat[i] = Math.max(stat[i], first);
+        stat[i + 1] = Math.min(stat[i + 1], second);
       }
     }
   }
 
-  /** Combines edge {@code drop}'s statistics into edge {@code keep}'s. */
+  /** Combines edge {@code drop}'s statistics into edge {@code keep}'s and kills {@code drop}. */
   private void combineEdges(int keep, int drop) {
-    double second = linkage == Linkage.MEAN && count != null ? count[drop]
-        : b == null ? 0 : b[drop];
-    combine(keep, a[drop], second, maxId == null ? 0 : maxId[drop],
+    int d = stride * drop;
+    combine(keep, stat[d], stride == 2 ? stat[d + 1] : 0, maxId == null ? 0 : maxId[drop],
         minId == null ? 0 : minId[drop]);
+    kill(drop);
+  }
+
+  /** Marks {@code e} dead: NaN statistics, which no queue entry matches. */
+  private void kill(int e) {
+    stat[stride * e] = Double.NaN;
+    if (stride == 2) {
+      stat[stride * e + 1] = Double.NaN;
+    }
   }
 
   /** Keeps the smallest id among the edges at the max and at the min; before {@link #combine}. */
   private void combineIds(int into, double max, double min, int idOfMax, int idOfMin) {
-    if (max > a[into] || (max == a[into] && idOfMax < maxId[into])) {
+    double a = stat[2 * into];
+    double b = stat[2 * into + 1];
+    if (max > a || (max == a && idOfMax < maxId[into])) {
       maxId[into] = idOfMax;
     }
-    if (min < b[into] || (min == b[into] && idOfMin < minId[into])) {
+    if (min < b || (min == b && idOfMin < minId[into])) {
       minId[into] = idOfMin;
     }
   }
@@ -289,22 +284,29 @@ final class AgglomerationState {
     if (maxId == null) {
       return e;
     }
-    return Math.abs(a[e]) >= Math.abs(b[e]) ? maxId[e] : minId[e];
+    return Math.abs(stat[2 * e]) >= Math.abs(stat[2 * e + 1]) ? maxId[e] : minId[e];
   }
 
+  /** The linkage value of edge {@code e}; NaN once it died. */
   private double value(int e) {
+    int i = stride * e;
     return switch (linkage) {
-      case SUM, MAX, MIN -> a[e];
-      case MEAN -> count != null ? a[e] / count[e] : a[e] / b[e];
-      case ABS_MAX -> Math.abs(a[e]) >= Math.abs(b[e]) ? a[e] : b[e];
+      case SUM, MAX, MIN -> stat[i];
+      case MEAN -> stat[i] / stat[i + 1];
+      case ABS_MAX -> {
+        double a = stat[i];
+        double b = stat[i + 1];
+        yield a != a ? a : Math.abs(a) >= Math.abs(b) ? a : b;
+      }
     };
   }
 
+  /** Whether live edge {@code e} of linkage {@code value} waits in the queue. */
   private boolean isCandidate(int e, double value) {
-    if (state[e] != ALIVE) {
-      return false;
+    if (constraints) {
+      return !constrained[e] && Math.abs(value) > 0;
     }
-    return constraints ? Math.abs(value) > 0 : value > threshold;
+    return value > threshold;
   }
 
   private int endU(int e) {
@@ -334,11 +336,12 @@ final class AgglomerationState {
       int e = queue.topEdge();
       int entryRank = queue.topRank();
       queue.pop();
-      if (state[e] != ALIVE || value(e) != value || (mutexOrder && rank(e) != entryRank)) {
-        continue;  // stale: the edge died, or changed and has a newer entry
+      if (value(e) != value || (mutexOrder && rank(e) != entryRank)
+          || (constraints && constrained[e])) {
+        continue;  // stale: the edge died, changed (a newer entry exists) or became a constraint
       }
       if (constraints && value < 0) {
-        state[e] = CONSTRAINED;
+        constrained[e] = true;
       } else {
         merge(e, value);
       }
@@ -365,7 +368,7 @@ final class AgglomerationState {
   private void merge(int e, double value) {
     int u = find(endU(e));
     int v = find(endV(e));
-    state[e] = DEAD;
+    kill(e);
     adjacency.remove(u, v);
     adjacency.remove(v, u);
     int large = adjacency.size(u) >= adjacency.size(v) ? u : v;
@@ -394,13 +397,13 @@ final class AgglomerationState {
     }
     int keep = Math.min(f, g);
     int drop = Math.max(f, g);
-    boolean wasCandidate = state[keep] == ALIVE;
-    double oldValue = wasCandidate ? value(keep) : 0;
-    int oldRank = wasCandidate ? rank(keep) : 0;
-    byte constrained = state[f] == CONSTRAINED || state[g] == CONSTRAINED ? CONSTRAINED : ALIVE;
+    double oldValue = value(keep);
+    boolean queued = isCandidate(keep, oldValue);
+    int oldRank = queued ? rank(keep) : 0;
+    if (constraints && constrained[drop]) {
+      constrained[keep] = true;
+    }
     combineEdges(keep, drop);
-    state[drop] = DEAD;
-    state[keep] = constrained;
     if (keep != g) {
       adjacency.put(large, other, keep);
     }
@@ -408,7 +411,6 @@ final class AgglomerationState {
     double value = value(keep);
     if (isCandidate(keep, value)) {
       int rank = rank(keep);
-      boolean queued = wasCandidate && isCandidate(keep, oldValue);
       if (!queued || value != oldValue || rank != oldRank) {
         queue.push(value, rank, keep);
       }
