@@ -1,13 +1,17 @@
 package org.sunder.blockwise.partition.agglomeration;
 
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 
 /**
  * For each cluster {@code 0..n-1}, a map from neighbour cluster to the id of the edge joining
  * them, all on primitive arrays. A cluster starts in a packed block of {@code packedCapacity}
  * (neighbour, edge) pairs inside one shared array, searched linearly; when it outgrows the block
  * it moves to its own open-addressing table (linear probing, load at most 1/2, backward-shift
- * deletion, no tombstones) that doubles when full. Keys and edges are non-negative ints.
+ * deletion, no tombstones) that doubles when full. Tables given up (by {@link #clear} or by
+ * growing) are emptied and kept for reuse, so a run allocates about its peak of live tables.
+ * Keys and edges are non-negative ints.
  *
  * <p>Cost: {@code O(packedCapacity)} per operation on a packed cluster, expected {@code O(1)}
  * on a table. Memory: {@code 8 * packedCapacity} bytes per cluster plus {@code 16} to
@@ -21,6 +25,8 @@ final class ClusterAdjacency {
   private final int[] packed;
   private final int[] size;
   private final int[][] table;
+  /** Emptied tables by capacity: {@code spare.get(i)} holds tables of {@code MIN_TABLE << i}. */
+  private final List<List<int[]>> spare = new ArrayList<>();
 
   /** Empty maps for {@code clusterCount} clusters, each with a packed block of the capacity. */
   ClusterAdjacency(int clusterCount, int packedCapacity) {
@@ -156,7 +162,10 @@ final class ClusterAdjacency {
   /** Forgets every neighbour of {@code c} and frees its table. */
   void clear(int c) {
     size[c] = 0;
-    table[c] = null;
+    if (table[c] != null) {
+      release(table[c]);
+      table[c] = null;
+    }
   }
 
   /**
@@ -246,14 +255,32 @@ final class ClusterAdjacency {
         insertFresh(t, old[i], old[i + 1]);
       }
     }
+    release(old);
     table[c] = t;
     return t;
   }
 
-  private static int[] newTable(int capacity) {
+  /** An empty table of {@code capacity} (a power of two at least MIN_TABLE) slots. */
+  private int[] newTable(int capacity) {
+    int index = Integer.numberOfTrailingZeros(capacity / MIN_TABLE);
+    if (index < spare.size()) {
+      List<int[]> tables = spare.get(index);
+      if (!tables.isEmpty()) {
+        return tables.remove(tables.size() - 1);
+      }
+    }
     int[] t = new int[2 * capacity];
     Arrays.fill(t, ABSENT);
     return t;
+  }
+
+  private void release(int[] t) {
+    Arrays.fill(t, ABSENT);
+    int index = Integer.numberOfTrailingZeros(t.length / 2 / MIN_TABLE);
+    while (spare.size() <= index) {
+      spare.add(new ArrayList<>());
+    }
+    spare.get(index).add(t);
   }
 
   private static void insertFresh(int[] t, int key, int edge) {
