@@ -389,9 +389,8 @@ final class AgglomerationState {
 
   /** Moves edge {@code f} (small, other) to large, combining it with a (large, other) edge. */
   private void moveEdge(int f, int other, int small, int large) {
-    int g = adjacency.get(large, other);
+    int g = adjacency.putIfAbsent(large, other, f);
     if (g < 0) {
-      adjacency.put(large, other, f);
       adjacency.rename(other, small, large, f);
       return;
     }

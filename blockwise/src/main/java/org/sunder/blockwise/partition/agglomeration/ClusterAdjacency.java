@@ -66,6 +66,33 @@ final class ClusterAdjacency {
     put(c, neighbour, edge);
   }
 
+  /**
+   * Maps {@code neighbour} to {@code edge} unless it is mapped already; returns the edge it
+   * had or {@link #ABSENT} (then {@code edge} was inserted). One search.
+   */
+  int putIfAbsent(int c, int neighbour, int edge) {
+    int[] t = table[c];
+    if (t == null) {
+      int at = packedIndex(c, neighbour);
+      if (at >= 0) {
+        return packed[at + 1];
+      }
+      if (size[c] < packedCapacity) {
+        at = 2 * (c * packedCapacity + size[c]++);
+        packed[at] = neighbour;
+        packed[at + 1] = edge;
+        return ABSENT;
+      }
+      t = toTable(c);
+    }
+    int i = tableIndex(t, neighbour);
+    if (t[i] != ABSENT) {
+      return t[i + 1];
+    }
+    insertAt(c, t, i, neighbour, edge);
+    return ABSENT;
+  }
+
   /** Maps {@code neighbour} to {@code edge}, inserting or overwriting. */
   void put(int c, int neighbour, int edge) {
     int[] t = table[c];
@@ -88,6 +115,11 @@ final class ClusterAdjacency {
       t[i + 1] = edge;
       return;
     }
+    insertAt(c, t, i, neighbour, edge);
+  }
+
+  /** Inserts at empty slot {@code i} of {@code c}'s table, growing it first if full. */
+  private void insertAt(int c, int[] t, int i, int neighbour, int edge) {
     if (2 * (size[c] + 1) > t.length / 2) {
       t = grow(c, t);
       i = tableIndex(t, neighbour);
