@@ -6,7 +6,8 @@ import org.sunder.blockwise.collections.PairSet;
 import org.sunder.blockwise.partition.Clustering;
 
 /**
- * The working arrays of one {@link Agglomeration} run; see there for the contract.
+ * The implementation {@link AgglomerationState} replaced (one hash map of cluster pairs, an
+ * indexed heap), kept unchanged as a reference for {@link AgglomerationReferenceTest}.
  *
  * <p>With {@link Linkage#ABS_MAX} and constraints each aggregated edge also keeps the id of the
  * edge holding its max and of the edge holding its min (the smallest id among equal values);
