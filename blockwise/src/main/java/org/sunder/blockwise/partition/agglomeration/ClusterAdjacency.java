@@ -8,14 +8,14 @@ import java.util.List;
  * For each cluster {@code 0..n-1}, a map from neighbour cluster to the id of the edge joining
  * them, all on primitive arrays. A cluster starts in a packed block of {@code packedCapacity}
  * (neighbour, edge) pairs inside one shared array, searched linearly; when it outgrows the block
- * it moves to its own open-addressing table (linear probing, load at most 1/2, backward-shift
+ * it moves to its own open-addressing table (linear probing, load at most 3/4, backward-shift
  * deletion, no tombstones) that doubles when full. Tables given up (by {@link #clear} or by
  * growing) are emptied and kept for reuse, so a run allocates about its peak of live tables.
  * Keys and edges are non-negative ints.
  *
  * <p>Cost: {@code O(packedCapacity)} per operation on a packed cluster, expected {@code O(1)}
- * on a table. Memory: {@code 8 * packedCapacity} bytes per cluster plus {@code 16} to
- * {@code 32} bytes per entry of tabled clusters. Not thread-safe.
+ * on a table. Memory: {@code 8 * packedCapacity} bytes per cluster plus {@code 11} to
+ * {@code 21} bytes per entry of tabled clusters. Not thread-safe.
  */
 final class ClusterAdjacency {
   static final int ABSENT = -1;
@@ -120,7 +120,7 @@ final class ClusterAdjacency {
 
   /** Inserts at empty slot {@code i} of {@code c}'s table, growing it first if full. */
   private void insertAt(int c, int[] t, int i, int neighbour, int edge) {
-    if (2 * (size[c] + 1) > t.length / 2) {
+    if (4 * (size[c] + 1) > 3 * (t.length / 2)) {
       t = grow(c, t);
       i = tableIndex(t, neighbour);
     }
@@ -268,7 +268,7 @@ final class ClusterAdjacency {
 
   private int[] toTable(int c) {
     int capacity = MIN_TABLE;
-    while (capacity < 4 * (size[c] + 1)) {
+    while (capacity < 2 * (size[c] + 1)) {
       capacity <<= 1;
     }
     int[] t = newTable(capacity);
