@@ -36,7 +36,7 @@ import org.sunder.blockwise.partition.mutex.MutexWatershed;
  * cluster with fewer neighbours is contracted into the other, renaming it in place in each
  * neighbour's map; a binary heap with lazy deletion ({@link EdgeQueue}) holds the candidates.
  * On a grid the edges keep their grid ids and no edge list is built. {@code O(m log m)} expected
- * for {@code m} edges. Memory about 80 to 90 bytes per grid edge (mean linkage, 13 offsets).
+ * for {@code m} edges. Memory about 70 to 90 bytes per grid edge (mean linkage, measured).
  * Immutable; each run is independent, so one instance may serve several threads.
  */
 public final class Agglomeration {
