@@ -31,11 +31,13 @@ import org.sunder.blockwise.partition.mutex.MutexWatershed;
  * edge id, or the index in {@link EdgeStatistics}; so on a graph or grid the partition equals
  * {@link MutexWatershed}'s exactly, and like it depends on the edge order only through ties.
  *
- * <p>Implementation: one aggregated edge per adjacent cluster pair, found through a hash map of
- * cluster pairs; the adjacency of the cluster with fewer edges is merged into the other's
- * (smaller into larger); an indexed binary heap holds the candidate edges. {@code O(m log m)}
- * expected for {@code m} edges. Memory about 100 bytes per edge. Immutable; each run is
- * independent, so one instance may serve several threads.
+ * <p>Implementation: one aggregated edge per adjacent cluster pair, its statistics in primitive
+ * arrays; each cluster's neighbours in a small map of its own ({@link ClusterAdjacency}); the
+ * cluster with fewer neighbours is contracted into the other, renaming it in place in each
+ * neighbour's map; a binary heap with lazy deletion ({@link EdgeQueue}) holds the candidates.
+ * On a grid the edges keep their grid ids and no edge list is built. {@code O(m log m)} expected
+ * for {@code m} edges. Memory about 70 to 90 bytes per grid edge (mean linkage, measured).
+ * Immutable; each run is independent, so one instance may serve several threads.
  */
 public final class Agglomeration {
   private final Linkage linkage;
@@ -130,6 +132,10 @@ public final class Agglomeration {
 
   /** Clusters the voxels of a grid graph, each voxel edge starting as its own statistic. */
   public Result run(GridGraph graph) {
+    AgglomerationState direct = AgglomerationState.ofGrid(this, graph);
+    if (direct != null) {
+      return direct.run();
+    }
     long present = graph.presentEdgeCount();
     AgglomerationState state = new AgglomerationState(this, graph.nodeCount(),
         Math.toIntExact(present));

@@ -8,7 +8,7 @@ import java.util.Arrays;
  * are the caller's; after changing an entry's priority, tie or order call {@link #update}. {@code O(log m)} per change, {@code O(m)}
  * to build. Not thread-safe.
  */
-final class EdgeHeap {
+final class PreviousEdgeHeap {
   private final double[] priority;
   private final byte[] tie;
   private final int[] order;
@@ -16,7 +16,7 @@ final class EdgeHeap {
   private final int[] position;
   private int size;
 
-  EdgeHeap(double[] priority, byte[] tie, int[] order, int capacity) {
+  PreviousEdgeHeap(double[] priority, byte[] tie, int[] order, int capacity) {
     this.priority = priority;
     this.tie = tie;
     this.order = order;
