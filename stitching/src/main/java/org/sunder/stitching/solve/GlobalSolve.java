@@ -30,7 +30,8 @@ import org.sunder.stitching.task.SeamEdges;
  * that continue across a face ({@link SeamEdges#continued()}: the halves of one fragment) are
  * joined first, so the method continues from the statistics of whole fragments. With a size
  * filter ({@code minSegmentSize}) the filter then runs on the final segments that reach a face,
- * by their size in the volume ({@link FinalSizeFilter}). Cost: O(p log p) for p
+ * by their size in the volume, and for the fragment methods on every small segment
+ * ({@link FinalSizeFilter}). Cost: O(p log p) for p
  * reduced-graph pairs plus the agglomeration's O(p log p); memory about 100 bytes per pair.
  */
 public final class GlobalSolve {
