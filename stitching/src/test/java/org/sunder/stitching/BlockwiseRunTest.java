@@ -216,6 +216,60 @@ class BlockwiseRunTest {
     }
   }
 
+  /**
+   * The fragment methods' size filter runs once, after the global solve, on every segment of the
+   * volume: a blockwise run with {@code minSegmentSize} gives the run without it, filtered as one
+   * volume (dense-neurites preset, 96 x 96 x 32 voxels, 8 blocks; the filter of the default,
+   * whose threshold comes from the voxel size). Before, each block filtered the segments inside
+   * its core in its own order and the solve the rest.
+   */
+  @Test
+  void fragmentMethodsFilterSmallSegmentsAsTheWholeVolumeWould() {
+    long[] shape = {96, 96, 32};
+    TissuePreset preset = TissuePreset.DENSE_NEURITES;
+    SyntheticVolume volume = preset.volume(2, shape);
+    float[] affinities = preset.affinities(volume, 2);
+    int[][] offsets = TissuePreset.offsets().vectors();
+    TissueScene scene = new TissueScene(new int[] {96, 96, 32}, volume.labels(), affinities,
+        offsets);
+    int[] chunk = {16, 16, 8};
+    int[] block = {48, 48, 16};
+    PartitionConfig filtered = PartitionConfig.robustDefault(volume.spec().voxelSize());
+    PartitionConfig unfiltered = new FragmentsMulticutMethod().fittedTo(
+        volume.spec().voxelSize(), null);
+    assertTrue(filtered.minSegmentSize() > 1, filtered.toString());
+    long[][] runs = new long[2][];
+    for (int r = 0; r < 2; r++) {
+      PartitionConfig config = r == 0 ? unfiltered : filtered;
+      Path root = dir.resolve("filter-" + r);
+      SceneStore.write(scene, root, StorageFormat.ZARR, chunk);
+      StitchingSetup setup = SceneStore.setup(scene, root, chunk, block,
+          TissuePreset.offsets().reach(), config);
+      assertEquals(8, setup.grid().blockCount());
+      InProcessRunner.run(setup);
+      runs[r] = SceneStore.readLabels(setup);
+    }
+    int[] before = new int[runs[0].length];
+    for (int i = 0; i < before.length; i++) {
+      before[i] = (int) runs[0][i];
+    }
+    org.sunder.blockwise.partition.Segmentation segments =
+        org.sunder.blockwise.partition.Segmentation.fromClusters(before, null);
+    AffinityBlock all = AffinityBlock.ofFloats(affinities, scene.shape, new long[3],
+        Offsets.of(offsets), null);
+    org.sunder.blockwise.graph.EdgeStatistics statistics = org.sunder.blockwise.graph.RegionGraph
+        .of(segments.labels(), org.sunder.blockwise.graph.GridGraph.of(all, filtered.weights(),
+            filtered.subsampling())).statistics();
+    int[] expected = filtered.createSizeFilter().apply(segments, statistics, null).labels();
+    long[] expectedLabels = new long[expected.length];
+    for (int i = 0; i < expected.length; i++) {
+      expectedLabels[i] = expected[i];
+    }
+    assertTrue(segments.segmentCount() > new java.util.HashSet<>(java.util.Arrays.stream(
+        expected).boxed().toList()).size(), "the filter joined nothing");
+    assertEqualUpToRenaming(expectedLabels, runs[1]);
+  }
+
   @Test
   void maskedVoxelsStayBackgroundAndMatchTheWholeVolumeWithOneBlock() {
     TissueScene scene = TissueScene.small(10, SHAPE, MILD);

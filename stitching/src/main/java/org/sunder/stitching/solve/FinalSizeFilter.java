@@ -11,12 +11,16 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
 import org.sunder.stitching.task.BlockSummary;
 
 /**
- * The size filter on the global solve's result. Each block filtered only the segments lying
- * wholly inside its core away from the faces; the segments that reach a face (boundary
+ * The size filter on the global solve's result. The segments that reach a face (boundary
  * segments) are judged here, by their size in the volume: a final segment is a cluster of
- * boundary segments, its size the sum of their core voxels. Its neighbours are the other
- * clusters (reduced-graph edges) and the blocks' other segments beside it
- * ({@link BlockSummary#interiorEdges()}); the configured {@link SizeFilter} runs on that graph.
+ * boundary segments, its size the sum of their core voxels. For the fragment methods the blocks
+ * filter nothing, and every segment below the threshold is judged here too, so the filter runs
+ * over the volume's segments as a one-block run's filter would (every segment that can merge or
+ * absorb is in the graph: the small ones, the boundary ones and their neighbours); for the voxel
+ * methods each block filtered the segments lying wholly inside its core away from the faces.
+ * A segment's neighbours are the other clusters (reduced-graph edges) and the blocks' other
+ * segments beside it ({@link BlockSummary#interiorEdges()}); the configured {@link SizeFilter}
+ * runs on that graph.
  *
  * <p>The outcome: per reduced-graph node a new cluster index, and per interior segment beside
  * a boundary segment its cluster in the same numbering. {@code O(p log p)} for {@code p} pairs.
@@ -27,8 +31,8 @@ final class FinalSizeFilter {
   /**
    * @param clusterOfNode per reduced-graph node, its cluster (indices below
    *     {@code clusterOfNode.length + joinedIds.length})
-   * @param joinedIds the interior segments beside a boundary segment (provisional ids,
-   *     ascending); each may have joined a cluster or been joined by one
+   * @param joinedIds the other segments the filter judged or saw as a neighbour (provisional
+   *     ids, ascending); each may have joined a cluster or been joined by one
    * @param joinedCluster per joined id, its cluster (same numbering as {@code clusterOfNode})
    */
   record Result(int[] clusterOfNode, long[] joinedIds, int[] joinedCluster) {}
@@ -97,14 +101,19 @@ final class FinalSizeFilter {
     return dense;
   }
 
-  /** The ends of {@code interior}'s pairs that are not boundary segments, ascending, unique. */
+  /** The ends of {@code interior}'s pairs that are not reduced-graph nodes, ascending, unique. */
   private static long[] interiorEnds(EdgeStatistics interior, long[] nodeIds) {
-    long[] ends = new long[interior.size()];
-    for (int e = 0; e < ends.length; e++) {
-      ends[e] = Arrays.binarySearch(nodeIds, interior.u(e)) >= 0 ? interior.v(e)
-          : interior.u(e);
+    long[] ends = new long[2 * interior.size()];
+    int count = 0;
+    for (int e = 0; e < interior.size(); e++) {
+      if (Arrays.binarySearch(nodeIds, interior.u(e)) < 0) {
+        ends[count++] = interior.u(e);
+      }
+      if (Arrays.binarySearch(nodeIds, interior.v(e)) < 0) {
+        ends[count++] = interior.v(e);
+      }
     }
-    return Arrays.stream(ends).sorted().distinct().toArray();
+    return Arrays.stream(ends, 0, count).sorted().distinct().toArray();
   }
 
   private static long sizeOf(IdLayout layout, List<BlockSummary> blocks, long provisionalId) {

@@ -29,8 +29,11 @@ import org.sunder.blockwise.grid.BlockGrid;
  *     the block's partition therefore kept apart; the Mutex Watershed's solve keeps them apart
  * @param separatedV see {@code separatedU}
  * @param interiorEdges with a size filter only (else empty): statistics of the core's edges
- *     between a boundary segment and a segment that is not one, keyed by provisional id, so that
- *     the filter after the global solve sees every neighbour of a final segment
+ *     between a segment the filter after the global solve judges and another segment, except
+ *     pairs of boundary segments (those are inner edges), keyed by provisional id, so that the
+ *     filter sees every neighbour of a segment it judges. It judges the boundary segments, and
+ *     for the fragment methods also every segment smaller than {@code minSegmentSize} (their
+ *     blocks filter nothing themselves)
  */
 public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalIds,
     int[] boundarySides, EdgeStatistics innerEdges, long[] separatedU, long[] separatedV,

@@ -127,12 +127,15 @@ public final class CoreSegments {
   }
 
   /**
-   * @param withInteriorEdges whether to collect {@link BlockSummary#interiorEdges()} (for a size
-   *     filter after the solve)
+   * @param filterNodesBelow which segments the size filter after the solve judges, and so
+   *     which {@link BlockSummary#interiorEdges()} to collect: 0 none (no size filter); 1 the
+   *     boundary segments (the block filtered the others itself); {@code k > 1} the boundary
+   *     segments and every segment of fewer than {@code k} core voxels (the block filtered
+   *     nothing)
    * @param markContinuations whether to compute {@link #continuations} (fragment methods)
    */
   public static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
-      SettledPartition partition, GridGraph extendedGraph, boolean withInteriorEdges,
+      SettledPartition partition, GridGraph extendedGraph, int filterNodesBelow,
       boolean markContinuations) {
     Segmentation segmentation = partition.pieces();
     int[] extShape = block.extendedShape();
@@ -179,8 +182,14 @@ public final class CoreSegments {
         boundarySides[next++] = sides[k];
       }
     }
+    boolean[] filterNode = new boolean[localCount + 1];
+    if (filterNodesBelow > 0) {
+      for (int k = 1; k <= localCount; k++) {
+        filterNode[k] = boundary[k] || sizes[k - 1] < filterNodesBelow;
+      }
+    }
     Inner inner = innerEdges(layout, block.index(), labels, localOf, coreIndex, boundary,
-        unsettled, extendedGraph, withInteriorEdges);
+        unsettled, extendedGraph, filterNode);
     long[] provisional = new long[coreLocal.length];
     for (int i = 0; i < coreLocal.length; i++) {
       int local = coreLocal[i];
@@ -288,19 +297,30 @@ public final class CoreSegments {
   private record Inner(EdgeStatistics edges, long[] separatedU, long[] separatedV,
       EdgeStatistics interior) {}
 
+  /**
+   * @param filterNode per local id, whether the size filter after the solve judges it: the
+   *     interior statistics hold the core's edges between a filter node and another segment,
+   *     except between two boundary segments (those are the inner edges)
+   */
   private static Inner innerEdges(IdLayout layout, int block, int[] labels, int[] localOf,
       int[] coreIndex, boolean[] boundary, boolean[] unsettled, GridGraph extendedGraph,
-      boolean withInteriorEdges) {
+      boolean[] filterNode) {
     int[] boundaryOf = new int[localOf.length];
+    boolean[] filterOf = new boolean[localOf.length];
     boolean any = false;
+    boolean withInteriorEdges = false;
     for (int label = 1; label < localOf.length; label++) {
       int local = localOf[label];
       if (local != 0 && boundary[local]) {
         boundaryOf[label] = local;
         any = true;
       }
+      if (local != 0 && filterNode[local]) {
+        filterOf[label] = true;
+        withInteriorEdges = true;
+      }
     }
-    if (!any) {
+    if (!any && !withInteriorEdges) {
       return new Inner(EdgeStatistics.empty(), new long[0], new long[0],
           EdgeStatistics.empty());
     }
@@ -311,13 +331,15 @@ public final class CoreSegments {
     EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
     EdgeStatistics.Accumulator repulsive = new EdgeStatistics.Accumulator(256);
     EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(256);
+    boolean interiorEdges = withInteriorEdges;
     extendedGraph.forEachEdgeAcross(labels, (s, t, k, w) -> {
       int a = boundaryOf[labels[s]];
       int b = boundaryOf[labels[t]];
-      if (withInteriorEdges && (a == 0) != (b == 0) && inCore[s] && inCore[t]) {
+      if (interiorEdges && (a == 0 || b == 0) && (filterOf[labels[s]] || filterOf[labels[t]])
+          && inCore[s] && inCore[t]) {
         int ls = localOf[labels[s]];
         int lt = localOf[labels[t]];
-        if (ls != 0 && lt != 0) {
+        if (ls != 0 && lt != 0 && ls != lt) {
           interior.add(ls, lt, w);
         }
         return;

@@ -15,8 +15,8 @@ import org.sunder.stitching.setup.StitchingSetup;
 /**
  * The partition stage's task for one block: read the extended box's affinities (and mask),
  * partition them with the configured method (merges that lean on the halo's open voxels held
- * back for the global solve, see {@link CoreSegments}; a size filter left to segments wholly in
- * the core away from its faces), crop to the core, write the core's provisional ids (whole
+ * back for the global solve, see {@link CoreSegments}; a size filter, for the voxel methods,
+ * left to segments wholly in the core away from its faces; see {@link #filtersAfterSolve}), crop to the core, write the core's provisional ids (whole
  * chunks, so no other block's task touches them), for the fragment methods also the core's
  * continuation flags ({@link StitchingSetup#continuationsPath()}), and return the
  * {@link BlockSummary}.
@@ -66,13 +66,31 @@ public final class PartitionTask {
       AffinityBlock affinities, PartitionConfig config) {
     byte[] open = CoreSegments.openVoxels(setup.grid(), block, setup.offsets());
     Partitioner partitioner = config.create();
-    SettledPartition partition = partitioner instanceof SizeFilteredPartitioner filtered
-        ? filtered.partitionSettled(affinities, open,
-            union(open, CoreSegments.partialVoxels(setup.grid(), block, setup.offsets())))
-        : partitioner.partitionSettled(affinities, open);
+    boolean filterAfterSolve = filtersAfterSolve(config);
+    SettledPartition partition;
+    if (partitioner instanceof SizeFilteredPartitioner filtered) {
+      partition = filterAfterSolve ? filtered.inner().partitionSettled(affinities, open)
+          : filtered.partitionSettled(affinities, open,
+              union(open, CoreSegments.partialVoxels(setup.grid(), block, setup.offsets())));
+    } else {
+      partition = partitioner.partitionSettled(affinities, open);
+    }
     GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
+    int filterNodesBelow = config.minSegmentSize() <= 1 ? 0
+        : filterAfterSolve ? config.minSegmentSize() : 1;
     return CoreSegments.of(setup.grid(), setup.idLayout(), block, setup.offsets(), partition,
-        graph, config.minSegmentSize() > 1, setup.tracksContinuations());
+        graph, filterNodesBelow, setup.tracksContinuations());
+  }
+
+  /**
+   * Whether the size filter runs wholly after the global solve, on every segment of the volume
+   * (the fragment methods, whose blocks hold few segments), so that a blockwise run filters in
+   * the one-block run's order; otherwise each block filters the segments wholly inside its core
+   * away from the faces and the solve filters the rest (the voxel methods, whose blocks may
+   * hold a small segment per few dozen voxels, too many for one solve).
+   */
+  public static boolean filtersAfterSolve(PartitionConfig config) {
+    return config.minSegmentSize() > 1 && config.method().usesFragments();
   }
 
   private static byte[] union(byte[] a, byte[] b) {

@@ -135,7 +135,7 @@ public class ReducedGraphTest {
       }
       CoreSegments.Result result = CoreSegments.of(grid, layout, block, offsets,
           new SettledPartition(segmentation, unsettled), GridGraph.of(ext, rule, subsampling),
-          true, true);
+          1, true);
       paste(result.provisionalLabels(), block.coreMin(), block.coreShape(), provisional, shape);
       long[] flags = new long[result.continuations().length];
       for (int i = 0; i < flags.length; i++) {

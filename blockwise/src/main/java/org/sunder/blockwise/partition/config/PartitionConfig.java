@@ -55,8 +55,10 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * Watershed's repulsive edges, constrained agglomeration's constrained pairs), and a small
  * segment with only constrained neighbours stays. Under both, two segments that each hold at
  * least {@code minSegmentSize} voxels are never joined, and masked voxels stay 0. In a blockwise
- * run each block filters only segments that lie wholly inside its core away from the faces;
- * the rest is decided after the global solve (see the stitching module's {@code GlobalSolve}).
+ * run the fragment methods filter only after the global solve, over the whole volume's
+ * segments; with the voxel methods each block filters only segments that lie wholly inside its
+ * core away from the faces and the rest is decided after the global solve (see the stitching
+ * module's {@code GlobalSolve}).
  *
  * <p>Extension point: each method is a {@link PartitionMethod} (its JSON name, the keys it
  * takes and their defaults, its checks, its partitioner and its global solver); a new method is

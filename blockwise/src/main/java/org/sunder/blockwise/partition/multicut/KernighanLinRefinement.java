@@ -16,7 +16,11 @@ import org.sunder.blockwise.collections.MaxHeap;
  * also weighs joining A and B outright (gain = the weight between them) and applies whichever
  * is larger, when positive. A sequence stops after {@value #PATIENCE} moves without a new best.
  * Passes repeat until one improves nothing (at most {@value #MAX_PASSES}). The objective never
- * increases: a change is applied only with a positive gain.
+ * increases: a change is applied only with a positive gain. A pass visits the pairs in order of
+ * the summed weight between them and the changed clusters in order of the summed weight inside
+ * them (largest first), so the result does not depend on how the nodes are numbered: a
+ * blockwise run's reduced graph, numbered block by block, takes the path the one-block run's
+ * graph takes.
  *
  * <p>Cost of one pair: {@code O(vol(S) + k·δ·log k)} for the smaller cluster's volume
  * {@code vol(S)}, {@code k} moves and degree {@code δ}. Not thread-safe; one instance per call.
@@ -105,8 +109,8 @@ final class KernighanLinRefinement {
         }
       }
       IntList free = emptyClusters();
-      for (int a = 0; a < n; a++) {
-        if (changed[a] && size[a] >= 2) {
+      for (int a : byInternalWeight(changed)) {
+        if (size[a] >= 2) {
           if (free.size() == 0) {
             free = emptyClusters();
           }
@@ -150,7 +154,79 @@ final class KernighanLinRefinement {
         sorted[distinct++] = sorted[i];
       }
     }
-    return Arrays.copyOf(sorted, distinct);
+    return byWeightBetween(Arrays.copyOf(sorted, distinct));
+  }
+
+  /**
+   * {@code pairs} (ascending) ordered by the summed weight between their two clusters, largest
+   * first; equal weights keep their order. The order depends on the graph's weights, not on how
+   * its nodes are numbered, so the same graph numbered otherwise (a blockwise run's reduced
+   * graph against the one-block fragment graph) takes the same path. O(m + k log k) for m
+   * edges and k pairs.
+   */
+  private long[] byWeightBetween(long[] pairs) {
+    double[] between = new double[pairs.length];
+    for (int x = 0; x < n; x++) {
+      for (int p = offsets[x]; p < offsets[x + 1]; p++) {
+        int a = label[x];
+        int b = label[neighbours[p]];
+        if (a < b) {
+          int at = Arrays.binarySearch(pairs, ((long) a << 32) | b);
+          if (at >= 0) {
+            between[at] += weights[p];
+          }
+        }
+      }
+    }
+    return sortedBy(pairs, between);
+  }
+
+  /**
+   * The changed clusters ordered by the summed weight inside them, largest first (equal sums by
+   * id); see {@link #byWeightBetween}. O(m + k log k).
+   */
+  private int[] byInternalWeight(boolean[] changed) {
+    double[] inside = new double[n];
+    for (int x = 0; x < n; x++) {
+      for (int p = offsets[x]; p < offsets[x + 1]; p++) {
+        if (label[x] == label[neighbours[p]]) {
+          inside[label[x]] += weights[p];
+        }
+      }
+    }
+    int count = 0;
+    for (int a = 0; a < n; a++) {
+      count += changed[a] ? 1 : 0;
+    }
+    long[] ids = new long[count];
+    double[] key = new double[count];
+    count = 0;
+    for (int a = 0; a < n; a++) {
+      if (changed[a]) {
+        key[count] = inside[a];
+        ids[count++] = a;
+      }
+    }
+    long[] sorted = sortedBy(ids, key);
+    int[] out = new int[sorted.length];
+    for (int i = 0; i < out.length; i++) {
+      out[i] = (int) sorted[i];
+    }
+    return out;
+  }
+
+  /** {@code items} ordered by {@code key} descending, equal keys in their given order. */
+  private static long[] sortedBy(long[] items, double[] key) {
+    Integer[] order = new Integer[items.length];
+    for (int i = 0; i < order.length; i++) {
+      order[i] = i;
+    }
+    Arrays.sort(order, (i, j) -> Double.compare(key[j], key[i]));
+    long[] out = new long[items.length];
+    for (int i = 0; i < out.length; i++) {
+      out[i] = items[order[i]];
+    }
+    return out;
   }
 
   /** Ids of the empty clusters, smallest last; one exists while a cluster has two nodes. */
