@@ -79,17 +79,7 @@ public final class IntSetPool {
     int[] p = pages[address >>> PAGE_BITS];
     int base = address & PAGE_MASK;
     int log = meta[m + LOG];
-    int mask = (1 << log) - 1;
-    int stored = value + 1;
-    for (int i = slot(value, log); ; i = (i + 1) & mask) {
-      int x = p[base + i];
-      if (x == stored) {
-        return true;
-      }
-      if (x == EMPTY) {
-        return false;
-      }
-    }
+    return p[base + probe(p, base, log, value)] != EMPTY;
   }
 
   /** Adds {@code value} (0 .. 2^31 - 2) to {@code set}; false if it was there. */
@@ -106,20 +96,16 @@ public final class IntSetPool {
     int[] p = pages[address >>> PAGE_BITS];
     int base = address & PAGE_MASK;
     int log = meta[m + LOG];
-    int mask = (1 << log) - 1;
-    int stored = value + 1;
-    int i = slot(value, log);
-    for (int x; (x = p[base + i]) != EMPTY; i = (i + 1) & mask) {
-      if (x == stored) {
-        return false;
-      }
+    int i = probe(p, base, log, value);
+    if (p[base + i] != EMPTY) {
+      return false;
     }
     int count = meta[m + COUNT] + 1;
     if (count > (3 << log) >>> 2) {
       grow(set);
       insertNew(set, value);
     } else {
-      p[base + i] = stored;
+      p[base + i] = value + 1;
     }
     meta[m + COUNT] = count;
     return true;
@@ -136,12 +122,9 @@ public final class IntSetPool {
     int base = address & PAGE_MASK;
     int log = meta[m + LOG];
     int mask = (1 << log) - 1;
-    int stored = value + 1;
-    int i = slot(value, log);
-    for (int x; (x = p[base + i]) != stored; i = (i + 1) & mask) {
-      if (x == EMPTY) {
-        return false;
-      }
+    int i = probe(p, base, log, value);
+    if (p[base + i] == EMPTY) {
+      return false;
     }
     // backward shift: move later entries of the run into the hole unless already home
     int hole = i;
@@ -202,6 +185,17 @@ public final class IntSetPool {
       total += pages[i].length;
     }
     return total;
+  }
+
+  /** The slot of {@code value} in the table at {@code base}, or the empty slot ending its run. */
+  private static int probe(int[] p, int base, int log, int value) {
+    int mask = (1 << log) - 1;
+    int stored = value + 1;
+    int i = slot(value, log);
+    for (int x; (x = p[base + i]) != stored && x != EMPTY; i = (i + 1) & mask) {
+      // linear probing
+    }
+    return i;
   }
 
   private static int slot(int value, int log) {
