@@ -130,6 +130,7 @@ class BadInputBatteryTest {
     if (source == null) {
       assertEquals(before, checksums(dir), "nothing written or changed");
     } else {
+      awaitNoRunningTasks();
       Map<String, String> after = checksums(dir);
       before.forEach((file, sum) -> assertEquals(sum, after.get(file), file + " unchanged"));
     }
