@@ -31,12 +31,14 @@ import org.sunder.blockwise.partition.PartitionConfigException;
  */
 @JsonInclude(JsonInclude.Include.NON_NULL)
 public final class FragmentOptions implements Serializable {
-  private static final long serialVersionUID = 1L;
+  /** 2: tiles. */
+  private static final long serialVersionUID = 2L;
 
   private final double boundaryThreshold;
   private final double seedSmoothing;
   private final double[] voxelSize;
   private final boolean perSlice;
+  private final int[] tileShape;
 
   /**
    * Options with {@code voxelSize} in memory order (copied; null = isotropic).
@@ -45,6 +47,11 @@ public final class FragmentOptions implements Serializable {
    */
   public FragmentOptions(double boundaryThreshold, double seedSmoothing, double[] voxelSize,
       boolean perSlice) {
+    this(boundaryThreshold, seedSmoothing, voxelSize, perSlice, null);
+  }
+
+  private FragmentOptions(double boundaryThreshold, double seedSmoothing, double[] voxelSize,
+      boolean perSlice, int[] tileShape) {
     if (!(boundaryThreshold > 0 && boundaryThreshold <= 1)) {
       throw invalid("fragments.boundaryThreshold: " + boundaryThreshold
           + "; expected a number in (0, 1]");
@@ -69,6 +76,30 @@ public final class FragmentOptions implements Serializable {
     this.seedSmoothing = seedSmoothing;
     this.voxelSize = voxelSize;
     this.perSlice = perSlice;
+    this.tileShape = tileShape == null ? null : tileShape.clone();
+  }
+
+  /**
+   * The same options with fragments confined to the tiles of a grid of {@code tileShape}
+   * (memory order) over the volume, see {@link FragmentTiles}; null for one tile. Not part of
+   * the JSON form: a run sets it to its block shape, so that no fragment crosses a block face
+   * and every block computes the fragments of its core as any other run on the same grid would.
+   */
+  public FragmentOptions tiledBy(int[] tileShape) {
+    if (tileShape != null) {
+      for (int t : tileShape) {
+        if (t <= 0) {
+          throw new IllegalArgumentException("tile shape " + Arrays.toString(tileShape));
+        }
+      }
+    }
+    return new FragmentOptions(boundaryThreshold, seedSmoothing, voxelSize, perSlice, tileShape);
+  }
+
+  /** A copy of the tile shape (memory order), or null when fragments are not tiled. */
+  @JsonIgnore
+  public int[] tileShape() {
+    return tileShape == null ? null : tileShape.clone();
   }
 
   /** Reads the JSON form; {@code voxelSize} in zyx order; missing keys take their defaults. */
@@ -122,7 +153,7 @@ public final class FragmentOptions implements Serializable {
     if (voxelSize == null) {
       double[] unit = new double[dims];
       Arrays.fill(unit, 1.0);
-      return new FragmentOptions(boundaryThreshold, seedSmoothing, unit, perSlice);
+      return new FragmentOptions(boundaryThreshold, seedSmoothing, unit, perSlice, tileShape);
     }
     if (voxelSize.length != dims) {
       throw invalid("fragments.voxelSize: " + voxelSize.length + " values but the data has "
@@ -186,19 +217,21 @@ public final class FragmentOptions implements Serializable {
   public boolean equals(Object other) {
     return other instanceof FragmentOptions o && o.boundaryThreshold == boundaryThreshold
         && o.seedSmoothing == seedSmoothing && Arrays.equals(o.voxelSize, voxelSize)
-        && o.perSlice == perSlice;
+        && o.perSlice == perSlice && Arrays.equals(o.tileShape, tileShape);
   }
 
   @Override
   public int hashCode() {
     return Arrays.hashCode(new double[] {boundaryThreshold, seedSmoothing}) * 961
-        + Arrays.hashCode(voxelSize) * 31 + Boolean.hashCode(perSlice);
+        + Arrays.hashCode(voxelSize) * 31 + Boolean.hashCode(perSlice) * 7
+        + Arrays.hashCode(tileShape);
   }
 
   @Override
   public String toString() {
     return "FragmentOptions[boundaryThreshold=" + boundaryThreshold + ", seedSmoothing="
         + seedSmoothing + ", voxelSize(xyz)=" + Arrays.toString(voxelSize) + ", perSlice="
-        + perSlice + "]";
+        + perSlice + (tileShape == null ? "" : ", tileShape(xyz)=" + Arrays.toString(tileShape))
+        + "]";
   }
 }
