@@ -64,7 +64,8 @@ public final class PartitionTask {
   static CoreSegments.Result partition(StitchingSetup setup, Block block,
       AffinityBlock affinities, PartitionConfig config) {
     byte[] open = CoreSegments.openVoxels(setup.grid(), block, setup.offsets());
-    Partitioner partitioner = config.withFragmentTiles(setup.grid().blockShape()).create();
+    Partitioner partitioner = config.withFragmentTiles(setup.grid().blockShape(),
+        setup.grid().halo()).create();
     boolean filterAfterSolve = filtersAfterSolve(config);
     SettledPartition partition;
     if (partitioner instanceof SizeFilteredPartitioner filtered) {

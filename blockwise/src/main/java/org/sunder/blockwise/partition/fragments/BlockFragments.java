@@ -48,7 +48,7 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics)
     int[] tiles = fitted.tileShape();
     return tiles == null ? watershed.label(boundary, shape, block.maskOrNull())
         : FragmentTiles.label(watershed, boundary, shape, block.maskOrNull(), block.globalMin(),
-            tiles);
+            tiles, fitted.tileMargin());
   }
 
   /**

@@ -20,7 +20,7 @@ final class FragmentTiles {
    * 0 for masked voxels.
    */
   static int[] label(WatershedFragments watershed, float[] boundary, int[] shape, byte[] mask,
-      long[] globalMin, int[] tileShape) {
+      long[] globalMin, int[] tileShape, int[] margin) {
     int n = shape.length;
     if (tileShape.length != n || globalMin.length != n) {
       throw new IllegalArgumentException("tile shape " + Arrays.toString(tileShape)
@@ -36,22 +36,32 @@ final class FragmentTiles {
     int[] piece = new int[n];
     int[] pieceMin = new int[n];
     int[] pieceShape = new int[n];
+    int[] contextMin = new int[n];
+    int[] contextShape = new int[n];
+    int[] inContext = new int[n];
     int used = 0;
     while (true) {
       for (int d = 0; d < n; d++) {
         pieceMin[d] = starts[d][piece[d]];
         int end = piece[d] + 1 < starts[d].length ? starts[d][piece[d] + 1] : shape[d];
         pieceShape[d] = end - pieceMin[d];
+        contextMin[d] = Math.max(0, pieceMin[d] - margin[d]);
+        contextShape[d] = Math.min(shape[d], end + margin[d]) - contextMin[d];
+        inContext[d] = pieceMin[d] - contextMin[d];
       }
-      float[] pieceBoundary = new float[VoxelBox.size(pieceShape)];
-      byte[] pieceMask = mask == null ? null : new byte[pieceBoundary.length];
-      copy(pieceMin, pieceShape, strides, (from, to, length) -> {
-        System.arraycopy(boundary, from, pieceBoundary, to, length);
+      float[] contextBoundary = new float[VoxelBox.size(contextShape)];
+      byte[] contextMask = mask == null ? null : new byte[contextBoundary.length];
+      copy(contextMin, contextShape, strides, (from, to, length) -> {
+        System.arraycopy(boundary, from, contextBoundary, to, length);
         if (mask != null) {
-          System.arraycopy(mask, from, pieceMask, to, length);
+          System.arraycopy(mask, from, contextMask, to, length);
         }
       });
-      int[] pieceLabels = watershed.label(pieceBoundary, pieceShape, pieceMask);
+      int[] contextLabels = watershed.label(contextBoundary, contextShape, contextMask);
+      int[] pieceLabels = new int[VoxelBox.size(pieceShape)];
+      copy(inContext, pieceShape, VoxelBox.strides(contextShape), (from, to, length) ->
+          System.arraycopy(contextLabels, from, pieceLabels, to, length));
+      WatershedFragments.consecutive(pieceLabels);
       int base = used;
       int largest = 0;
       for (int l : pieceLabels) {

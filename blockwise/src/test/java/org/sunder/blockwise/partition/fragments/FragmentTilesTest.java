@@ -31,11 +31,14 @@ class FragmentTilesTest {
     float[] boundary = boundary(shape, random);
     int[] expected = WATERSHED.label(boundary.clone(), shape, null);
     int[] tiled = FragmentTiles.label(WATERSHED, boundary, shape, null, new long[3],
-        new int[] {20, 14, 7});
+        new int[] {20, 14, 7}, new int[3]);
     assertArrayEquals(expected, tiled);
   }
 
-  /** The property runs rely on: a whole tile gets the same fragments from any box holding it. */
+  /**
+   * The property runs rely on: a tile gets the same fragments from any box that holds it with
+   * its margin (clipped to the volume).
+   */
   @Test
   void aWholeTileHasTheSameFragmentsInEveryBoxThatHoldsIt() {
     Random random = new Random(17);
@@ -44,20 +47,22 @@ class FragmentTilesTest {
       int[] volume = {30, 26, 12};
       float[] boundary = boundary(volume, random);
       int[] tile = {4 + random.nextInt(10), 4 + random.nextInt(10), 2 + random.nextInt(5)};
+      int[] margin = {random.nextInt(4), random.nextInt(4), random.nextInt(2)};
       byte[] mask = new byte[boundary.length];
       for (int i = 0; i < mask.length; i++) {
         mask[i] = (byte) (random.nextInt(50) == 0 ? 0 : 1);
       }
-      int[] whole = FragmentTiles.label(WATERSHED, boundary, volume, mask, new long[3], tile);
+      int[] whole =
+          FragmentTiles.label(WATERSHED, boundary, volume, mask, new long[3], tile, margin);
       long[] min = new long[3];
       int[] shape = new int[3];
       for (int d = 0; d < 3; d++) {
-        min[d] = random.nextInt(volume[d] / 2);
-        shape[d] = 1 + random.nextInt((int) (volume[d] - min[d]));
+        min[d] = random.nextInt(volume[d] / 4);
+        shape[d] = (int) (volume[d] - min[d]) - random.nextInt(volume[d] / 4);
       }
       int[] part = FragmentTiles.label(WATERSHED, crop(boundary, volume, min, shape), shape,
-          crop(mask, volume, min, shape), min, tile);
-      compared += assertSamePartitionOnWholeTiles(whole, volume, part, shape, min, tile);
+          crop(mask, volume, min, shape), min, tile, margin);
+      compared += assertSamePartitionOnWholeTiles(whole, volume, part, shape, min, tile, margin);
       assertNoFragmentCrossesATileFace(whole, volume, tile);
     }
     assertTrue(compared > 1000, compared + " voxels in whole tiles: too few to test anything");
@@ -65,7 +70,7 @@ class FragmentTilesTest {
 
   /** Returns the number of voxels compared. */
   private static int assertSamePartitionOnWholeTiles(int[] whole, int[] volume, int[] part,
-      int[] shape, long[] min, int[] tile) {
+      int[] shape, long[] min, int[] tile, int[] margin) {
     Map<Integer, Integer> forward = new HashMap<>();
     Map<Integer, Integer> backward = new HashMap<>();
     int[] c = new int[3];
@@ -75,8 +80,9 @@ class FragmentTilesTest {
       for (int d = 0; d < 3; d++) {
         long g = min[d] + c[d];
         long tileLo = g / tile[d] * tile[d];
-        long tileHi = Math.min(tileLo + tile[d], volume[d]);
-        inWholeTile &= tileLo >= min[d] && tileHi <= min[d] + shape[d];
+        long contextLo = Math.max(0, tileLo - margin[d]);
+        long contextHi = Math.min(tileLo + tile[d] + margin[d], volume[d]);
+        inWholeTile &= contextLo >= min[d] && contextHi <= min[d] + shape[d];
       }
       if (inWholeTile) {
         int w = whole[(int) (min[0] + c[0] + (min[1] + c[1]) * volume[0]
