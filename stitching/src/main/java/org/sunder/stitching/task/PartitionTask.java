@@ -32,7 +32,8 @@ public final class PartitionTask {
     Block block = setup.grid().block(blockIndex);
     AffinityBlock affinities =
         AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
-    CoreSegments.Result result = partition(setup, block, affinities, setup.partition());
+    PartitionConfig config = setup.partition();
+    CoreSegments.Result result = partition(setup, block, affinities, config);
     Dataset labels = setup.openLabels();
     int[] shape = block.coreShape();
     long[] dims = new long[shape.length];
@@ -64,8 +65,7 @@ public final class PartitionTask {
   static CoreSegments.Result partition(StitchingSetup setup, Block block,
       AffinityBlock affinities, PartitionConfig config) {
     byte[] open = CoreSegments.openVoxels(setup.grid(), block, setup.offsets());
-    Partitioner partitioner = config.withFragmentTiles(setup.grid().blockShape(),
-        setup.grid().halo()).create();
+    Partitioner partitioner = config.create();
     boolean filterAfterSolve = filtersAfterSolve(config);
     SettledPartition partition;
     if (partitioner instanceof SizeFilteredPartitioner filtered) {

@@ -289,19 +289,6 @@ public final class PartitionConfig implements java.io.Serializable {
     return fragments;
   }
 
-  /**
-   * This configuration with its fragments confined to tiles of {@code tileShape} widened by
-   * {@code margin} (memory order, see {@link FragmentOptions#tiledBy}); itself for a method
-   * without fragments.
-   */
-  public PartitionConfig withFragmentTiles(int[] tileShape, int[] margin) {
-    if (fragments == null) {
-      return this;
-    }
-    return new PartitionConfig(method, linkage, constraints, threshold, weights, subsampling,
-        fragments.tiledBy(tileShape, margin), minSegmentSize, minSegmentSize > 1 ? sizeFilter : null);
-  }
-
   /** Segments with fewer voxels are merged away (see the class comment); 0 or 1 = off. */
   @JsonProperty("minSegmentSize")
   public int minSegmentSize() {

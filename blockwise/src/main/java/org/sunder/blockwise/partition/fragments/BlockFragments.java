@@ -44,11 +44,7 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics)
             fitted.sliceAxis())
         : BoundaryMap.of(block.floatValuesOrNull(), shape, offsets, block.maskOrNull(),
             fitted.sliceAxis());
-    WatershedFragments watershed = new WatershedFragments(fitted);
-    int[] tiles = fitted.tileShape();
-    return tiles == null ? watershed.label(boundary, shape, block.maskOrNull())
-        : FragmentTiles.label(watershed, boundary, shape, block.maskOrNull(), block.globalMin(),
-            tiles, fitted.tileMargin());
+    return new WatershedFragments(fitted).label(boundary, shape, block.maskOrNull());
   }
 
   /**

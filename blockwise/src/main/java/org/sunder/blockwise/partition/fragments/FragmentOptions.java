@@ -31,15 +31,12 @@ import org.sunder.blockwise.partition.PartitionConfigException;
  */
 @JsonInclude(JsonInclude.Include.NON_NULL)
 public final class FragmentOptions implements Serializable {
-  /** 2: tiles. */
-  private static final long serialVersionUID = 2L;
+  private static final long serialVersionUID = 1L;
 
   private final double boundaryThreshold;
   private final double seedSmoothing;
   private final double[] voxelSize;
   private final boolean perSlice;
-  private final int[] tileShape;
-  private final int[] tileMargin;
 
   /**
    * Options with {@code voxelSize} in memory order (copied; null = isotropic).
@@ -48,11 +45,6 @@ public final class FragmentOptions implements Serializable {
    */
   public FragmentOptions(double boundaryThreshold, double seedSmoothing, double[] voxelSize,
       boolean perSlice) {
-    this(boundaryThreshold, seedSmoothing, voxelSize, perSlice, null, null);
-  }
-
-  private FragmentOptions(double boundaryThreshold, double seedSmoothing, double[] voxelSize,
-      boolean perSlice, int[] tileShape, int[] tileMargin) {
     if (!(boundaryThreshold > 0 && boundaryThreshold <= 1)) {
       throw invalid("fragments.boundaryThreshold: " + boundaryThreshold
           + "; expected a number in (0, 1]");
@@ -77,43 +69,6 @@ public final class FragmentOptions implements Serializable {
     this.seedSmoothing = seedSmoothing;
     this.voxelSize = voxelSize;
     this.perSlice = perSlice;
-    this.tileShape = tileShape == null ? null : tileShape.clone();
-    this.tileMargin = tileMargin == null ? null : tileMargin.clone();
-  }
-
-  /**
-   * The same options with fragments confined to the tiles of a grid of {@code tileShape}
-   * (memory order) over the volume, each tile's fragments taken from the watershed of the tile
-   * widened by {@code margin} voxels per axis, see {@link FragmentTiles}. Not part of the JSON
-   * form: a run sets the tiles to its block shape and the margin to its halo, so that no
-   * fragment crosses a block face and every block computes the fragments of its core as any
-   * other run on the same grid would.
-   */
-  public FragmentOptions tiledBy(int[] tileShape, int[] margin) {
-    if (tileShape.length != margin.length) {
-      throw new IllegalArgumentException("tile shape " + Arrays.toString(tileShape)
-          + " and margin " + Arrays.toString(margin) + " differ in length");
-    }
-    for (int d = 0; d < tileShape.length; d++) {
-      if (tileShape[d] <= 0 || margin[d] < 0) {
-        throw new IllegalArgumentException("tile shape " + Arrays.toString(tileShape)
-            + ", margin " + Arrays.toString(margin));
-      }
-    }
-    return new FragmentOptions(boundaryThreshold, seedSmoothing, voxelSize, perSlice, tileShape,
-        margin);
-  }
-
-  /** A copy of the tile shape (memory order), or null when fragments are not tiled. */
-  @JsonIgnore
-  public int[] tileShape() {
-    return tileShape == null ? null : tileShape.clone();
-  }
-
-  /** A copy of the tiles' margin (memory order), or null when fragments are not tiled. */
-  @JsonIgnore
-  public int[] tileMargin() {
-    return tileMargin == null ? null : tileMargin.clone();
   }
 
   /** Reads the JSON form; {@code voxelSize} in zyx order; missing keys take their defaults. */
@@ -167,8 +122,7 @@ public final class FragmentOptions implements Serializable {
     if (voxelSize == null) {
       double[] unit = new double[dims];
       Arrays.fill(unit, 1.0);
-      return new FragmentOptions(boundaryThreshold, seedSmoothing, unit, perSlice, tileShape,
-          tileMargin);
+      return new FragmentOptions(boundaryThreshold, seedSmoothing, unit, perSlice);
     }
     if (voxelSize.length != dims) {
       throw invalid("fragments.voxelSize: " + voxelSize.length + " values but the data has "
@@ -232,23 +186,19 @@ public final class FragmentOptions implements Serializable {
   public boolean equals(Object other) {
     return other instanceof FragmentOptions o && o.boundaryThreshold == boundaryThreshold
         && o.seedSmoothing == seedSmoothing && Arrays.equals(o.voxelSize, voxelSize)
-        && o.perSlice == perSlice && Arrays.equals(o.tileShape, tileShape)
-        && Arrays.equals(o.tileMargin, tileMargin);
+        && o.perSlice == perSlice;
   }
 
   @Override
   public int hashCode() {
     return Arrays.hashCode(new double[] {boundaryThreshold, seedSmoothing}) * 961
-        + Arrays.hashCode(voxelSize) * 31 + Boolean.hashCode(perSlice) * 7
-        + Arrays.hashCode(tileShape) * 3 + Arrays.hashCode(tileMargin);
+        + Arrays.hashCode(voxelSize) * 31 + Boolean.hashCode(perSlice);
   }
 
   @Override
   public String toString() {
     return "FragmentOptions[boundaryThreshold=" + boundaryThreshold + ", seedSmoothing="
         + seedSmoothing + ", voxelSize(xyz)=" + Arrays.toString(voxelSize) + ", perSlice="
-        + perSlice + (tileShape == null ? "" : ", tileShape(xyz)=" + Arrays.toString(tileShape)
-            + ", tileMargin(xyz)=" + Arrays.toString(tileMargin))
-        + "]";
+        + perSlice + "]";
   }
 }
