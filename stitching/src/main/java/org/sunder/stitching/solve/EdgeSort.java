@@ -5,10 +5,11 @@ import org.sunder.blockwise.partition.mutex.MutexWatershed;
 
 /**
  * The orders the solve takes {@link SolveEdges} in, as stable radix sorts of edge indices
- * ({@link RadixSort#order}): each key column is read once in the current order and then sorted
- * by passes that read and write memory in order, instead of a comparison sort whose every
- * comparison reads several arrays at two random indices. {@code O(m (c + b))} for {@code m}
- * edges, {@code c} key columns and {@code b} varying key bytes; 24 bytes per edge while it runs.
+ * ({@link RadixSort#order}): the first key column is read in index order and sorted by passes
+ * that read and write memory in order, and a later column is read only for the edges that tie
+ * on every column before it; a comparison sort instead reads several arrays at two random
+ * indices per comparison. {@code O(m (c + b))} at worst for {@code m} edges, {@code c} key
+ * columns and {@code b} varying key bytes; 24 bytes per edge while it runs.
  */
 final class EdgeSort {
   private EdgeSort() {}
