@@ -34,12 +34,25 @@ public final class RadixSort {
    * @throws IllegalArgumentException when the arrays' lengths differ
    */
   public static void sortByKeyUnsigned(long[] keys, int[] values) {
-    int n = keys.length;
-    if (values.length != n) {
-      throw new IllegalArgumentException("radix sort: " + n + " keys but " + values.length
-          + " values");
+    if (values.length != keys.length) {
+      throw new IllegalArgumentException("radix sort: " + keys.length + " keys but "
+          + values.length + " values");
     }
-    new Scratch(n).sortRange(keys, values, 0, n);
+    sortByKeyUnsigned(keys, values, keys.length);
+  }
+
+  /**
+   * {@link #sortByKeyUnsigned(long[], int[])} of the first {@code size} keys and values; the
+   * rest of the arrays is left as it is. Two scratch arrays of {@code size} keys and values.
+   *
+   * @throws IllegalArgumentException when {@code size} is negative or exceeds either array
+   */
+  public static void sortByKeyUnsigned(long[] keys, int[] values, int size) {
+    if (size < 0 || size > keys.length || size > values.length) {
+      throw new IllegalArgumentException("radix sort: size " + size + " outside 0.."
+          + Math.min(keys.length, values.length));
+    }
+    new Scratch(size).sortRange(keys, values, 0, size);
   }
 
   /**

@@ -62,6 +62,15 @@ class RadixSortTest {
   }
 
   @Test
+  void prefixSortLeavesTheRestAlone() {
+    long[] keys = {5, 3, 5, 1, 9, 0};
+    int[] values = {0, 1, 2, 3, 4, 5};
+    RadixSort.sortByKeyUnsigned(keys, values, 4);
+    assertArrayEquals(new long[] {1, 3, 5, 5, 9, 0}, keys);
+    assertArrayEquals(new int[] {3, 1, 0, 2, 4, 5}, values);
+  }
+
+  @Test
   void orderOfColumnsMatchesTheJdkStableSortWithTies() {
     // reference: java.util.Arrays.sort(T[], Comparator), stable by its specification; few
     // distinct values per column, so most comparisons tie on some columns and many on all
@@ -152,6 +161,9 @@ class RadixSortTest {
     IllegalArgumentException lengths = assertThrows(IllegalArgumentException.class,
         () -> RadixSort.sortByKeyUnsigned(new long[3], new int[2]));
     assertTrue(lengths.getMessage().contains("3 keys but 2 values"), lengths.getMessage());
+    IllegalArgumentException size = assertThrows(IllegalArgumentException.class,
+        () -> RadixSort.sortByKeyUnsigned(new long[3], new int[2], 3));
+    assertTrue(size.getMessage().contains("size 3 outside 0..2"), size.getMessage());
     IllegalArgumentException negative = assertThrows(IllegalArgumentException.class,
         () -> RadixSort.order(-1, i -> i));
     assertTrue(negative.getMessage().contains("-1 indices"), negative.getMessage());

@@ -34,11 +34,7 @@ record PartNodes(long[] nodes, int[] iu, int[] iv) {
         ends[count++] = 2 * e + 1;
       }
     }
-    if (count < keys.length) {
-      keys = Arrays.copyOf(keys, count);
-      ends = Arrays.copyOf(ends, count);
-    }
-    RadixSort.sortByKeyUnsigned(keys, ends);
+    RadixSort.sortByKeyUnsigned(keys, ends, count);
     int[] iu = new int[m];
     int[] iv = new int[m];
     Arrays.fill(iu, -1);
