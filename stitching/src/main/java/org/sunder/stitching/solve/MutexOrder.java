@@ -26,8 +26,11 @@ final class MutexOrder {
     return edges.compareKeys(a, b);
   }
 
-  /** The edge indices in the Mutex Watershed's order; O(m log m). */
+  /**
+   * The edge indices in the Mutex Watershed's order, equal edges in index order; a radix sort
+   * ({@link EdgeSort#byMutexOrder}), O(m) per varying key byte.
+   */
   static int[] sorted(SolveEdges edges) {
-    return EdgeSort.sorted(edges.size(), (a, b) -> compare(edges, a, b));
+    return EdgeSort.byMutexOrder(edges);
   }
 }

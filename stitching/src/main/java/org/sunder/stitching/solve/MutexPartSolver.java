@@ -40,7 +40,8 @@ import java.util.function.LongPredicate;
  * with it constrains nobody else, so it and its edges leave the graph. A part that holds every
  * end settles everything: the Mutex Watershed itself.
  *
- * <p>O(m log m) for m edges (the sort), union-find and exclusion sets near O(m α(m)) otherwise;
+ * <p>O(m) per varying key byte for m edges (the radix sorts of {@link EdgeSort} and
+ * {@link PartNodes}), union-find and exclusion sets near O(m α(m)) otherwise;
  * about 120 bytes per edge while it runs.
  */
 public final class MutexPartSolver implements PartSolver {

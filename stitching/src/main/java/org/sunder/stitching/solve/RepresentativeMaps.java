@@ -33,7 +33,7 @@ public final class RepresentativeMaps implements Serializable {
       System.arraycopy(p.representative(), 0, reps, at, p.merged().length);
       at += p.merged().length;
     }
-    int[] order = EdgeSort.sorted(total, (a, b) -> Long.compare(nodes[a], nodes[b]));
+    int[] order = EdgeSort.byValue(nodes);
     long[] sortedNodes = new long[total];
     long[] sortedReps = new long[total];
     for (int i = 0; i < total; i++) {

@@ -123,7 +123,7 @@ public final class SolveEdges implements Serializable {
    * copy with their own end relabelled to its representative, the smallest provisional id of
    * its cluster, and the other end as they received it. Representatives only decrease, so the
    * joined edge takes the smaller value at each end. Returns a new list sorted by key, one edge
-   * per key. O(m log m).
+   * per key. O(m) per varying key byte (a radix sort, {@link EdgeSort#byKey}).
    */
   public SolveEdges joinCopies() {
     int[] order = EdgeSort.byKey(this);

@@ -28,9 +28,11 @@ import org.sunder.stitching.solve.SuperBlocks;
  * <p>Prints per level: parts, distinct edges in, settled, held back, handed up, the largest
  * part, the bytes its task allocated (an upper bound of its working memory), wall seconds and
  * this thread's CPU seconds (level 1's include generating its inputs; CPU time is the fair
- * figure on a shared machine), the parts' own solve seconds and edges per CPU second; then the driver's edges and share of the time, the cost per edge and the
- * ratio of costs per edge between the largest and the smallest size. Where the whole graph fits
- * in memory it also runs the single-level solve and reports whether the partitions are equal.
+ * figure on a shared machine), the parts' own solve seconds and edges per CPU second; then the
+ * driver's edges and share of the time, the cost per edge and the ratio of costs per edge
+ * between the largest and the smallest size. The smallest size runs once first as a warm-up, so
+ * the figures compared are those of compiled code. Where the whole graph fits in memory it also
+ * runs the single-level solve and reports whether the partitions are equal.
  *
  * <p>Arguments (optional): edge counts, comma-separated (default {@code 1e6,1e7,1e8});
  * {@code noisy} (default) or {@code exact}; driver bound as a fraction of the edges (default
@@ -50,6 +52,10 @@ public final class HierarchicalSolveBenchmark {
     boolean exact = args.length > 1 && args[1].equals("exact");
     double boundFraction = args.length > 2 ? Double.parseDouble(args[2]) : 0.06;
     List<double[]> costs = new ArrayList<>();
+    long smallest = (long) Double.parseDouble(sizes[0]);
+    System.out.printf(Locale.ROOT, "warm-up at %d edges (compiles the solve's code; figures"
+        + " not counted)%n", smallest);
+    runOne(smallest, exact, boundFraction);
     for (String size : sizes) {
       long target = (long) Double.parseDouble(size);
       costs.add(new double[] {target, runOne(target, exact, boundFraction)});

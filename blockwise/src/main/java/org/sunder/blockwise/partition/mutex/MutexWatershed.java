@@ -1,5 +1,6 @@
 package org.sunder.blockwise.partition.mutex;
 
+import org.sunder.blockwise.collections.RadixSort;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.SignedGraph;
 import org.sunder.blockwise.partition.Clustering;
@@ -29,6 +30,16 @@ import org.sunder.blockwise.partition.SettledPartition;
  */
 public final class MutexWatershed {
   private MutexWatershed() {}
+
+  /**
+   * The unsigned 64-bit key of a weight in this order: ascending keys take descending
+   * {@code |weight|} ({@link Double#compare}'s order, NaN first), then attractive
+   * ({@code weight > 0}) before the rest. The lowest bit is 1 for the rest.
+   */
+  public static long orderKey(double weight) {
+    long magnitude = Long.MAX_VALUE - Double.doubleToLongBits(Math.abs(weight));
+    return (magnitude << 1) | (weight > 0 ? 0 : 1);
+  }
 
   /** The Mutex Watershed of a voxel grid graph; masked voxels get label 0. */
   public static Segmentation partition(GridGraph graph) {
@@ -74,8 +85,7 @@ public final class MutexWatershed {
     for (int e = 0; e < m; e++) {
       double w = graph.weight(e);
       if (w != 0) {
-        long magnitude = Long.MAX_VALUE - Double.doubleToLongBits(Math.abs(w));
-        keys[i] = (magnitude << 1) | (w > 0 ? 0 : 1);
+        keys[i] = orderKey(w);
         ids[i++] = e;
       }
     }
