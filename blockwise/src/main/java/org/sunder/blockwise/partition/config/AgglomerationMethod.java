@@ -52,6 +52,6 @@ public record AgglomerationMethod() implements PartitionMethod {
   /** {@inheritDoc} (not measured for linkage on the reduced graph; taken as the Mutex Watershed's, whose heap-ordered merging it shares) */
   @Override
   public double solveNanosPerEdge() {
-    return 1570;
+    return MutexWatershedMethod.SOLVE_NANOS_PER_EDGE;
   }
 }
