@@ -28,7 +28,8 @@ import org.sunder.blockwise.synth.TissuePreset;
  * defaults. A variant is only worth adopting when it helps every kind, not one.
  *
  * <p>Arguments (optional, positional): {@code x y z} shape (default
- * {@code TissuePreset.STANDARD_SHAPE}), seeds (comma-separated, default 1,2,3).
+ * {@code TissuePreset.STANDARD_SHAPE}), seeds (comma-separated, default 1,2,3), a regular
+ * expression choosing the variants by name (default all; the default configuration always runs).
  */
 public final class DefaultTuningBenchmark {
   private static final double[] BASELINE_THRESHOLDS = {0.1, 0.15, 0.2, 0.3, 0.5};
@@ -42,6 +43,9 @@ public final class DefaultTuningBenchmark {
     long[] seeds = Arrays.stream((args.length >= 4 ? args[3] : "1,2,3").split(","))
         .mapToLong(Long::parseLong).toArray();
     Map<String, Function<PartitionConfig, PartitionConfig>> variants = variants();
+    if (args.length >= 5) {
+      variants.keySet().removeIf(name -> !name.equals("default") && !name.matches(args[4]));
+    }
     // per variant, per kind: sums of ARE, VOI; per kind: the baseline's sums
     Map<String, double[][]> sums = new LinkedHashMap<>();
     variants.keySet().forEach(v -> sums.put(v, new double[TissuePreset.values().length][2]));
@@ -115,6 +119,9 @@ public final class DefaultTuningBenchmark {
           c.fragments().boundaryThreshold(), sigma * minimum(c.fragments().voxelSize()),
           c.fragments().voxelSize(), c.fragments().perSlice())));
     }
+    variants.put("perSlice flipped", c -> withFragments(c, new FragmentOptions(
+        c.fragments().boundaryThreshold(), c.fragments().seedSmoothing(),
+        c.fragments().voxelSize(), !c.fragments().perSlice())));
     for (double factor : new double[] {0.25, 4}) {
       variants.put("minSegmentSize x" + factor, c -> new PartitionConfig(c.method(), c.linkage(),
           c.constraints(), c.threshold(), c.weights(), c.subsampling(), c.fragments(),
