@@ -83,7 +83,7 @@ public final class RunResolver {
     int[] blockShape;
     if (config.blocks().shape() == null) {
       BlockShapeChoice choice = BlockShapeChoice.choose(volume, chunks, halo, bytesPerVoxel,
-          budget.memoryPerTask(), budget.minBlocks());
+          budget.memoryPerTask(), budget.minBlocks(), budget.cores());
       blockShape = choice.blockShape();
       origin = new BlockShapeOrigin(BlockShapeOrigin.CHOSEN, choice.overhead(),
           choice.limitedBy(), bytesPerVoxel, budget, null);
