@@ -15,8 +15,8 @@ import org.sunder.stitching.task.SeamEdges;
  * part's blocks and the seam edges of the faces that can hold an edge with an end in the part,
  * without assembling the whole reduced graph: the same edges, in the same order and with the
  * same floating-point sums, as the whole graph's edges with an end in the part
- * ({@link HierarchicalSolver#mutexEdges} or {@link HierarchicalSolver#linkageEdges} of the
- * reduced graph, then distributed to the parts).
+ * ({@link HierarchicalSolver#mutexEdges}, {@link HierarchicalSolver#linkageEdges} or
+ * {@link HierarchicalSolver#multicutEdges} of the reduced graph, then distributed to the parts).
  *
  * <p>Which faces: a face owns the voxel edges whose lower end lies in the block below it (see
  * {@link SeamEdges}); the other end lies in a block one step away along every axis at most (no
@@ -81,6 +81,36 @@ public final class PartInputs {
    */
   public static SolveEdges levelOne(BlockGrid grid, SuperBlocks superBlocks, int part,
       boolean linkage, IntFunction<BlockSummary> summaryOf, IntFunction<SeamEdges> seamsOf) {
+    return levelOne(grid, superBlocks, part, linkage ? Rows.LINKAGE : Rows.MUTEX, summaryOf,
+        seamsOf);
+  }
+
+  /** The row format of a part solver's input. */
+  public enum Rows {
+    /** {@link MutexPartSolver}'s: separated pairs, and per pair its largest and smallest weight. */
+    MUTEX,
+    /** {@link LinkagePartSolver}'s: four statistics per pair. */
+    LINKAGE,
+    /**
+     * {@link MulticutPartSolver}'s: per pair its cost, and a joined row per pair with at least
+     * {@link GlobalSolve#MIN_CONTINUED_PAIRS} continued voxel pairs (as
+     * {@link HierarchicalSolver#multicutEdges}).
+     */
+    MULTICUT
+  }
+
+  /**
+   * Level 1's input of {@code part} in the row format {@code rows}: for the Mutex Watershed the
+   * separated pairs of its blocks first, then per pair with an end in the part its rows (and for
+   * the multicut the joined rows of continued pairs with an end in the part, the continued counts
+   * summed over the same faces as the single-level solve's), keyed by provisional ids.
+   *
+   * @param summaryOf reads block {@code b}'s summary (called for the part's blocks only)
+   * @param seamsOf reads face {@code f}'s seam edges (called for the faces named above only)
+   */
+  public static SolveEdges levelOne(BlockGrid grid, SuperBlocks superBlocks, int part,
+      Rows rows, IntFunction<BlockSummary> summaryOf, IntFunction<SeamEdges> seamsOf) {
+    boolean linkage = rows != Rows.MUTEX;
     IdLayout layout = superBlocks.layout();
     List<EdgeStatistics> tables = new ArrayList<>(grid.blockCount() + grid.faceCount());
     List<BlockSummary> own = new ArrayList<>();
@@ -94,12 +124,16 @@ public final class PartInputs {
       }
     }
     EdgeStatistics[] faces = new EdgeStatistics[grid.faceCount()];
+    EdgeStatistics[] continued = new EdgeStatistics[grid.faceCount()];
     Arrays.fill(faces, EdgeStatistics.empty());
+    Arrays.fill(continued, EdgeStatistics.empty());
     for (int b : neighbourhood(grid, superBlocks, part)) {
       for (int axis = 0; axis < grid.gridShape().length; axis++) {
         int f = grid.faceIndex(b, axis);
         if (f >= 0) {
-          faces[f] = seamsOf.apply(f).edges();
+          SeamEdges seam = seamsOf.apply(f);
+          faces[f] = seam.edges();
+          continued[f] = seam.continued();
         }
       }
     }
@@ -122,7 +156,9 @@ public final class PartInputs {
           && superBlocks.partOfBlock(layout.blockOf(b), 1) != part) {
         continue;
       }
-      if (linkage) {
+      if (rows == Rows.MULTICUT) {
+        MulticutPartSolver.addPair(out, a, b, merged.sum(e));
+      } else if (linkage) {
         LinkagePartSolver.addPair(out, a, b, merged.sum(e), merged.count(e), merged.min(e),
             merged.max(e), a, b);
       } else {
@@ -131,6 +167,18 @@ public final class PartInputs {
         }
         if (merged.min(e) < 0) {
           out.add(a, b, merged.min(e), a, b, SolveEdges.MIN);
+        }
+      }
+    }
+    if (rows == Rows.MULTICUT) {
+      EdgeStatistics joined = EdgeStatistics.mergeAll(Arrays.asList(continued));
+      for (int e = 0; e < joined.size(); e++) {
+        long a = joined.u(e);
+        long b = joined.v(e);
+        boolean near = superBlocks.partOfBlock(layout.blockOf(a), 1) == part
+            || superBlocks.partOfBlock(layout.blockOf(b), 1) == part;
+        if (near && joined.count(e) >= GlobalSolve.MIN_CONTINUED_PAIRS) {
+          MulticutPartSolver.addJoined(out, a, b, joined.count(e));
         }
       }
     }
