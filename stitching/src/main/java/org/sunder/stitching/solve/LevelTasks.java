@@ -178,8 +178,8 @@ public final class LevelTasks {
     SuperBlocks superBlocks = superBlocks(setup);
     SolveEdges input;
     if (level == 1) {
-      input = PartInputs.levelOne(setup.grid(), superBlocks, part, rowsOf(config), summaryOf,
-          seamsOf);
+      input = PartInputs.levelOne(setup.grid(), superBlocks, part, rowsOf(config),
+          PartInputs.steps(setup.grid(), setup.offsets()), summaryOf, seamsOf);
     } else {
       SolveEdges all = new SolveEdges(16);
       for (int below : superBlocks.subParts(level, part)) {
