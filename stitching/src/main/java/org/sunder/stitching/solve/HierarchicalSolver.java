@@ -10,7 +10,9 @@ import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 /**
  * A {@link ReducedGraphSolver} that solves the reduced graph level by level over super-blocks
  * ({@link HierarchicalSolve}) when it has more edges than the driver bound, giving the same
- * clusters as the single-level solve of its method.
+ * clusters as the single-level solve of its method (the Mutex Watershed and the linkage
+ * agglomeration), or for the multicut ({@link MulticutPartSolver}) a partition by domain
+ * decomposition close to it.
  */
 public final class HierarchicalSolver implements ReducedGraphSolver {
   private final PartSolver parts;
