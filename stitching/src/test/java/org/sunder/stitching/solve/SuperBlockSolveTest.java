@@ -115,9 +115,10 @@ class SuperBlockSolveTest {
    * The default method's multicut, level by level from per-part inputs, on a blockwise run over
    * synthetic tissue with and without degradation: every level-by-level solve that fits is a
    * partition whose multicut objective on the reduced graph is within 3% of the single-level
-   * one's. Measured at two levels: 99.3% of it undegraded, 98.8% with mild degradation. (Even undegraded tissue gives fragment pairs across objects a
-   * positive summed weight, so a part's multicut need not agree with the whole graph's; the
-   * identity on inputs where they agree is checked in {@link MulticutPartSolverTest}.)
+   * one's. Measured at two levels: 99.3% of it undegraded, 98.8% with mild degradation. (Even
+   * undegraded tissue gives fragment pairs across objects a positive summed weight, so a part's
+   * multicut need not agree with the whole graph's; the identity on inputs where they agree is
+   * checked in {@link MulticutPartSolverTest}.)
    */
   @Test
   void multicutLevelByLevelIsCloseToTheSingleLevelOnTissue() {
