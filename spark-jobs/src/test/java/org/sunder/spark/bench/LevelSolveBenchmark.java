@@ -37,10 +37,15 @@ import org.sunder.stitching.solve.LevelTasks;
  * Arguments: {@code [dir] [bound] [side...]}; the sizes are 64 x side x side (z y x), by default
  * 192 and 384, blocks of 16 x 32 x 32. A scene already in {@code dir} is reused (its finished
  * tasks skipped); a bound the rest does not fit under after the levels is doubled and the solve
- * redone.
+ * redone. The method is the Mutex Watershed, or the one named by the system property
+ * {@value #METHOD_PROPERTY} (a JSON method name, e.g. {@code fragments-multicut}). Also printed:
+ * per level the parts' summed task time over the level's wall time (2 when both cores work the
+ * whole level), and the process's CPU time over the solve stage's wall time.
  */
 public final class LevelSolveBenchmark {
   private static final int[] BLOCK_XYZ = {32, 32, 16};
+  /** The system property naming the partition method. */
+  static final String METHOD_PROPERTY = "sunder.bench.method";
 
   private LevelSolveBenchmark() {}
 
@@ -73,7 +78,8 @@ public final class LevelSolveBenchmark {
       SyntheticScenario.write(Container.create(root, StorageFormat.ZARR), spec,
           ScenarioOptions.defaults().withDegradation(Degradation.moderate(13))
               .withChunkShape(BLOCK_XYZ));
-      Scenes.writeConfig(config, root, BLOCK_XYZ, "{\"method\": \"mutex-watershed\"}", null);
+      Scenes.writeConfig(config, root, BLOCK_XYZ, "{\"method\": \""
+          + System.getProperty(METHOD_PROPERTY, "mutex-watershed") + "\"}", null);
     }
     String json = Files.readString(config).replaceAll(
         "\"solve\":\\s*\\{\"maxDriverEdges\":\\s*[0-9]+\\},\\s*", "");
@@ -84,6 +90,9 @@ public final class LevelSolveBenchmark {
         (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
     long driverAllocated;
     double solveSeconds;
+    com.sun.management.OperatingSystemMXBean os = (com.sun.management.OperatingSystemMXBean)
+        ManagementFactory.getOperatingSystemMXBean();
+    long processCpu;
     while (true) {
       Files.writeString(config, json.replace("\"evaluate\"",
           "\"solve\":{\"maxDriverEdges\":" + bound + "},\"evaluate\""));
@@ -92,6 +101,7 @@ public final class LevelSolveBenchmark {
         new Pipeline(sc, quiet, quiet, false).run(run, List.of(Stage.PARTITION, Stage.SEAMS));
       }
       long allocated = threads.getCurrentThreadAllocatedBytes();
+      processCpu = os.getProcessCpuTime();
       long start = System.nanoTime();
       try (PreparedRun run = RunLoader.prepare(config, null, false)) {
         new Pipeline(sc, quiet, quiet, false).run(run, List.of(Stage.SOLVE));
@@ -102,6 +112,7 @@ public final class LevelSolveBenchmark {
         continue;
       }
       solveSeconds = (System.nanoTime() - start) / 1e9;
+      processCpu = os.getProcessCpuTime() - processCpu;
       driverAllocated = threads.getCurrentThreadAllocatedBytes() - allocated;
       break;
     }
@@ -136,8 +147,9 @@ public final class LevelSolveBenchmark {
       levelEdges += edges;
       levelTaskSeconds += taskSeconds;
       System.out.printf(Locale.ROOT, "  level %d: %d tasks, %d edges, wall %.2f s, %.0f edges/s"
-          + " of task time (%.0f ns per edge), task peak allocation %.1f MB%n", level, parts,
-          edges, wall(up), edges / taskSeconds, 1e9 * taskSeconds / edges, maxAllocated / 1e6);
+          + " of task time (%.0f ns per edge), task peak allocation %.1f MB, task time over"
+          + " wall %.2f%n", level, parts, edges, wall(up), edges / taskSeconds,
+          1e9 * taskSeconds / edges, maxAllocated / 1e6, taskSeconds / wall(up));
     }
     LevelTasks.DriverRecord d = codec.decode(solve.step("driver").read(0),
         LevelTasks.DriverRecord.class, "");
@@ -149,6 +161,9 @@ public final class LevelSolveBenchmark {
         + " thread allocated %.1f MB over the stage (%d reduced-graph pairs: %.1f bytes per"
         + " pair)%n", solveSeconds, 1e9 * levelTaskSeconds / levelEdges, driverAllocated / 1e6,
         pairs, (double) driverAllocated / pairs);
+    System.out.printf(Locale.ROOT, "  solve stage: process CPU %.2f s over %.2f s wall (%.2f"
+        + " cores busy on average)%n", processCpu / 1e9, solveSeconds,
+        processCpu / 1e9 / solveSeconds);
   }
 
   private static double downWall(StageLedger solve) {

@@ -108,9 +108,11 @@ class PipelineIntegrationTest {
   /**
    * With solve.maxDriverEdges below the reduced graph's pairs, the Mutex Watershed solves level
    * by level over super-blocks (64 blocks, 8 level-1 parts) and writes the same chunk bytes as
-   * the single-level solve; the multicut gets a clear error. (The mean agglomeration's parts
-   * settle too little on this small scene for any bound to fit after the levels; its identity
-   * with the single-level solve is checked in stitching's SuperBlockSolveTest.)
+   * the single-level solve; fragment agglomeration, which has no level-by-level solve, gets a
+   * clear error (the multicut's level-by-level solve is checked in LevelResumeTest). (The mean
+   * agglomeration's parts settle too little on this small scene for any bound to fit after the
+   * levels; its identity with the single-level solve is checked in stitching's
+   * SuperBlockSolveTest.)
    */
   @Test
   void levelByLevelSolveWritesTheSingleLevelBytes(@TempDir Path dir) throws Exception {
@@ -150,16 +152,16 @@ class PipelineIntegrationTest {
       }
       assertTrue(leveled, method + ": no bound made a level");
     }
-    Scenes.Scene scene = Scenes.write(dir.resolve("multicut"), StorageFormat.ZARR,
-        Degradation.moderate(13), smallBlocks, "{\"method\": \"fragments-multicut\"}");
+    Scenes.Scene scene = Scenes.write(dir.resolve("fragments"), StorageFormat.ZARR,
+        Degradation.moderate(13), smallBlocks, "{\"method\": \"fragments-agglomeration\"}");
     String json = java.nio.file.Files.readString(scene.config());
     java.nio.file.Files.writeString(scene.config(), json.replace("\"evaluate\"",
         "\"solve\": {\"maxDriverEdges\": 5}, \"evaluate\""));
-    CliRun multicut = CliRun.with(SPARK.source(), "run",
+    CliRun fragments = CliRun.with(SPARK.source(), "run",
         scene.config().toString());
-    assertEquals(2, multicut.exitCode(), multicut.err());
-    assertTrue(multicut.err().contains("fragments-multicut solve needs the whole reduced graph"),
-        multicut.err());
+    assertEquals(2, fragments.exitCode(), fragments.err());
+    assertTrue(fragments.err().contains(
+        "fragments-agglomeration solve needs the whole reduced graph"), fragments.err());
   }
 
   @Test

@@ -30,7 +30,8 @@ import org.sunder.blockwise.SunderException;
  *   long[m]   keyU       (the edge's key, see {@link SolveEdges})
  *   long[m]   keyV
  *   byte[m]   kind       (Mutex Watershed edges: 0 max, 1 min, 2 separated; linkage pair
- *                         rows: 3 sum, 4 count, 5 min, 6 max, 7 constrained)
+ *                         rows: 3 sum, 4 count, 5 min, 6 max, 7 constrained; multicut
+ *                         rows: 8 cost, 9 joined)
  *   long      CRC-32 of every byte before it
  * </pre>
  * 41 bytes per edge plus 24. Written to a temporary file in the same directory and renamed into
@@ -150,8 +151,9 @@ public final class EdgeFile {
       }
       SolveEdges edges = new SolveEdges(m);
       for (int e = 0; e < m; e++) {
-        if (kind[e] < SolveEdges.MAX || kind[e] > LinkagePartSolver.CONSTRAINED_PAIR) {
-          throw bad(file, "edge " + e + " has kind " + kind[e] + ", expected 0 to 7");
+        if (kind[e] < SolveEdges.MAX || kind[e] > MulticutPartSolver.JOINED) {
+          throw bad(file, "edge " + e + " has kind " + kind[e] + ", expected 0 to "
+              + MulticutPartSolver.JOINED);
         }
         edges.add(u[e], v[e], w[e], ku[e], kv[e], kind[e]);
       }

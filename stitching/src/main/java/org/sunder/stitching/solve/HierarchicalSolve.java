@@ -165,8 +165,9 @@ public final class HierarchicalSolve {
   }
 
   /**
-   * For a method whose solve is not hierarchical (the multicut): a clear error when the reduced
-   * graph does not fit under the driver bound.
+   * For a method whose solve is not hierarchical (fragment agglomeration, a multicut on a
+   * linkage other than the sum, a size filter): a clear error when the reduced graph does not
+   * fit under the driver bound.
    *
    * @throws SunderException (INVALID_CONFIG) naming the method, the edge count and the bound
    */
@@ -175,8 +176,9 @@ public final class HierarchicalSolve {
       throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + method + " solve needs the"
           + " whole reduced graph on the driver: " + edges + " edges, more than"
           + " solve.maxDriverEdges = " + maxDriverEdges + ". Raise the bound (about 150 bytes"
-          + " of driver memory per edge), or use mutex-watershed or agglomeration, whose solve"
-          + " runs level by level over super-blocks");
+          + " of driver memory per edge), or use mutex-watershed, agglomeration or"
+          + " fragments-multicut with linkage sum, without minSegmentSize, whose solve runs"
+          + " level by level over super-blocks");
     }
   }
 

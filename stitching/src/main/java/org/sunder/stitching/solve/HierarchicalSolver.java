@@ -10,7 +10,9 @@ import org.sunder.blockwise.partition.mutex.MutexWatershedSolver;
 /**
  * A {@link ReducedGraphSolver} that solves the reduced graph level by level over super-blocks
  * ({@link HierarchicalSolve}) when it has more edges than the driver bound, giving the same
- * clusters as the single-level solve of its method.
+ * clusters as the single-level solve of its method (the Mutex Watershed and the linkage
+ * agglomeration), or for the multicut ({@link MulticutPartSolver}) a partition by domain
+ * decomposition close to it.
  */
 public final class HierarchicalSolver implements ReducedGraphSolver {
   private final PartSolver parts;
@@ -41,7 +43,7 @@ public final class HierarchicalSolver implements ReducedGraphSolver {
   @Override
   public int[] clusters(SegmentGraph graph) {
     SolveEdges edges = parts instanceof LinkagePartSolver ? linkageEdges(graph)
-        : mutexEdges(graph);
+        : parts instanceof MulticutPartSolver ? multicutEdges(graph) : mutexEdges(graph);
     last = HierarchicalSolve.run(superBlocks, edges, maxDriverEdges, parts, workDir);
     long[] nodeIds = graph.nodeIds();
     int[] clusters = new int[nodeIds.length];
@@ -66,6 +68,32 @@ public final class HierarchicalSolver implements ReducedGraphSolver {
       long b = ids[(int) edges.v(e)];
       LinkagePartSolver.addPair(out, a, b, edges.sum(e), edges.count(e), edges.min(e),
           edges.max(e), a, b);
+    }
+    return out;
+  }
+
+  /**
+   * The pairs of a reduced graph as {@link MulticutPartSolver} reads them: per pair its cost
+   * (summed weights, the single-level multicut's cost), and for a {@link ReducedGraph} a joined
+   * row per pair with at least {@link GlobalSolve#MIN_CONTINUED_PAIRS} continued voxel pairs
+   * (the pairs the single-level solve joins first); keyed by provisional ids. O(p).
+   */
+  public static SolveEdges multicutEdges(SegmentGraph graph) {
+    long[] ids = graph.nodeIds();
+    EdgeStatistics edges = graph.edges();
+    SolveEdges out = new SolveEdges(edges.size());
+    for (int e = 0; e < edges.size(); e++) {
+      MulticutPartSolver.addPair(out, ids[(int) edges.u(e)], ids[(int) edges.v(e)],
+          edges.sum(e));
+    }
+    if (graph instanceof ReducedGraph reduced) {
+      EdgeStatistics continued = reduced.continued();
+      for (int e = 0; e < continued.size(); e++) {
+        if (continued.count(e) >= GlobalSolve.MIN_CONTINUED_PAIRS) {
+          MulticutPartSolver.addJoined(out, ids[(int) continued.u(e)],
+              ids[(int) continued.v(e)], continued.count(e));
+        }
+      }
     }
     return out;
   }

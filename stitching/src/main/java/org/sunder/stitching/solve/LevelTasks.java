@@ -103,16 +103,26 @@ public final class LevelTasks {
 
   /** The part solver of the run's method. */
   public static PartSolver partSolver(PartitionConfig config) {
+    if (SuperBlockSolve.isMulticut(config)) {
+      return new MulticutPartSolver();
+    }
     return config.isMutexWatershed() ? new MutexPartSolver()
         : new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());
   }
 
+  /** The row format of the run's part solver. */
+  static PartInputs.Rows rowsOf(PartitionConfig config) {
+    return SuperBlockSolve.isMulticut(config) ? PartInputs.Rows.MULTICUT
+        : config.isMutexWatershed() ? PartInputs.Rows.MUTEX : PartInputs.Rows.LINKAGE;
+  }
+
   /**
    * Edges (rows) of the solve for {@code pairs} reduced-graph pairs: a pair is at most 2 Mutex
-   * Watershed rows (its largest and smallest weight) or 4 linkage rows; saturates.
+   * Watershed rows (its largest and smallest weight), 4 linkage rows or 1 multicut row (its
+   * cost; the few continued pairs add a joined row each, left out of the bound); saturates.
    */
   public static long rows(PartitionConfig config, long pairs) {
-    int perPair = config.isMutexWatershed() ? 2 : 4;
+    int perPair = SuperBlockSolve.isMulticut(config) ? 1 : config.isMutexWatershed() ? 2 : 4;
     return Math.multiplyHigh(pairs, perPair) != 0 || pairs * perPair < 0 ? Long.MAX_VALUE
         : pairs * perPair;
   }
@@ -168,8 +178,8 @@ public final class LevelTasks {
     SuperBlocks superBlocks = superBlocks(setup);
     SolveEdges input;
     if (level == 1) {
-      input = PartInputs.levelOne(setup.grid(), superBlocks, part,
-          !config.isMutexWatershed(), summaryOf, seamsOf);
+      input = PartInputs.levelOne(setup.grid(), superBlocks, part, rowsOf(config),
+          PartInputs.steps(setup.grid(), setup.offsets()), summaryOf, seamsOf);
     } else {
       SolveEdges all = new SolveEdges(16);
       for (int below : superBlocks.subParts(level, part)) {

@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.function.IntFunction;
 import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.stitching.task.BlockSummary;
@@ -15,25 +16,54 @@ import org.sunder.stitching.task.SeamEdges;
  * part's blocks and the seam edges of the faces that can hold an edge with an end in the part,
  * without assembling the whole reduced graph: the same edges, in the same order and with the
  * same floating-point sums, as the whole graph's edges with an end in the part
- * ({@link HierarchicalSolver#mutexEdges} or {@link HierarchicalSolver#linkageEdges} of the
- * reduced graph, then distributed to the parts).
+ * ({@link HierarchicalSolver#mutexEdges}, {@link HierarchicalSolver#linkageEdges} or
+ * {@link HierarchicalSolver#multicutEdges} of the reduced graph, then distributed to the parts).
  *
  * <p>Which faces: a face owns the voxel edges whose lower end lies in the block below it (see
- * {@link SeamEdges}); the other end lies in a block one step away along every axis at most (no
- * offset is longer than a block). So the faces above every block within one step of the part
- * suffice. Sums match because the tables are combined by {@link EdgeStatistics#mergeAll} over
- * the same list as {@link ReducedGraph#assemble} (blocks, then faces, in index order) with the
- * tables not read left empty: the merge tree, and so every pair's order of addition, is the
- * same. Cost: O(rows read · log(blocks + faces)) and a reference per block and face.
+ * {@link SeamEdges}); the other end lies within the longest offset of the face, so at most
+ * {@link #steps} blocks away along each axis (one step when no offset is longer than a block;
+ * more with long-range offsets longer than a block). So the faces above every block within that
+ * many steps of the part suffice. Sums match because the tables are combined by
+ * {@link EdgeStatistics#mergeAll} over the same list as {@link ReducedGraph#assemble} (blocks,
+ * then faces, in index order) with the tables not read left empty: the merge tree, and so every
+ * pair's order of addition, is the same. Cost: O(rows read · log(blocks + faces)) and a
+ * reference per block and face.
  */
 public final class PartInputs {
   private PartInputs() {}
 
   /**
-   * The blocks whose upper faces can hold an edge with an end in {@code part} of level 1: the
-   * part's blocks and their neighbours (26-neighbourhood), ascending.
+   * Per axis (memory order), the most blocks apart the two ends of a seam edge can lie: the
+   * longest offset along the axis in blocks, rounded up, at least 1. O(dimensions).
+   */
+  public static int[] steps(BlockGrid grid, Offsets offsets) {
+    int[] reach = offsets.reach();
+    int[] block = grid.blockShape();
+    int[] steps = new int[block.length];
+    for (int d = 0; d < block.length; d++) {
+      steps[d] = Math.max(1, (reach[d] + block[d] - 1) / block[d]);
+    }
+    return steps;
+  }
+
+  /**
+   * The blocks whose upper faces can hold an edge with an end in {@code part} of level 1 when no
+   * offset is longer than a block: the part's blocks and their neighbours (26-neighbourhood),
+   * ascending.
    */
   public static int[] neighbourhood(BlockGrid grid, SuperBlocks superBlocks, int part) {
+    int[] ones = new int[grid.gridShape().length];
+    Arrays.fill(ones, 1);
+    return neighbourhood(grid, superBlocks, part, ones);
+  }
+
+  /**
+   * The blocks whose upper faces can hold an edge with an end in {@code part} of level 1: the
+   * part's blocks and those within {@code steps[d]} blocks of one along every axis {@code d},
+   * ascending.
+   */
+  public static int[] neighbourhood(BlockGrid grid, SuperBlocks superBlocks, int part,
+      int[] steps) {
     long[] shape = grid.gridShape();
     boolean[] take = new boolean[grid.blockCount()];
     for (int b = 0; b < grid.blockCount(); b++) {
@@ -42,14 +72,18 @@ public final class PartInputs {
       }
       long[] g = grid.gridPosition(b);
       int n = g.length;
-      int steps = (int) Math.pow(3, n);
+      int cells = 1;
+      for (int d = 0; d < n; d++) {
+        cells *= 2 * steps[d] + 1;
+      }
       long[] q = new long[n];
-      for (int s = 0; s < steps; s++) {
+      for (int s = 0; s < cells; s++) {
         int rest = s;
         boolean inside = true;
         for (int d = 0; d < n; d++) {
-          q[d] = g[d] + rest % 3 - 1;
-          rest /= 3;
+          int width = 2 * steps[d] + 1;
+          q[d] = g[d] + rest % width - steps[d];
+          rest /= width;
           inside &= q[d] >= 0 && q[d] < shape[d];
         }
         if (inside) {
@@ -81,6 +115,40 @@ public final class PartInputs {
    */
   public static SolveEdges levelOne(BlockGrid grid, SuperBlocks superBlocks, int part,
       boolean linkage, IntFunction<BlockSummary> summaryOf, IntFunction<SeamEdges> seamsOf) {
+    int[] ones = new int[grid.gridShape().length];
+    Arrays.fill(ones, 1);
+    return levelOne(grid, superBlocks, part, linkage ? Rows.LINKAGE : Rows.MUTEX, ones,
+        summaryOf, seamsOf);
+  }
+
+  /** The row format of a part solver's input. */
+  public enum Rows {
+    /** {@link MutexPartSolver}'s: separated pairs, and per pair its largest and smallest weight. */
+    MUTEX,
+    /** {@link LinkagePartSolver}'s: four statistics per pair. */
+    LINKAGE,
+    /**
+     * {@link MulticutPartSolver}'s: per pair its cost, and a joined row per pair with at least
+     * {@link GlobalSolve#MIN_CONTINUED_PAIRS} continued voxel pairs (as
+     * {@link HierarchicalSolver#multicutEdges}).
+     */
+    MULTICUT
+  }
+
+  /**
+   * Level 1's input of {@code part} in the row format {@code rows}: for the Mutex Watershed the
+   * separated pairs of its blocks first, then per pair with an end in the part its rows (and for
+   * the multicut the joined rows of continued pairs with an end in the part, the continued counts
+   * summed over the same faces as the single-level solve's), keyed by provisional ids.
+   *
+   * @param steps see {@link #steps}
+   * @param summaryOf reads block {@code b}'s summary (called for the part's blocks only)
+   * @param seamsOf reads face {@code f}'s seam edges (called for the faces named above only)
+   */
+  public static SolveEdges levelOne(BlockGrid grid, SuperBlocks superBlocks, int part,
+      Rows rows, int[] steps, IntFunction<BlockSummary> summaryOf,
+      IntFunction<SeamEdges> seamsOf) {
+    boolean linkage = rows != Rows.MUTEX;
     IdLayout layout = superBlocks.layout();
     List<EdgeStatistics> tables = new ArrayList<>(grid.blockCount() + grid.faceCount());
     List<BlockSummary> own = new ArrayList<>();
@@ -94,12 +162,16 @@ public final class PartInputs {
       }
     }
     EdgeStatistics[] faces = new EdgeStatistics[grid.faceCount()];
+    EdgeStatistics[] continued = new EdgeStatistics[grid.faceCount()];
     Arrays.fill(faces, EdgeStatistics.empty());
-    for (int b : neighbourhood(grid, superBlocks, part)) {
+    Arrays.fill(continued, EdgeStatistics.empty());
+    for (int b : neighbourhood(grid, superBlocks, part, steps)) {
       for (int axis = 0; axis < grid.gridShape().length; axis++) {
         int f = grid.faceIndex(b, axis);
         if (f >= 0) {
-          faces[f] = seamsOf.apply(f).edges();
+          SeamEdges seam = seamsOf.apply(f);
+          faces[f] = seam.edges();
+          continued[f] = seam.continued();
         }
       }
     }
@@ -122,7 +194,9 @@ public final class PartInputs {
           && superBlocks.partOfBlock(layout.blockOf(b), 1) != part) {
         continue;
       }
-      if (linkage) {
+      if (rows == Rows.MULTICUT) {
+        MulticutPartSolver.addPair(out, a, b, merged.sum(e));
+      } else if (linkage) {
         LinkagePartSolver.addPair(out, a, b, merged.sum(e), merged.count(e), merged.min(e),
             merged.max(e), a, b);
       } else {
@@ -131,6 +205,18 @@ public final class PartInputs {
         }
         if (merged.min(e) < 0) {
           out.add(a, b, merged.min(e), a, b, SolveEdges.MIN);
+        }
+      }
+    }
+    if (rows == Rows.MULTICUT) {
+      EdgeStatistics joined = EdgeStatistics.mergeAll(Arrays.asList(continued));
+      for (int e = 0; e < joined.size(); e++) {
+        long a = joined.u(e);
+        long b = joined.v(e);
+        boolean near = superBlocks.partOfBlock(layout.blockOf(a), 1) == part
+            || superBlocks.partOfBlock(layout.blockOf(b), 1) == part;
+        if (near && joined.count(e) >= GlobalSolve.MIN_CONTINUED_PAIRS) {
+          MulticutPartSolver.addJoined(out, a, b, joined.count(e));
         }
       }
     }

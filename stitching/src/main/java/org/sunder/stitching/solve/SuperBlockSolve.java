@@ -8,7 +8,9 @@ import java.util.function.IntFunction;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.AgglomerationMethod;
+import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.stitching.setup.StitchingSetup;
 import org.sunder.stitching.task.BlockSummary;
@@ -21,13 +23,16 @@ import org.sunder.stitching.task.SeamEdges;
  * the files its sub-parts wrote, the driver solving only what the top level hands up, and the
  * final ids composed on the way down and numbered per block, from files. Gives the clusters,
  * and so the final ids, of the single-level solve of the method (Mutex Watershed, or
- * agglomeration of voxels with its linkage); the fragment methods, whose solve first joins
- * continued pieces, and the multicut, which needs the whole graph, get a clear error, as does a
- * size filter (it needs every final segment's neighbours).
+ * agglomeration of voxels with its linkage). The multicut of {@code fragments-multicut} on
+ * summed weights runs level by level by domain decomposition ({@link MulticutPartSolver}): a
+ * valid partition whose objective is close to, not equal to, the single-level one's.
+ * Fragment agglomeration, whose solve first joins continued pieces, the multicut on another
+ * linkage, and a size filter (it needs every final segment's neighbours) get a clear error.
  *
  * <p>The levels bound rows, not pairs: a pair is at most 2 Mutex Watershed rows (its largest and
- * smallest weight) and 4 linkage rows, so the bound of {@code solve.maxDriverEdges} pairs
- * becomes that many times as many rows ({@link LevelTasks#rows}).
+ * smallest weight), 4 linkage rows and 1 multicut row, so the bound of
+ * {@code solve.maxDriverEdges} pairs becomes that many times as many rows
+ * ({@link LevelTasks#rows}).
  */
 public final class SuperBlockSolve {
   /** Blocks per axis of a level's super-block in those of the level below. */
@@ -38,7 +43,17 @@ public final class SuperBlockSolve {
   /** Whether the method's solve can run level by level (else {@link #requireFits} applies). */
   public static boolean supports(PartitionConfig config) {
     return config.minSegmentSize() <= 1 && (config.isMutexWatershed()
-        || config.method() instanceof AgglomerationMethod);
+        || config.method() instanceof AgglomerationMethod || isMulticut(config));
+  }
+
+  /**
+   * Whether the run's solve is a multicut on summed weights (the default of
+   * {@code fragments-multicut}), solved level by level by domain decomposition
+   * ({@link MulticutPartSolver}); a multicut on another linkage has no additive contracted
+   * problem and stays on the driver.
+   */
+  static boolean isMulticut(PartitionConfig config) {
+    return config.method() instanceof FragmentsMulticutMethod && config.linkage() == Linkage.SUM;
   }
 
   /** The clear error for a method without a level-by-level solve whose graph is too large. */

@@ -135,11 +135,11 @@ class HierarchicalSolverTest {
   }
 
   @Test
-  void aMulticutOverTheBoundIsAClearError() {
-    HierarchicalSolve.requireDriverFits("fragments-multicut", 100, 100);
+  void aMethodWithoutALevelSolveOverTheBoundIsAClearError() {
+    HierarchicalSolve.requireDriverFits("fragments-agglomeration", 100, 100);
     SunderException error = assertThrows(SunderException.class,
-        () -> HierarchicalSolve.requireDriverFits("fragments-multicut", 101, 100));
-    assertTrue(error.getMessage().contains("fragments-multicut")
+        () -> HierarchicalSolve.requireDriverFits("fragments-agglomeration", 101, 100));
+    assertTrue(error.getMessage().contains("fragments-agglomeration")
         && error.getMessage().contains("101 edges")
         && error.getMessage().contains("solve.maxDriverEdges = 100"), error.getMessage());
   }

@@ -1,5 +1,6 @@
 package org.sunder.stitching.solve;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -9,6 +10,7 @@ import java.util.List;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.EdgeStatistics;
+import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.stitching.RandomReducedGraphs;
@@ -17,7 +19,9 @@ import org.sunder.stitching.task.SeamEdges;
 
 /**
  * A part's level-1 input built from its own blocks and nearby faces equals the whole reduced
- * graph's edges with an end in the part, bit for bit (weights and sums included).
+ * graph's edges with an end in the part, bit for bit (weights and sums included), in each
+ * solver's row format (the multicut's joined rows of continued pairs included), also when seam
+ * pairs reach two blocks (offsets longer than a block).
  */
 class PartInputsTest {
 
@@ -28,7 +32,7 @@ class PartInputsTest {
    * seam pairs to the block above each face and to its diagonal neighbours (long-range
    * offsets), several voxel edges per pair so that sums have many terms.
    */
-  private static Volume volume(BlockGrid grid, IdLayout layout, Random random) {
+  private static Volume volume(BlockGrid grid, IdLayout layout, Random random, boolean far) {
     int blocks = grid.blockCount();
     int[] count = new int[blocks];
     List<BlockSummary> summaries = new ArrayList<>();
@@ -62,6 +66,8 @@ class PartInputsTest {
     }
     List<SeamEdges> seams = new ArrayList<>();
     EdgeStatistics.Accumulator[] faces = new EdgeStatistics.Accumulator[grid.faceCount()];
+    EdgeStatistics.Accumulator[] continued =
+        new EdgeStatistics.Accumulator[grid.faceCount()];
     long[] shape = grid.gridShape();
     for (int b = 0; b < blocks; b++) {
       for (int axis = 0; axis < shape.length; axis++) {
@@ -70,9 +76,11 @@ class PartInputsTest {
           continue;
         }
         faces[f] = new EdgeStatistics.Accumulator(16);
+        continued[f] = new EdgeStatistics.Accumulator(4);
         for (int i = 0; i < 6; i++) {
           long[] g = grid.gridPosition(b);
-          g[axis]++;
+          // with offsets longer than a block, the upper end can lie two blocks up
+          g[axis] += far && random.nextBoolean() && g[axis] + 2 < shape[axis] ? 2 : 1;
           for (int d = 0; d < shape.length; d++) {
             if (d != axis && random.nextInt(4) == 0) {
               g[d] = Math.max(0, Math.min(shape[d] - 1, g[d] + random.nextInt(3) - 1));
@@ -82,11 +90,16 @@ class PartInputsTest {
           long a = layout.provisional(b, 1 + random.nextInt(count[b]));
           long c = layout.provisional(other, 1 + random.nextInt(count[other]));
           faces[f].add(a, c, random.nextGaussian());
+          if (random.nextInt(3) == 0) {
+            // continued voxel pairs, some pairs above the joining threshold and some below
+            long pairs = 1 + random.nextInt(2 * (int) GlobalSolve.MIN_CONTINUED_PAIRS);
+            continued[f].add(a, c, pairs, pairs, 1, 1);
+          }
         }
       }
     }
     for (int f = 0; f < faces.length; f++) {
-      seams.add(new SeamEdges(f, faces[f].build()));
+      seams.add(new SeamEdges(f, faces[f].build(), continued[f].build()));
     }
     return new Volume(summaries, seams);
   }
@@ -95,26 +108,35 @@ class PartInputsTest {
   void eachPartsInputEqualsTheWholeGraphsEdgesAtThePart() {
     Random random = new Random(13);
     int checkedParts = 0;
+    int joinedRows = 0;
     for (int trial = 0; trial < 30; trial++) {
       BlockGrid grid = RandomReducedGraphs.grid(2 + random.nextInt(4), 2 + random.nextInt(3),
           1 + random.nextInt(3));
       IdLayout layout = IdLayout.forGrid(grid);
       SuperBlocks superBlocks = new SuperBlocks(grid, layout, 2);
-      Volume v = volume(grid, layout, random);
+      boolean far = trial % 2 == 1;
+      int[] steps = {far ? 2 : 1, far ? 2 : 1, far ? 2 : 1};
+      Volume v = volume(grid, layout, random, far);
       ReducedGraph whole = ReducedGraph.assemble(layout, v.summaries(), v.seams());
-      for (boolean linkage : new boolean[] {false, true}) {
-        SolveEdges all = linkage ? HierarchicalSolver.linkageEdges(whole)
-            : HierarchicalSolver.mutexEdges(whole);
+      for (PartInputs.Rows rows : PartInputs.Rows.values()) {
+        SolveEdges all = switch (rows) {
+          case MUTEX -> HierarchicalSolver.mutexEdges(whole);
+          case LINKAGE -> HierarchicalSolver.linkageEdges(whole);
+          case MULTICUT -> HierarchicalSolver.multicutEdges(whole);
+        };
         for (int p = 0; p < superBlocks.partCount(1); p++) {
           int part = p;
           List<Integer> read = new ArrayList<>();
-          SolveEdges built = PartInputs.levelOne(grid, superBlocks, p, linkage,
+          SolveEdges built = PartInputs.levelOne(grid, superBlocks, p, rows, steps,
               b -> {
                 read.add(b);
                 return v.summaries().get(b);
               }, f -> v.seams().get(f));
           assertEquals(atPart(all, superBlocks, part), built,
-              "trial " + trial + " part " + p + (linkage ? " linkage" : " mutex"));
+              "trial " + trial + " part " + p + " " + rows);
+          for (int e = 0; e < built.size(); e++) {
+            joinedRows += built.kind(e) == MulticutPartSolver.JOINED ? 1 : 0;
+          }
           for (int b : read) {
             assertEquals(part, superBlocks.partOfBlock(b, 1), "reads only its own summaries");
           }
@@ -122,7 +144,16 @@ class PartInputsTest {
         }
       }
     }
-    assertTrue(checkedParts > 100, "parts checked: " + checkedParts);
+    assertTrue(checkedParts > 150, "parts checked: " + checkedParts);
+    assertTrue(joinedRows > 20, "joined rows checked: " + joinedRows);
+  }
+
+  @Test
+  void stepsAreTheLongestOffsetInBlocksRoundedUp() {
+    BlockGrid grid = BlockGrid.of(new long[] {40, 40, 40}, new int[] {4, 4, 4},
+        new int[] {4, 8, 8}, new int[] {1, 1, 1});
+    Offsets offsets = Offsets.of(new int[] {-1, 0, 0}, new int[] {0, -9, 0}, new int[] {0, 0, -8});
+    assertArrayEquals(new int[] {1, 2, 1}, PartInputs.steps(grid, offsets));
   }
 
   /** What the level driver gives part {@code part}: every edge with an end in it, in order. */

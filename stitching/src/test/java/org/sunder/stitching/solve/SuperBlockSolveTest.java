@@ -95,13 +95,76 @@ class SuperBlockSolveTest {
   }
 
   @Test
-  void multicutAndFragmentMethodsGetAClearError() {
+  void fragmentAgglomerationAndAMulticutOnAnotherLinkageGetAClearError() {
     PartitionConfig multicut = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
-    assertTrue(!SuperBlockSolve.supports(multicut));
-    SunderException e = assertThrows(SunderException.class,
-        () -> SuperBlockSolve.requireFits(multicut, 500, 100));
-    assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
-    assertTrue(e.getMessage().contains("fragments-multicut")
-        && e.getMessage().contains("solve.maxDriverEdges = 100"), e.getMessage());
+    assertTrue(SuperBlockSolve.supports(multicut));
+    for (String json : new String[] {"{\"method\": \"fragments-agglomeration\"}",
+        "{\"method\": \"fragments-multicut\", \"linkage\": \"mean\"}",
+        "{\"method\": \"fragments-multicut\", \"minSegmentSize\": 20}"}) {
+      PartitionConfig config = PartitionConfig.fromJson(json);
+      assertTrue(!SuperBlockSolve.supports(config), json);
+      SunderException e = assertThrows(SunderException.class,
+          () -> SuperBlockSolve.requireFits(config, 500, 100));
+      assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
+      assertTrue(e.getMessage().contains(config.method().jsonName())
+          && e.getMessage().contains("solve.maxDriverEdges = 100"), e.getMessage());
+    }
+  }
+
+  /**
+   * The default method's multicut, level by level from per-part inputs, on a blockwise run over
+   * synthetic tissue with and without degradation: every level-by-level solve that fits is a
+   * partition whose multicut objective on the reduced graph is within 3% of the single-level
+   * one's. Measured at two levels: 99.3% of it undegraded, 98.8% with mild degradation. (Even
+   * undegraded tissue gives fragment pairs across objects a positive summed weight, so a part's
+   * multicut need not agree with the whole graph's; the identity on inputs where they agree is
+   * checked in {@link MulticutPartSolverTest}.)
+   */
+  @Test
+  void multicutLevelByLevelIsCloseToTheSingleLevelOnTissue() {
+    PartitionConfig config = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
+    for (Degradation degradation : new Degradation[] {Degradation.none(), MILD}) {
+      TissueScene scene = TissueScene.small(11, SHAPE, degradation);
+      String name = degradation.isNone() ? "multicut-exact" : "multicut-mild";
+      Path root = dir.resolve(name);
+      SceneStore.write(scene, root, StorageFormat.ZARR, CHUNK);
+      StitchingSetup setup = SceneStore.setup(scene, root, CHUNK, BLOCK, HALO, config);
+      Tables t = tables(setup);
+      GlobalSolve.Result single = GlobalSolve.run(setup, t.summaries(), t.seams());
+      ReducedGraph graph = ReducedGraph.assemble(setup.idLayout(), t.summaries(), t.seams());
+      double expected = objective(graph, single.finalIds());
+      int leveled = 0;
+      for (long bound = t.pairs() / 2; bound >= t.pairs() / 64; bound /= 2) {
+        GlobalSolve.Result levels;
+        try {
+          levels = SuperBlockSolve.run(setup, t.pairs(), bound, t.summaries()::get,
+              t.seams()::get, dir.resolve("levels-" + name + bound));
+        } catch (SunderException tooSmall) {
+          assertEquals(ErrorKind.INVALID_CONFIG, tooSmall.kind(), tooSmall.getMessage());
+          assertTrue(tooSmall.getMessage().contains("solve.maxDriverEdges"));
+          continue;
+        }
+        String what = name + " bound " + bound + ": " + levels.report();
+        assertTrue(levels.report().method().contains("domain decomposition"), what);
+        leveled++;
+        double actual = objective(graph, levels.finalIds());
+        // both negative: at most 3% less gain than the single-level solve, or more
+        assertTrue(actual <= expected + 0.03 * Math.abs(expected), what + ": objective "
+            + actual + " against " + expected);
+      }
+      assertTrue(leveled >= 1, name + ": no solve used a level");
+    }
+  }
+
+  /** The multicut objective (summed weights of cut pairs) of final ids on a reduced graph. */
+  private static double objective(ReducedGraph graph, FinalIdMap ids) {
+    org.sunder.blockwise.graph.EdgeStatistics edges = graph.edges();
+    double sum = 0;
+    for (int e = 0; e < edges.size(); e++) {
+      long a = ids.apply(graph.nodeIds()[(int) edges.u(e)]);
+      long b = ids.apply(graph.nodeIds()[(int) edges.v(e)]);
+      sum += a != b ? edges.sum(e) : 0;
+    }
+    return sum;
   }
 }
