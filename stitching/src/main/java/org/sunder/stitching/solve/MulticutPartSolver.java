@@ -2,6 +2,7 @@ package org.sunder.stitching.solve;
 
 import java.util.Arrays;
 import java.util.function.LongPredicate;
+import org.sunder.blockwise.collections.RadixSort;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.multicut.Multicut;
@@ -205,12 +206,9 @@ public final class MulticutPartSolver implements PartSolver {
       a[i] = Math.min(x, y);
       b[i] = Math.max(x, y);
     }
-    int[] byPair = EdgeSort.sorted(cut.length, (x, y) -> {
-      int c = Long.compare(a[x], a[y]);
-      c = c != 0 ? c : Long.compare(b[x], b[y]);
-      return c != 0 ? c : Double.compare(rows.weight(order[cut[x]]),
-          rows.weight(order[cut[y]]));
-    });
+    int[] byPair = RadixSort.order(cut.length, x -> RadixSort.signedKey(a[x]),
+        x -> RadixSort.signedKey(b[x]),
+        x -> RadixSort.signedKey(EdgeSort.comparableBits(rows.weight(order[cut[x]]))));
     int i = 0;
     while (i < byPair.length) {
       int first = byPair[i];
