@@ -47,13 +47,7 @@ public final class SolveEdges implements Serializable {
   /** Appends an edge; O(1) amortised. */
   public void add(long a, long b, double w, long ka, long kb, byte k) {
     if (size == u.length) {
-      int m = size * 2;
-      u = Arrays.copyOf(u, m);
-      v = Arrays.copyOf(v, m);
-      weight = Arrays.copyOf(weight, m);
-      keyU = Arrays.copyOf(keyU, m);
-      keyV = Arrays.copyOf(keyV, m);
-      kind = Arrays.copyOf(kind, m);
+      reserve(1);
     }
     u[size] = a;
     v[size] = b;
@@ -64,6 +58,43 @@ public final class SolveEdges implements Serializable {
     size++;
   }
 
+  /**
+   * The edges of the given columns, which the list takes over (not copied; the caller no longer
+   * writes them); all of one length.
+   */
+  static SolveEdges wrap(long[] u, long[] v, double[] weight, long[] keyU, long[] keyV,
+      byte[] kind) {
+    int m = u.length;
+    if (v.length != m || weight.length != m || keyU.length != m || keyV.length != m
+        || kind.length != m) {
+      throw new IllegalArgumentException("columns of lengths " + m + ", " + v.length + ", "
+          + weight.length + ", " + keyU.length + ", " + keyV.length + ", " + kind.length);
+    }
+    SolveEdges edges = new SolveEdges(0);
+    edges.u = u;
+    edges.v = v;
+    edges.weight = weight;
+    edges.keyU = keyU;
+    edges.keyV = keyV;
+    edges.kind = kind;
+    edges.size = m;
+    return edges;
+  }
+
+  /** Room for {@code more} further edges without growing again. */
+  private void reserve(int more) {
+    int needed = Math.addExact(size, more);
+    if (needed > u.length) {
+      int m = Math.max(needed, size * 2);
+      u = Arrays.copyOf(u, m);
+      v = Arrays.copyOf(v, m);
+      weight = Arrays.copyOf(weight, m);
+      keyU = Arrays.copyOf(keyU, m);
+      keyV = Arrays.copyOf(keyV, m);
+      kind = Arrays.copyOf(kind, m);
+    }
+  }
+
   /** Appends edge {@code e} of {@code other} with its ends replaced by {@code a}, {@code b}. */
   public void add(SolveEdges other, int e, long a, long b) {
     add(a, b, other.weight[e], other.keyU[e], other.keyV[e], other.kind[e]);
@@ -71,9 +102,45 @@ public final class SolveEdges implements Serializable {
 
   /** Appends every edge of {@code other}. */
   public void addAll(SolveEdges other) {
-    for (int e = 0; e < other.size; e++) {
-      add(other, e, other.u[e], other.v[e]);
-    }
+    int n = other.size;
+    reserve(n);
+    System.arraycopy(other.u, 0, u, size, n);
+    System.arraycopy(other.v, 0, v, size, n);
+    System.arraycopy(other.weight, 0, weight, size, n);
+    System.arraycopy(other.keyU, 0, keyU, size, n);
+    System.arraycopy(other.keyV, 0, keyV, size, n);
+    System.arraycopy(other.kind, 0, kind, size, n);
+    size += n;
+  }
+
+  /** The first ends, a column of at least {@link #size} entries; read only. */
+  long[] uColumn() {
+    return u;
+  }
+
+  /** The second ends, a column of at least {@link #size} entries; read only. */
+  long[] vColumn() {
+    return v;
+  }
+
+  /** The weights, a column of at least {@link #size} entries; read only. */
+  double[] weightColumn() {
+    return weight;
+  }
+
+  /** The keys' first ids, a column of at least {@link #size} entries; read only. */
+  long[] keyUColumn() {
+    return keyU;
+  }
+
+  /** The keys' second ids, a column of at least {@link #size} entries; read only. */
+  long[] keyVColumn() {
+    return keyV;
+  }
+
+  /** The kinds, a column of at least {@link #size} entries; read only. */
+  byte[] kindColumn() {
+    return kind;
   }
 
   public int size() {
@@ -133,11 +200,17 @@ public final class SolveEdges implements Serializable {
       int e = order[i];
       long a = u[e];
       long b = v[e];
+      long ka = keyU[e];
+      long kb = keyV[e];
+      byte k = kind[e];
       int j = i + 1;
-      while (j < size && compareKeys(order[j], e) == 0) {
-        a = Math.min(a, u[order[j]]);
-        b = Math.min(b, v[order[j]]);
-        j++;
+      for (; j < size; j++) {
+        int f = order[j];
+        if (keyU[f] != ka || keyV[f] != kb || kind[f] != k) {
+          break;
+        }
+        a = Math.min(a, u[f]);
+        b = Math.min(b, v[f]);
       }
       out.add(this, e, a, b);
       i = j;
