@@ -58,18 +58,26 @@ public final class MutexPartSolver implements PartSolver {
     PartNodes part = PartNodes.of(m, edges::u, edges::v, inside);
     long[] nodes = part.nodes();
     int n = nodes.length;
-    int[] iu = part.iu();
-    int[] iv = part.iv();
     int[] order = MutexOrder.sorted(edges);
+    // the ends and signs in the order's positions, gathered once: the passes below read them in
+    // order instead of at random
+    int[] iu = new int[m];
+    int[] iv = new int[m];
+    boolean[] attractiveAt = new boolean[m];
+    for (int t = 0; t < m; t++) {
+      int e = order[t];
+      iu[t] = part.iu()[e];
+      iv[t] = part.iv()[e];
+      attractiveAt[t] = edges.weight(e) > 0;
+    }
     int[] frontier = new int[n];
     Arrays.fill(frontier, Integer.MAX_VALUE);
     int innerRepulsive = 0;
     for (int t = 0; t < m; t++) {
-      int e = order[t];
-      if (iu[e] < 0 || iv[e] < 0) {
-        int node = iu[e] >= 0 ? iu[e] : iv[e];
+      if (iu[t] < 0 || iv[t] < 0) {
+        int node = iu[t] >= 0 ? iu[t] : iv[t];
         frontier[node] = Math.min(frontier[node], t);
-      } else if (edges.weight(e) <= 0) {
+      } else if (!attractiveAt[t]) {
         innerRepulsive++;
       }
     }
@@ -77,15 +85,14 @@ public final class MutexPartSolver implements PartSolver {
     long decided = 0;
     long heldBack = 0;
     for (int t = 0; t < m; t++) {
-      int e = order[t];
-      if (iu[e] < 0 || iv[e] < 0) {
+      if (iu[t] < 0 || iv[t] < 0) {
         continue;
       }
-      int a = clusters.find(iu[e]);
-      int b = clusters.find(iv[e]);
+      int a = clusters.find(iu[t]);
+      int b = clusters.find(iv[t]);
       boolean openA = clusters.frontier[a] < t;
       boolean openB = clusters.frontier[b] < t;
-      boolean attractive = edges.weight(e) > 0;
+      boolean attractive = attractiveAt[t];
       if (a == b || clusters.exclusive(a, b)) {
         decided++;
       } else if (!openA && !openB) {
@@ -114,7 +121,8 @@ public final class MutexPartSolver implements PartSolver {
     for (int i = 0; i < n; i++) {
       complete[i] = clusters.frontier[clusters.find(i)] == Integer.MAX_VALUE;
     }
-    return result(edges, order, nodes, iu, iv, repAt, complete, decided, heldBack);
+    return result(edges, order, nodes, iu, iv, attractiveAt, repAt, complete, decided,
+        heldBack);
   }
 
   /**
@@ -139,9 +147,14 @@ public final class MutexPartSolver implements PartSolver {
    * The edges handed up: leaving edges with their inside end relabelled, and per pair of
    * clusters that are neither the same nor complete its first attractive and first repulsive
    * inner edge ({@link FirstOfPair}). O(m + n).
+   *
+   * @param iu per position {@code t} of the order, the index of edge {@code order[t]}'s first
+   *     end in {@code nodes}, -1 when outside ({@code iv}: its second end)
+   * @param attractiveAt per position, whether its edge is attractive
    */
   private static PartResult result(SolveEdges edges, int[] order, long[] nodes, int[] iu,
-      int[] iv, int[] repAt, boolean[] complete, long decided, long heldBack) {
+      int[] iv, boolean[] attractiveAt, int[] repAt, boolean[] complete, long decided,
+      long heldBack) {
     int m = order.length;
     int[] candidateAt = new int[m];
     int[] lows = new int[m];
@@ -149,14 +162,13 @@ public final class MutexPartSolver implements PartSolver {
     boolean[] attractive = new boolean[m];
     int k = 0;
     for (int t = 0; t < m; t++) {
-      int e = order[t];
-      int at = iu[e];
-      int bt = iv[e];
+      int at = iu[t];
+      int bt = iv[t];
       if (at >= 0 && bt >= 0 && repAt[at] != repAt[bt] && !complete[at] && !complete[bt]) {
         candidateAt[k] = t;
         lows[k] = repAt[at];
         highs[k] = repAt[bt];
-        attractive[k++] = edges.weight(e) > 0;
+        attractive[k++] = attractiveAt[t];
       }
     }
     boolean[] first = FirstOfPair.firsts(lows, highs, attractive, k, nodes.length);
@@ -164,8 +176,8 @@ public final class MutexPartSolver implements PartSolver {
     int c = 0;
     for (int t = 0; t < m; t++) {
       int e = order[t];
-      int at = iu[e];
-      int bt = iv[e];
+      int at = iu[t];
+      int bt = iv[t];
       if (at >= 0 && bt >= 0) {
         if (c < k && candidateAt[c] == t && first[c++]) {
           remaining.add(edges, e, nodes[repAt[at]], nodes[repAt[bt]]);

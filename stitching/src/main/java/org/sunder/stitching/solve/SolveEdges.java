@@ -194,26 +194,46 @@ public final class SolveEdges implements Serializable {
    */
   public SolveEdges joinCopies() {
     int[] order = EdgeSort.byKey(this);
-    SolveEdges out = new SolveEdges(size);
+    // the columns in key order, one column at a time (independent reads the processor
+    // overlaps), then one pass in order that keeps the first copy of each key
+    long[] su = gather(u, order);
+    long[] sv = gather(v, order);
+    long[] ku = gather(keyU, order);
+    long[] kv = gather(keyV, order);
+    double[] w = new double[size];
+    byte[] k = new byte[size];
+    for (int i = 0; i < size; i++) {
+      w[i] = weight[order[i]];
+      k[i] = kind[order[i]];
+    }
+    int joined = 0;
     int i = 0;
     while (i < size) {
-      int e = order[i];
-      long a = u[e];
-      long b = v[e];
-      long ka = keyU[e];
-      long kb = keyV[e];
-      byte k = kind[e];
+      long a = su[i];
+      long b = sv[i];
       int j = i + 1;
-      for (; j < size; j++) {
-        int f = order[j];
-        if (keyU[f] != ka || keyV[f] != kb || kind[f] != k) {
-          break;
-        }
-        a = Math.min(a, u[f]);
-        b = Math.min(b, v[f]);
+      for (; j < size && ku[j] == ku[i] && kv[j] == kv[i] && k[j] == k[i]; j++) {
+        a = Math.min(a, su[j]);
+        b = Math.min(b, sv[j]);
       }
-      out.add(this, e, a, b);
+      su[joined] = a;
+      sv[joined] = b;
+      w[joined] = w[i];
+      ku[joined] = ku[i];
+      kv[joined] = kv[i];
+      k[joined] = k[i];
+      joined++;
       i = j;
+    }
+    SolveEdges out = wrap(su, sv, w, ku, kv, k);
+    out.size = joined;
+    return out;
+  }
+
+  private long[] gather(long[] column, int[] order) {
+    long[] out = new long[size];
+    for (int i = 0; i < size; i++) {
+      out[i] = column[order[i]];
     }
     return out;
   }
