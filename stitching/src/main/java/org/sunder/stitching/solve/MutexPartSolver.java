@@ -172,21 +172,23 @@ public final class MutexPartSolver implements PartSolver {
       }
     }
     boolean[] first = FirstOfPair.firsts(lows, highs, attractive, k, nodes.length);
-    SolveEdges remaining = new SolveEdges((int) Math.min(m, heldBack * 2 + 16));
+    int[] kept = new int[m];
+    long[] keptU = new long[m];
+    long[] keptV = new long[m];
+    int count = 0;
     int c = 0;
     for (int t = 0; t < m; t++) {
-      int e = order[t];
       int at = iu[t];
       int bt = iv[t];
-      if (at >= 0 && bt >= 0) {
-        if (c < k && candidateAt[c] == t && first[c++]) {
-          remaining.add(edges, e, nodes[repAt[at]], nodes[repAt[bt]]);
-        }
+      if (at >= 0 && bt >= 0 && !(c < k && candidateAt[c] == t && first[c++])) {
         continue;
       }
-      remaining.add(edges, e, at >= 0 ? nodes[repAt[at]] : edges.u(e),
-          bt >= 0 ? nodes[repAt[bt]] : edges.v(e));
+      int e = order[t];
+      kept[count] = e;
+      keptU[count] = at >= 0 ? nodes[repAt[at]] : edges.u(e);
+      keptV[count++] = bt >= 0 ? nodes[repAt[bt]] : edges.v(e);
     }
+    SolveEdges remaining = SolveEdges.gathered(edges, kept, count, keptU, keptV);
     long[] rep = new long[nodes.length];
     for (int i = 0; i < rep.length; i++) {
       rep[i] = nodes[repAt[i]];

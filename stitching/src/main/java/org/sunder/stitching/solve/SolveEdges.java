@@ -81,6 +81,38 @@ public final class SolveEdges implements Serializable {
     return edges;
   }
 
+  /**
+   * Edges {@code indices[0..count)} of {@code source}, in that order, with their ends replaced
+   * by {@code u[i]}, {@code v[i]} (copied when longer than {@code count}, else taken over).
+   * Each column is
+   * read in one loop of its own (independent reads at random the processor overlaps, where
+   * appending edge by edge reads every column per edge). O(count).
+   */
+  static SolveEdges gathered(SolveEdges source, int[] indices, int count, long[] u, long[] v) {
+    if (count > indices.length || count > u.length || count > v.length) {
+      throw new IllegalArgumentException(count + " edges from " + indices.length + " indices, "
+          + u.length + " and " + v.length + " ends");
+    }
+    double[] weight = new double[count];
+    long[] keyU = new long[count];
+    long[] keyV = new long[count];
+    byte[] kind = new byte[count];
+    for (int i = 0; i < count; i++) {
+      weight[i] = source.weight[indices[i]];
+    }
+    for (int i = 0; i < count; i++) {
+      keyU[i] = source.keyU[indices[i]];
+    }
+    for (int i = 0; i < count; i++) {
+      keyV[i] = source.keyV[indices[i]];
+    }
+    for (int i = 0; i < count; i++) {
+      kind[i] = source.kind[indices[i]];
+    }
+    return wrap(u.length == count ? u : Arrays.copyOf(u, count),
+        v.length == count ? v : Arrays.copyOf(v, count), weight, keyU, keyV, kind);
+  }
+
   /** Room for {@code more} further edges without growing again. */
   private void reserve(int more) {
     int needed = Math.addExact(size, more);

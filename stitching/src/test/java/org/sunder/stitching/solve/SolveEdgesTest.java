@@ -11,7 +11,8 @@ import org.junit.jupiter.api.Test;
 
 /**
  * The bulk paths of {@link SolveEdges} against one edge at a time: {@link SolveEdges#addAll}
- * against {@code add} per edge, {@link SolveEdges#wrap} against building the same list, and
+ * and {@link SolveEdges#gathered} against {@code add} per edge, {@link SolveEdges#wrap} against
+ * building the same list, and
  * {@link SolveEdges#joinCopies} against a sorted map of keys built here.
  */
 class SolveEdgesTest {
@@ -61,6 +62,35 @@ class SolveEdgesTest {
     assertEquals(3, wrapped.size());
     assertThrows(IllegalArgumentException.class, () -> SolveEdges.wrap(new long[2],
         new long[2], new double[2], new long[2], new long[1], new byte[2]));
+  }
+
+  @Test
+  void gatheredMatchesAddingTheChosenEdgesWithNewEnds() {
+    Random random = new Random(87);
+    for (int trial = 0; trial < 30; trial++) {
+      SolveEdges source = random(random, 1 + random.nextInt(500), 100);
+      int length = random.nextInt(400);
+      int count = length == 0 ? 0 : random.nextInt(length + 1);
+      int[] indices = new int[length];
+      long[] u = new long[length];
+      long[] v = new long[length];
+      SolveEdges expected = new SolveEdges(count);
+      for (int i = 0; i < length; i++) {
+        indices[i] = random.nextInt(source.size());
+        u[i] = random.nextLong();
+        v[i] = random.nextLong();
+        if (i < count) {
+          expected.add(source, indices[i], u[i], v[i]);
+        }
+      }
+      SolveEdges gathered = SolveEdges.gathered(source, indices, count, u, v);
+      assertEquals(expected, gathered, "trial " + trial);
+      gathered.add(1, 2, 0.5, 3, 4, SolveEdges.MAX);
+      expected.add(1, 2, 0.5, 3, 4, SolveEdges.MAX);
+      assertEquals(expected, gathered, "an edge added after, trial " + trial);
+    }
+    assertThrows(IllegalArgumentException.class,
+        () -> SolveEdges.gathered(new SolveEdges(1), new int[1], 2, new long[2], new long[2]));
   }
 
   @Test
