@@ -61,13 +61,15 @@ public final class MutexPartSolver implements PartSolver {
     int[] order = MutexOrder.sorted(edges);
     // the ends and signs in the order's positions, gathered once: the passes below read them in
     // order instead of at random
+    int[] endU = part.iu();
+    int[] endV = part.iv();
     int[] iu = new int[m];
     int[] iv = new int[m];
     boolean[] attractiveAt = new boolean[m];
     for (int t = 0; t < m; t++) {
       int e = order[t];
-      iu[t] = part.iu()[e];
-      iv[t] = part.iv()[e];
+      iu[t] = endU[e];
+      iv[t] = endV[e];
       attractiveAt[t] = edges.weight(e) > 0;
     }
     int[] frontier = new int[n];
@@ -157,8 +159,8 @@ public final class MutexPartSolver implements PartSolver {
       long heldBack) {
     int m = order.length;
     int[] candidateAt = new int[m];
-    int[] lows = new int[m];
-    int[] highs = new int[m];
+    int[] clusterU = new int[m];
+    int[] clusterV = new int[m];
     boolean[] attractive = new boolean[m];
     int k = 0;
     for (int t = 0; t < m; t++) {
@@ -166,12 +168,12 @@ public final class MutexPartSolver implements PartSolver {
       int bt = iv[t];
       if (at >= 0 && bt >= 0 && repAt[at] != repAt[bt] && !complete[at] && !complete[bt]) {
         candidateAt[k] = t;
-        lows[k] = repAt[at];
-        highs[k] = repAt[bt];
+        clusterU[k] = repAt[at];
+        clusterV[k] = repAt[bt];
         attractive[k++] = attractiveAt[t];
       }
     }
-    boolean[] first = FirstOfPair.firsts(lows, highs, attractive, k, nodes.length);
+    boolean[] first = FirstOfPair.firsts(clusterU, clusterV, attractive, k, nodes.length);
     int[] kept = new int[m];
     long[] keptU = new long[m];
     long[] keptV = new long[m];
