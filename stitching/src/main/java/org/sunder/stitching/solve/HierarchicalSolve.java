@@ -259,9 +259,14 @@ public final class HierarchicalSolve {
 
     /** The outputs of {@code parts}, copies of each edge joined. */
     SolveEdges gather(int[] parts) {
-      SolveEdges all = new SolveEdges(16);
-      for (int p : parts) {
-        SolveEdges out = get(p);
+      SolveEdges[] outs = new SolveEdges[parts.length];
+      int total = 0;
+      for (int i = 0; i < parts.length; i++) {
+        outs[i] = get(parts[i]);
+        total = Math.addExact(total, outs[i] == null ? 0 : outs[i].size());
+      }
+      SolveEdges all = new SolveEdges(total);
+      for (SolveEdges out : outs) {
         if (out != null) {
           all.addAll(out);
         }

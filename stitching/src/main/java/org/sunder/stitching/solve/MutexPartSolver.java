@@ -2,6 +2,7 @@ package org.sunder.stitching.solve;
 
 import java.util.Arrays;
 import java.util.function.LongPredicate;
+import org.sunder.blockwise.collections.PairSet;
 
 /**
  * One part of a hierarchical Mutex Watershed ("The Mutex Watershed and its Objective: Efficient,
@@ -57,31 +58,43 @@ public final class MutexPartSolver implements PartSolver {
     PartNodes part = PartNodes.of(m, edges::u, edges::v, inside);
     long[] nodes = part.nodes();
     int n = nodes.length;
-    int[] iu = part.iu();
-    int[] iv = part.iv();
     int[] order = MutexOrder.sorted(edges);
-    int[] frontier = new int[n];
-    Arrays.fill(frontier, Integer.MAX_VALUE);
+    // the ends and signs in the order's positions, gathered once: the passes below read them in
+    // order instead of at random
+    int[] endU = part.iu();
+    int[] endV = part.iv();
+    int[] iu = new int[m];
+    int[] iv = new int[m];
+    boolean[] attractiveAt = new boolean[m];
     for (int t = 0; t < m; t++) {
       int e = order[t];
-      if (iu[e] < 0 || iv[e] < 0) {
-        int node = iu[e] >= 0 ? iu[e] : iv[e];
+      iu[t] = endU[e];
+      iv[t] = endV[e];
+      attractiveAt[t] = edges.weight(e) > 0;
+    }
+    int[] frontier = new int[n];
+    Arrays.fill(frontier, Integer.MAX_VALUE);
+    int innerRepulsive = 0;
+    for (int t = 0; t < m; t++) {
+      if (iu[t] < 0 || iv[t] < 0) {
+        int node = iu[t] >= 0 ? iu[t] : iv[t];
         frontier[node] = Math.min(frontier[node], t);
+      } else if (!attractiveAt[t]) {
+        innerRepulsive++;
       }
     }
-    Clusters clusters = new Clusters(n, frontier);
+    Clusters clusters = new Clusters(n, frontier, innerRepulsive);
     long decided = 0;
     long heldBack = 0;
     for (int t = 0; t < m; t++) {
-      int e = order[t];
-      if (iu[e] < 0 || iv[e] < 0) {
+      if (iu[t] < 0 || iv[t] < 0) {
         continue;
       }
-      int a = clusters.find(iu[e]);
-      int b = clusters.find(iv[e]);
+      int a = clusters.find(iu[t]);
+      int b = clusters.find(iv[t]);
       boolean openA = clusters.frontier[a] < t;
       boolean openB = clusters.frontier[b] < t;
-      boolean attractive = edges.weight(e) > 0;
+      boolean attractive = attractiveAt[t];
       if (a == b || clusters.exclusive(a, b)) {
         decided++;
       } else if (!openA && !openB) {
@@ -105,52 +118,82 @@ public final class MutexPartSolver implements PartSolver {
         }
       }
     }
-    long[] rep = representatives(nodes, clusters);
+    int[] repAt = representatives(clusters, n);
     boolean[] complete = new boolean[n];
     for (int i = 0; i < n; i++) {
       complete[i] = clusters.frontier[clusters.find(i)] == Integer.MAX_VALUE;
     }
-    return result(edges, order, nodes, iu, iv, rep, complete, decided, heldBack);
+    return result(edges, order, nodes, iu, iv, attractiveAt, repAt, complete, decided,
+        heldBack);
   }
 
-  /** Per node, the smallest provisional id of its cluster ({@code nodes} is ascending). */
-  private static long[] representatives(long[] nodes, Clusters clusters) {
-    int n = nodes.length;
-    long[] ofRoot = new long[n];
-    boolean[] seen = new boolean[n];
-    long[] rep = new long[n];
+  /**
+   * Per node, the index of its cluster's representative, the cluster's first node: the smallest
+   * provisional id of the cluster, as {@code nodes} is ascending. O(n α(n)).
+   */
+  private static int[] representatives(Clusters clusters, int n) {
+    int[] firstOfRoot = new int[n];
+    Arrays.fill(firstOfRoot, -1);
+    int[] repAt = new int[n];
     for (int i = 0; i < n; i++) {
       int r = clusters.find(i);
-      if (!seen[r]) {
-        seen[r] = true;
-        ofRoot[r] = nodes[i];
+      if (firstOfRoot[r] < 0) {
+        firstOfRoot[r] = i;
       }
-      rep[i] = ofRoot[r];
+      repAt[i] = firstOfRoot[r];
     }
-    return rep;
+    return repAt;
   }
 
+  /**
+   * The edges handed up: leaving edges with their inside end relabelled, and per pair of
+   * clusters that are neither the same nor complete its first attractive and first repulsive
+   * inner edge ({@link FirstOfPair}). O(m + n).
+   *
+   * @param iu per position {@code t} of the order, the index of edge {@code order[t]}'s first
+   *     end in {@code nodes}, -1 when outside ({@code iv}: its second end)
+   * @param attractiveAt per position, whether its edge is attractive
+   */
   private static PartResult result(SolveEdges edges, int[] order, long[] nodes, int[] iu,
-      int[] iv, long[] rep, boolean[] complete, long decided, long heldBack) {
-    SolveEdges remaining = new SolveEdges((int) Math.min(edges.size(), heldBack * 2 + 16));
-    LongPairSet firstAttractive = new LongPairSet(16);
-    LongPairSet firstRepulsive = new LongPairSet(16);
-    for (int t = 0; t < order.length; t++) {
-      int e = order[t];
-      long a = iu[e] >= 0 ? rep[iu[e]] : edges.u(e);
-      long b = iv[e] >= 0 ? rep[iv[e]] : edges.v(e);
-      if (iu[e] >= 0 && iv[e] >= 0) {
-        if (a == b || complete[iu[e]] || complete[iv[e]]) {
-          continue;
-        }
-        long lo = Math.min(a, b);
-        long hi = Math.max(a, b);
-        LongPairSet first = edges.weight(e) > 0 ? firstAttractive : firstRepulsive;
-        if (!first.add(lo, hi)) {
-          continue;
-        }
+      int[] iv, boolean[] attractiveAt, int[] repAt, boolean[] complete, long decided,
+      long heldBack) {
+    int m = order.length;
+    int[] candidateAt = new int[m];
+    int[] clusterU = new int[m];
+    int[] clusterV = new int[m];
+    boolean[] attractive = new boolean[m];
+    int k = 0;
+    for (int t = 0; t < m; t++) {
+      int at = iu[t];
+      int bt = iv[t];
+      if (at >= 0 && bt >= 0 && repAt[at] != repAt[bt] && !complete[at] && !complete[bt]) {
+        candidateAt[k] = t;
+        clusterU[k] = repAt[at];
+        clusterV[k] = repAt[bt];
+        attractive[k++] = attractiveAt[t];
       }
-      remaining.add(edges, e, a, b);
+    }
+    boolean[] first = FirstOfPair.firsts(clusterU, clusterV, attractive, k, nodes.length);
+    int[] kept = new int[m];
+    long[] keptU = new long[m];
+    long[] keptV = new long[m];
+    int count = 0;
+    int c = 0;
+    for (int t = 0; t < m; t++) {
+      int at = iu[t];
+      int bt = iv[t];
+      if (at >= 0 && bt >= 0 && !(c < k && candidateAt[c] == t && first[c++])) {
+        continue;
+      }
+      int e = order[t];
+      kept[count] = e;
+      keptU[count] = at >= 0 ? nodes[repAt[at]] : edges.u(e);
+      keptV[count++] = bt >= 0 ? nodes[repAt[bt]] : edges.v(e);
+    }
+    SolveEdges remaining = SolveEdges.gathered(edges, kept, count, keptU, keptV);
+    long[] rep = new long[nodes.length];
+    for (int i = 0; i < rep.length; i++) {
+      rep[i] = nodes[repAt[i]];
     }
     return PartResult.of(nodes, rep, remaining, decided, heldBack);
   }
@@ -163,10 +206,12 @@ public final class MutexPartSolver implements PartSolver {
     private int[] entryNode;
     private int[] entryNext;
     private int entries;
-    private final LongPairSet exclusions;
+    /** Pairs of roots made exclusive ({@link PairSet#pair}); a join leaves stale pairs. */
+    private final PairSet exclusions;
     final int[] frontier;
 
-    Clusters(int n, int[] frontier) {
+    /** {@code n} singletons; {@code repulsive} sizes the exclusion set (it may grow). */
+    Clusters(int n, int[] frontier, int repulsive) {
       parent = new int[n];
       for (int i = 0; i < n; i++) {
         parent[i] = i;
@@ -176,7 +221,7 @@ public final class MutexPartSolver implements PartSolver {
       Arrays.fill(head, -1);
       entryNode = new int[16];
       entryNext = new int[16];
-      exclusions = new LongPairSet(16);
+      exclusions = new PairSet(repulsive);
       this.frontier = frontier;
     }
 
@@ -185,11 +230,11 @@ public final class MutexPartSolver implements PartSolver {
     }
 
     boolean exclusive(int a, int b) {
-      return exclusions.contains(Math.min(a, b), Math.max(a, b));
+      return exclusions.contains(PairSet.pair(a, b));
     }
 
     void exclude(int a, int b) {
-      if (exclusions.add(Math.min(a, b), Math.max(a, b))) {
+      if (exclusions.add(PairSet.pair(a, b))) {
         append(a, b);
         append(b, a);
       }
@@ -224,7 +269,7 @@ public final class MutexPartSolver implements PartSolver {
       frontier[big] = Math.min(frontier[big], frontier[small]);
       for (int entry = head[small]; entry >= 0; entry = entryNext[entry]) {
         int partner = find(entryNode[entry]);
-        if (exclusions.add(Math.min(big, partner), Math.max(big, partner))) {
+        if (exclusions.add(PairSet.pair(big, partner))) {
           append(big, partner);
         }
       }

@@ -47,13 +47,7 @@ public final class SolveEdges implements Serializable {
   /** Appends an edge; O(1) amortised. */
   public void add(long a, long b, double w, long ka, long kb, byte k) {
     if (size == u.length) {
-      int m = size * 2;
-      u = Arrays.copyOf(u, m);
-      v = Arrays.copyOf(v, m);
-      weight = Arrays.copyOf(weight, m);
-      keyU = Arrays.copyOf(keyU, m);
-      keyV = Arrays.copyOf(keyV, m);
-      kind = Arrays.copyOf(kind, m);
+      reserve(1);
     }
     u[size] = a;
     v[size] = b;
@@ -64,6 +58,75 @@ public final class SolveEdges implements Serializable {
     size++;
   }
 
+  /**
+   * The edges of the given columns, which the list takes over (not copied; the caller no longer
+   * writes them); all of one length.
+   */
+  static SolveEdges wrap(long[] u, long[] v, double[] weight, long[] keyU, long[] keyV,
+      byte[] kind) {
+    int m = u.length;
+    if (v.length != m || weight.length != m || keyU.length != m || keyV.length != m
+        || kind.length != m) {
+      throw new IllegalArgumentException("columns of lengths " + m + ", " + v.length + ", "
+          + weight.length + ", " + keyU.length + ", " + keyV.length + ", " + kind.length);
+    }
+    SolveEdges edges = new SolveEdges(0);
+    edges.u = u;
+    edges.v = v;
+    edges.weight = weight;
+    edges.keyU = keyU;
+    edges.keyV = keyV;
+    edges.kind = kind;
+    edges.size = m;
+    return edges;
+  }
+
+  /**
+   * Edges {@code indices[0..count)} of {@code source}, in that order, with their ends replaced
+   * by {@code u[i]}, {@code v[i]} (copied when longer than {@code count}, else taken over).
+   * Each column is
+   * read in one loop of its own (independent reads at random the processor overlaps, where
+   * appending edge by edge reads every column per edge). O(count).
+   */
+  static SolveEdges gathered(SolveEdges source, int[] indices, int count, long[] u, long[] v) {
+    if (count > indices.length || count > u.length || count > v.length) {
+      throw new IllegalArgumentException(count + " edges from " + indices.length + " indices, "
+          + u.length + " and " + v.length + " ends");
+    }
+    double[] weight = new double[count];
+    long[] keyU = new long[count];
+    long[] keyV = new long[count];
+    byte[] kind = new byte[count];
+    for (int i = 0; i < count; i++) {
+      weight[i] = source.weight[indices[i]];
+    }
+    for (int i = 0; i < count; i++) {
+      keyU[i] = source.keyU[indices[i]];
+    }
+    for (int i = 0; i < count; i++) {
+      keyV[i] = source.keyV[indices[i]];
+    }
+    for (int i = 0; i < count; i++) {
+      kind[i] = source.kind[indices[i]];
+    }
+    return wrap(u.length == count ? u : Arrays.copyOf(u, count),
+        v.length == count ? v : Arrays.copyOf(v, count), weight, keyU, keyV, kind);
+  }
+
+  /** Room for {@code more} further edges without growing again. */
+  private void reserve(int more) {
+    int needed = Math.addExact(size, more);
+    if (needed > u.length) {
+      int m = Math.max(needed, size * 2);
+      u = Arrays.copyOf(u, m);
+      v = Arrays.copyOf(v, m);
+      weight = Arrays.copyOf(weight, m);
+      keyU = Arrays.copyOf(keyU, m);
+      keyV = Arrays.copyOf(keyV, m);
+      kind = Arrays.copyOf(kind, m);
+    }
+  }
+
   /** Appends edge {@code e} of {@code other} with its ends replaced by {@code a}, {@code b}. */
   public void add(SolveEdges other, int e, long a, long b) {
     add(a, b, other.weight[e], other.keyU[e], other.keyV[e], other.kind[e]);
@@ -71,9 +134,45 @@ public final class SolveEdges implements Serializable {
 
   /** Appends every edge of {@code other}. */
   public void addAll(SolveEdges other) {
-    for (int e = 0; e < other.size; e++) {
-      add(other, e, other.u[e], other.v[e]);
-    }
+    int n = other.size;
+    reserve(n);
+    System.arraycopy(other.u, 0, u, size, n);
+    System.arraycopy(other.v, 0, v, size, n);
+    System.arraycopy(other.weight, 0, weight, size, n);
+    System.arraycopy(other.keyU, 0, keyU, size, n);
+    System.arraycopy(other.keyV, 0, keyV, size, n);
+    System.arraycopy(other.kind, 0, kind, size, n);
+    size += n;
+  }
+
+  /** The first ends, a column of at least {@link #size} entries; read only. */
+  long[] uColumn() {
+    return u;
+  }
+
+  /** The second ends, a column of at least {@link #size} entries; read only. */
+  long[] vColumn() {
+    return v;
+  }
+
+  /** The weights, a column of at least {@link #size} entries; read only. */
+  double[] weightColumn() {
+    return weight;
+  }
+
+  /** The keys' first ids, a column of at least {@link #size} entries; read only. */
+  long[] keyUColumn() {
+    return keyU;
+  }
+
+  /** The keys' second ids, a column of at least {@link #size} entries; read only. */
+  long[] keyVColumn() {
+    return keyV;
+  }
+
+  /** The kinds, a column of at least {@link #size} entries; read only. */
+  byte[] kindColumn() {
+    return kind;
   }
 
   public int size() {
@@ -127,20 +226,46 @@ public final class SolveEdges implements Serializable {
    */
   public SolveEdges joinCopies() {
     int[] order = EdgeSort.byKey(this);
-    SolveEdges out = new SolveEdges(size);
+    // the columns in key order, one column at a time (independent reads the processor
+    // overlaps), then one pass in order that keeps the first copy of each key
+    long[] su = gather(u, order);
+    long[] sv = gather(v, order);
+    long[] ku = gather(keyU, order);
+    long[] kv = gather(keyV, order);
+    double[] w = new double[size];
+    byte[] k = new byte[size];
+    for (int i = 0; i < size; i++) {
+      w[i] = weight[order[i]];
+      k[i] = kind[order[i]];
+    }
+    int joined = 0;
     int i = 0;
     while (i < size) {
-      int e = order[i];
-      long a = u[e];
-      long b = v[e];
+      long a = su[i];
+      long b = sv[i];
       int j = i + 1;
-      while (j < size && compareKeys(order[j], e) == 0) {
-        a = Math.min(a, u[order[j]]);
-        b = Math.min(b, v[order[j]]);
-        j++;
+      for (; j < size && ku[j] == ku[i] && kv[j] == kv[i] && k[j] == k[i]; j++) {
+        a = Math.min(a, su[j]);
+        b = Math.min(b, sv[j]);
       }
-      out.add(this, e, a, b);
+      su[joined] = a;
+      sv[joined] = b;
+      w[joined] = w[i];
+      ku[joined] = ku[i];
+      kv[joined] = kv[i];
+      k[joined] = k[i];
+      joined++;
       i = j;
+    }
+    SolveEdges out = wrap(su, sv, w, ku, kv, k);
+    out.size = joined;
+    return out;
+  }
+
+  private long[] gather(long[] column, int[] order) {
+    long[] out = new long[size];
+    for (int i = 0; i < size; i++) {
+      out[i] = column[order[i]];
     }
     return out;
   }

@@ -1,6 +1,7 @@
 package org.sunder.stitching.solve;
 
 import java.io.Serializable;
+import java.util.Arrays;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
@@ -18,6 +19,11 @@ public final class SuperBlocks implements Serializable {
   private final long[][] blockPositions;
   private final int factor;
   private final IdLayout layout;
+  /**
+   * Per level, {@link #partsOfBlocks} of it, made on first use (null until then); replaced, not
+   * written, when a level is added, so a thread that reads the field sees whole arrays.
+   */
+  private transient volatile int[][] partsByLevel;
 
   public SuperBlocks(BlockGrid grid, IdLayout layout, int factor) {
     if (factor < 2) {
@@ -73,9 +79,34 @@ public final class SuperBlocks implements Serializable {
     return (int) index;
   }
 
-  /** The super-block of {@code level} holding the segment with provisional id {@code node}. */
+  /**
+   * The super-block of {@code level} holding the segment with provisional id {@code node}: one
+   * array read, the level's table of blocks' super-blocks made on first use (O(blocks), 4 bytes
+   * per block and level).
+   */
   public int partOfNode(long node, int level) {
-    return partOfBlock(layout.blockOf(node), level);
+    return partsOf(level)[layout.blockOf(node)];
+  }
+
+  /** {@link #partsOfBlocks} of {@code level}, kept; the caller must not write it. */
+  private int[] partsOf(int level) {
+    int[][] table = partsByLevel;
+    if (table != null && level < table.length && table[level] != null) {
+      return table[level];
+    }
+    if (level < 0) {
+      throw new IllegalArgumentException("level " + level + ": levels start at 0 (the blocks)");
+    }
+    synchronized (this) {
+      table = partsByLevel;
+      int[][] grown = table == null ? new int[level + 1][]
+          : Arrays.copyOf(table, Math.max(table.length, level + 1));
+      if (grown[level] == null) {
+        grown[level] = partsOfBlocks(level);
+      }
+      partsByLevel = grown;
+      return grown[level];
+    }
   }
 
   /**
