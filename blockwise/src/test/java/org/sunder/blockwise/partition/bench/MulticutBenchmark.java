@@ -7,9 +7,11 @@ import org.sunder.blockwise.partition.multicut.Multicut;
 import org.sunder.blockwise.partition.multicut.MulticutResult;
 
 /**
- * The multicut heuristics on graphs shaped like a reduced graph: nodes on a 3D lattice, each
- * joined to its six neighbours and to a few random nodes within a short distance, costs drawn
- * around a positive mean (most neighbours belong together) with a heavy repulsive share. Prints
+ * The multicut heuristics on graphs shaped like a fragment graph: nodes on a 3D lattice grouped
+ * into objects of 4 × 4 × 4 nodes, each node joined to its six neighbours and to a few random
+ * nodes within three steps; a pair inside an object costs {@code +2 + N(0, 1.5)}, a pair across
+ * objects {@code −1 + N(0, 1.5)}, so that a good partition is near the objects and the noise
+ * leaves the heuristics real work. Prints
  * greedy additive edge contraction and Kernighan–Lin refinement in ns per edge, each also as a
  * ratio to sorting the edge costs once ({@code Arrays.sort}), measured in the same run, so
  * figures from different machines compare. One thread; the best of three repetitions.
@@ -19,6 +21,18 @@ import org.sunder.blockwise.partition.multicut.MulticutResult;
  */
 public final class MulticutBenchmark {
   private MulticutBenchmark() {}
+
+  private static double cost(int i, int j, int side, Random random) {
+    boolean together = object(i, side) == object(j, side);
+    return (together ? 2 : -1) + 1.5 * random.nextGaussian();
+  }
+
+  private static int object(int i, int side) {
+    int x = i % side;
+    int y = i / side % side;
+    int z = i / (side * side);
+    return x / 4 + side * (y / 4 + side * (z / 4));
+  }
 
   public static void main(String[] args) {
     int side = args.length > 0 ? Integer.parseInt(args[0]) : 100;
@@ -41,7 +55,7 @@ public final class MulticutBenchmark {
             if (j >= 0) {
               u[e] = i;
               v[e] = j;
-              w[e++] = 0.5 + 2 * random.nextGaussian();
+              w[e++] = cost(i, j, side, random);
             }
           }
           for (int k = 0; k < extra; k++) {
@@ -52,7 +66,7 @@ public final class MulticutBenchmark {
             if (j != i) {
               u[e] = i;
               v[e] = j;
-              w[e++] = -0.5 + 2 * random.nextGaussian();
+              w[e++] = cost(i, j, side, random);
             }
           }
         }
