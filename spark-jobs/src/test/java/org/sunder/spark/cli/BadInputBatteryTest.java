@@ -208,7 +208,9 @@ class BadInputBatteryTest {
 
   @Test
   void outOfMemoryInATaskExitsWithItsOwnCodeAndAHint() throws IOException {
-    Path file = config(basic(""));
+    // One block, so no sibling task is still writing when the failed job returns: Spark cancels
+    // those asynchronously, and its status tracker can report them finished before they are.
+    Path file = config(basic(", \"blocks\": {\"shape\": [12, 20, 28]}"));
     Map<String, String> inputBefore = checksums(input.resolve("affinities"));
     System.setProperty(TaskHooks.MEMORY_KEY, "partition:0");
     try {
