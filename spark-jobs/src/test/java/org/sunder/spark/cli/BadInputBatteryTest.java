@@ -49,6 +49,12 @@ import org.sunder.spark.workdir.WorkDirLock;
 class BadInputBatteryTest {
   private static final long[] VOLUME = {12, 20, 28};
   private static final int[] CHUNKS = {6, 10, 14};
+  /**
+   * A run whose partition is one task, for runs that fail inside a task: Spark cancels a failed
+   * job's other tasks asynchronously, and its status tracker can report them finished while they
+   * still write into the temporary folder.
+   */
+  private static final String ONE_BLOCK = ", \"blocks\": {\"shape\": [12, 20, 28]}";
   private static JavaSparkContext spark;
 
   @TempDir
@@ -208,9 +214,7 @@ class BadInputBatteryTest {
 
   @Test
   void outOfMemoryInATaskExitsWithItsOwnCodeAndAHint() throws IOException {
-    // One block, so no sibling task is still writing when the failed job returns: Spark cancels
-    // those asynchronously, and its status tracker can report them finished before they are.
-    Path file = config(basic(", \"blocks\": {\"shape\": [12, 20, 28]}"));
+    Path file = config(basic(ONE_BLOCK));
     Map<String, String> inputBefore = checksums(input.resolve("affinities"));
     System.setProperty(TaskHooks.MEMORY_KEY, "partition:0");
     try {
@@ -370,7 +374,7 @@ class BadInputBatteryTest {
       Files.write(chunk, bad.getValue());
       Path file = config(basic(", \"workDir\": \"" + dir.resolve("work-" + bad.getKey().charAt(0))
           + "\", \"output\": {\"container\": \"" + dir.resolve("out-" + bad.getKey().charAt(0)
-          + ".zarr") + "\"}, \"partition\": {\"method\": \"mutex-watershed\"}"));
+          + ".zarr") + "\"}, \"partition\": {\"method\": \"mutex-watershed\"}" + ONE_BLOCK));
       CliRun run = refused(ErrorKind.INVALID_INPUT.exitCode(), SparkContextSource.shared(spark()),
           List.of("run", file.toString()), chunk.toString(), "[0, 1, 1, 0]", "corrupt");
       assertEquals(1, run.err().lines().filter(l -> l.startsWith("sunder run:")).count(),
