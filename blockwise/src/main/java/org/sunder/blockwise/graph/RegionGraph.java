@@ -8,10 +8,15 @@ package org.sunder.blockwise.graph;
  * {@code O(nodeCount * offsetCount)} expected time plus {@code O(p log p)} for {@code p} pairs. Immutable.
  */
 public final class RegionGraph {
-  private final EdgeStatistics statistics;
+  /** Marks a pair's row as one of edges inside the region in the one-pass accumulation. */
+  private static final long INSIDE = 1L << 62;
 
-  private RegionGraph(EdgeStatistics statistics) {
+  private final EdgeStatistics statistics;
+  private final EdgeStatistics insideStatistics;
+
+  private RegionGraph(EdgeStatistics statistics, EdgeStatistics insideStatistics) {
     this.statistics = statistics;
+    this.insideStatistics = insideStatistics;
   }
 
   /** Region graph of {@code labels} (box voxels in memory order) over {@code graph}'s edges. */
@@ -24,7 +29,60 @@ public final class RegionGraph {
         acc.add(a, b, w);
       }
     });
-    return new RegionGraph(acc.build());
+    return new RegionGraph(acc.build(), EdgeStatistics.empty());
+  }
+
+  /**
+   * As {@link #of(int[], GridGraph)}, and beside it, in the same pass, the statistics over the
+   * edges whose two ends are both marked in {@code inside} (for a block: its core), so a caller
+   * that needs both never walks the edges twice. Each pair is looked up once per edge: an edge
+   * inside counts in a row of its own (the pair's key flagged), and the whole statistics are the
+   * two rows merged, so their sums may differ from {@link #of(int[], GridGraph)}'s in the last
+   * bits.
+   */
+  public static RegionGraph of(int[] labels, GridGraph graph, byte[] inside) {
+    if (inside.length != labels.length) {
+      throw new IllegalArgumentException("inside has " + inside.length + " flags for "
+          + labels.length + " voxels");
+    }
+    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
+    graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
+      int a = labels[s];
+      int b = labels[t];
+      if (a != 0 && b != 0) {
+        long high = Math.max(a, b);
+        acc.add(Math.min(a, b), inside[s] != 0 && inside[t] != 0 ? high | INSIDE : high, w);
+      }
+    });
+    EdgeStatistics rows = acc.build();
+    EdgeStatistics insideRows = rowsWhere(rows, true);
+    return new RegionGraph(rowsWhere(rows, false).merge(insideRows), insideRows);
+  }
+
+  /** The rows flagged {@link #INSIDE} (or not), the flag cleared. */
+  private static EdgeStatistics rowsWhere(EdgeStatistics rows, boolean flagged) {
+    int count = 0;
+    for (int e = 0; e < rows.size(); e++) {
+      count += ((rows.v(e) & INSIDE) != 0) == flagged ? 1 : 0;
+    }
+    long[] u = new long[count];
+    long[] v = new long[count];
+    double[] sum = new double[count];
+    long[] n = new long[count];
+    double[] min = new double[count];
+    double[] max = new double[count];
+    int row = 0;
+    for (int e = 0; e < rows.size(); e++) {
+      if (((rows.v(e) & INSIDE) != 0) == flagged) {
+        u[row] = rows.u(e);
+        v[row] = rows.v(e) & ~INSIDE;
+        sum[row] = rows.sum(e);
+        n[row] = rows.count(e);
+        min[row] = rows.min(e);
+        max[row++] = rows.max(e);
+      }
+    }
+    return EdgeStatistics.of(u, v, sum, n, min, max);
   }
 
   /** As {@link #of(int[], GridGraph)} for 64-bit labels. */
@@ -37,11 +95,19 @@ public final class RegionGraph {
         acc.add(a, b, w);
       }
     });
-    return new RegionGraph(acc.build());
+    return new RegionGraph(acc.build(), EdgeStatistics.empty());
   }
 
   /** The statistics per touching pair of labels, canonical order. */
   public EdgeStatistics statistics() {
     return statistics;
+  }
+
+  /**
+   * The statistics over the edges with both ends inside the region given to
+   * {@link #of(int[], GridGraph, byte[])}; empty for a graph built without one.
+   */
+  public EdgeStatistics insideStatistics() {
+    return insideStatistics;
   }
 }

@@ -25,4 +25,15 @@ public interface Partitioner {
     SettledPartition.checkOpen(open, block.voxelCount());
     return SettledPartition.whole(partition(block));
   }
+
+  /**
+   * As {@link #partitionSettled(AffinityBlock, byte[])}, with leave to measure the statistics
+   * between the pieces in passing ({@link SettledPartition#edgesOrNull()}): over every edge, and
+   * over the edges whose ends are both marked in {@code inside} (one flag per voxel; for a block,
+   * its core). The fragment methods do, since they walk the edges anyway; the others measure
+   * nothing and the caller walks the edges itself.
+   */
+  default SettledPartition partitionSettled(AffinityBlock block, byte[] open, byte[] inside) {
+    return partitionSettled(block, open);
+  }
 }

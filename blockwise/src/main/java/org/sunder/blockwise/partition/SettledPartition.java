@@ -1,6 +1,7 @@
 package org.sunder.blockwise.partition;
 
 import java.util.Objects;
+import org.sunder.blockwise.graph.AffinityBlock;
 
 /**
  * A block's partition that keeps apart what the block joined only through voxels it cannot
@@ -12,9 +13,11 @@ import java.util.Objects;
  * {@code unsettled[label]} is true for a piece whose cluster in the method's full result holds
  * an open voxel; such a piece waits for the global solve, every other piece is a whole segment
  * of the full result. Without open voxels, the pieces are the method's partition and none is
- * unsettled.
+ * unsettled. {@code edgesOrNull} holds the statistics between the pieces when the method
+ * measured them in passing (see {@link Partitioner#partitionSettled(AffinityBlock, byte[],
+ * byte[])}), else null.
  */
-public record SettledPartition(Segmentation pieces, boolean[] unsettled) {
+public record SettledPartition(Segmentation pieces, boolean[] unsettled, PieceEdges edgesOrNull) {
 
   public SettledPartition {
     Objects.requireNonNull(pieces, "pieces");
@@ -22,6 +25,16 @@ public record SettledPartition(Segmentation pieces, boolean[] unsettled) {
       throw new IllegalArgumentException("unsettled has " + unsettled.length
           + " entries for " + pieces.segmentCount() + " pieces (label 0 included)");
     }
+  }
+
+  /** A partition whose piece statistics were not measured. */
+  public SettledPartition(Segmentation pieces, boolean[] unsettled) {
+    this(pieces, unsettled, null);
+  }
+
+  /** This partition carrying {@code edges}, the statistics between its pieces. */
+  public SettledPartition withEdges(PieceEdges edges) {
+    return new SettledPartition(pieces, unsettled, Objects.requireNonNull(edges, "edges"));
   }
 
   /** A partition that held nothing back: every segment is a settled piece. */

@@ -8,6 +8,7 @@ import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.grid.Shapes;
+import org.sunder.blockwise.partition.PieceEdges;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.SettledPartition;
 
@@ -84,6 +85,16 @@ public final class CoreSegments {
     return open;
   }
 
+  /** The core's voxels of a block's extended box (memory order), flagged 1. O(extended voxels). */
+  static byte[] coreVoxels(Block block) {
+    byte[] core = new byte[Shapes.intElementCount(block.extendedShape())];
+    for (int i : BoxIndex.subBoxIndices(block.extendedShape(),
+        BoxIndex.origin(block.extendedMin(), block.coreMin()), block.coreShape())) {
+      core[i] = 1;
+    }
+    return core;
+  }
+
   /**
    * The voxels of a block's extended box (memory order) whose segments a per-block size filter
    * must leave alone because the block sees only part of them: the halo, and the core's voxels
@@ -133,6 +144,8 @@ public final class CoreSegments {
    *     segments and every segment of fewer than {@code k} core voxels (the block filtered
    *     nothing)
    * @param markContinuations whether to compute {@link #continuations} (fragment methods)
+   * @param extendedGraph the extended box's edges; may be null when the partition carries the
+   *     statistics between its pieces ({@link SettledPartition#edgesOrNull()})
    */
   public static Result of(BlockGrid grid, IdLayout layout, Block block, Offsets offsets,
       SettledPartition partition, GridGraph extendedGraph, int filterNodesBelow,
@@ -188,8 +201,11 @@ public final class CoreSegments {
         filterNode[k] = boundary[k] || sizes[k - 1] < filterNodesBelow;
       }
     }
-    Inner inner = innerEdges(layout, block.index(), labels, localOf, coreIndex, boundary,
-        unsettled, extendedGraph, filterNode);
+    Inner inner = partition.edgesOrNull() != null
+        ? innerEdgesOfPieces(layout, block.index(), localOf, boundary, unsettled, filterNode,
+            partition.edgesOrNull())
+        : innerEdges(layout, block.index(), labels, localOf, coreIndex, boundary, unsettled,
+            extendedGraph, filterNode);
     long[] provisional = new long[coreLocal.length];
     for (int i = 0; i < coreLocal.length; i++) {
       int local = coreLocal[i];
@@ -354,7 +370,12 @@ public final class CoreSegments {
         repulsive.add(a, b, w);
       }
     });
-    EdgeStatistics edges = provisional(layout, block, core.build());
+    return inner(layout, block, core, repulsive, interior);
+  }
+
+  /** The accumulated statistics of local ids as an {@link Inner} of provisional ids. */
+  private static Inner inner(IdLayout layout, int block, EdgeStatistics.Accumulator core,
+      EdgeStatistics.Accumulator repulsive, EdgeStatistics.Accumulator interior) {
     EdgeStatistics apart = repulsive.build();
     long[] su = new long[apart.size()];
     long[] sv = new long[apart.size()];
@@ -362,7 +383,43 @@ public final class CoreSegments {
       su[e] = layout.provisional(block, apart.u(e));
       sv[e] = layout.provisional(block, apart.v(e));
     }
-    return new Inner(edges, su, sv, provisional(layout, block, interior.build()));
+    return new Inner(provisional(layout, block, core.build()), su, sv,
+        provisional(layout, block, interior.build()));
+  }
+
+  /**
+   * As {@link #innerEdges}, from the statistics between pieces that the partition measured
+   * (inside = the core) instead of a pass over the box's edges: the same rows, with sums that
+   * may differ in the last bits (added in another order). O(piece pairs).
+   */
+  private static Inner innerEdgesOfPieces(IdLayout layout, int block, int[] localOf,
+      boolean[] boundary, boolean[] unsettled, boolean[] filterNode, PieceEdges pieces) {
+    EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
+    EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(256);
+    EdgeStatistics inside = pieces.inside();
+    for (int e = 0; e < inside.size(); e++) {
+      int ls = localOf[(int) inside.u(e)];
+      int lt = localOf[(int) inside.v(e)];
+      if (ls == 0 || lt == 0) {
+        continue;
+      }
+      EdgeStatistics.Accumulator into = boundary[ls] && boundary[lt] ? core
+          : filterNode[ls] || filterNode[lt] ? interior : null;
+      if (into != null) {
+        into.add(ls, lt, inside.sum(e), inside.count(e), inside.min(e), inside.max(e));
+      }
+    }
+    EdgeStatistics anywhere = pieces.anywhere();
+    EdgeStatistics.Accumulator repulsive = new EdgeStatistics.Accumulator(256);
+    for (int e = 0; e < anywhere.size(); e++) {
+      int a = localOf[(int) anywhere.u(e)];
+      int b = localOf[(int) anywhere.v(e)];
+      if (a != 0 && b != 0 && boundary[a] && boundary[b] && anywhere.min(e) < 0
+          && !unsettled[a] && !unsettled[b]) {
+        repulsive.add(a, b, anywhere.min(e));
+      }
+    }
+    return inner(layout, block, core, repulsive, interior);
   }
 
   /** {@code local} with local ids replaced by provisional ids. */

@@ -65,17 +65,19 @@ public final class PartitionTask {
   static CoreSegments.Result partition(StitchingSetup setup, Block block,
       AffinityBlock affinities, PartitionConfig config) {
     byte[] open = CoreSegments.openVoxels(setup.grid(), block, setup.offsets());
+    byte[] core = CoreSegments.coreVoxels(block);
     Partitioner partitioner = config.create();
     boolean filterAfterSolve = filtersAfterSolve(config);
     SettledPartition partition;
     if (partitioner instanceof SizeFilteredPartitioner filtered) {
-      partition = filterAfterSolve ? filtered.inner().partitionSettled(affinities, open)
+      partition = filterAfterSolve ? filtered.inner().partitionSettled(affinities, open, core)
           : filtered.partitionSettled(affinities, open,
               union(open, CoreSegments.partialVoxels(setup.grid(), block, setup.offsets())));
     } else {
-      partition = partitioner.partitionSettled(affinities, open);
+      partition = partitioner.partitionSettled(affinities, open, core);
     }
-    GridGraph graph = GridGraph.of(affinities, config.weights(), config.subsampling());
+    GridGraph graph = partition.edgesOrNull() != null ? null
+        : GridGraph.of(affinities, config.weights(), config.subsampling());
     int filterNodesBelow = config.minSegmentSize() <= 1 ? 0
         : filterAfterSolve ? config.minSegmentSize() : 1;
     return CoreSegments.of(setup.grid(), setup.idLayout(), block, setup.offsets(), partition,

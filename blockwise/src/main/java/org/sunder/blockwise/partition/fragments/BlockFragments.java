@@ -6,6 +6,7 @@ import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.RegionGraph;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
+import org.sunder.blockwise.partition.PieceEdges;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.SettledPartition;
 
@@ -18,20 +19,36 @@ import org.sunder.blockwise.partition.SettledPartition;
  * @param labels fragment of each voxel, 1..count, 0 where masked
  * @param count number of fragments
  * @param statistics edge statistics between fragment ids 1..count
+ * @param insideStatistics the same over the edges with both ends in the region the caller
+ *     marked (see {@link #of(AffinityBlock, FragmentOptions, WeightRule, Subsampling, byte[])}),
+ *     or null when none was
  */
-public record BlockFragments(int[] labels, int count, EdgeStatistics statistics) {
+public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
+    EdgeStatistics insideStatistics) {
 
   /** Computes the fragments of {@code block}. */
   public static BlockFragments of(AffinityBlock block, FragmentOptions options,
       WeightRule weights, Subsampling subsampling) {
+    return of(block, options, weights, subsampling, null);
+  }
+
+  /**
+   * As {@link #of(AffinityBlock, FragmentOptions, WeightRule, Subsampling)}, also measuring, in
+   * the same pass over the edges, the statistics over the edges whose ends are both marked in
+   * {@code insideOrNull} (one flag per voxel; for a block, its core).
+   */
+  public static BlockFragments of(AffinityBlock block, FragmentOptions options,
+      WeightRule weights, Subsampling subsampling, byte[] insideOrNull) {
     int[] labels = label(block, options);
     int count = 0;
     for (int l : labels) {
       count = Math.max(count, l);
     }
-    EdgeStatistics statistics =
-        RegionGraph.of(labels, GridGraph.of(block, weights, subsampling)).statistics();
-    return new BlockFragments(labels, count, statistics);
+    GridGraph graph = GridGraph.of(block, weights, subsampling);
+    RegionGraph regions = insideOrNull == null ? RegionGraph.of(labels, graph)
+        : RegionGraph.of(labels, graph, insideOrNull);
+    return new BlockFragments(labels, count, regions.statistics(),
+        insideOrNull == null ? null : regions.insideStatistics());
   }
 
   /** Fragment labels only (boundary map and seeded watershed). */
@@ -53,7 +70,9 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics)
    * unmasked voxel ({@code open[i] != 0}) is unsettled and its pieces are its fragments, so the
    * global solve can continue the method from the fragment-level statistics (its merges leaned
    * on edges the block could not see, and a merge order that ran through them cannot be undone
-   * later); every other cluster is one settled piece. O(voxels + fragments).
+   * later); every other cluster is one settled piece. When the fragments were measured with an
+   * inside region, the partition carries the statistics between its pieces ({@link PieceEdges}).
+   * O(voxels + fragment pairs · log fragments).
    */
   SettledPartition settled(int[] clusterOfFragment, byte[] open, byte[] mask) {
     SettledPartition.checkOpen(open, labels.length);
@@ -85,7 +104,25 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics)
         pieceOfVoxel[i] = clusterOpen[c] ? fragment : representative[c];
       }
     }
-    return SettledPartition.of(clusterOfVoxel, pieceOfVoxel, open, mask);
+    SettledPartition partition = SettledPartition.of(clusterOfVoxel, pieceOfVoxel, open, mask);
+    return insideStatistics == null ? partition : partition.withEdges(pieceEdges(partition));
+  }
+
+  /** The fragment statistics moved to the pieces of {@code partition}. */
+  private PieceEdges pieceEdges(SettledPartition partition) {
+    int[] pieceLabels = partition.pieces().labels();
+    long[] fragmentIds = new long[count];
+    long[] pieceOfFragment = new long[count];
+    for (int f = 0; f < count; f++) {
+      fragmentIds[f] = f + 1;
+    }
+    for (int i = 0; i < labels.length; i++) {
+      if (labels[i] > 0) {
+        pieceOfFragment[labels[i] - 1] = pieceLabels[i];
+      }
+    }
+    return new PieceEdges(insideStatistics.relabel(fragmentIds, pieceOfFragment),
+        statistics.relabel(fragmentIds, pieceOfFragment));
   }
 
   /** The voxel segmentation that gives fragment {@code f} the cluster {@code clusterOf[f−1]}. */

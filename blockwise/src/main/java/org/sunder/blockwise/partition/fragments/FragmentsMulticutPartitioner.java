@@ -43,8 +43,18 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
    */
   @Override
   public SettledPartition partitionSettled(AffinityBlock block, byte[] open) {
+    return settled(block, open, null);
+  }
+
+  /** As {@link #partitionSettled(AffinityBlock, byte[])}, with the pieces' statistics. */
+  @Override
+  public SettledPartition partitionSettled(AffinityBlock block, byte[] open, byte[] inside) {
+    return settled(block, open, Objects.requireNonNull(inside, "inside"));
+  }
+
+  private SettledPartition settled(AffinityBlock block, byte[] open, byte[] insideOrNull) {
     SettledPartition.checkOpen(open, block.voxelCount());
-    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, insideOrNull);
     return f.settled(solve(f.count(), f.statistics(), linkage).labels(), open,
         block.maskOrNull());
   }
