@@ -5,11 +5,14 @@ import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.partition.multicut.MulticutSolver;
 
-/** {@link ReducedGraphSolverContract} for {@link MulticutSolver} on summed weights. */
+/**
+ * {@link ReducedGraphSolverContract} for {@link MulticutSolver} on summed weights: the greedy
+ * additive contraction alone, the default.
+ */
 class MulticutSolverTest extends ReducedGraphSolverContract {
   @Override
   ReducedGraphSolver solver() {
-    return new MulticutSolver(Linkage.SUM);
+    return new MulticutSolver(Linkage.SUM, false);
   }
 
   /**

@@ -104,7 +104,7 @@ public final class LevelTasks {
   /** The part solver of the run's method. */
   public static PartSolver partSolver(PartitionConfig config) {
     if (SuperBlockSolve.isMulticut(config)) {
-      return new MulticutPartSolver();
+      return new MulticutPartSolver(config.kernighanLin());
     }
     return config.isMutexWatershed() ? new MutexPartSolver()
         : new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());

@@ -37,14 +37,21 @@ import org.sunder.blockwise.partition.multicut.Multicut;
  * the same costs summed in the same order ({@link EdgeStatistics#of}).
  *
  * <p>O(m log m) for the part's m rows plus the multicut's cost (greedy additive edge
- * contraction and Kernighan–Lin refinement, {@link Multicut#solve}). Deterministic: rows are
- * read in key order.
+ * contraction, and Kernighan–Lin refinement when the run asks for it, as the single-level solve
+ * does). Deterministic: rows are read in key order.
  */
 public final class MulticutPartSolver implements PartSolver {
   /** A pair's cost: its summed weights (positive joins, negative cuts). */
   public static final byte COST = 8;
   /** Present (weight: continued voxel pairs) when the pair's ends are joined first. */
   public static final byte JOINED = 9;
+
+  private final boolean kernighanLin;
+
+  /** @param kernighanLin whether each part's multicut is refined by Kernighan–Lin */
+  public MulticutPartSolver(boolean kernighanLin) {
+    this.kernighanLin = kernighanLin;
+  }
 
   @Override
   public String name() {
@@ -162,7 +169,7 @@ public final class MulticutPartSolver implements PartSolver {
    * groups left out (each stays a cluster of its own, all its pairs handed up): per node, its
    * cluster (0..k-1). O(m log m) plus the multicut.
    */
-  private static int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,
+  private int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,
       boolean[] open) {
     int inner = 0;
     for (int k = 0; k < order.length; k++) {
@@ -184,7 +191,7 @@ public final class MulticutPartSolver implements PartSolver {
       }
     }
     EdgeStatistics costs = EdgeStatistics.ofEdges(a, b, w);
-    int[] labels = Multicut.ofLinkage(group.length, costs, Linkage.SUM, 0).labels();
+    int[] labels = Multicut.ofLinkage(group.length, costs, Linkage.SUM, 0, kernighanLin).labels();
     int[] cluster = new int[group.length];
     for (int i = 0; i < group.length; i++) {
       cluster[i] = labels[group[i]];

@@ -127,6 +127,9 @@ public final class DefaultTuningBenchmark {
           c.constraints(), c.threshold(), c.weights(), c.subsampling(), c.fragments(),
           (int) Math.max(2, Math.round(c.minSegmentSize() * factor)), c.sizeFilter()));
     }
+    variants.put("kernighanLin on", c -> new PartitionConfig(c.method(), c.linkage(),
+        c.constraints(), c.threshold(), c.weights(), c.subsampling(), c.fragments(),
+        c.minSegmentSize(), c.sizeFilter(), true));
     return variants;
   }
 

@@ -24,7 +24,7 @@ import org.sunder.stitching.RandomReducedGraphs;
  * partition of a small graph; on clean inputs it gives the single-level partition.
  */
 class MulticutPartSolverTest {
-  private static final MulticutSolver SINGLE_LEVEL = new MulticutSolver(Linkage.SUM);
+  private static final MulticutSolver SINGLE_LEVEL = new MulticutSolver(Linkage.SUM, false);
 
   /** A random graph with, on some trials, continued pairs between face-adjacent blocks. */
   private static ReducedGraph graph(BlockGrid grid, IdLayout layout, Random random,
@@ -90,7 +90,7 @@ class MulticutPartSolverTest {
   private static HierarchicalSolver fitting(ReducedGraph graph, SuperBlocks superBlocks,
       long bound) {
     while (true) {
-      HierarchicalSolver solver = new HierarchicalSolver(new MulticutPartSolver(), superBlocks,
+      HierarchicalSolver solver = new HierarchicalSolver(new MulticutPartSolver(false), superBlocks,
           bound, null);
       try {
         solver.clusters(graph);
@@ -114,13 +114,13 @@ class MulticutPartSolverTest {
           1 + random.nextInt(4), trial % 2 == 1);
       int[] expected = singleLevel(graph);
       // a bound the whole graph fits under: no level, the driver's part holds every node
-      HierarchicalSolver whole = new HierarchicalSolver(new MulticutPartSolver(),
+      HierarchicalSolver whole = new HierarchicalSolver(new MulticutPartSolver(false),
           new SuperBlocks(grid, layout, 2), Long.MAX_VALUE, null);
       int[] actual = RandomReducedGraphs.canonical(whole.clusters(graph));
       assertArrayEquals(expected, actual, "trial " + trial);
       assertTrue(whole.lastResult().levels().isEmpty());
       // the part solver called directly with a part that holds every node
-      PartResult part = new MulticutPartSolver().solve(HierarchicalSolver.multicutEdges(graph),
+      PartResult part = new MulticutPartSolver(false).solve(HierarchicalSolver.multicutEdges(graph),
           node -> true);
       assertEquals(0, part.remaining().size(), "trial " + trial + ": the whole part hands up");
       java.util.List<long[][]> levels = new java.util.ArrayList<>();
@@ -278,7 +278,7 @@ class MulticutPartSolverTest {
     SolveEdges rows = new SolveEdges(1);
     rows.add(1, 2, 0.5, 1, 2, SolveEdges.MAX);
     IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
-        () -> new MulticutPartSolver().solve(rows, node -> true));
+        () -> new MulticutPartSolver(false).solve(rows, node -> true));
     assertTrue(e.getMessage().contains("not a multicut row"), e.getMessage());
   }
 }

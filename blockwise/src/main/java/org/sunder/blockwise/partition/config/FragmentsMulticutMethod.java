@@ -50,12 +50,12 @@ public record FragmentsMulticutMethod() implements PartitionMethod {
   @Override
   public Partitioner partitioner(PartitionConfig config) {
     return new FragmentsMulticutPartitioner(config.fragments(), config.linkage(),
-        config.weights(), config.subsampling());
+        config.weights(), config.subsampling(), config.kernighanLin());
   }
 
   @Override
   public ReducedGraphSolver solver(PartitionConfig config) {
-    return new MulticutSolver(config.linkage());
+    return new MulticutSolver(config.linkage(), config.kernighanLin());
   }
 
   /** {@inheritDoc} (a stated bound, not measured: the voxel-level work is the seeded watershed on the boundary map, the graph has one node per fragment) */

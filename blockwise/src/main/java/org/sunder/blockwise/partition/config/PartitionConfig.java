@@ -42,8 +42,10 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * omitted); {@code minSegmentSize} (any method, default 0 = off; see below);
  * {@code sizeFilter} (how {@code minSegmentSize} treats the method's constraints:
  * {@code "complete"}, the default, or {@code "within-constraints"}; only with
- * {@code minSegmentSize} above 1). {@link #validate(Offsets)} checks them against the dataset's
- * offsets.
+ * {@code minSegmentSize} above 1); {@code kernighanLin} ({@code fragments-multicut} only:
+ * refine each multicut by Kernighan–Lin after the greedy additive contraction, default false: on
+ * the realistic tissue presets it changed the adapted Rand error by under 0.001 and cost a fifth
+ * of the partition). {@link #validate(Offsets)} checks them against the dataset's offsets.
  *
  * <p>The size filter ({@link SizeFilter}), applied after the method: smallest segment first, a
  * segment with fewer than {@code minSegmentSize} voxels joins the adjacent segment it is most
@@ -65,8 +67,8 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * a new record there, and this class does not change. Immutable, serialisable.
  */
 public final class PartitionConfig implements java.io.Serializable {
-  /** 2: the method became a {@link PartitionMethod} record (was an enum). */
-  private static final long serialVersionUID = 2L;
+  /** 3: the {@code kernighanLin} key. */
+  private static final long serialVersionUID = 3L;
 
   private final PartitionMethod method;
   private final Linkage linkage;
@@ -77,6 +79,7 @@ public final class PartitionConfig implements java.io.Serializable {
   private final FragmentOptions fragments;
   private final int minSegmentSize;
   private final SizeFilter.Rule sizeFilter;
+  private final boolean kernighanLin;
 
   /** As the full constructor without fragment options and size filter. */
   public PartitionConfig(PartitionMethod method, Linkage linkage, Boolean constraints,
@@ -92,6 +95,14 @@ public final class PartitionConfig implements java.io.Serializable {
         minSegmentSize, null);
   }
 
+  /** As the full constructor without Kernighan–Lin refinement. */
+  public PartitionConfig(PartitionMethod method, Linkage linkage, Boolean constraints,
+      Double threshold, WeightRule weights, Subsampling subsampling, FragmentOptions fragments,
+      Integer minSegmentSize, SizeFilter.Rule sizeFilter) {
+    this(method, linkage, constraints, threshold, weights, subsampling, fragments,
+        minSegmentSize, sizeFilter, null);
+  }
+
   /** Null arguments take their defaults (see the class comment); {@code method} is required. */
   @JsonCreator
   public PartitionConfig(@JsonProperty("method") PartitionMethod method,
@@ -102,7 +113,8 @@ public final class PartitionConfig implements java.io.Serializable {
       @JsonProperty("subsampling") Subsampling subsampling,
       @JsonProperty("fragments") FragmentOptions fragments,
       @JsonProperty("minSegmentSize") Integer minSegmentSize,
-      @JsonProperty("sizeFilter") SizeFilter.Rule sizeFilter) {
+      @JsonProperty("sizeFilter") SizeFilter.Rule sizeFilter,
+      @JsonProperty("kernighanLin") Boolean kernighanLin) {
     if (method == null) {
       throw invalid("method: missing; expected " + PartitionMethod.names(true, ", "));
     }
@@ -136,6 +148,11 @@ public final class PartitionConfig implements java.io.Serializable {
           + "set minSegmentSize above 1 or remove sizeFilter");
     }
     this.sizeFilter = sizeFilter != null ? sizeFilter : SizeFilter.Rule.COMPLETE;
+    if (kernighanLin != null && !(method instanceof FragmentsMulticutMethod)) {
+      throw invalid("kernighanLin: not used by method \"" + method.jsonName()
+          + "\"; only \"fragments-multicut\" solves a multicut");
+    }
+    this.kernighanLin = kernighanLin != null && kernighanLin;
   }
 
   /**
@@ -302,6 +319,19 @@ public final class PartitionConfig implements java.io.Serializable {
     return minSegmentSize > 1 ? sizeFilter : null;
   }
 
+  /** Whether each multicut is refined by Kernighan–Lin; null for the methods without one. */
+  @JsonProperty("kernighanLin")
+  @JsonInclude(JsonInclude.Include.NON_NULL)
+  public Boolean kernighanLinOrNull() {
+    return method instanceof FragmentsMulticutMethod ? kernighanLin : null;
+  }
+
+  /** Whether each multicut is refined by Kernighan–Lin (false for the other methods). */
+  @JsonIgnore
+  public boolean kernighanLin() {
+    return kernighanLin;
+  }
+
   @JsonIgnore
   public boolean isMutexWatershed() {
     return method instanceof MutexWatershedMethod;
@@ -312,13 +342,14 @@ public final class PartitionConfig implements java.io.Serializable {
     return o instanceof PartitionConfig c && method.equals(c.method) && linkage == c.linkage
         && constraints == c.constraints && threshold == c.threshold && weights.equals(c.weights)
         && subsampling.equals(c.subsampling) && Objects.equals(fragments, c.fragments)
-        && minSegmentSize == c.minSegmentSize && Objects.equals(sizeFilter(), c.sizeFilter());
+        && minSegmentSize == c.minSegmentSize && Objects.equals(sizeFilter(), c.sizeFilter())
+        && kernighanLin == c.kernighanLin;
   }
 
   @Override
   public int hashCode() {
     return Objects.hash(method, linkage, constraints, threshold, weights, subsampling, fragments,
-        minSegmentSize, sizeFilter());
+        minSegmentSize, sizeFilter(), kernighanLin);
   }
 
   @Override
@@ -327,7 +358,7 @@ public final class PartitionConfig implements java.io.Serializable {
         ? " " + linkage.jsonName() + (constraints ? " constrained" : "") : "") + ", " + weights
         + ", " + subsampling + (fragments != null ? ", " + fragments : "")
         + (minSegmentSize > 1 ? ", minSegmentSize " + minSegmentSize + " "
-            + sizeFilter.jsonName() : "") + "]";
+            + sizeFilter.jsonName() : "") + (kernighanLin ? ", Kernighan-Lin" : "") + "]";
   }
 
   private static PartitionConfigException invalid(String message) {

@@ -16,11 +16,11 @@ import org.sunder.blockwise.partition.multicut.MulticutResult;
  * The {@code "fragments-multicut"} method: {@link BlockFragments}, then a {@link Multicut} of
  * the fragment graph whose edge weights are the {@link Linkage} values of the statistics
  * between fragments (sum of the voxel-edge weights by default: with logit weights this is the
- * usual probabilistic multicut cost), solved by greedy additive edge contraction and
- * Kernighan–Lin refinement. Deterministic; stateless.
+ * usual probabilistic multicut cost), solved by greedy additive edge contraction, then
+ * Kernighan–Lin refinement when {@code kernighanLin}. Deterministic; stateless.
  */
 public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage linkage,
-    WeightRule weights, Subsampling subsampling) implements Partitioner {
+    WeightRule weights, Subsampling subsampling, boolean kernighanLin) implements Partitioner {
 
   public FragmentsMulticutPartitioner {
     Objects.requireNonNull(fragments, "fragments");
@@ -32,7 +32,7 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
   @Override
   public Segmentation partition(AffinityBlock block) {
     BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
-    MulticutResult cut = solve(f.count(), f.statistics(), linkage);
+    MulticutResult cut = solve(f.count(), f.statistics());
     return f.toSegmentation(cut.labels(), block.maskOrNull());
   }
 
@@ -55,12 +55,12 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
   private SettledPartition settled(AffinityBlock block, byte[] open, byte[] insideOrNull) {
     SettledPartition.checkOpen(open, block.voxelCount());
     BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, insideOrNull);
-    return f.settled(solve(f.count(), f.statistics(), linkage).labels(), open,
+    return f.settled(solve(f.count(), f.statistics()).labels(), open,
         block.maskOrNull());
   }
 
   /** The multicut of nodes 0..count−1 with the statistics of ids 1..count as edge costs. */
-  static MulticutResult solve(int count, EdgeStatistics statistics, Linkage linkage) {
-    return Multicut.ofLinkage(count, statistics, linkage, 1);
+  private MulticutResult solve(int count, EdgeStatistics statistics) {
+    return Multicut.ofLinkage(count, statistics, linkage, 1, kernighanLin);
   }
 }

@@ -64,6 +64,15 @@ public final class Multicut {
    */
   public static MulticutResult ofLinkage(int nodeCount, EdgeStatistics statistics,
       Linkage linkage, long firstId) {
+    return ofLinkage(nodeCount, statistics, linkage, firstId, true);
+  }
+
+  /**
+   * As {@link #ofLinkage(int, EdgeStatistics, Linkage, long)}, with the Kernighan–Lin
+   * refinement after the greedy additive contraction only when {@code kernighanLin}.
+   */
+  public static MulticutResult ofLinkage(int nodeCount, EdgeStatistics statistics,
+      Linkage linkage, long firstId, boolean kernighanLin) {
     int m = statistics.size();
     int[] u = new int[m];
     int[] v = new int[m];
@@ -74,7 +83,7 @@ public final class Multicut {
       w[i] = linkage.value(statistics.sum(i), statistics.count(i), statistics.min(i),
           statistics.max(i));
     }
-    return solve(nodeCount, u, v, w);
+    return kernighanLin ? solve(nodeCount, u, v, w) : greedyAdditive(nodeCount, u, v, w);
   }
 
   /** Greedy additive edge contraction followed by Kernighan–Lin refinement. */

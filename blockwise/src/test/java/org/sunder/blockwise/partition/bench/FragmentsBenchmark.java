@@ -67,7 +67,7 @@ public final class FragmentsBenchmark {
     methods.put("mean linkage from fragments", new FragmentsAgglomerationPartitioner(options,
         new Agglomeration(Linkage.MEAN, false), logit, none));
     methods.put("fragments + multicut",
-        new FragmentsMulticutPartitioner(options, Linkage.SUM, logit, none));
+        new FragmentsMulticutPartitioner(options, Linkage.SUM, logit, none, false));
     byte[] quantized = new byte[values.length];
     for (int i = 0; i < values.length; i++) {
       quantized[i] = (byte) Math.round(values[i] * 255);

@@ -1,6 +1,8 @@
 package org.sunder.blockwise.partition.config;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -17,6 +19,7 @@ import org.sunder.blockwise.partition.PartitionFixtures;
 import org.sunder.blockwise.partition.Partitioner;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.fragments.FragmentsMulticutPartitioner;
 import org.sunder.blockwise.partition.sizefilter.SizeFilter;
 import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
 
@@ -69,6 +72,29 @@ class PartitionConfigTest {
         .startsWith("sizeFilter: unknown value \"strict\""));
     assertTrue(configError("{\"method\": \"mutex-watershed\","
         + " \"sizeFilter\": \"complete\"}").getMessage().startsWith("sizeFilter:"));
+  }
+
+  @Test
+  void kernighanLinIsOffByDefaultReadAndRefusedOutsideTheMulticut() throws Exception {
+    PartitionConfig plain = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
+    assertFalse(plain.kernighanLin());
+    assertFalse(((FragmentsMulticutPartitioner) plain.create()).kernighanLin());
+    PartitionConfig refined = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\","
+        + " \"kernighanLin\": true}");
+    assertTrue(((FragmentsMulticutPartitioner) refined.create()).kernighanLin());
+    assertTrue(refined.createSolver().name().contains("Kernighan-Lin"));
+    assertFalse(plain.createSolver().name().contains("Kernighan-Lin"));
+    assertNotEquals(plain, refined);
+    ObjectMapper json = new ObjectMapper();
+    for (PartitionConfig c : new PartitionConfig[] {plain, refined}) {
+      assertEquals(c, PartitionConfig.fromJson(json.writeValueAsString(c)));
+    }
+    PartitionConfig agglomeration = PartitionConfig.fromJson("{\"method\": \"agglomeration\"}");
+    assertFalse(json.writeValueAsString(agglomeration).contains("kernighanLin"),
+        "written only for the method that uses it");
+    assertTrue(configError("{\"method\": \"fragments-agglomeration\","
+        + " \"kernighanLin\": true}").getMessage()
+        .startsWith("kernighanLin: not used by method \"fragments-agglomeration\""));
   }
 
   @Test
