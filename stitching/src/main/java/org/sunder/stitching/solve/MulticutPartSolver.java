@@ -22,12 +22,18 @@ import org.sunder.blockwise.partition.multicut.Multicut;
  * nodes together. A pair whose two pieces continue one fragment across a face (at least
  * {@link GlobalSolve#MIN_CONTINUED_PAIRS} continued voxel pairs) has a {@link #JOINED} row too:
  * its ends are joined before the multicut, as the single-level solve joins them first; a joined
- * pair leaving a part is joined at the level where both its ends meet. A group of joined nodes
- * with such a pair is only a piece of a node of the whole problem, whose other pairs the part
- * cannot see: it is left out of the part's multicut, stays a node of its own, and all its pairs
- * go up (contracting it on a piece's pairs alone measured 11% off the single-level objective on
- * undegraded synthetic tissue, against 0.7% left out). Only the sum linkage (the multicut's
- * default) has this additive form; other linkages stay on the driver.
+ * pair leaving a part is joined at the level where both its ends meet.
+ *
+ * <p>A group of joined nodes with any pair leaving the part is held back, as a block holds back
+ * what leans on its halo: it is left out of the part's multicut, stays a node of its own, and
+ * all its pairs go up. Its joins would lean on pairs the part cannot see (a joined pair leaving
+ * makes it only a piece of a node of the whole problem; a cost pair leaving lets the whole
+ * problem's contraction reach it from outside first). Contracting it anyway measured 11 % off
+ * the single-level objective on undegraded synthetic tissue for joined pieces; for cost pairs,
+ * on the tissue presets (seed 1, 768 blocks, 1–3 levels), 0.15–0.22 bits of variation of
+ * information from the single level on dense neurites and bodies, against 0.06–0.08 held back
+ * ({@code MulticutLevelsBenchmark}). Only the sum linkage (the multicut's default) has this
+ * additive form; other linkages stay on the driver.
  *
  * <p>Pairs leaving the part are handed up one row per pair, never combined, so the copies the
  * parts at both ends hand up agree (see {@link SolveEdges#joinCopies}); cut inner pairs between
@@ -149,15 +155,14 @@ public final class MulticutPartSolver implements PartSolver {
   }
 
   /**
-   * Per group node, whether its group is joined to a node outside the part: then it is a piece
-   * of a node of the whole problem whose other pieces, and their pairs, this part cannot see.
-   * O(m).
+   * Per group node, whether its group has a pair (joined or cost) leaving the part: then its
+   * joins lean on pairs this part cannot see, and it is held back. O(m).
    */
   private static boolean[] openGroups(SolveEdges rows, int[] order, int[] iu, int[] iv,
       int[] group) {
     boolean[] open = new boolean[group.length];
     for (int k = 0; k < order.length; k++) {
-      if (rows.kind(order[k]) == JOINED && (iu[k] < 0) != (iv[k] < 0)) {
+      if ((iu[k] < 0) != (iv[k] < 0)) {
         open[group[iu[k] >= 0 ? iu[k] : iv[k]]] = true;
       }
     }
@@ -165,8 +170,8 @@ public final class MulticutPartSolver implements PartSolver {
   }
 
   /**
-   * The multicut of the part's inner pairs, their ends moved to their joined group's node, open
-   * groups left out (each stays a cluster of its own, all its pairs handed up): per node, its
+   * The multicut of the part's inner pairs, their ends moved to their joined group's node, held
+   * back (open) groups left out (each stays a cluster of its own, all its pairs handed up): per node, its
    * cluster (0..k-1). O(m log m) plus the multicut.
    */
   private int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,

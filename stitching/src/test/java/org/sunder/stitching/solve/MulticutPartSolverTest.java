@@ -141,9 +141,9 @@ class MulticutPartSolverTest {
    * 70%. A part decides its inner pairs without the pairs leaving it, so a contraction it makes
    * can be one the whole graph would not make, and on graphs of a few dozen nodes one such
    * contraction is a large share of the objective. Measured on these graphs (noisy weights, 15%
-   * of signs flipped, 1 to 3 levels): 99.8% summed, worst trial 81%, 39 of 200 trials differ
-   * from the single-level partition. A cost lost or counted twice on the way up moves the sum by
-   * far more.
+   * of signs flipped, 1 to 3 levels): 99.9% summed, worst trial 93%, 24 of 200 trials differ
+   * from the single-level partition (99.8%, 81% and 39 before nodes with pairs leaving their
+   * part were held back). A cost lost or counted twice on the way up moves the sum by far more.
    */
   @Test
   void decomposedIsAValidPartitionNearTheSingleLevelObjective() {
@@ -175,7 +175,9 @@ class MulticutPartSolverTest {
       }
       leveled += solver.lastResult().levels().isEmpty() ? 0 : 1;
     }
-    assertTrue(leveled >= 150, "trials that used a level: " + leveled);
+    // a node with a pair leaving its part is held back, so on graphs this small many trials
+    // fit the driver only without levels; 120 of the 200 use one
+    assertTrue(leveled >= 100, "trials that used a level: " + leveled);
     assertTrue(decomposed / single >= 0.97, "objective ratio " + decomposed / single);
     assertTrue(worst >= 0.7, "worst trial's objective ratio " + worst);
   }
@@ -270,7 +272,7 @@ class MulticutPartSolverTest {
           "trial " + trial + ", levels " + solver.lastResult().levels().size());
       leveled += solver.lastResult().levels().isEmpty() ? 0 : 1;
     }
-    assertTrue(leveled >= 60, "trials that used a level: " + leveled);
+    assertTrue(leveled >= 30, "trials that used a level: " + leveled);  // 41 of the 80
   }
 
   @Test

@@ -72,7 +72,7 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
    * on edges the block could not see, and a merge order that ran through them cannot be undone
    * later); every other cluster is one settled piece. When the fragments were measured with an
    * inside region, the partition carries the statistics between its pieces ({@link PieceEdges}).
-   * O(voxels + fragment pairs · log fragments).
+   * O(voxels + fragment pairs).
    */
   SettledPartition settled(int[] clusterOfFragment, byte[] open, byte[] mask) {
     SettledPartition.checkOpen(open, labels.length);
@@ -111,18 +111,33 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
   /** The fragment statistics moved to the pieces of {@code partition}. */
   private PieceEdges pieceEdges(SettledPartition partition) {
     int[] pieceLabels = partition.pieces().labels();
-    long[] fragmentIds = new long[count];
-    long[] pieceOfFragment = new long[count];
-    for (int f = 0; f < count; f++) {
-      fragmentIds[f] = f + 1;
-    }
+    int[] pieceOfFragment = new int[count + 1];
     for (int i = 0; i < labels.length; i++) {
       if (labels[i] > 0) {
-        pieceOfFragment[labels[i] - 1] = pieceLabels[i];
+        pieceOfFragment[labels[i]] = pieceLabels[i];
       }
     }
-    return new PieceEdges(insideStatistics.relabel(fragmentIds, pieceOfFragment),
-        statistics.relabel(fragmentIds, pieceOfFragment));
+    return new PieceEdges(toPieces(insideStatistics, pieceOfFragment),
+        toPieces(statistics, pieceOfFragment));
+  }
+
+  /**
+   * Rows between fragments summed per pair of pieces, in row order (so the sums do not depend on
+   * anything but the rows); rows inside one piece dropped. O(rows) expected plus a sort of the
+   * piece pairs.
+   */
+  private static EdgeStatistics toPieces(EdgeStatistics fragmentRows, int[] pieceOfFragment) {
+    EdgeStatistics.Accumulator pieces =
+        new EdgeStatistics.Accumulator(Math.max(16, fragmentRows.size() / 2));
+    for (int e = 0; e < fragmentRows.size(); e++) {
+      int p = pieceOfFragment[(int) fragmentRows.u(e)];
+      int q = pieceOfFragment[(int) fragmentRows.v(e)];
+      if (p != q) {
+        pieces.add(p, q, fragmentRows.sum(e), fragmentRows.count(e), fragmentRows.min(e),
+            fragmentRows.max(e));
+      }
+    }
+    return pieces.build();
   }
 
   /** The voxel segmentation that gives fragment {@code f} the cluster {@code clusterOf[f−1]}. */
