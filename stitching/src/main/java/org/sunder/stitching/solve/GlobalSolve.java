@@ -126,8 +126,18 @@ public final class GlobalSolve {
    * given to every block (a diagnostic), every piece left to the solve and joins from 1 pair, the
    * blockwise result equals the one-block result (bodies and neurites, seed 1: VOI 2e-15 bits):
    * what remains is that fragments near a face depend on the box they were computed in.
+   * Measured again once the multicut stopped refining by Kernighan–Lin (default method, seeds
+   * 1-3, 96 x 256 x 256 voxels, 27 blocks, {@code QualityBenchmark ... default 27}), bits from
+   * the whole-volume result and objects cut at faces beyond the control planes, dense neurites /
+   * compact cells / bodies and neurites: at least 10 pairs, 0.035 / 0.013 / 0.046 bits and
+   * +4.0 / +0.6 / +10.0 objects; at least 3, 0.014 / 0.016 / 0.028 bits and +3.4 / -1.7 / +5.0
+   * objects, for an adapted Rand error 1-2 % higher (0.1376 to 0.1386, 0.0496 to 0.0512, 0.0534
+   * to 0.0547); at least 1, 0.015 / 0.030 bits on the first two (compact cells worse). Fragment
+   * agglomeration in the same runs, at least 10 / at least 3: 0.40 / 0.13 bits and +11 / +3
+   * objects on dense neurites, 0.015 / 0.018 bits and +6.3 / -0.7 on compact cells, 1.03 / 0.67
+   * bits (two seeds) and +27 / +9 on bodies and neurites.
    */
-  static final long MIN_CONTINUED_PAIRS = 10;
+  static final long MIN_CONTINUED_PAIRS = 3;
 
   /**
    * The solver's clusters of {@code graph}, after joining the pieces that continue across a
