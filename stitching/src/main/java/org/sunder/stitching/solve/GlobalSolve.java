@@ -133,9 +133,9 @@ public final class GlobalSolve {
    * +4.0 / +0.6 / +10.0 objects; at least 3, 0.014 / 0.016 / 0.028 bits and +3.4 / -1.7 / +5.0
    * objects, for an adapted Rand error 1-2 % higher (0.1376 to 0.1386, 0.0496 to 0.0512, 0.0534
    * to 0.0547); at least 1, 0.015 / 0.030 bits on the first two (compact cells worse). Fragment
-   * agglomeration in the same runs, at least 10 / at least 3: 0.40 / 0.13 bits and +11 / +3
-   * objects on dense neurites, 0.015 / 0.018 bits and +6.3 / -0.7 on compact cells, 1.03 / 0.67
-   * bits (two seeds) and +27 / +9 on bodies and neurites.
+   * agglomeration in the same runs, at least 10 / at least 3: 0.40 / 0.13 bits and +10.7 / +5.3
+   * objects on dense neurites, 0.015 / 0.018 bits and +6.3 / -1.3 on compact cells, 1.03 / 0.67
+   * bits and +26.5 / +9.5 on bodies and neurites (seeds 1 and 2).
    */
   static final long MIN_CONTINUED_PAIRS = 3;
 
