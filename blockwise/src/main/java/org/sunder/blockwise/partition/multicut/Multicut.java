@@ -60,16 +60,9 @@ public final class Multicut {
    * The multicut of nodes {@code 0..nodeCount-1} whose edge costs are the {@link Linkage}
    * values of aggregated statistics between ids {@code firstId..firstId+nodeCount-1} (node =
    * id - firstId): the fragments' multicut inside a block and the global solve's multicut of the
-   * reduced graph. O(m) to build plus {@link #solve(int, int[], int[], double[])}.
-   */
-  public static MulticutResult ofLinkage(int nodeCount, EdgeStatistics statistics,
-      Linkage linkage, long firstId) {
-    return ofLinkage(nodeCount, statistics, linkage, firstId, true);
-  }
-
-  /**
-   * As {@link #ofLinkage(int, EdgeStatistics, Linkage, long)}, with the Kernighan–Lin
-   * refinement after the greedy additive contraction only when {@code kernighanLin}.
+   * reduced graph: greedy additive edge contraction, then Kernighan–Lin refinement when
+   * {@code kernighanLin}. O(m) to build plus {@link #greedyAdditive(int, int[], int[], double[])}
+   * or {@link #solve(int, int[], int[], double[])}.
    */
   public static MulticutResult ofLinkage(int nodeCount, EdgeStatistics statistics,
       Linkage linkage, long firstId, boolean kernighanLin) {
