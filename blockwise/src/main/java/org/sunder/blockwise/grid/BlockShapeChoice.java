@@ -121,12 +121,12 @@ public record BlockShapeChoice(int[] blockShape, double overhead, long largestEx
    * {@code grown}, or the shape of whole chunks that wastes the least of the cores' time among
    * those that are no worse on the rest: halo overhead at most {@code grown}'s, largest extended
    * box at most {@value #EVEN_ROUNDS_MEMORY_SLACK} times {@code grown}'s and within
-   * {@code budgetVoxels} (unless {@code grown}'s is not), at least {@code blockFloor} blocks. A shape's cost is its overhead times its round waste,
-   * {@code ceil(blocks / cores) × cores / blocks}: the tasks run in rounds of {@code cores}, and
-   * a last round that is not full leaves cores idle (9 blocks on 2 cores waste 1/10 of the wall
-   * time; 8 blocks of a lower overhead waste none). Keeps {@code grown}'s limit. Time: the
-   * product over axes of the chunks along it, and nothing when that exceeds
-   * {@value #EVEN_ROUNDS_SEARCH_LIMIT}.
+   * {@code budgetVoxels} (unless {@code grown}'s is not), at least {@code blockFloor} blocks.
+   * A shape's cost is its overhead times its round waste, {@code ceil(blocks / cores) × cores /
+   * blocks}: the tasks run in rounds of {@code cores}, and a last round that is not full leaves
+   * cores idle (9 blocks on 2 cores waste 1/10 of the wall time; 8 blocks of a lower overhead
+   * waste none). Keeps {@code grown}'s limit. Time: the product over axes of the chunks along
+   * it, and nothing when that exceeds {@value #EVEN_ROUNDS_SEARCH_LIMIT}.
    */
   static BlockShapeChoice evenRounds(long[] volume, int[] chunks, int[] halo,
       BlockShapeChoice grown, long budgetVoxels, long blockFloor, int cores) {

@@ -65,6 +65,16 @@ class LevelResumeTest {
     return CliRun.with(SparkContextSource.shared(sc), args);
   }
 
+  /** {@code run config} with the task {@code task} ({@code stage:index}) made to fail. */
+  private static CliRun runFailingAt(String task, Path config) {
+    System.setProperty(TaskHooks.FAIL_KEY, task);
+    try {
+      return cli("run", config.toString());
+    } finally {
+      System.clearProperty(TaskHooks.FAIL_KEY);
+    }
+  }
+
   /** Variation of information (bits) of {@code labels} against {@code reference}. */
   private static double voi(long[] reference, long[] labels, boolean truth) {
     ContingencyTable table = new ContingencyTable();
@@ -164,13 +174,7 @@ class LevelResumeTest {
     Map<Path, FileTime> records = new HashMap<>();
     for (int s = 0; s < steps.size(); s++) {
       String task = "solve-" + steps.get(s) + ":0";
-      System.setProperty(TaskHooks.FAIL_KEY, task);
-      CliRun died;
-      try {
-        died = cli("run", scene.config().toString());
-      } finally {
-        System.clearProperty(TaskHooks.FAIL_KEY);
-      }
+      CliRun died = runFailingAt(task, scene.config());
       assertNotEquals(0, died.exitCode(), task + ":\n" + died.out());
       assertTrue(Files.exists(work.root().resolve(".injected-failure-solve-" + steps.get(s)
           + "-0")), task);
@@ -233,13 +237,7 @@ class LevelResumeTest {
         Degradation.moderate(13), BLOCK_XYZ, MULTICUT);
     writeBound(resumed, Files.readString(resumed.config()), bound);
     for (String task : List.of("solve-up-1:0", "solve-driver:0")) {
-      System.setProperty(TaskHooks.FAIL_KEY, task);
-      CliRun died;
-      try {
-        died = cli("run", resumed.config().toString());
-      } finally {
-        System.clearProperty(TaskHooks.FAIL_KEY);
-      }
+      CliRun died = runFailingAt(task, resumed.config());
       assertNotEquals(0, died.exitCode(), task + ":\n" + died.out());
     }
     CliRun last = cli("run", resumed.config().toString());

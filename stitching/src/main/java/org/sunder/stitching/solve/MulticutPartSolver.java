@@ -171,8 +171,8 @@ public final class MulticutPartSolver implements PartSolver {
 
   /**
    * The multicut of the part's inner pairs, their ends moved to their joined group's node, held
-   * back (open) groups left out (each stays a cluster of its own, all its pairs handed up): per node, its
-   * cluster (0..k-1). O(m log m) plus the multicut.
+   * back (open) groups left out (each stays a cluster of its own, all its pairs handed up): per
+   * node, its cluster (0..k-1). O(m log m) plus the multicut.
    */
   private int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,
       boolean[] open) {

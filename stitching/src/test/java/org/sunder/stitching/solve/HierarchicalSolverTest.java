@@ -39,8 +39,8 @@ class HierarchicalSolverTest {
       int[] expected = RandomReducedGraphs.canonical(new MutexWatershedSolver().clusters(graph));
       int factor = 2 + trial % 2;
       long bound = 1 + random.nextInt(Math.max(1, 2 * graph.edges().size() / 3));
-      HierarchicalSolver solver = solverThatFits(graph, new SuperBlocks(grid, layout, factor),
-          bound);
+      HierarchicalSolver solver = fitting(new MutexPartSolver(), graph,
+          new SuperBlocks(grid, layout, factor), bound, 4);
       int[] actual = RandomReducedGraphs.canonical(solver.clusters(graph));
       assertArrayEquals(expected, actual, "trial " + trial + (exact ? " exact" : " noisy")
           + ", grid " + java.util.Arrays.toString(grid.gridShape()) + ", bound " + bound);
@@ -68,7 +68,7 @@ class HierarchicalSolverTest {
       SuperBlocks superBlocks = new SuperBlocks(grid, layout, 2 + trial % 2);
       LinkagePartSolver parts = new LinkagePartSolver(linkage, constraints, threshold);
       long bound = 1 + random.nextInt(Math.max(1, graph.edges().size()));
-      HierarchicalSolver solver = fitting(graph, superBlocks, parts, 4 * bound);
+      HierarchicalSolver solver = fitting(parts, graph, superBlocks, 4 * bound, 4);
       int[] actual = RandomReducedGraphs.canonical(solver.clusters(graph));
       String what = "trial " + trial + " " + linkage + (constraints ? " constrained" : "")
           + " threshold " + threshold + (exact ? " exact" : " noisy") + ", levels "
@@ -81,35 +81,22 @@ class HierarchicalSolverTest {
     assertTrue(settledBelowDriver > 0, "no part settled anything below the driver");
   }
 
-  private static HierarchicalSolver fitting(ReducedGraph graph, SuperBlocks superBlocks,
-      org.sunder.stitching.solve.PartSolver parts, long bound) {
+  /**
+   * A solver with the smallest bound, from {@code bound} up by factors of {@code growth}, for
+   * which the last level's rest fits (below that the solve stops with a clear error, checked
+   * here).
+   */
+  static HierarchicalSolver fitting(PartSolver parts, ReducedGraph graph,
+      SuperBlocks superBlocks, long bound, int growth) {
     while (true) {
       HierarchicalSolver solver = new HierarchicalSolver(parts, superBlocks, bound, null);
       try {
         solver.clusters(graph);
         return solver;
       } catch (SunderException tooLarge) {
-        bound *= 4;
-      }
-    }
-  }
-
-  /**
-   * A solver with the smallest bound, from {@code bound} up by factors of 4, for which the last
-   * level's rest fits (below that the solve stops with a clear error, checked there).
-   */
-  private static HierarchicalSolver solverThatFits(ReducedGraph graph, SuperBlocks superBlocks,
-      long bound) {
-    while (true) {
-      HierarchicalSolver solver = new HierarchicalSolver(new MutexPartSolver(), superBlocks,
-          bound, null);
-      try {
-        solver.clusters(graph);
-        return solver;
-      } catch (SunderException tooLarge) {
         assertTrue(tooLarge.getMessage().contains("solve.maxDriverEdges = " + bound),
             tooLarge.getMessage());
-        bound *= 4;
+        bound *= growth;
       }
     }
   }

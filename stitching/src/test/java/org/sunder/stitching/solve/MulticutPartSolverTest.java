@@ -8,12 +8,12 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.util.Arrays;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
-import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.multicut.MulticutSolver;
+import org.sunder.blockwise.partition.multicut.SetPartitions;
 import org.sunder.stitching.RandomReducedGraphs;
 
 /**
@@ -89,18 +89,8 @@ class MulticutPartSolverTest {
 
   private static HierarchicalSolver fitting(ReducedGraph graph, SuperBlocks superBlocks,
       long bound) {
-    while (true) {
-      HierarchicalSolver solver = new HierarchicalSolver(new MulticutPartSolver(false), superBlocks,
-          bound, null);
-      try {
-        solver.clusters(graph);
-        return solver;
-      } catch (SunderException tooLarge) {
-        assertTrue(tooLarge.getMessage().contains("solve.maxDriverEdges = " + bound),
-            tooLarge.getMessage());
-        bound *= 2;
-      }
-    }
+    return HierarchicalSolverTest.fitting(new MulticutPartSolver(false), graph, superBlocks,
+        bound, 2);
   }
 
   @Test
@@ -219,28 +209,9 @@ class MulticutPartSolverTest {
         + decomposed / optimum);
   }
 
-  /** The least multicut objective over every partition (restricted growth strings). */
+  /** The least multicut objective over every partition. */
   private static double enumeratedOptimum(ReducedGraph graph) {
-    int n = graph.nodeCount();
-    int[] labels = new int[n];
-    int[] max = new int[n];
-    double best = 0;
-    while (true) {
-      best = Math.min(best, objective(graph, labels));
-      int i = n - 1;
-      while (i > 0 && labels[i] == max[i - 1] + 1) {
-        i--;
-      }
-      if (i <= 0) {
-        return best;
-      }
-      labels[i]++;
-      max[i] = Math.max(max[i - 1], labels[i]);
-      for (int j = i + 1; j < n; j++) {
-        labels[j] = 0;
-        max[j] = max[i];
-      }
-    }
+    return SetPartitions.least(graph.nodeCount(), labels -> objective(graph, labels));
   }
 
   @Test

@@ -97,10 +97,10 @@ public final class MulticutBenchmark {
     }
     System.out.printf(Locale.ROOT, "  sort of the costs (baseline): %.1f ns/edge%n", sortBest);
     System.out.printf(Locale.ROOT, "  greedy additive contraction: %.1f ns/edge (%.2f x the sort),"
-        + " %d clusters, objective %.1f%n", greedyBest, greedyBest / sortBest, greedy.clusterCount(),
-        greedy.objective());
+        + " %d clusters, objective %.1f%n", greedyBest, greedyBest / sortBest,
+        greedy.clusterCount(), greedy.objective());
     System.out.printf(Locale.ROOT, "  Kernighan-Lin refinement:    %.1f ns/edge (%.2f x the sort),"
-        + " %d clusters, objective %.1f%n", refineBest, refineBest / sortBest, refined.clusterCount(),
-        refined.objective());
+        + " %d clusters, objective %.1f%n", refineBest, refineBest / sortBest,
+        refined.clusterCount(), refined.objective());
   }
 }

@@ -318,27 +318,8 @@ class MulticutTest {
     return sum;
   }
 
-  /** The optimum over all set partitions (restricted growth strings); n <= 10. */
+  /** The optimum over all set partitions; n <= 10. */
   static double bruteOptimum(RandomSignedGraph g) {
-    int n = g.nodeCount();
-    int[] labels = new int[n];
-    int[] max = new int[n];
-    double best = Double.POSITIVE_INFINITY;
-    while (true) {
-      best = Math.min(best, bruteObjective(g, labels));
-      int i = n - 1;
-      while (i > 0 && labels[i] == max[i - 1] + 1) {
-        i--;
-      }
-      if (i <= 0) {
-        return best;
-      }
-      labels[i]++;
-      max[i] = Math.max(max[i - 1], labels[i]);
-      for (int j = i + 1; j < n; j++) {
-        labels[j] = 0;
-        max[j] = max[i];
-      }
-    }
+    return SetPartitions.least(g.nodeCount(), labels -> bruteObjective(g, labels));
   }
 }
