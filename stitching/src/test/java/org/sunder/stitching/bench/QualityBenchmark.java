@@ -69,7 +69,8 @@ import org.sunder.stitching.setup.StitchingSetup;
  * <p>Arguments (all optional, positional): {@code x y z} shape (default
  * {@code TissuePreset.STANDARD_SHAPE}: 256 256 96), seeds
  * (comma-separated, default 1,2,3), methods (comma-separated from {@code default},
- * {@code fragments-agglomeration}, {@code mutex-watershed}, {@code mean}; default
+ * {@code fragments-agglomeration}, {@code mutex-watershed}, {@code mean}, or the path of a file
+ * ending {@code .json} that holds a {@code "partition"} section to measure; default
  * {@code default}: the Mutex Watershed and voxel-level mean agglomeration take tens of seconds
  * to minutes per 6 M voxels), block counts (comma-separated cubes, default 1,8,27; 1 = the
  * whole volume, which is always run since the blockwise runs are compared with it), the halo
@@ -117,7 +118,7 @@ public final class QualityBenchmark {
         .mapToLong(Long::parseLong).toArray();
     List<String> methods = List.of((args.length >= 5 ? args[4] : "default").split(","));
     for (String m : methods) {
-      if (!METHODS.contains(m)) {
+      if (!METHODS.contains(m) && !m.endsWith(".json")) {
         throw new SunderException(ErrorKind.INVALID_CONFIG, "method \"" + m
             + "\": unknown; expected a comma-separated list from " + METHODS);
       }
@@ -207,8 +208,17 @@ public final class QualityBenchmark {
       case "mutex-watershed" -> PartitionConfig.fromJson("{\"method\":\"mutex-watershed\"}");
       case "mean" ->
           PartitionConfig.fromJson("{\"method\":\"agglomeration\",\"linkage\":\"mean\"}");
-      default -> throw new SunderException(ErrorKind.INVALID_CONFIG, "method \"" + method
-          + "\": unknown; expected one of " + METHODS);
+      default -> {
+        if (!method.endsWith(".json")) {
+          throw new SunderException(ErrorKind.INVALID_CONFIG, "method \"" + method
+              + "\": unknown; expected one of " + METHODS + " or a .json partition section");
+        }
+        try {
+          yield PartitionConfig.fromJson(Files.readString(Path.of(method)));
+        } catch (IOException e) {
+          throw new java.io.UncheckedIOException(e);
+        }
+      }
     };
   }
 

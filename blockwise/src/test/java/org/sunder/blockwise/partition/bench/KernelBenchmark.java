@@ -50,7 +50,8 @@ public final class KernelBenchmark {
         Integer.parseInt(args[1]), Integer.parseInt(args[2])} : new int[] {128, 128, 64};
     int repeats = args.length >= 4 ? Integer.parseInt(args[3]) : 3;
     long seed = args.length >= 5 ? Long.parseLong(args[4]) : 1;
-    String methods = System.getProperty("methods", "mws,mean,default");
+    java.util.Set<String> methods = java.util.Set.of(
+        System.getProperty("methods", "mws,mean,default").split(","));
     String inputs = System.getProperty("inputs",
         "clean,dense-neurites,compact-cells,bodies-and-neurites");
     int meanRepeats = Integer.getInteger("meanRepeats", 1);
@@ -62,6 +63,11 @@ public final class KernelBenchmark {
         Subsampling.none());
     Partitioner mean = new AgglomerationPartitioner(new Agglomeration(Linkage.MEAN, false),
         WeightRule.byValue(WeightRule.Transform.LOGIT, null), Subsampling.none());
+    double keep = Double.parseDouble(System.getProperty("keepFraction", "0.1"));
+    Partitioner mwsSparse = new MutexWatershedPartitioner(WeightRule.byChannelRole(),
+        Subsampling.hash(keep, 7));
+    Partitioner meanSparse = new AgglomerationPartitioner(new Agglomeration(Linkage.MEAN, false),
+        WeightRule.byValue(WeightRule.Transform.LOGIT, null), Subsampling.hash(keep, 7));
     for (String input : inputs.split(",")) {
       AffinityBlock block = input.equals("clean") ? cleanBlock() : presetBlock(
           TissuePreset.named(input), seed, shape);
@@ -69,6 +75,13 @@ public final class KernelBenchmark {
           block.channelCount());
       if (methods.contains("mws")) {
         measure(input + " mutex watershed", block, mws, repeats);
+      }
+      if (methods.contains("mws-sparse")) {
+        measure(input + " mutex watershed, long-range kept " + keep, block, mwsSparse, repeats);
+      }
+      if (methods.contains("mean-sparse")) {
+        measure(input + " mean linkage, long-range kept " + keep, block, meanSparse,
+            meanRepeats);
       }
       if (methods.contains("mean")) {
         measure(input + " mean linkage from voxels", block, mean, meanRepeats);
