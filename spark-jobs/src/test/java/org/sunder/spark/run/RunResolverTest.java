@@ -150,12 +150,14 @@ class RunResolverTest {
     String input = "{\"input\": {\"container\": \"" + root + "\"}, ";
     RunSettings plain = resolve(input + "\"partition\": {\"method\": \"mutex-watershed\"}}");
     RunSettings spelled = resolve(input + "\"partition\": {\"method\": \"mutex-watershed\","
-        + " \"weights\": {\"kind\": \"channel-role\"}, \"subsampling\": {\"kind\": \"none\"},"
-        + " \"minSegmentSize\": 0}}");
+        + " \"weights\": {\"kind\": \"channel-role\"}, \"subsampling\": {\"kind\": \"hash\","
+        + " \"keepFraction\": 0.2, \"seed\": 7}, \"minSegmentSize\": 0}}");
     assertEquals(partitionJson(plain), partitionJson(spelled));
     assertEquals(RunIdentity.manifest(plain, "r").sectionHashes().get("partition"),
         RunIdentity.manifest(spelled, "r").sectionHashes().get("partition"));
     assertTrue(partitionJson(plain).contains("\"weights\""), partitionJson(plain));
+    assertTrue(partitionJson(plain).contains("\"keepFraction\":0.2"), "the manifest records the"
+        + " default share of long-range edges: " + partitionJson(plain));
   }
 
   @Test

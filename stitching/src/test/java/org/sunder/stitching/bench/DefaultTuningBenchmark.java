@@ -10,6 +10,7 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.function.Function;
 import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
 import org.sunder.blockwise.metrics.SegmentationScores;
 import org.sunder.blockwise.partition.config.PartitionConfig;
@@ -130,6 +131,11 @@ public final class DefaultTuningBenchmark {
     variants.put("kernighanLin on", c -> new PartitionConfig(c.method(), c.linkage(),
         c.constraints(), c.threshold(), c.weights(), c.subsampling(), c.fragments(),
         c.minSegmentSize(), c.sizeFilter(), true));
+    for (double keep : new double[] {0.25, 0.1}) {
+      variants.put("long-range kept " + keep, c -> new PartitionConfig(c.method(), c.linkage(),
+          c.constraints(), c.threshold(), c.weights(), Subsampling.hash(keep, 7), c.fragments(),
+          c.minSegmentSize(), c.sizeFilter(), c.kernighanLin()));
+    }
     return variants;
   }
 

@@ -37,8 +37,9 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * multicut cost of a fragment pair); {@code constraints} (cannot-link constraints, default false);
  * {@code threshold} (merge while the linkage exceeds it, default 0; must be 0 with constraints);
  * {@code weights} (a {@link WeightRule}; default channel roles for the Mutex Watershed and
- * {@code logit} by value for agglomeration); {@code subsampling} (a {@link Subsampling}, default
- * none); {@code fragments} (fragment methods only: a {@link FragmentOptions}, defaults if
+ * {@code logit} by value for agglomeration); {@code subsampling} (a {@link Subsampling}; default
+ * none, for the Mutex Watershed {@link MutexWatershedMethod#LONG_RANGE_KEPT} of the long-range
+ * edges; {@code {"kind": "none"}} reads them all); {@code fragments} (fragment methods only: a {@link FragmentOptions}, defaults if
  * omitted); {@code minSegmentSize} (any method, default 0 = off; see below);
  * {@code sizeFilter} (how {@code minSegmentSize} treats the method's constraints:
  * {@code "complete"}, the default, or {@code "within-constraints"}; only with
@@ -131,7 +132,7 @@ public final class PartitionConfig implements java.io.Serializable {
     }
     method.checkKeys(linkage, this.constraints, this.threshold);
     this.weights = weights != null ? weights : method.defaultWeights();
-    this.subsampling = subsampling != null ? subsampling : Subsampling.none();
+    this.subsampling = subsampling != null ? subsampling : method.defaultSubsampling();
     boolean fromFragments = method.usesFragments();
     if (fragments != null && !fromFragments) {
       throw invalid("fragments: not used by method \"" + method.jsonName() + "\"; remove it or "

@@ -8,6 +8,7 @@ import java.util.List;
 import java.util.Optional;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
 import org.sunder.blockwise.partition.PartitionConfigException;
 import org.sunder.blockwise.partition.Partitioner;
@@ -59,6 +60,11 @@ public sealed interface PartitionMethod extends Serializable
   /** The weight rule when the configuration names none. */
   default WeightRule defaultWeights() {
     return WeightRule.byValue(WeightRule.Transform.LOGIT, null);
+  }
+
+  /** Which long-range edges the method reads when the configuration names no subsampling. */
+  default Subsampling defaultSubsampling() {
+    return Subsampling.none();
   }
 
   /**

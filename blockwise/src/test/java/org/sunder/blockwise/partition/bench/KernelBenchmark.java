@@ -25,8 +25,9 @@ import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.testing.HeapPeak;
 
 /**
- * Partition-stage figures of the kernels (the Mutex Watershed, mean linkage agglomeration
- * from voxels, and the default method: fitted fragments + multicut + size filter) on realistic data beside the clean block of
+ * Partition-stage figures of the kernels (the Mutex Watershed as configured by default, mean
+ * linkage agglomeration from voxels, and the default method: fitted fragments + multicut + size
+ * filter) on realistic data beside the clean block of
  * {@link PartitionBenchmark}: per input, Mvoxels/s per core (the calling thread's CPU time,
  * best of the repeats after one warm-up), bytes/voxel allocated by the thread during the call
  * (every array the call makes, an upper bound on its peak retained heap), the growth of the
@@ -39,8 +40,10 @@ import org.sunder.testing.HeapPeak;
  * {@code java.io.tmpdir/sunder-kernel-bench} because generating them takes a while.
  *
  * <p>Arguments: {@code [x y z] [repeats] [seed]}, default {@code 128 128 64 3 1}. System
- * properties: {@code -Dmethods=mws,mean,default} (which kernels), {@code -Dinputs=clean,dense-neurites,...}
- * (which inputs), {@code -DmeanRepeats=N} (repeats of the slower linkage run, default 1).
+ * properties: {@code -Dmethods=mws,mean,default} (which kernels; also {@code mws-all}, the Mutex
+ * Watershed reading every long-range edge, and {@code mean-sparse}, mean linkage reading a
+ * hash-chosen {@code -DkeepFraction} of them, default 0.1), {@code -Dinputs=clean,dense-neurites,...}
+ * (which inputs), {@code -DmeanRepeats=N} (repeats of the slower linkage runs, default 1).
  */
 public final class KernelBenchmark {
   private KernelBenchmark() {}
@@ -59,13 +62,12 @@ public final class KernelBenchmark {
         + "shape, seed %d; %d processors, max heap %d MiB%n", shape[0], shape[1], shape[2],
         seed, Runtime.getRuntime().availableProcessors(),
         Runtime.getRuntime().maxMemory() >> 20);
-    Partitioner mws = new MutexWatershedPartitioner(WeightRule.byChannelRole(),
+    Partitioner mws = PartitionConfig.fromJson("{\"method\": \"mutex-watershed\"}").create();
+    Partitioner mwsAll = new MutexWatershedPartitioner(WeightRule.byChannelRole(),
         Subsampling.none());
     Partitioner mean = new AgglomerationPartitioner(new Agglomeration(Linkage.MEAN, false),
         WeightRule.byValue(WeightRule.Transform.LOGIT, null), Subsampling.none());
     double keep = Double.parseDouble(System.getProperty("keepFraction", "0.1"));
-    Partitioner mwsSparse = new MutexWatershedPartitioner(WeightRule.byChannelRole(),
-        Subsampling.hash(keep, 7));
     Partitioner meanSparse = new AgglomerationPartitioner(new Agglomeration(Linkage.MEAN, false),
         WeightRule.byValue(WeightRule.Transform.LOGIT, null), Subsampling.hash(keep, 7));
     for (String input : inputs.split(",")) {
@@ -76,8 +78,8 @@ public final class KernelBenchmark {
       if (methods.contains("mws")) {
         measure(input + " mutex watershed", block, mws, repeats);
       }
-      if (methods.contains("mws-sparse")) {
-        measure(input + " mutex watershed, long-range kept " + keep, block, mwsSparse, repeats);
+      if (methods.contains("mws-all")) {
+        measure(input + " mutex watershed, every edge", block, mwsAll, repeats);
       }
       if (methods.contains("mean-sparse")) {
         measure(input + " mean linkage, long-range kept " + keep, block, meanSparse,

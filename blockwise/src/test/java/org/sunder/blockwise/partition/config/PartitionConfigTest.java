@@ -75,6 +75,36 @@ class PartitionConfigTest {
   }
 
   @Test
+  void theMutexWatershedReadsAShareOfTheLongRangeEdgesUnlessToldOtherwise() throws Exception {
+    PartitionConfig plain = PartitionConfig.fromJson("{\"method\": \"mutex-watershed\"}");
+    assertEquals(Subsampling.hash(MutexWatershedMethod.LONG_RANGE_KEPT,
+        MutexWatershedMethod.LONG_RANGE_SEED), plain.subsampling());
+    PartitionConfig every = PartitionConfig.fromJson("{\"method\": \"mutex-watershed\","
+        + " \"subsampling\": {\"kind\": \"none\"}}");
+    assertTrue(every.subsampling().keepsAll());
+    assertNotEquals(plain, every);
+    ObjectMapper json = new ObjectMapper();
+    for (PartitionConfig c : new PartitionConfig[] {plain, every}) {
+      assertEquals(c, PartitionConfig.fromJson(json.writeValueAsString(c)), "written explicitly");
+    }
+    for (String other : new String[] {"agglomeration", "fragments-multicut",
+        "fragments-agglomeration"}) {
+      assertTrue(PartitionConfig.fromJson("{\"method\": \"" + other + "\"}").subsampling()
+          .keepsAll(), other + " reads every edge");
+    }
+    // the share is kept consistently across blocks: a hash of the global edge, about the share
+    long kept = 0;
+    long[] voxel = new long[3];
+    for (int i = 0; i < 20_000; i++) {
+      voxel[0] = i % 40;
+      voxel[1] = i / 40 % 25;
+      voxel[2] = i / 1000;
+      kept += plain.subsampling().keepsLongRange(voxel, 5) ? 1 : 0;
+    }
+    assertEquals(MutexWatershedMethod.LONG_RANGE_KEPT, kept / 20_000.0, 0.02);
+  }
+
+  @Test
   void kernighanLinIsOffByDefaultReadAndRefusedOutsideTheMulticut() throws Exception {
     PartitionConfig plain = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
     assertFalse(plain.kernighanLin());
