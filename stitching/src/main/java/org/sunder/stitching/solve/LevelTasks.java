@@ -10,6 +10,8 @@ import java.util.function.IntFunction;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.stitching.setup.StitchingSetup;
 import org.sunder.stitching.task.BlockSummary;
@@ -103,17 +105,26 @@ public final class LevelTasks {
 
   /** The part solver of the run's method. */
   public static PartSolver partSolver(PartitionConfig config) {
-    if (SuperBlockSolve.isMulticut(config)) {
+    if (SuperBlockSolve.isDecomposedMulticut(config)) {
       return new MulticutPartSolver(config.kernighanLin());
     }
-    return config.isMutexWatershed() ? new MutexPartSolver()
-        : new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());
+    if (config.isMutexWatershed()) {
+      return new MutexPartSolver();
+    }
+    if (SuperBlockSolve.joinsPieces(config)) {
+      return new JoiningPartSolver(config.method() instanceof FragmentsMulticutMethod
+          ? new LinkagePartSolver(Linkage.SUM, false, 0)
+          : new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold()));
+    }
+    return new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());
   }
 
   /** The row format of the run's part solver. */
   static PartInputs.Rows rowsOf(PartitionConfig config) {
-    return SuperBlockSolve.isMulticut(config) ? PartInputs.Rows.MULTICUT
-        : config.isMutexWatershed() ? PartInputs.Rows.MUTEX : PartInputs.Rows.LINKAGE;
+    return SuperBlockSolve.isDecomposedMulticut(config) ? PartInputs.Rows.MULTICUT
+        : config.isMutexWatershed() ? PartInputs.Rows.MUTEX
+        : SuperBlockSolve.joinsPieces(config) ? PartInputs.Rows.JOINED_LINKAGE
+        : PartInputs.Rows.LINKAGE;
   }
 
   /**
@@ -122,7 +133,8 @@ public final class LevelTasks {
    * cost; the few continued pairs add a joined row each, left out of the bound); saturates.
    */
   public static long rows(PartitionConfig config, long pairs) {
-    int perPair = SuperBlockSolve.isMulticut(config) ? 1 : config.isMutexWatershed() ? 2 : 4;
+    int perPair = SuperBlockSolve.isDecomposedMulticut(config) ? 1
+        : config.isMutexWatershed() ? 2 : 4;
     return Math.multiplyHigh(pairs, perPair) != 0 || pairs * perPair < 0 ? Long.MAX_VALUE
         : pairs * perPair;
   }

@@ -10,6 +10,7 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.AgglomerationMethod;
+import org.sunder.blockwise.partition.config.FragmentsAgglomerationMethod;
 import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.stitching.setup.StitchingSetup;
@@ -22,12 +23,15 @@ import org.sunder.stitching.task.SeamEdges;
  * its input from its own blocks' summaries and nearby seam edges ({@link PartInputs}) or from
  * the files its sub-parts wrote, the driver solving only what the top level hands up, and the
  * final ids composed on the way down and numbered per block, from files. Gives the clusters,
- * and so the final ids, of the single-level solve of the method (Mutex Watershed, or
- * agglomeration of voxels with its linkage). The multicut of {@code fragments-multicut} on
- * summed weights runs level by level by domain decomposition ({@link MulticutPartSolver}): a
- * valid partition whose objective is close to, not equal to, the single-level one's.
- * Fragment agglomeration, whose solve first joins continued pieces, the multicut on another
- * linkage, and a size filter (it needs every final segment's neighbours) get a clear error.
+ * and so the final ids, of the single-level solve of the method: the Mutex Watershed, the
+ * agglomeration of voxels with its linkage, and for the fragment methods the agglomeration of
+ * their pieces after joining those that continue a fragment across a face
+ * ({@link JoiningPartSolver}; for {@code fragments-multicut} the multicut's greedy additive
+ * contraction, a sum-linkage agglomeration), up to exact ties. A multicut refined by
+ * Kernighan–Lin runs level by level by domain decomposition ({@link MulticutPartSolver}): a
+ * valid partition whose objective is close to, not equal to, the single-level one's. A multicut
+ * on another linkage and a size filter (it needs every final segment's neighbours) get a clear
+ * error.
  *
  * <p>The levels bound rows, not pairs: a pair is at most 2 Mutex Watershed rows (its largest and
  * smallest weight), 4 linkage rows and 1 multicut row, so the bound of
@@ -43,17 +47,34 @@ public final class SuperBlockSolve {
   /** Whether the method's solve can run level by level (else {@link #requireFits} applies). */
   public static boolean supports(PartitionConfig config) {
     return config.minSegmentSize() <= 1 && (config.isMutexWatershed()
-        || config.method() instanceof AgglomerationMethod || isMulticut(config));
+        || config.method() instanceof AgglomerationMethod || joinsPieces(config)
+        || isDecomposedMulticut(config));
   }
 
   /**
-   * Whether the run's solve is a multicut on summed weights (the default of
-   * {@code fragments-multicut}), solved level by level by domain decomposition
-   * ({@link MulticutPartSolver}); a multicut on another linkage has no additive contracted
+   * Whether the run's solve is an agglomeration of the fragments' pieces after joining those
+   * that continue one fragment across a face ({@link JoiningPartSolver}): fragment
+   * agglomeration, and the multicut of {@code fragments-multicut} on summed weights without
+   * Kernighan–Lin refinement (greedy additive contraction, the sum-linkage agglomeration stopped
+   * at 0). Level by level it gives the single-level clusters.
+   */
+  static boolean joinsPieces(PartitionConfig config) {
+    if (config.method() instanceof FragmentsAgglomerationMethod) {
+      return !(config.linkage() == Linkage.ABS_MAX && config.constraints());
+    }
+    return config.method() instanceof FragmentsMulticutMethod && config.linkage() == Linkage.SUM
+        && !config.kernighanLin();
+  }
+
+  /**
+   * Whether the run's solve is a multicut on summed weights refined by Kernighan–Lin, solved
+   * level by level by domain decomposition ({@link MulticutPartSolver}): close to the
+   * single-level result, not equal; a multicut on another linkage has no additive contracted
    * problem and stays on the driver.
    */
-  static boolean isMulticut(PartitionConfig config) {
-    return config.method() instanceof FragmentsMulticutMethod && config.linkage() == Linkage.SUM;
+  static boolean isDecomposedMulticut(PartitionConfig config) {
+    return config.method() instanceof FragmentsMulticutMethod && config.linkage() == Linkage.SUM
+        && config.kernighanLin();
   }
 
   /** The clear error for a method without a level-by-level solve whose graph is too large. */
