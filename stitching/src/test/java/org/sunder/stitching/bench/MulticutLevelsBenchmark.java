@@ -33,9 +33,10 @@ import org.sunder.stitching.task.SeamEdges;
 import org.sunder.stitching.task.SeamTask;
 
 /**
- * The multicut by domain decomposition against the single-level multicut, on realistic tissue
+ * The multicut level by level against the single-level multicut, on realistic tissue
  * ({@link TissuePreset}): the blockwise stages of the default method (without its size filter,
- * which has no level-by-level solve) once, then the solve whole and under falling driver bounds,
+ * which has no level-by-level solve; with {@code -DkernighanLin=true} refined by Kernighan–Lin,
+ * which runs level by level by domain decomposition) once, then the solve whole and under falling driver bounds,
  * and for the first bound that gives each number of levels of super-blocks: the variation of
  * information (bits, voxels weighted, background excluded) between the two segmentations, the
  * ratio of the multicut objectives on the reduced graph (the levels' over the single-level
@@ -66,8 +67,11 @@ public final class MulticutLevelsBenchmark {
     for (TissuePreset preset : presets) {
       SyntheticVolume volume = preset.volume(seed, shape);
       float[] affinities = preset.affinities(volume, seed);
-      PartitionConfig config = new FragmentsMulticutMethod().fittedTo(
+      PartitionConfig fitted = new FragmentsMulticutMethod().fittedTo(
           volume.spec().voxelSize(), 0);
+      PartitionConfig config = new PartitionConfig(fitted.method(), fitted.linkage(),
+          fitted.constraints(), fitted.threshold(), fitted.weights(), fitted.subsampling(),
+          fitted.fragments(), fitted.minSegmentSize(), null, Boolean.getBoolean("kernighanLin"));
       Path root = Files.createTempDirectory("sunder-multicut-levels");
       try {
         writeAffinities(root, shape, CHUNK, offsets.count(), affinities);
