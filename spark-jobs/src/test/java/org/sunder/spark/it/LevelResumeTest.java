@@ -1,6 +1,5 @@
 package org.sunder.spark.it;
 
-import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -18,6 +17,9 @@ import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.sunder.blockwise.metrics.ContingencyTable;
+import org.sunder.blockwise.metrics.ScoreOptions;
+import org.sunder.blockwise.metrics.Scorer;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.spark.SparkContextSource;
@@ -39,6 +41,14 @@ class LevelResumeTest {
   private static final int BLOCKS = 64;
   private static final String MWS = "{\"method\": \"mutex-watershed\"}";
   private static final String MULTICUT = "{\"method\": \"fragments-multicut\"}";
+  /**
+   * Bits of variation of information against the ground truth the multicut's level-by-level run
+   * may lose to its single-level run on this scene. Its blocks are tiny (8 x 14 x 10 voxels), so
+   * a level-1 part holds 16 x 28 x 20 voxels and most objects leave it: measured 2.51 bits
+   * against 2.00 (1.33 between the two). On the tissue presets, with parts of 64 x 64 x 16
+   * voxels, the two runs differ by 0.003 to 0.21 bits (docs/scaling.md).
+   */
+  private static final double MULTICUT_MAX_VOI = 0.75;
   private static JavaSparkContext sc;
 
   @BeforeAll
@@ -63,6 +73,13 @@ class LevelResumeTest {
     } finally {
       System.clearProperty(TaskHooks.FAIL_KEY);
     }
+  }
+
+  /** Variation of information (bits) of {@code labels} against {@code reference}. */
+  private static double voi(long[] reference, long[] labels, boolean truth) {
+    ContingencyTable table = new ContingencyTable();
+    table.add(reference, labels);
+    return new Scorer(ScoreOptions.DEFAULT.withIgnoreGroundTruthZero(truth)).score(table).voi();
   }
 
   private static WorkDir workDir(Scenes.Scene scene) {
@@ -187,13 +204,14 @@ class LevelResumeTest {
   }
 
   /**
-   * The default method's multicut through the Spark steps (greedy additive contraction after
-   * joining continued pieces, {@code JoiningPartSolver}): under a bound that gives a level it
-   * solves level by level to the single-level run's labels; and a run that dies at a task of
-   * {@code up-1}, and again at the driver's step, resumes to the same bytes.
+   * The default method's multicut through the Spark steps (domain decomposition,
+   * {@code MulticutPartSolver}): under a bound that gives a level it solves level by level, at
+   * most {@value #MULTICUT_MAX_VOI} bits of variation of information against the ground truth
+   * worse than the single-level run; and a run that dies at a task of {@code up-1}, and again at
+   * the driver's step, resumes to the bytes of an uninterrupted level-by-level run.
    */
   @Test
-  void multicutSolvesByLevelsToTheSingleLevelLabelsAndResumesToItsBytes(@TempDir Path dir)
+  void multicutSolvesByLevelsCloseToTheSingleLevelAndResumesToItsOwnBytes(@TempDir Path dir)
       throws IOException {
     Scenes.Scene single = Scenes.write(dir.resolve("single"), StorageFormat.ZARR,
         Degradation.moderate(13), BLOCK_XYZ, MULTICUT);
@@ -205,9 +223,15 @@ class LevelResumeTest {
     CliRun run = cli("run", leveled.config().toString());
     assertEquals(0, run.exitCode(), run.err());
     assertTrue(run.out().contains("solve level 1:")
-        && run.out().contains("after joining continued pieces"), run.out());
-    assertArrayEquals(reference, Scenes.labels(leveled.container(), "segmentation"),
-        "level by level against the single-level run");
+        && run.out().contains("by domain decomposition"), run.out());
+    long[] truth = Scenes.labels(single.container(), "ground-truth");
+    long[] levels = Scenes.labels(leveled.container(), "segmentation");
+    double between = voi(reference, levels, false);
+    double singleToTruth = voi(truth, reference, true);
+    double levelsToTruth = voi(truth, levels, true);
+    assertTrue(levelsToTruth <= singleToTruth + MULTICUT_MAX_VOI, "VOI against the ground"
+        + " truth: level by level " + levelsToTruth + ", single level " + singleToTruth
+        + " (between the two " + between + ")");
     List<String> bytes = Scenes.chunkFiles(leveled.container().resolve("segmentation"));
     Scenes.Scene resumed = Scenes.write(dir.resolve("resumed"), StorageFormat.ZARR,
         Degradation.moderate(13), BLOCK_XYZ, MULTICUT);

@@ -4,7 +4,7 @@ import java.util.Arrays;
 import java.util.function.LongPredicate;
 
 /**
- * A part of the fragment methods' hierarchical solve: first joins the pieces of fragments cut
+ * A part of fragment agglomeration's hierarchical solve: first joins the pieces of fragments cut
  * by a face ({@link MulticutPartSolver#JOINED} rows: pairs with at least
  * {@link GlobalSolve#MIN_CONTINUED_PAIRS} continued voxel pairs), as the single-level solve
  * does before it continues the method ({@link GlobalSolve#clustersJoiningContinuations}), then
@@ -19,9 +19,11 @@ import java.util.function.LongPredicate;
  * the group is whole joins it before anything merges with it: the same clusters as the
  * single-level solve, up to exact ties and the rounding of sums taken in another order.
  *
- * <p>With the sum linkage and threshold 0 this is the multicut of {@code fragments-multicut}
- * without Kernighan–Lin refinement: greedy additive edge contraction, which contracts the pair of
- * largest summed weight while one is positive, is sum-linkage agglomeration stopped at 0.
+ * <p>With the sum linkage and threshold 0 this is also the multicut of
+ * {@code fragments-multicut} without Kernighan–Lin refinement (greedy additive edge contraction
+ * contracts the pair of largest summed weight while one is positive: sum-linkage agglomeration
+ * stopped at 0), but that multicut runs by domain decomposition ({@link MulticutPartSolver}):
+ * the sum's dominance bound settles too little on realistic tissue.
  *
  * <p>O(m log m) for the part's m rows plus the linkage part's cost.
  */

@@ -10,8 +10,6 @@ import java.util.function.IntFunction;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.IdLayout;
-import org.sunder.blockwise.partition.agglomeration.Linkage;
-import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.stitching.setup.StitchingSetup;
 import org.sunder.stitching.task.BlockSummary;
@@ -112,9 +110,8 @@ public final class LevelTasks {
       return new MutexPartSolver();
     }
     if (SuperBlockSolve.joinsPieces(config)) {
-      return new JoiningPartSolver(config.method() instanceof FragmentsMulticutMethod
-          ? new LinkagePartSolver(Linkage.SUM, false, 0)
-          : new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold()));
+      return new JoiningPartSolver(
+          new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold()));
     }
     return new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());
   }

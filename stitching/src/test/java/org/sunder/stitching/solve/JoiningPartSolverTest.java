@@ -17,15 +17,16 @@ import org.sunder.stitching.RandomReducedGraphs;
  * {@link JoiningPartSolver} level by level against the single-level solve of the fragment
  * methods (continued pieces joined, then the method: {@link GlobalSolve}), on random reduced
  * graphs with continued pairs between face-adjacent blocks, noisy weights (no exact ties) and
- * driver bounds low enough for one to three levels: the same partition, for greedy additive
- * contraction (the default multicut) and for mean linkage with and without constraints.
+ * driver bounds low enough for one to three levels: the same partition, for the sum linkage
+ * stopped at 0 (greedy additive contraction, the multicut without refinement) and for mean
+ * linkage with and without constraints.
  */
 class JoiningPartSolverTest {
 
   private record Method(String name, ReducedGraphSolver singleLevel, LinkagePartSolver parts) {}
 
   private static final Method[] METHODS = {
-      new Method("multicut", new MulticutSolver(Linkage.SUM, false),
+      new Method("sum (greedy additive contraction)", new MulticutSolver(Linkage.SUM, false),
           new LinkagePartSolver(Linkage.SUM, false, 0)),
       new Method("mean", new AgglomerativeSolver(Linkage.MEAN, false, 0, "mean"),
           new LinkagePartSolver(Linkage.MEAN, false, 0)),

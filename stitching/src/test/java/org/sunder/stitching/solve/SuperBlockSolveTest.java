@@ -58,16 +58,11 @@ class SuperBlockSolveTest {
     return new Tables(summaries, seams, pairs);
   }
 
-  /**
-   * Exact for the Mutex Watershed, agglomeration, and the fragment methods' agglomeration of
-   * pieces after joining continued ones (fragment agglomeration, and the default multicut's
-   * greedy additive contraction).
-   */
+  /** Exact for the Mutex Watershed, agglomeration, and fragment agglomeration. */
   @Test
   void levelByLevelEqualsTheSingleLevelFinalIds() {
     PartitionConfig[] configs = {PartitionConfig.mutexWatershed(null, null),
         PartitionConfig.agglomeration(Linkage.MEAN, false, null, null),
-        PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}"),
         PartitionConfig.fromJson("{\"method\": \"fragments-agglomeration\"}")};
     int leveled = 0;
     for (PartitionConfig config : configs) {
@@ -122,19 +117,17 @@ class SuperBlockSolveTest {
   }
 
   /**
-   * The multicut refined by Kernighan–Lin, level by level by domain decomposition from per-part
-   * inputs, on a blockwise run over synthetic tissue with and without degradation: every level-by-level solve that fits is a
+   * The default method's multicut, level by level from per-part inputs, on a blockwise run over
+   * synthetic tissue with and without degradation: every level-by-level solve that fits is a
    * partition whose multicut objective on the reduced graph is within 3% of the single-level
-   * one's. Measured at two levels before the refinement was an option (greedy contraction alone,
-decomposed the same way): 99.3% of it undegraded, 98.8% with mild degradation. (Even
+   * one's. Measured at two levels: 99.3% of it undegraded, 98.8% with mild degradation. (Even
    * undegraded tissue gives fragment pairs across objects a positive summed weight, so a part's
    * multicut need not agree with the whole graph's; the identity on inputs where they agree is
    * checked in {@link MulticutPartSolverTest}.)
    */
   @Test
-  void refinedMulticutLevelByLevelIsCloseToTheSingleLevelOnTissue() {
-    PartitionConfig config = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\","
-        + " \"kernighanLin\": true}");
+  void multicutLevelByLevelIsCloseToTheSingleLevelOnTissue() {
+    PartitionConfig config = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
     for (Degradation degradation : new Degradation[] {Degradation.none(), MILD}) {
       TissueScene scene = TissueScene.small(11, SHAPE, degradation);
       String name = degradation.isNone() ? "multicut-exact" : "multicut-mild";
