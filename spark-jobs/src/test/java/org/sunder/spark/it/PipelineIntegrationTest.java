@@ -108,8 +108,8 @@ class PipelineIntegrationTest {
   /**
    * With solve.maxDriverEdges below the reduced graph's pairs, the Mutex Watershed solves level
    * by level over super-blocks (64 blocks, 8 level-1 parts) and writes the same chunk bytes as
-   * the single-level solve; a multicut on mean linkage, which has no level-by-level solve, gets a
-   * clear error (the default multicut's level-by-level solve is checked in LevelResumeTest). (The mean
+   * the single-level solve; fragment agglomeration, which has no level-by-level solve, gets a
+   * clear error (the multicut's level-by-level solve is checked in LevelResumeTest). (The mean
    * agglomeration's parts settle too little on this small scene for any bound to fit after the
    * levels; its identity with the single-level solve is checked in stitching's
    * SuperBlockSolveTest.)
@@ -153,8 +153,7 @@ class PipelineIntegrationTest {
       assertTrue(leveled, method + ": no bound made a level");
     }
     Scenes.Scene scene = Scenes.write(dir.resolve("fragments"), StorageFormat.ZARR,
-        Degradation.moderate(13), smallBlocks,
-        "{\"method\": \"fragments-multicut\", \"linkage\": \"mean\"}");
+        Degradation.moderate(13), smallBlocks, "{\"method\": \"fragments-agglomeration\"}");
     String json = java.nio.file.Files.readString(scene.config());
     java.nio.file.Files.writeString(scene.config(), json.replace("\"evaluate\"",
         "\"solve\": {\"maxDriverEdges\": 5}, \"evaluate\""));
@@ -162,7 +161,7 @@ class PipelineIntegrationTest {
         scene.config().toString());
     assertEquals(2, fragments.exitCode(), fragments.err());
     assertTrue(fragments.err().contains(
-        "fragments-multicut solve needs the whole reduced graph"), fragments.err());
+        "fragments-agglomeration solve needs the whole reduced graph"), fragments.err());
   }
 
   @Test

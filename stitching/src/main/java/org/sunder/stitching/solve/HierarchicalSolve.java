@@ -176,9 +176,9 @@ public final class HierarchicalSolve {
       throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + method + " solve needs the"
           + " whole reduced graph on the driver: " + edges + " edges, more than"
           + " solve.maxDriverEdges = " + maxDriverEdges + ". Raise the bound (about 150 bytes"
-          + " of driver memory per edge), or use mutex-watershed, agglomeration,"
-          + " fragments-agglomeration or fragments-multicut with linkage sum, without"
-          + " minSegmentSize, whose solve runs level by level over super-blocks");
+          + " of driver memory per edge), or use mutex-watershed, agglomeration or"
+          + " fragments-multicut with linkage sum, without minSegmentSize, whose solve runs"
+          + " level by level over super-blocks");
     }
   }
 

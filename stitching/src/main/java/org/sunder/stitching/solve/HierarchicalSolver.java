@@ -43,7 +43,6 @@ public final class HierarchicalSolver implements ReducedGraphSolver {
   @Override
   public int[] clusters(SegmentGraph graph) {
     SolveEdges edges = parts instanceof LinkagePartSolver ? linkageEdges(graph)
-        : parts instanceof JoiningPartSolver ? joinedLinkageEdges(graph)
         : parts instanceof MulticutPartSolver ? multicutEdges(graph) : mutexEdges(graph);
     last = HierarchicalSolve.run(superBlocks, edges, maxDriverEdges, parts, workDir);
     long[] nodeIds = graph.nodeIds();
@@ -87,24 +86,7 @@ public final class HierarchicalSolver implements ReducedGraphSolver {
       MulticutPartSolver.addPair(out, ids[(int) edges.u(e)], ids[(int) edges.v(e)],
           edges.sum(e));
     }
-    addJoinedRows(graph, out);
-    return out;
-  }
-
-  /**
-   * The pairs of a reduced graph as {@link JoiningPartSolver} reads them: {@link #linkageEdges}
-   * and the joined rows of {@link #multicutEdges}. O(p).
-   */
-  public static SolveEdges joinedLinkageEdges(SegmentGraph graph) {
-    SolveEdges out = linkageEdges(graph);
-    addJoinedRows(graph, out);
-    return out;
-  }
-
-  /** For a {@link ReducedGraph}, the joined row of each pair the single-level solve joins. */
-  private static void addJoinedRows(SegmentGraph graph, SolveEdges out) {
     if (graph instanceof ReducedGraph reduced) {
-      long[] ids = graph.nodeIds();
       EdgeStatistics continued = reduced.continued();
       for (int e = 0; e < continued.size(); e++) {
         if (continued.count(e) >= GlobalSolve.MIN_CONTINUED_PAIRS) {
@@ -113,6 +95,7 @@ public final class HierarchicalSolver implements ReducedGraphSolver {
         }
       }
     }
+    return out;
   }
 
   /**

@@ -103,25 +103,17 @@ public final class LevelTasks {
 
   /** The part solver of the run's method. */
   public static PartSolver partSolver(PartitionConfig config) {
-    if (SuperBlockSolve.isDecomposedMulticut(config)) {
+    if (SuperBlockSolve.isMulticut(config)) {
       return new MulticutPartSolver(config.kernighanLin());
     }
-    if (config.isMutexWatershed()) {
-      return new MutexPartSolver();
-    }
-    if (SuperBlockSolve.joinsPieces(config)) {
-      return new JoiningPartSolver(
-          new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold()));
-    }
-    return new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());
+    return config.isMutexWatershed() ? new MutexPartSolver()
+        : new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());
   }
 
   /** The row format of the run's part solver. */
   static PartInputs.Rows rowsOf(PartitionConfig config) {
-    return SuperBlockSolve.isDecomposedMulticut(config) ? PartInputs.Rows.MULTICUT
-        : config.isMutexWatershed() ? PartInputs.Rows.MUTEX
-        : SuperBlockSolve.joinsPieces(config) ? PartInputs.Rows.JOINED_LINKAGE
-        : PartInputs.Rows.LINKAGE;
+    return SuperBlockSolve.isMulticut(config) ? PartInputs.Rows.MULTICUT
+        : config.isMutexWatershed() ? PartInputs.Rows.MUTEX : PartInputs.Rows.LINKAGE;
   }
 
   /**
@@ -130,8 +122,7 @@ public final class LevelTasks {
    * cost; the few continued pairs add a joined row each, left out of the bound); saturates.
    */
   public static long rows(PartitionConfig config, long pairs) {
-    int perPair = SuperBlockSolve.isDecomposedMulticut(config) ? 1
-        : config.isMutexWatershed() ? 2 : 4;
+    int perPair = SuperBlockSolve.isMulticut(config) ? 1 : config.isMutexWatershed() ? 2 : 4;
     return Math.multiplyHigh(pairs, perPair) != 0 || pairs * perPair < 0 ? Long.MAX_VALUE
         : pairs * perPair;
   }

@@ -132,12 +132,7 @@ public final class PartInputs {
      * {@link GlobalSolve#MIN_CONTINUED_PAIRS} continued voxel pairs (as
      * {@link HierarchicalSolver#multicutEdges}).
      */
-    MULTICUT,
-    /**
-     * {@link JoiningPartSolver}'s: the four linkage statistics per pair, and the joined rows of
-     * {@link #MULTICUT}.
-     */
-    JOINED_LINKAGE
+    MULTICUT
   }
 
   /**
@@ -213,7 +208,7 @@ public final class PartInputs {
         }
       }
     }
-    if (rows == Rows.MULTICUT || rows == Rows.JOINED_LINKAGE) {
+    if (rows == Rows.MULTICUT) {
       EdgeStatistics joined = EdgeStatistics.mergeAll(Arrays.asList(continued));
       for (int e = 0; e < joined.size(); e++) {
         long a = joined.u(e);

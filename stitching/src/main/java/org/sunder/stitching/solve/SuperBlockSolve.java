@@ -10,7 +10,6 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.AgglomerationMethod;
-import org.sunder.blockwise.partition.config.FragmentsAgglomerationMethod;
 import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.stitching.setup.StitchingSetup;
@@ -23,13 +22,12 @@ import org.sunder.stitching.task.SeamEdges;
  * its input from its own blocks' summaries and nearby seam edges ({@link PartInputs}) or from
  * the files its sub-parts wrote, the driver solving only what the top level hands up, and the
  * final ids composed on the way down and numbered per block, from files. Gives the clusters,
- * and so the final ids, of the single-level solve of the method: the Mutex Watershed, the
- * agglomeration of voxels with its linkage, and fragment agglomeration, which first joins the
- * pieces that continue a fragment across a face ({@link JoiningPartSolver}), up to exact ties.
- * The multicut of {@code fragments-multicut} on summed weights runs level by level by domain
- * decomposition ({@link MulticutPartSolver}): a valid partition whose objective is close to,
- * not equal to, the single-level one's. A multicut on another linkage and a size filter (it
- * needs every final segment's neighbours) get a clear error.
+ * and so the final ids, of the single-level solve of the method (Mutex Watershed, or
+ * agglomeration of voxels with its linkage). The multicut of {@code fragments-multicut} on
+ * summed weights runs level by level by domain decomposition ({@link MulticutPartSolver}): a
+ * valid partition whose objective is close to, not equal to, the single-level one's.
+ * Fragment agglomeration, whose solve first joins continued pieces, the multicut on another
+ * linkage, and a size filter (it needs every final segment's neighbours) get a clear error.
  *
  * <p>The levels bound rows, not pairs: a pair is at most 2 Mutex Watershed rows (its largest and
  * smallest weight), 4 linkage rows and 1 multicut row, so the bound of
@@ -45,32 +43,16 @@ public final class SuperBlockSolve {
   /** Whether the method's solve can run level by level (else {@link #requireFits} applies). */
   public static boolean supports(PartitionConfig config) {
     return config.minSegmentSize() <= 1 && (config.isMutexWatershed()
-        || config.method() instanceof AgglomerationMethod || joinsPieces(config)
-        || isDecomposedMulticut(config));
-  }
-
-  /**
-   * Whether the run's solve is fragment agglomeration: the agglomeration of the fragments'
-   * pieces after joining those that continue one fragment across a face
-   * ({@link JoiningPartSolver}), which level by level gives the single-level clusters.
-   */
-  static boolean joinsPieces(PartitionConfig config) {
-    return config.method() instanceof FragmentsAgglomerationMethod
-        && !(config.linkage() == Linkage.ABS_MAX && config.constraints());
+        || config.method() instanceof AgglomerationMethod || isMulticut(config));
   }
 
   /**
    * Whether the run's solve is a multicut on summed weights (the default of
    * {@code fragments-multicut}), solved level by level by domain decomposition
    * ({@link MulticutPartSolver}); a multicut on another linkage has no additive contracted
-   * problem and stays on the driver. Without Kernighan–Lin refinement the multicut is greedy
-   * additive contraction, the sum-linkage agglomeration stopped at 0, which the exact
-   * {@link JoiningPartSolver} would solve level by level too; but its dominance bound for the sum
-   * (every other positive pair of both clusters) settles too little on realistic tissue: on the
-   * dense-neurite preset (0.86 M pairs, 768 blocks) three levels left 0.46 M pairs to the driver
-   * (MulticutLevelsBenchmark), where domain decomposition fits a bound of 1/16 of them.
+   * problem and stays on the driver.
    */
-  static boolean isDecomposedMulticut(PartitionConfig config) {
+  static boolean isMulticut(PartitionConfig config) {
     return config.method() instanceof FragmentsMulticutMethod && config.linkage() == Linkage.SUM;
   }
 

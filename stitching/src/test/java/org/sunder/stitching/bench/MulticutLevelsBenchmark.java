@@ -18,7 +18,6 @@ import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
-import org.sunder.blockwise.partition.config.FragmentsAgglomerationMethod;
 import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.synth.SyntheticVolume;
@@ -36,8 +35,8 @@ import org.sunder.stitching.task.SeamTask;
 /**
  * The multicut by domain decomposition against the single-level multicut, on realistic tissue
  * ({@link TissuePreset}): the blockwise stages of the default method (without its size filter,
- * which has no level-by-level solve; {@code -DkernighanLin=true} refines it by Kernighan–Lin;
- * {@code -Dmethod=fragments-agglomeration} measures fragment agglomeration instead) once, then the solve whole and under falling driver bounds,
+ * which has no level-by-level solve; {@code -DkernighanLin=true} refines it by Kernighan–Lin)
+ * once, then the solve whole and under falling driver bounds,
  * and for the first bound that gives each number of levels of super-blocks: the variation of
  * information (bits, voxels weighted, background excluded) between the two segmentations, the
  * ratio of the multicut objectives on the reduced graph (the levels' over the single-level
@@ -68,13 +67,11 @@ public final class MulticutLevelsBenchmark {
     for (TissuePreset preset : presets) {
       SyntheticVolume volume = preset.volume(seed, shape);
       float[] affinities = preset.affinities(volume, seed);
-      boolean agglomeration = System.getProperty("method", "").equals("fragments-agglomeration");
-      PartitionConfig fitted = (agglomeration ? new FragmentsAgglomerationMethod()
-          : new FragmentsMulticutMethod()).fittedTo(volume.spec().voxelSize(), 0);
-      PartitionConfig config = agglomeration ? fitted : new PartitionConfig(fitted.method(),
-          fitted.linkage(), fitted.constraints(), fitted.threshold(), fitted.weights(),
-          fitted.subsampling(), fitted.fragments(), fitted.minSegmentSize(), null,
-          Boolean.getBoolean("kernighanLin"));
+      PartitionConfig fitted = new FragmentsMulticutMethod().fittedTo(
+          volume.spec().voxelSize(), 0);
+      PartitionConfig config = new PartitionConfig(fitted.method(), fitted.linkage(),
+          fitted.constraints(), fitted.threshold(), fitted.weights(), fitted.subsampling(),
+          fitted.fragments(), fitted.minSegmentSize(), null, Boolean.getBoolean("kernighanLin"));
       Path root = Files.createTempDirectory("sunder-multicut-levels");
       try {
         writeAffinities(root, shape, CHUNK, offsets.count(), affinities);

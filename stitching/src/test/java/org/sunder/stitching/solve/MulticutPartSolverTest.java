@@ -27,7 +27,7 @@ class MulticutPartSolverTest {
   private static final MulticutSolver SINGLE_LEVEL = new MulticutSolver(Linkage.SUM, false);
 
   /** A random graph with, on some trials, continued pairs between face-adjacent blocks. */
-  static ReducedGraph graph(BlockGrid grid, IdLayout layout, Random random,
+  private static ReducedGraph graph(BlockGrid grid, IdLayout layout, Random random,
       boolean exact, int maxSegments, double pairsPerSegment, boolean continued) {
     ReducedGraph g = RandomReducedGraphs.graph(grid, layout, random, exact, maxSegments,
         pairsPerSegment);

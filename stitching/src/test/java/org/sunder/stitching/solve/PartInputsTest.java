@@ -123,7 +123,6 @@ class PartInputsTest {
           case MUTEX -> HierarchicalSolver.mutexEdges(whole);
           case LINKAGE -> HierarchicalSolver.linkageEdges(whole);
           case MULTICUT -> HierarchicalSolver.multicutEdges(whole);
-          case JOINED_LINKAGE -> HierarchicalSolver.joinedLinkageEdges(whole);
         };
         for (int p = 0; p < superBlocks.partCount(1); p++) {
           int part = p;

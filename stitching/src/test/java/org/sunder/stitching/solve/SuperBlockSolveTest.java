@@ -58,12 +58,10 @@ class SuperBlockSolveTest {
     return new Tables(summaries, seams, pairs);
   }
 
-  /** Exact for the Mutex Watershed, agglomeration, and fragment agglomeration. */
   @Test
-  void levelByLevelEqualsTheSingleLevelFinalIds() {
+  void mutexWatershedAndMeanAgglomerationEqualTheSingleLevelFinalIds() {
     PartitionConfig[] configs = {PartitionConfig.mutexWatershed(null, null),
-        PartitionConfig.agglomeration(Linkage.MEAN, false, null, null),
-        PartitionConfig.fromJson("{\"method\": \"fragments-agglomeration\"}")};
+        PartitionConfig.agglomeration(Linkage.MEAN, false, null, null)};
     int leveled = 0;
     for (PartitionConfig config : configs) {
       TissueScene scene = TissueScene.small(11, SHAPE, MILD);
@@ -97,13 +95,10 @@ class SuperBlockSolveTest {
   }
 
   @Test
-  void aMulticutOnAnotherLinkageAndASizeFilterGetAClearError() {
-    for (String json : new String[] {"{\"method\": \"fragments-multicut\"}",
-        "{\"method\": \"fragments-multicut\", \"kernighanLin\": true}",
-        "{\"method\": \"fragments-agglomeration\"}"}) {
-      assertTrue(SuperBlockSolve.supports(PartitionConfig.fromJson(json)), json);
-    }
-    for (String json : new String[] {
+  void fragmentAgglomerationAndAMulticutOnAnotherLinkageGetAClearError() {
+    PartitionConfig multicut = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
+    assertTrue(SuperBlockSolve.supports(multicut));
+    for (String json : new String[] {"{\"method\": \"fragments-agglomeration\"}",
         "{\"method\": \"fragments-multicut\", \"linkage\": \"mean\"}",
         "{\"method\": \"fragments-multicut\", \"minSegmentSize\": 20}"}) {
       PartitionConfig config = PartitionConfig.fromJson(json);
