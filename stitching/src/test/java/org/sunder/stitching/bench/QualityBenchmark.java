@@ -216,7 +216,7 @@ public final class QualityBenchmark {
         try {
           yield PartitionConfig.fromJson(Files.readString(Path.of(method)));
         } catch (IOException e) {
-          throw new java.io.UncheckedIOException(e);
+          throw new UncheckedIOException(e);
         }
       }
     };

@@ -39,8 +39,8 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * {@code weights} (a {@link WeightRule}; default channel roles for the Mutex Watershed and
  * {@code logit} by value for agglomeration); {@code subsampling} (a {@link Subsampling}; default
  * none, for the Mutex Watershed {@link MutexWatershedMethod#LONG_RANGE_KEPT} of the long-range
- * edges; {@code {"kind": "none"}} reads them all); {@code fragments} (fragment methods only: a {@link FragmentOptions}, defaults if
- * omitted); {@code minSegmentSize} (any method, default 0 = off; see below);
+ * edges; {@code {"kind": "none"}} reads them all); {@code fragments} (fragment methods only: a
+ * {@link FragmentOptions}, defaults if omitted); {@code minSegmentSize} (any method, default 0 = off; see below);
  * {@code sizeFilter} (how {@code minSegmentSize} treats the method's constraints:
  * {@code "complete"}, the default, or {@code "within-constraints"}; only with
  * {@code minSegmentSize} above 1); {@code kernighanLin} ({@code fragments-multicut} only:

@@ -9,6 +9,7 @@ import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.Locale;
 import java.util.Random;
+import java.util.Set;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.graph.Subsampling;
@@ -42,8 +43,9 @@ import org.sunder.testing.HeapPeak;
  * <p>Arguments: {@code [x y z] [repeats] [seed]}, default {@code 128 128 64 3 1}. System
  * properties: {@code -Dmethods=mws,mean,default} (which kernels; also {@code mws-all}, the Mutex
  * Watershed reading every long-range edge, and {@code mean-sparse}, mean linkage reading a
- * hash-chosen {@code -DkeepFraction} of them, default 0.1), {@code -Dinputs=clean,dense-neurites,...}
- * (which inputs), {@code -DmeanRepeats=N} (repeats of the slower linkage runs, default 1).
+ * hash-chosen {@code -DkeepFraction} of them, default 0.1),
+ * {@code -Dinputs=clean,dense-neurites,...} (which inputs), {@code -DmeanRepeats=N} (repeats of
+ * the slower linkage runs, default 1).
  */
 public final class KernelBenchmark {
   private KernelBenchmark() {}
@@ -53,7 +55,7 @@ public final class KernelBenchmark {
         Integer.parseInt(args[1]), Integer.parseInt(args[2])} : new int[] {128, 128, 64};
     int repeats = args.length >= 4 ? Integer.parseInt(args[3]) : 3;
     long seed = args.length >= 5 ? Long.parseLong(args[4]) : 1;
-    java.util.Set<String> methods = java.util.Set.of(
+    Set<String> methods = Set.of(
         System.getProperty("methods", "mws,mean,default").split(","));
     String inputs = System.getProperty("inputs",
         "clean,dense-neurites,compact-cells,bodies-and-neurites");
