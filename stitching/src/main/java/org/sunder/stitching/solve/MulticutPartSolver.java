@@ -91,7 +91,7 @@ public final class MulticutPartSolver implements PartSolver {
     int[] iv = part.iv();
     int n = nodes.length;
     int[] group = joinedGroups(rows, order, iu, iv, n);
-    boolean[] open = openGroups(rows, order, iu, iv, group);
+    boolean[] open = openGroups(iu, iv, group);
     int[] cluster = multicut(rows, order, iu, iv, group, open);
     long[] rep = new long[n];
     int[] smallest = new int[n];
@@ -158,10 +158,9 @@ public final class MulticutPartSolver implements PartSolver {
    * Per group node, whether its group has a pair (joined or cost) leaving the part: then its
    * joins lean on pairs this part cannot see, and it is held back. O(m).
    */
-  private static boolean[] openGroups(SolveEdges rows, int[] order, int[] iu, int[] iv,
-      int[] group) {
+  private static boolean[] openGroups(int[] iu, int[] iv, int[] group) {
     boolean[] open = new boolean[group.length];
-    for (int k = 0; k < order.length; k++) {
+    for (int k = 0; k < iu.length; k++) {
       if ((iu[k] < 0) != (iv[k] < 0)) {
         open[group[iu[k] >= 0 ? iu[k] : iv[k]]] = true;
       }

@@ -16,8 +16,8 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * {@code "mutex-watershed"}: the Mutex Watershed on the voxel graph ({@link MutexWatershed}),
  * continued on the reduced graph by {@link MutexWatershedSolver}. Takes no linkage,
  * constraints or threshold; weights by channel role and {@link #LONG_RANGE_KEPT} of the
- * long-range edges by default. Its size filter never joins
- * across a repulsive edge it was kept apart by unless the rule says so.
+ * long-range edges by default. Its size filter never joins across a repulsive edge it was kept
+ * apart by unless the rule says so.
  */
 public record MutexWatershedMethod() implements PartitionMethod {
 

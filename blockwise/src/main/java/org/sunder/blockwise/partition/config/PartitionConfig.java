@@ -40,9 +40,9 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * {@code logit} by value for agglomeration); {@code subsampling} (a {@link Subsampling}; default
  * none, for the Mutex Watershed {@link MutexWatershedMethod#LONG_RANGE_KEPT} of the long-range
  * edges; {@code {"kind": "none"}} reads them all); {@code fragments} (fragment methods only: a
- * {@link FragmentOptions}, defaults if omitted); {@code minSegmentSize} (any method, default 0 = off; see below);
- * {@code sizeFilter} (how {@code minSegmentSize} treats the method's constraints:
- * {@code "complete"}, the default, or {@code "within-constraints"}; only with
+ * {@link FragmentOptions}, defaults if omitted); {@code minSegmentSize} (any method, default
+ * 0 = off; see below); {@code sizeFilter} (how {@code minSegmentSize} treats the method's
+ * constraints: {@code "complete"}, the default, or {@code "within-constraints"}; only with
  * {@code minSegmentSize} above 1); {@code kernighanLin} ({@code fragments-multicut} only:
  * refine each multicut by Kernighan–Lin after the greedy additive contraction, default false: on
  * the realistic tissue presets it changed the adapted Rand error by under 0.001 and cost a fifth
