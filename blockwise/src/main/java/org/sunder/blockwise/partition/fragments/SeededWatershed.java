@@ -54,16 +54,21 @@ public final class SeededWatershed {
     if (queue == null) {
       queue = VoxelQueue.inArrivalOrder(boundary, n / 4);
     }
-    int largest = 0;
-    for (int i = 0; i < n; i++) {
-      if (markers[i] > 0 && (mask == null || mask[i] != 0)) {
-        labels[i] = markers[i];
-        largest = Math.max(largest, markers[i]);
-        queue.push(i);
-      }
-    }
     Flood flood = new Flood(boundary, shape, mask, sliceAxis, labels);
-    flood.run(queue);
+    // planes along the last axis lie apart in memory and flood apart: one after another keeps
+    // the queue's working set to one plane, with the same pops per plane as all at once
+    int run = sliceAxis == shape.length - 1 ? n / Math.max(1, shape[sliceAxis]) : n;
+    int largest = 0;
+    for (int start = 0; start < n; start += run) {
+      for (int i = start; i < start + run; i++) {
+        if (markers[i] > 0 && (mask == null || mask[i] != 0)) {
+          labels[i] = markers[i];
+          largest = Math.max(largest, markers[i]);
+          queue.push(i);
+        }
+      }
+      flood.run(queue);
+    }
     for (int i = 0; i < n; i++) {
       if (labels[i] == 0 && (mask == null || mask[i] != 0)) {
         labels[i] = ++largest;

@@ -8,6 +8,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
@@ -65,6 +66,36 @@ class SeededWatershedTest {
           "trial " + trial);
     }
     assertTrue(LevelQueue.forPriorities(randomBoundary(random, 5000, 0), 4096) == null);
+  }
+
+  /**
+   * Planes along the last axis flood one after another; each must come out as that plane alone
+   * flooded as a 2D box (ties included: coarse boundary levels make many).
+   */
+  @Test
+  void perSliceFloodEqualsEachPlaneFloodedAlone() {
+    Random random = new Random(29);
+    int[] shape = {17, 12, 6};
+    int plane = shape[0] * shape[1];
+    int n = VoxelBox.size(shape);
+    for (int trial = 0; trial < 12; trial++) {
+      float[] boundary = randomBoundary(random, n, trial % 2 == 0 ? 5 : 0);
+      int[] markers = randomMarkers(random, n, 0.03);
+      for (int z = 0; z < shape[2]; z++) {
+        markers[z * plane + random.nextInt(plane)] = 1000 + z;
+      }
+      boolean buckets = trial % 3 != 0;
+      int[] labels = SeededWatershed.flood(boundary, shape, markers, null, 2, buckets);
+      for (int z = 0; z < shape[2]; z++) {
+        int from = z * plane;
+        int[] alone = SeededWatershed.flood(
+            Arrays.copyOfRange(boundary, from, from + plane),
+            new int[] {shape[0], shape[1], 1},
+            Arrays.copyOfRange(markers, from, from + plane), null, -1, buckets);
+        assertArrayEquals(alone, Arrays.copyOfRange(labels, from, from + plane),
+            "trial " + trial + ", plane " + z);
+      }
+    }
   }
 
   @Test
