@@ -28,6 +28,15 @@ public final class RadixSort {
   }
 
   /**
+   * The unsigned key whose order is {@link Double#compare}'s order of {@code value} (-0.0 below
+   * 0.0, NaN above everything): the bits, negative values' magnitude bits inverted, as signed.
+   */
+  public static long doubleKey(double value) {
+    long bits = Double.doubleToLongBits(value);
+    return signedKey(bits ^ ((bits >> 63) & Long.MAX_VALUE));
+  }
+
+  /**
    * Sorts {@code keys} ascending as unsigned longs and permutes {@code values} alike; stable, so
    * equal keys keep their order. Two scratch arrays of {@code n} keys and values.
    *

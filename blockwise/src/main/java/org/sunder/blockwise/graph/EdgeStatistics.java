@@ -1,9 +1,9 @@
 package org.sunder.blockwise.graph;
 
-import it.unimi.dsi.fastutil.ints.IntArrays;
 import java.io.Serializable;
 import java.util.Arrays;
 import java.util.List;
+import org.sunder.blockwise.collections.RadixSort;
 
 /**
  * Accumulated statistics of the edges between pairs of nodes (segments): for each pair
@@ -73,18 +73,10 @@ public final class EdgeStatistics implements Serializable {
       a[i] = Math.min(u[i], v[i]);
       b[i] = Math.max(u[i], v[i]);
     }
-    int[] order = new int[n];
-    for (int i = 0; i < n; i++) {
-      order[i] = i;
-    }
-    IntArrays.mergeSort(order, (x, y) -> {
-      int c = Long.compare(a[x], a[y]);
-      c = c != 0 ? c : Long.compare(b[x], b[y]);
-      c = c != 0 ? c : Double.compare(sum[x], sum[y]);
-      c = c != 0 ? c : Long.compare(count[x], count[y]);
-      c = c != 0 ? c : Double.compare(min[x], min[y]);
-      return c != 0 ? c : Double.compare(max[x], max[y]);
-    });
+    int[] order = RadixSort.order(n, i -> RadixSort.signedKey(a[i]),
+        i -> RadixSort.signedKey(b[i]), i -> RadixSort.doubleKey(sum[i]),
+        i -> RadixSort.signedKey(count[i]), i -> RadixSort.doubleKey(min[i]),
+        i -> RadixSort.doubleKey(max[i]));
     return collapse(order, a, b, sum, count, min, max);
   }
 
@@ -350,13 +342,10 @@ public final class EdgeStatistics implements Serializable {
 
     /** The canonical table of everything added. */
     public EdgeStatistics build() {
-      int[] order = new int[rows.size];
-      for (int i = 0; i < order.length; i++) {
-        order[i] = i;
-      }
       long[] a = rows.u;
       long[] b = rows.v;
-      IntArrays.mergeSort(order, (x, y) -> compare(a[x], b[x], a[y], b[y]));
+      int[] order = RadixSort.order(rows.size, i -> RadixSort.signedKey(a[i]),
+          i -> RadixSort.signedKey(b[i]));
       return collapse(order, rows.u, rows.v, rows.sum, rows.count, rows.min, rows.max);
     }
   }

@@ -124,6 +124,23 @@ class RadixSortTest {
   }
 
   @Test
+  void doubleKeyGivesTheOrderOfDoubleCompare() {
+    Random random = new Random(43);
+    double[] special = {0.0, -0.0, Double.NaN, Double.POSITIVE_INFINITY,
+        Double.NEGATIVE_INFINITY, Double.MIN_VALUE, -Double.MIN_VALUE, Double.MAX_VALUE, -1, 1};
+    double[] values = new double[400];
+    for (int i = 0; i < values.length; i++) {
+      values[i] = i < special.length ? special[i] : random.nextGaussian() * 10;
+    }
+    for (double a : values) {
+      for (double b : values) {
+        assertEquals(Integer.signum(Double.compare(a, b)), Integer.signum(
+            Long.compareUnsigned(RadixSort.doubleKey(a), RadixSort.doubleKey(b))), a + " vs " + b);
+      }
+    }
+  }
+
+  @Test
   void orderOfColumnsMatchesNumpyLexsort() throws IOException {
     // reference: numpy.lexsort, a stable sort whose last key is the primary one
     PythonReference.requireModules("numpy");

@@ -4,7 +4,9 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Collections;
+import java.util.Comparator;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
@@ -59,6 +61,49 @@ class EdgeStatisticsTest {
     }
     assertEquals(stats, EdgeStatistics.ofEdges(u, v, w));
     assertEquals(m, stats.edgeCount());
+  }
+
+  /**
+   * Rows of one pair combine in ascending (sum, count, min, max), so the floating-point sums are
+   * the same bits whatever the rows' order. Reference for that order: the JDK's stable sort by
+   * a comparator of the columns ({@code Double.compare} for the weights, -0.0 below 0.0).
+   */
+  @Test
+  void rowsCombineInTheSameOrderWhateverTheirInputOrder() {
+    Random random = new Random(31);
+    double[] weights = {-0.0, 0.0, 0.1, -0.7, 1e-17, 3.3, -2.5e8, 0.3};
+    for (int trial = 0; trial < 20; trial++) {
+      int m = 200 + random.nextInt(300);
+      long[] u = new long[m];
+      long[] v = new long[m];
+      double[] sum = new double[m];
+      long[] count = new long[m];
+      double[] min = new double[m];
+      double[] max = new double[m];
+      Integer[] rows = new Integer[m];
+      for (int e = 0; e < m; e++) {
+        u[e] = random.nextInt(6) - 3L;
+        v[e] = random.nextInt(6) - 3L;
+        min[e] = weights[random.nextInt(weights.length)];
+        max[e] = Math.max(min[e], weights[random.nextInt(weights.length)]);
+        count[e] = 1 + random.nextInt(3);
+        sum[e] = count[e] == 1 ? min[e] : min[e] + max[e];
+        rows[e] = e;
+      }
+      Comparator<Integer> byColumns = Comparator.<Integer>comparingLong(e -> Math.min(u[e], v[e]))
+          .thenComparingLong(e -> Math.max(u[e], v[e])).thenComparingDouble(e -> sum[e])
+          .thenComparingLong(e -> count[e]).thenComparingDouble(e -> min[e])
+          .thenComparingDouble(e -> max[e]);
+      Arrays.sort(rows, byColumns);
+      EdgeStatistics.Accumulator reference = new EdgeStatistics.Accumulator(4);
+      for (int e : rows) {
+        if (u[e] != v[e]) {
+          reference.add(u[e], v[e], sum[e], count[e], min[e], max[e]);
+        }
+      }
+      assertEquals(reference.build(), EdgeStatistics.of(u, v, sum, count, min, max),
+          "trial " + trial);
+    }
   }
 
   @Test

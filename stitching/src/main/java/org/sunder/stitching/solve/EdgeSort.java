@@ -35,15 +35,6 @@ final class EdgeSort {
         e -> RadixSort.signedKey(edges.kind(e)));
   }
 
-  /**
-   * The bits of {@code value} as a long that compares (signed) as {@link Double#compare} does:
-   * negative values' magnitude bits inverted.
-   */
-  static long comparableBits(double value) {
-    long bits = Double.doubleToLongBits(value);
-    return bits ^ ((bits >> 63) & Long.MAX_VALUE);
-  }
-
   /** The indices of {@code values} in ascending order of value, equal values in index order. */
   static int[] byValue(long[] values) {
     return RadixSort.order(values.length, i -> RadixSort.signedKey(values[i]));

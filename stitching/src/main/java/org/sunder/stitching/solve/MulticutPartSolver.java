@@ -219,7 +219,7 @@ public final class MulticutPartSolver implements PartSolver {
     }
     int[] byPair = RadixSort.order(cut.length, x -> RadixSort.signedKey(a[x]),
         x -> RadixSort.signedKey(b[x]),
-        x -> RadixSort.signedKey(EdgeSort.comparableBits(rows.weight(order[cut[x]]))));
+        x -> RadixSort.doubleKey(rows.weight(order[cut[x]])));
     int i = 0;
     while (i < byPair.length) {
       int first = byPair[i];

@@ -53,23 +53,6 @@ class EdgeSortTest {
   }
 
   @Test
-  void comparableBitsOrderAsDoubleCompare() {
-    Random random = new Random(43);
-    double[] special = {0.0, -0.0, Double.NaN, Double.POSITIVE_INFINITY,
-        Double.NEGATIVE_INFINITY, Double.MIN_VALUE, -Double.MIN_VALUE, Double.MAX_VALUE, -1, 1};
-    double[] values = new double[400];
-    for (int i = 0; i < values.length; i++) {
-      values[i] = i < special.length ? special[i] : random.nextGaussian() * 10;
-    }
-    for (double a : values) {
-      for (double b : values) {
-        assertEquals(Integer.signum(Double.compare(a, b)), Integer.signum(
-            Long.compare(EdgeSort.comparableBits(a), EdgeSort.comparableBits(b))), a + " vs " + b);
-      }
-    }
-  }
-
-  @Test
   void joinCopiesKeepsOneEdgePerKeyInKeyOrder() {
     // the user of byKey: the smallest end of each key's copies, keys ascending
     SolveEdges edges = new SolveEdges(4);
