@@ -1,14 +1,14 @@
 package org.sunder.blockwise.collections;
 
-import java.util.Arrays;
-
 /**
  * Open-addressing map from non-negative int keys to int values, linear probing, deletion by
  * backward shift (no tombstones). Iterate with {@link #capacity()}, {@link #keyAt},
- * {@link #valueAt}; a slot with key {@code -1} is empty.
+ * {@link #valueAt}; a slot with key {@code -1} is empty. A slot stores its key plus one, so a
+ * fresh table (zeroed by the JVM) needs no filling: many small maps cost their allocation only.
  */
 public final class IntIntHashMap {
-  private static final int EMPTY = -1;
+  /** A stored key: the key plus one. */
+  private static final int EMPTY = 0;
   private int[] keys;
   private int[] values;
   private int size;
@@ -19,7 +19,6 @@ public final class IntIntHashMap {
     int capacity = Integer.highestOneBit(Math.max(4, expected * 2 - 1)) << 1;
     keys = new int[capacity];
     values = new int[capacity];
-    Arrays.fill(keys, EMPTY);
     mask = capacity - 1;
     shift = Integer.numberOfLeadingZeros(mask);
   }
@@ -33,7 +32,7 @@ public final class IntIntHashMap {
   }
 
   public int keyAt(int slot) {
-    return keys[slot];
+    return keys[slot] - 1;
   }
 
   public int valueAt(int slot) {
@@ -42,9 +41,10 @@ public final class IntIntHashMap {
 
   /** The value of {@code key}, or {@code missing}. */
   public int get(int key, int missing) {
+    int stored = key + 1;
     int slot = slot(key);
     while (keys[slot] != EMPTY) {
-      if (keys[slot] == key) {
+      if (keys[slot] == stored) {
         return values[slot];
       }
       slot = (slot + 1) & mask;
@@ -53,15 +53,19 @@ public final class IntIntHashMap {
   }
 
   public void put(int key, int value) {
+    if (key < 0 || key == Integer.MAX_VALUE) {
+      throw new IllegalArgumentException("key " + key + "; expected 0 .. 2^31 - 2");
+    }
+    int stored = key + 1;
     int slot = slot(key);
     while (keys[slot] != EMPTY) {
-      if (keys[slot] == key) {
+      if (keys[slot] == stored) {
         values[slot] = value;
         return;
       }
       slot = (slot + 1) & mask;
     }
-    keys[slot] = key;
+    keys[slot] = stored;
     values[slot] = value;
     if (++size * 2 > keys.length) {
       grow();
@@ -69,8 +73,9 @@ public final class IntIntHashMap {
   }
 
   public void remove(int key) {
+    int stored = key + 1;
     int slot = slot(key);
-    while (keys[slot] != key) {
+    while (keys[slot] != stored) {
       if (keys[slot] == EMPTY) {
         return;
       }
@@ -80,7 +85,7 @@ public final class IntIntHashMap {
     int hole = slot;
     int next = (hole + 1) & mask;
     while (keys[next] != EMPTY) {
-      int home = slot(keys[next]);
+      int home = slot(keys[next] - 1);
       if (((next - home) & mask) >= ((next - hole) & mask)) {
         keys[hole] = keys[next];
         values[hole] = values[next];
@@ -100,13 +105,12 @@ public final class IntIntHashMap {
     int[] oldValues = values;
     keys = new int[oldKeys.length * 2];
     values = new int[keys.length];
-    Arrays.fill(keys, EMPTY);
     mask = keys.length - 1;
     shift = Integer.numberOfLeadingZeros(mask);
     size = 0;
     for (int s = 0; s < oldKeys.length; s++) {
       if (oldKeys[s] != EMPTY) {
-        put(oldKeys[s], oldValues[s]);
+        put(oldKeys[s] - 1, oldValues[s]);
       }
     }
   }
