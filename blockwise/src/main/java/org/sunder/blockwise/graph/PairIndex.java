@@ -1,16 +1,15 @@
 package org.sunder.blockwise.graph;
 
-import java.util.Arrays;
-
 /**
  * An open-addressing hash map from an ordered pair of {@code long}s to a non-negative
- * {@code int}, on primitive arrays (linear probing, backward-shift deletion, doubling at 1/2
- * load). Expected {@code O(1)} per operation. Not thread-safe.
+ * {@code int}, on one primitive array (linear probing, backward-shift deletion, doubling at 1/2
+ * load). A slot is three consecutive longs (first, second, value plus one; 0 marks an empty
+ * slot, so a fresh table needs no filling): a lookup in a table larger than the cache reads one
+ * or two cache lines, not one per column. Expected {@code O(1)} per operation. Not thread-safe.
  */
 public final class PairIndex {
-  private long[] first;
-  private long[] second;
-  private int[] values;
+  private static final int SLOT = 3;
+  private long[] table;
   private int size;
   private int mask;
 
@@ -26,13 +25,15 @@ public final class PairIndex {
 
   /** The value of {@code (a, b)}, or -1 when absent. */
   public int get(long a, long b) {
+    long[] t = table;
     for (int i = slot(a, b); ; i = (i + 1) & mask) {
-      int value = values[i];
-      if (value < 0) {
+      int at = SLOT * i;
+      long stored = t[at + 2];
+      if (stored == 0) {
         return -1;
       }
-      if (first[i] == a && second[i] == b) {
-        return value;
+      if (t[at] == a && t[at + 1] == b) {
+        return (int) stored - 1;
       }
     }
   }
@@ -42,56 +43,62 @@ public final class PairIndex {
     if (value < 0) {
       throw new IllegalArgumentException("value " + value + " is negative");
     }
-    if (2 * (size + 1) > values.length) {
+    if (2 * (size + 1) > capacity()) {
       grow();
     }
+    long[] t = table;
     for (int i = slot(a, b); ; i = (i + 1) & mask) {
-      int old = values[i];
-      if (old < 0) {
-        first[i] = a;
-        second[i] = b;
-        values[i] = value;
+      int at = SLOT * i;
+      long old = t[at + 2];
+      if (old == 0) {
+        t[at] = a;
+        t[at + 1] = b;
+        t[at + 2] = value + 1L;
         size++;
         return -1;
       }
-      if (first[i] == a && second[i] == b) {
-        values[i] = value;
-        return old;
+      if (t[at] == a && t[at + 1] == b) {
+        t[at + 2] = value + 1L;
+        return (int) old - 1;
       }
     }
   }
 
   /** Removes {@code (a, b)}; returns its value or -1 when absent. */
   public int remove(long a, long b) {
-    int i = slot(a, b);
-    while (true) {
-      int value = values[i];
-      if (value < 0) {
+    long[] t = table;
+    for (int i = slot(a, b); ; i = (i + 1) & mask) {
+      int at = SLOT * i;
+      long stored = t[at + 2];
+      if (stored == 0) {
         return -1;
       }
-      if (first[i] == a && second[i] == b) {
+      if (t[at] == a && t[at + 1] == b) {
         deleteAt(i);
         size--;
-        return value;
+        return (int) stored - 1;
       }
-      i = (i + 1) & mask;
     }
   }
 
+  private int capacity() {
+    return mask + 1;
+  }
+
   private void deleteAt(int hole) {
+    long[] t = table;
     int i = hole;
     while (true) {
       i = (i + 1) & mask;
-      if (values[i] < 0) {
-        values[hole] = -1;
+      int at = SLOT * i;
+      if (t[at + 2] == 0) {
+        t[SLOT * hole + 2] = 0;
         return;
       }
-      int home = slot(first[i], second[i]);
+      int home = slot(t[at], t[at + 1]);
       boolean movable = hole <= i ? (home <= hole || home > i) : (home <= hole && home > i);
       if (movable) {
-        first[hole] = first[i];
-        second[hole] = second[i];
-        values[hole] = values[i];
+        System.arraycopy(t, at, t, SLOT * hole, SLOT);
         hole = i;
       }
     }
@@ -106,22 +113,17 @@ public final class PairIndex {
   }
 
   private void allocate(int capacity) {
-    first = new long[capacity];
-    second = new long[capacity];
-    values = new int[capacity];
-    Arrays.fill(values, -1);
+    table = new long[SLOT * capacity];
     mask = capacity - 1;
   }
 
   private void grow() {
-    long[] oldFirst = first;
-    long[] oldSecond = second;
-    int[] oldValues = values;
-    allocate(values.length * 2);
+    long[] old = table;
+    allocate(2 * capacity());
     size = 0;
-    for (int i = 0; i < oldValues.length; i++) {
-      if (oldValues[i] >= 0) {
-        put(oldFirst[i], oldSecond[i], oldValues[i]);
+    for (int at = 0; at < old.length; at += SLOT) {
+      if (old[at + 2] != 0) {
+        put(old[at], old[at + 1], (int) old[at + 2] - 1);
       }
     }
   }
