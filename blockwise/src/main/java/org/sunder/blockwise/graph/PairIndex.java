@@ -113,6 +113,10 @@ public final class PairIndex {
   }
 
   private void allocate(int capacity) {
+    if (capacity <= 0 || capacity > (Integer.MAX_VALUE - 8) / SLOT) {
+      throw new IllegalStateException("PairIndex: " + size + " pairs need more slots than one"
+          + " array holds");
+    }
     table = new long[SLOT * capacity];
     mask = capacity - 1;
   }
