@@ -46,7 +46,7 @@ class ContractionGraphTest {
       }
       IntList touched = new IntList(4);
       while (true) {
-        assertMatchesModel(graph, n, m, u, v, input, weight, owner, live, trial);
+        assertMatchesModel(graph, m, u, v, input, weight, owner, live, trial);
         if (live.size() < 2) {
           break;
         }
@@ -69,7 +69,7 @@ class ContractionGraphTest {
     }
   }
 
-  private static void assertMatchesModel(ContractionGraph graph, int n, int m, int[] u, int[] v,
+  private static void assertMatchesModel(ContractionGraph graph, int m, int[] u, int[] v,
       double[] input, double[] weight, int[] owner, List<Integer> live, int trial) {
     Map<Long, Double> model = new HashMap<>();
     for (int e = 0; e < m; e++) {
