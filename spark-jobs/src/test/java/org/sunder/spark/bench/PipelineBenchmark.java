@@ -2,6 +2,7 @@ package org.sunder.spark.bench;
 
 import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
+import java.lang.management.GarbageCollectorMXBean;
 import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -39,7 +40,8 @@ import org.sunder.testing.HeapPeak;
  * (all concurrent tasks and the driver together; the JVM is shared in local mode). Per size: the
  * whole run in Mvoxels/s per core (volume voxels over process CPU seconds of all stages), the
  * partition kernel's Mvoxels/s per core (see {@link #kernelRate}) and the ratio of the two
- * (goal: at least 0.7).
+ * (goal: at least 0.7), and how much of the run's CPU went to JIT compilation (a fixed cost per
+ * JVM, large beside a small volume) and to collection pauses.
  *
  * <p>Not a test. Arguments: {@code [tissue] [seed] [z,y,x ...]}, default
  * {@code dense-neurites 1 96,256,256 192,512,512}. Volumes are generated once under
@@ -102,6 +104,8 @@ public final class PipelineBenchmark {
         zyx[2], voxels / 1e6);
     double cpuTotal = 0;
     double wallTotal = 0;
+    double compile0 = compilationSeconds();
+    double gc0 = collectionSeconds();
     StitchingSetup setup;
     try (PreparedRun run = RunLoader.prepare(config, null, true)) {
       setup = run.settings().setup();
@@ -133,6 +137,8 @@ public final class PipelineBenchmark {
     double runRate = voxels / cpuTotal / 1e6;
     System.out.printf(Locale.ROOT, "  whole run: %.1f s wall, %.1f s CPU, %.2f s/Mvoxel wall, "
         + "%.3f Mvoxels/s per core%n", wallTotal, cpuTotal, wallTotal / (voxels / 1e6), runRate);
+    System.out.printf(Locale.ROOT, "    of its CPU: JIT compilation %.1f s, garbage collection "
+        + "pauses %.1f s%n", compilationSeconds() - compile0, collectionSeconds() - gc0);
     double kernelRate = kernelRate(setup);
     System.out.printf(Locale.ROOT, "  partition kernel alone: %.3f Mvoxels/s per core (core "
         + "voxels, %d interior blocks); whole run / kernel = %.2f%n", kernelRate,
@@ -165,6 +171,20 @@ public final class PipelineBenchmark {
 
   private static double threadCpuSeconds() {
     return ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() / 1e9;
+  }
+
+  /** Time the JIT compiler threads spent compiling (about their CPU time). */
+  private static double compilationSeconds() {
+    return ManagementFactory.getCompilationMXBean().getTotalCompilationTime() / 1e3;
+  }
+
+  /** Time the collectors report (pauses; G1's concurrent marking is not in it). */
+  private static double collectionSeconds() {
+    long millis = 0;
+    for (GarbageCollectorMXBean bean : ManagementFactory.getGarbageCollectorMXBeans()) {
+      millis += Math.max(0, bean.getCollectionTime());
+    }
+    return millis / 1e3;
   }
 
   private static double processCpuSeconds() {
