@@ -5,9 +5,11 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
 import java.util.HashMap;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Random;
+import java.util.Set;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.collections.IntIntHashMap;
 import org.sunder.blockwise.collections.IntList;
@@ -17,14 +19,16 @@ class ContractionGraphTest {
   /**
    * Random contractions against a plain model: a map from each unordered pair of live nodes to
    * the summed weight of the input edges between their members. After every contraction the
-   * graph's live edges, their ends, merged weights and the degrees must match the model.
+   * graph's live edges, their ends, merged weights and the degrees must match the model, and
+   * every live edge whose weight or ends changed must be among the touched. The last trials
+   * are larger and denser, so that maps grow and shrink.
    */
   @Test
   void randomContractionsMatchAPairMapModel() {
     Random random = new Random(5);
-    for (int trial = 0; trial < 40; trial++) {
-      int n = 2 + random.nextInt(30);
-      int m = random.nextInt(4 * n);
+    for (int trial = 0; trial < 43; trial++) {
+      int n = trial < 40 ? 2 + random.nextInt(30) : 100 + random.nextInt(30);
+      int m = random.nextInt(trial < 40 ? 4 * n : 12 * n);
       int[] u = new int[m];
       int[] v = new int[m];
       double[] weight = new double[m];
@@ -55,11 +59,24 @@ class ContractionGraphTest {
         if (into == from) {
           continue;
         }
+        double[] weightBefore = weight.clone();
+        long[] endsBefore = new long[m];
+        for (int e = 0; e < m; e++) {
+          endsBefore[e] = ((long) graph.endA(e) << 32) | graph.endB(e);
+        }
         touched.clear();
         graph.contract(into, from, sum, touched);
+        Set<Integer> listed = new HashSet<>();
         for (int t = 0; t < touched.size(); t++) {
           int e = touched.get(t);
           assertTrue(graph.alive(e) && (graph.endA(e) == into || graph.endB(e) == into));
+          listed.add(e);
+        }
+        for (int e = 0; e < m; e++) {
+          boolean changed = weight[e] != weightBefore[e]
+              || endsBefore[e] != (((long) graph.endA(e) << 32) | graph.endB(e));
+          assertTrue(!graph.alive(e) || !changed || listed.contains(e),
+              "trial " + trial + ": edge " + e + " changed but is not among the touched");
         }
         for (int i = 0; i < n; i++) {
           owner[i] = owner[i] == from ? into : owner[i];
