@@ -3,6 +3,7 @@ package org.sunder.stitching.bench;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import java.util.Random;
@@ -30,7 +31,8 @@ import org.sunder.stitching.solve.SuperBlocks;
  * this thread's CPU seconds (level 1's include generating its inputs; CPU time is the fair
  * figure on a shared machine), the parts' own solve seconds and edges per CPU second; then the
  * driver's edges and share of the time, the cost per edge and the ratio of costs per edge
- * between the largest and the smallest size. The smallest size runs once first as a warm-up, so
+ * between the largest and the smallest size (sizes up to {@value #MAX_REPEATED_EDGES} edges run
+ * {@value #REPEATS} times, and their median cost counts). The smallest size runs once first as a warm-up, so
  * the figures compared are those of compiled code. Where the whole graph fits in memory it also
  * runs the single-level solve and reports whether the partitions are equal.
  *
@@ -42,6 +44,12 @@ public final class HierarchicalSolveBenchmark {
   private static final int N = 12;
   private static final int SEGMENTS = N * N * N;
   private static final double EDGES_PER_SEGMENT = 5.3;
+  /**
+   * Runs of each size up to {@link #MAX_REPEATED_EDGES} edges, whose median is compared: a small
+   * size takes a fraction of a second, so one run's figure swings with the machine's load.
+   */
+  private static final int REPEATS = 5;
+  private static final long MAX_REPEATED_EDGES = 20_000_000;
   private static final java.lang.management.ThreadMXBean THREADS =
       java.lang.management.ManagementFactory.getThreadMXBean();
 
@@ -58,7 +66,19 @@ public final class HierarchicalSolveBenchmark {
     runOne(smallest, exact, boundFraction);
     for (String size : sizes) {
       long target = (long) Double.parseDouble(size);
-      costs.add(new double[] {target, runOne(target, exact, boundFraction)});
+      int repeats = target <= MAX_REPEATED_EDGES ? REPEATS : 1;
+      double[] perEdge = new double[repeats];
+      for (int r = 0; r < repeats; r++) {
+        perEdge[r] = runOne(target, exact, boundFraction);
+      }
+      Arrays.sort(perEdge);
+      double median = perEdge[repeats / 2];
+      if (repeats > 1) {
+        System.out.printf(Locale.ROOT, "%d runs at %.0e edges, CPU ns per edge: %s; median %.0f%n",
+            repeats, (double) target, Arrays.toString(Arrays.stream(perEdge)
+                .mapToLong(Math::round).toArray()), median);
+      }
+      costs.add(new double[] {target, median});
     }
     if (costs.size() > 1) {
       double[] first = costs.get(0);
