@@ -296,28 +296,25 @@ public final class EdgeStatistics implements Serializable {
    * Accumulates single edges or partial statistics in any order, hashed by pair; {@link #build}
    * sorts into canonical order. Expected {@code O(1)} per add, {@code O(p log p)} to build for
    * {@code p} pairs. A run of adds of one pair (neighbouring voxels along a boundary) finds its
-   * row without hashing. A row keeps its four statistics side by side ({@link #stats}), so
-   * adding to a row found by hashing reads one cache line, not one per statistic: on a block of
-   * millions of pairs most such adds miss the caches. Not thread-safe.
+   * row without hashing. The statistics live in the hash table itself, a slot of six longs
+   * beside its pair (open addressing, linear probing, doubling at 1/2 load; 0 marks an empty
+   * slot, so a fresh table needs no filling): on a block of millions of pairs an add that has to
+   * hash reads one or two cache lines, where a table of row numbers beside columns of
+   * statistics read five. Not thread-safe.
    */
   public static final class Accumulator {
-    /** Per row {@code r}: sum, count, min, max at {@code 4 r ..}, the doubles as raw bits. */
-    private static final int STRIDE = 4;
-    private final PairIndex index;
-    private long[] u;
-    private long[] v;
-    private long[] stats;
+    /** Slot: first, second, count plus one (0: empty), then sum, min, max as raw bits. */
+    private static final int SLOT = 6;
+    private long[] table;
+    private int mask;
     private int size;
-    private long lastX = -1;
-    private long lastY = -1;
-    private int lastRow = -1;
+    private long lastX;
+    private long lastY;
+    /** Where the last pair added sits in {@link #table}, or -1. */
+    private int lastAt = -1;
 
     public Accumulator(int expectedPairs) {
-      this.index = new PairIndex(expectedPairs);
-      int capacity = Math.max(4, expectedPairs);
-      u = new long[capacity];
-      v = new long[capacity];
-      stats = new long[STRIDE * capacity];
+      allocate(Integer.highestOneBit(Math.max(4, expectedPairs) * 2 - 1) << 1);
     }
 
     /** Adds one edge of weight {@code w} between {@code a} and {@code b} ({@code a != b}). */
@@ -325,47 +322,41 @@ public final class EdgeStatistics implements Serializable {
       add(a, b, w, 1, w, w);
     }
 
-    /** Adds partial statistics of the pair {@code (a, b)}. */
+    /** Adds partial statistics ({@code count >= 0}) of the pair {@code (a, b)}. */
     public void add(long a, long b, double sum, long count, double min, double max) {
       long x = Math.min(a, b);
       long y = Math.max(a, b);
       if (x == y) {
         throw new IllegalArgumentException("edge from " + a + " to itself");
       }
-      int row = x == lastX && y == lastY ? lastRow : index.get(x, y);
-      if (row < 0) {
-        row = size;
-        index.put(x, y, row);
-        append(x, y, sum, count, min, max);
+      if (count < 0 || count == Long.MAX_VALUE) {
+        throw new IllegalArgumentException("count " + count + " of pair (" + x + ", " + y
+            + "); expected 0 .. 2^63 - 2");
+      }
+      int at = lastAt >= 0 && x == lastX && y == lastY ? lastAt : find(x, y);
+      long[] t = table;
+      if (t[at + 2] == 0) {
+        t[at] = x;
+        t[at + 1] = y;
+        t[at + 2] = count + 1;
+        t[at + 3] = Double.doubleToRawLongBits(sum);
+        t[at + 4] = Double.doubleToRawLongBits(min);
+        t[at + 5] = Double.doubleToRawLongBits(max);
+        if (2 * ++size > mask + 1) {
+          grow();
+          at = find(x, y);
+        }
       } else {
-        int at = STRIDE * row;
-        long[] t = stats;
-        t[at] = Double.doubleToRawLongBits(Double.longBitsToDouble(t[at]) + sum);
-        t[at + 1] += count;
-        t[at + 2] = Double.doubleToRawLongBits(
-            Math.min(Double.longBitsToDouble(t[at + 2]), min));
-        t[at + 3] = Double.doubleToRawLongBits(
-            Math.max(Double.longBitsToDouble(t[at + 3]), max));
+        t[at + 2] += count;
+        t[at + 3] = Double.doubleToRawLongBits(Double.longBitsToDouble(t[at + 3]) + sum);
+        t[at + 4] = Double.doubleToRawLongBits(
+            Math.min(Double.longBitsToDouble(t[at + 4]), min));
+        t[at + 5] = Double.doubleToRawLongBits(
+            Math.max(Double.longBitsToDouble(t[at + 5]), max));
       }
       lastX = x;
       lastY = y;
-      lastRow = row;
-    }
-
-    private void append(long x, long y, double sum, long count, double min, double max) {
-      if (size == u.length) {
-        u = Arrays.copyOf(u, 2 * size);
-        v = Arrays.copyOf(v, 2 * size);
-        stats = Arrays.copyOf(stats, 2 * STRIDE * size);
-      }
-      u[size] = x;
-      v[size] = y;
-      int at = STRIDE * size;
-      stats[at] = Double.doubleToRawLongBits(sum);
-      stats[at + 1] = count;
-      stats[at + 2] = Double.doubleToRawLongBits(min);
-      stats[at + 3] = Double.doubleToRawLongBits(max);
-      size++;
+      lastAt = at;
     }
 
     /** Number of distinct pairs so far. */
@@ -375,21 +366,66 @@ public final class EdgeStatistics implements Serializable {
 
     /** The canonical table of everything added. */
     public EdgeStatistics build() {
-      long[] a = u;
-      long[] b = v;
-      int[] order = RadixSort.order(size, i -> RadixSort.signedKey(a[i]),
-          i -> RadixSort.signedKey(b[i]));
+      long[] u = new long[size];
+      long[] v = new long[size];
       double[] sum = new double[size];
       long[] count = new long[size];
       double[] min = new double[size];
       double[] max = new double[size];
-      for (int r = 0; r < size; r++) {
-        sum[r] = Double.longBitsToDouble(stats[STRIDE * r]);
-        count[r] = stats[STRIDE * r + 1];
-        min[r] = Double.longBitsToDouble(stats[STRIDE * r + 2]);
-        max[r] = Double.longBitsToDouble(stats[STRIDE * r + 3]);
+      int r = 0;
+      long[] t = table;
+      for (int at = 0; at < t.length; at += SLOT) {
+        if (t[at + 2] != 0) {
+          u[r] = t[at];
+          v[r] = t[at + 1];
+          count[r] = t[at + 2] - 1;
+          sum[r] = Double.longBitsToDouble(t[at + 3]);
+          min[r] = Double.longBitsToDouble(t[at + 4]);
+          max[r++] = Double.longBitsToDouble(t[at + 5]);
+        }
       }
-      return collapse(order, a, b, sum, count, min, max);
+      int[] order = RadixSort.order(size, i -> RadixSort.signedKey(u[i]),
+          i -> RadixSort.signedKey(v[i]));
+      return collapse(order, u, v, sum, count, min, max);
+    }
+
+    /** The slot of {@code (x, y)} in {@link #table}, or the empty slot where it would go. */
+    private int find(long x, long y) {
+      long[] t = table;
+      for (int i = slot(x, y); ; i = (i + 1) & mask) {
+        int at = SLOT * i;
+        if (t[at + 2] == 0 || t[at] == x && t[at + 1] == y) {
+          return at;
+        }
+      }
+    }
+
+    private int slot(long a, long b) {
+      long h = a * 0x9E3779B97F4A7C15L + b;
+      h ^= h >>> 32;
+      h *= 0xBF58476D1CE4E5B9L;
+      h ^= h >>> 29;
+      return (int) h & mask;
+    }
+
+    private void allocate(int capacity) {
+      if (capacity <= 0 || capacity > (Integer.MAX_VALUE - 8) / SLOT) {
+        throw new IllegalStateException("EdgeStatistics.Accumulator: " + size + " pairs need"
+            + " more slots than one array holds");
+      }
+      table = new long[SLOT * capacity];
+      mask = capacity - 1;
+    }
+
+    private void grow() {
+      long[] old = table;
+      allocate(2 * (mask + 1));
+      for (int from = 0; from < old.length; from += SLOT) {
+        if (old[from + 2] != 0) {
+          System.arraycopy(old, from, table, find(old[from], old[from + 1]), SLOT);
+        }
+      }
+      lastAt = -1;
     }
   }
 

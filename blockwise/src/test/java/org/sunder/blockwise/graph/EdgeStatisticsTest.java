@@ -1,6 +1,7 @@
 package org.sunder.blockwise.graph;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
@@ -146,28 +147,45 @@ class EdgeStatisticsTest {
     assertEquals(4, r.sum(r.indexOf(4, 9)));
   }
 
+  /**
+   * Partial statistics of many pairs over a wide id range (negative ids too, counts of 0) against
+   * a {@link HashMap} of the JDK: the accumulator's table grows from 4 slots to thousands.
+   */
   @Test
-  void pairIndexSurvivesManyRemovals() {
-    Random random = new Random(13);
-    PairIndex index = new PairIndex(2);
-    Map<List<Long>, Integer> reference = new HashMap<>();
-    for (int step = 0; step < 50000; step++) {
-      long a = random.nextInt(60);
-      long b = random.nextInt(60) - 30L;
-      int op = random.nextInt(3);
-      Integer expected = reference.get(List.of(a, b));
-      if (op == 0) {
-        int value = random.nextInt(1000);
-        assertEquals(expected == null ? -1 : expected, index.put(a, b, value));
-        reference.put(List.of(a, b), value);
-      } else if (op == 1) {
-        assertEquals(expected == null ? -1 : expected, index.remove(a, b));
-        reference.remove(List.of(a, b));
-      } else {
-        assertEquals(expected == null ? -1 : expected, index.get(a, b));
+  void accumulatorOfPartialStatisticsMatchesAHashMapOverManyPairs() {
+    Random random = new Random(29);
+    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1);
+    Map<List<Long>, double[]> expected = new HashMap<>();
+    for (int step = 0; step < 60000; step++) {
+      long a = random.nextInt(400) - 200L + (random.nextBoolean() ? 0 : 1L << 50);
+      long b = random.nextInt(400) - 200L;
+      if (a == b) {
+        continue;
       }
-      assertEquals(reference.size(), index.size());
+      double lo = random.nextInt(9) - 4;
+      double hi = lo + random.nextInt(3);
+      long count = random.nextInt(3);
+      double sum = random.nextInt(20) - 10;
+      acc.add(a, b, sum, count, lo, hi);
+      double[] s = expected.computeIfAbsent(List.of(Math.min(a, b), Math.max(a, b)),
+          key -> new double[] {0, 0, Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY});
+      s[0] += sum;
+      s[1] += count;
+      s[2] = Math.min(s[2], lo);
+      s[3] = Math.max(s[3], hi);
     }
+    EdgeStatistics stats = acc.build();
+    assertEquals(expected.size(), acc.size());
+    assertEquals(expected.size(), stats.size());
+    for (int i = 0; i < stats.size(); i++) {
+      double[] s = expected.get(List.of(stats.u(i), stats.v(i)));
+      assertEquals(s[0], stats.sum(i));
+      assertEquals((long) s[1], stats.count(i));
+      assertEquals(s[2], stats.min(i));
+      assertEquals(s[3], stats.max(i));
+    }
+    assertThrows(IllegalArgumentException.class, () -> acc.add(1, 2, 0, -1, 0, 0));
+    assertThrows(IllegalArgumentException.class, () -> acc.add(3, 3, 1));
   }
 
   @Test
