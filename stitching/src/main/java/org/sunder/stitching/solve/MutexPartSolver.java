@@ -210,7 +210,11 @@ public final class MutexPartSolver implements PartSolver {
     private final PairSet exclusions;
     final int[] frontier;
 
-    /** {@code n} singletons; {@code repulsive} sizes the exclusion set (it may grow). */
+    /**
+     * {@code n} singletons. The exclusion set starts at a quarter of the {@code repulsive} inner
+     * edges and grows: on the benchmark's graphs 20 to 50 % of them make an exclusion, and
+     * zeroing a table for all of them took 7 % of a part's solve.
+     */
     Clusters(int n, int[] frontier, int repulsive) {
       parent = new int[n];
       for (int i = 0; i < n; i++) {
@@ -221,7 +225,7 @@ public final class MutexPartSolver implements PartSolver {
       Arrays.fill(head, -1);
       entryNode = new int[16];
       entryNext = new int[16];
-      exclusions = new PairSet(repulsive);
+      exclusions = new PairSet(repulsive / 4);
       this.frontier = frontier;
     }
 
