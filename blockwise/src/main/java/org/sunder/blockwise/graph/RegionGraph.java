@@ -45,16 +45,40 @@ public final class RegionGraph {
       throw new IllegalArgumentException("inside has " + inside.length + " flags for "
           + labels.length + " voxels");
     }
+    return of(labels, graph, inside, null);
+  }
+
+  /**
+   * As {@link #of(int[], GridGraph, byte[])} with {@code insideOrNull} (null: no inside
+   * statistics), leaving out every edge with an end where {@code ignoredOrNull} is non-zero
+   * (one flag per voxel, or null).
+   */
+  public static RegionGraph of(int[] labels, GridGraph graph, byte[] insideOrNull,
+      byte[] ignoredOrNull) {
+    for (byte[] flags : new byte[][] {insideOrNull, ignoredOrNull}) {
+      if (flags != null && flags.length != labels.length) {
+        throw new IllegalArgumentException(flags.length + " voxel flags for " + labels.length
+            + " voxels");
+      }
+    }
+    if (insideOrNull == null && ignoredOrNull == null) {
+      return of(labels, graph);
+    }
     EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
     graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
       int a = labels[s];
       int b = labels[t];
-      if (a != 0 && b != 0) {
+      if (a != 0 && b != 0
+          && (ignoredOrNull == null || (ignoredOrNull[s] | ignoredOrNull[t]) == 0)) {
         long high = Math.max(a, b);
-        acc.add(Math.min(a, b), inside[s] != 0 && inside[t] != 0 ? high | INSIDE : high, w);
+        boolean inside = insideOrNull != null && insideOrNull[s] != 0 && insideOrNull[t] != 0;
+        acc.add(Math.min(a, b), inside ? high | INSIDE : high, w);
       }
     });
     EdgeStatistics rows = acc.build();
+    if (insideOrNull == null) {
+      return new RegionGraph(rows, EdgeStatistics.empty());
+    }
     EdgeStatistics insideRows = rowsWhere(rows, true);
     return new RegionGraph(rowsWhere(rows, false).merge(insideRows), insideRows);
   }

@@ -39,29 +39,45 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
    */
   public static BlockFragments of(AffinityBlock block, FragmentOptions options,
       WeightRule weights, Subsampling subsampling, byte[] insideOrNull) {
-    int[] labels = label(block, options);
+    FragmentOptions fitted = options.forDimension(block.shape().length);
+    boolean[] defective = DefectiveSections.find(block, fitted.voxelSize());
+    int[] labels = label(block, fitted, defective);
     int count = 0;
     for (int l : labels) {
       count = Math.max(count, l);
     }
     GridGraph graph = GridGraph.of(block, weights, subsampling);
-    RegionGraph regions = insideOrNull == null ? RegionGraph.of(labels, graph)
-        : RegionGraph.of(labels, graph, insideOrNull);
+    byte[] ignored = defective == null ? null : DefectiveSections.voxels(defective, block.shape());
+    RegionGraph regions = RegionGraph.of(labels, graph, insideOrNull, ignored);
     return new BlockFragments(labels, count, regions.statistics(),
         insideOrNull == null ? null : regions.insideStatistics());
   }
 
-  /** Fragment labels only (boundary map and seeded watershed). */
+  /**
+   * Fragment labels only (boundary map and seeded watershed). In anisotropic data, fragments
+   * step over {@link DefectiveSections}: such a plane takes the boundary map and then the
+   * fragments of the nearest sound plane, and {@link #of} leaves its edges out.
+   */
   public static int[] label(AffinityBlock block, FragmentOptions options) {
+    FragmentOptions fitted = options.forDimension(block.shape().length);
+    return label(block, fitted, DefectiveSections.find(block, fitted.voxelSize()));
+  }
+
+  private static int[] label(AffinityBlock block, FragmentOptions fitted,
+      boolean[] defectiveOrNull) {
     int[] shape = block.shape();
     int[][] offsets = block.offsets().vectors();
-    FragmentOptions fitted = options.forDimension(shape.length);
     float[] boundary = block.isQuantized()
         ? BoundaryMap.of(block.byteValuesOrNull(), shape, offsets, block.maskOrNull(),
             fitted.sliceAxis())
         : BoundaryMap.of(block.floatValuesOrNull(), shape, offsets, block.maskOrNull(),
             fitted.sliceAxis());
-    return new WatershedFragments(fitted).label(boundary, shape, block.maskOrNull());
+    if (defectiveOrNull == null) {
+      return new WatershedFragments(fitted).label(boundary, shape, block.maskOrNull());
+    }
+    DefectiveSections.bridge(boundary, shape, defectiveOrNull);
+    int[] labels = new WatershedFragments(fitted).label(boundary, shape, block.maskOrNull());
+    return DefectiveSections.adopt(labels, shape, defectiveOrNull);
   }
 
   /**

@@ -1,0 +1,208 @@
+package org.sunder.blockwise.partition.fragments;
+
+import java.util.Arrays;
+import org.sunder.blockwise.graph.AffinityBlock;
+
+/**
+ * Defective sections of serial-section data: planes of the slowest axis (z) where the network's
+ * prediction is no prediction, and how the fragment methods step over them. Serial-section
+ * microscopy loses or spoils whole sections; a network then answers noise (a <em>garbage</em>
+ * section) or doubt everywhere (a <em>missing</em> section), and fragments that flood through
+ * such a plane bridge objects that never touch.
+ *
+ * <p>Judged per plane of a box, from its in-plane nearest-neighbour channels only:
+ * <ul>
+ *   <li><b>incoherent</b>: the mean difference between a channel's affinity at a voxel and at its
+ *       neighbour along the other in-plane axis exceeds {@value #MAX_INCOHERENCE}. Predictions
+ *       of tissue are smooth inside objects and jump only at boundaries; independent uniform
+ *       values differ by 1/3 on average (the mean of {@code |U - V|} for two independent
+ *       uniforms on [0, 1], a fact of probability).
+ *   <li><b>starved</b>: the share of its in-plane edges that attract ({@code a >= 0.5}) is below
+ *       {@value #MIN_ATTRACTION_SHARE} of the median plane's share: a section where the
+ *       network joins almost nothing, though the planes around it join most voxels to their
+ *       neighbours.
+ * </ul>
+ * Only for anisotropic voxels (the slowest axis at least
+ * {@value FragmentOptions#SLICE_ANISOTROPY} times the finest other), where planes are physical
+ * sections; planes with fewer than {@value #MIN_PAIRS}
+ * judged pairs are never defective. O(n) per in-plane channel.
+ */
+public final class DefectiveSections {
+  /** Mean in-plane affinity difference between neighbours above which a plane is noise. */
+  static final double MAX_INCOHERENCE = 0.2;
+  /** Share of the median plane's attractive in-plane edges below which a plane is missing. */
+  static final double MIN_ATTRACTION_SHARE = 0.25;
+  /** Fewest judged voxel pairs of a plane. */
+  static final int MIN_PAIRS = 64;
+
+  private DefectiveSections() {}
+
+  /**
+   * Per plane of the slowest axis, whether it is defective; null when none is or the voxels are
+   * not anisotropic ({@code voxelSize} in the box's axis order, fastest first, or null).
+   */
+  public static boolean[] find(AffinityBlock block, double[] voxelSize) {
+    if (block.shape().length != 3 || voxelSize == null || !sectioned(voxelSize)) {
+      return null;
+    }
+    PlaneFigures figures = measure(block);
+    int planes = figures.pairs().length;
+    double[] shares = new double[planes];
+    int judged = 0;
+    for (int p = 0; p < planes; p++) {
+      if (figures.pairs()[p] >= MIN_PAIRS) {
+        shares[judged++] = figures.attraction()[p];
+      }
+    }
+    if (judged == 0) {
+      return null;
+    }
+    Arrays.sort(shares, 0, judged);
+    double median = shares[judged / 2];
+    boolean[] defective = new boolean[planes];
+    boolean any = false;
+    for (int p = 0; p < planes; p++) {
+      defective[p] = figures.pairs()[p] >= MIN_PAIRS
+          && (figures.incoherence()[p] > MAX_INCOHERENCE
+              || figures.attraction()[p] < MIN_ATTRACTION_SHARE * median);
+      any |= defective[p];
+    }
+    return any ? defective : null;
+  }
+
+  /**
+   * What the rules read, per plane of a 3D box's slowest axis.
+   *
+   * @param incoherence mean {@code |a(v) - a(v')|} of an in-plane channel between neighbours
+   *     {@code v, v'} along the other in-plane axis
+   * @param attraction share of the in-plane edges with {@code a >= 0.5}
+   * @param pairs neighbour pairs behind {@code incoherence}
+   */
+  public record PlaneFigures(double[] incoherence, double[] attraction, long[] pairs) {}
+
+  public static PlaneFigures measure(AffinityBlock block) {
+    int[] shape = block.shape();
+    int nx = shape[0];
+    int ny = shape[1];
+    int planes = shape[2];
+    double[] difference = new double[planes];
+    long[] pairs = new long[planes];
+    long[] attractive = new long[planes];
+    long[] edges = new long[planes];
+    int[][] offsets = block.offsets().vectors();
+    for (int k = 0; k < offsets.length; k++) {
+      if (!BoundaryMap.isNearestNeighbour(offsets[k], 2)) {
+        continue;
+      }
+      // the edge runs along x or y; its neighbour pair lies along the other in-plane axis
+      int dx = offsets[k][0];
+      int dy = offsets[k][1];
+      int delta = dx + dy * nx;
+      int acrossStep = dx != 0 ? nx : 1;
+      for (int z = 0, v = 0; z < planes; z++) {
+        for (int y = 0; y < ny; y++) {
+          for (int x = 0; x < nx; x++, v++) {
+            int tx = x + dx;
+            int ty = y + dy;
+            if (tx < 0 || tx >= nx || ty < 0 || ty >= ny || !block.inside(v)
+                || !block.inside(v + delta)) {
+              continue;
+            }
+            float a = block.affinity(v, k);
+            edges[z]++;
+            if (a >= 0.5f) {
+              attractive[z]++;
+            }
+            boolean nextInBox = dx != 0 ? ty + 1 < ny : tx + 1 < nx;
+            int next = v + acrossStep;
+            if (nextInBox && block.inside(next) && block.inside(next + delta)) {
+              difference[z] += Math.abs(a - block.affinity(next, k));
+              pairs[z]++;
+            }
+          }
+        }
+      }
+    }
+    double[] incoherence = new double[planes];
+    double[] attraction = new double[planes];
+    for (int p = 0; p < planes; p++) {
+      incoherence[p] = pairs[p] == 0 ? 0 : difference[p] / pairs[p];
+      attraction[p] = edges[p] == 0 ? 0 : attractive[p] / (double) edges[p];
+    }
+    return new PlaneFigures(incoherence, attraction, pairs);
+  }
+
+  /**
+   * The plane a defective plane borrows from: the nearest plane that is not defective (the lower
+   * one at equal distance), or -1 when every plane is.
+   */
+  static int source(boolean[] defective, int plane) {
+    for (int distance = 1; distance < defective.length; distance++) {
+      if (plane - distance >= 0 && !defective[plane - distance]) {
+        return plane - distance;
+      }
+      if (plane + distance < defective.length && !defective[plane + distance]) {
+        return plane + distance;
+      }
+    }
+    return -1;
+  }
+
+  /**
+   * Gives every defective plane of {@code boundary} (a 3D box's boundary map, fastest axis
+   * first) the values of its {@link #source} plane, so that fragments run through it as they
+   * run through the sections beside it. O(n).
+   */
+  static void bridge(float[] boundary, int[] shape, boolean[] defective) {
+    int planeSize = shape[0] * shape[1];
+    for (int p = 0; p < defective.length; p++) {
+      int q = defective[p] ? source(defective, p) : -1;
+      if (q >= 0) {
+        System.arraycopy(boundary, q * planeSize, boundary, p * planeSize, planeSize);
+      }
+    }
+  }
+
+  /**
+   * Gives every voxel of a defective plane the fragment of the voxel beside it in the
+   * {@link #source} plane (where both are labelled), then renumbers the labels 1..k in order of
+   * first voxel: no fragment lives in a defective plane alone. O(n).
+   */
+  static int[] adopt(int[] labels, int[] shape, boolean[] defective) {
+    int planeSize = shape[0] * shape[1];
+    for (int p = 0; p < defective.length; p++) {
+      int q = defective[p] ? source(defective, p) : -1;
+      if (q < 0) {
+        continue;
+      }
+      for (int i = 0; i < planeSize; i++) {
+        int from = labels[q * planeSize + i];
+        int at = p * planeSize + i;
+        if (from != 0 && labels[at] != 0) {
+          labels[at] = from;
+        }
+      }
+    }
+    return WatershedFragments.consecutive(labels);
+  }
+
+  /** 1 for every voxel of a defective plane, else 0: the voxels whose edges say nothing. */
+  static byte[] voxels(boolean[] defective, int[] shape) {
+    int planeSize = shape[0] * shape[1];
+    byte[] flags = new byte[planeSize * shape[2]];
+    for (int p = 0; p < defective.length; p++) {
+      if (defective[p]) {
+        java.util.Arrays.fill(flags, p * planeSize, (p + 1) * planeSize, (byte) 1);
+      }
+    }
+    return flags;
+  }
+
+  private static boolean sectioned(double[] voxelSize) {
+    double finest = Double.POSITIVE_INFINITY;
+    for (int d = 0; d < voxelSize.length - 1; d++) {
+      finest = Math.min(finest, voxelSize[d]);
+    }
+    return voxelSize[voxelSize.length - 1] >= FragmentOptions.SLICE_ANISOTROPY * finest;
+  }
+}
