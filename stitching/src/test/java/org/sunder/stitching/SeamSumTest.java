@@ -23,7 +23,8 @@ import org.sunder.stitching.task.SeamExtraction;
  * voxels of different block cores, each once: a direct count on the whole volume, against the
  * sum over every face of what {@link SeamExtraction} gives from that face's slab alone. Offsets
  * include diagonals, so that an edge between blocks that differ along two or three axes (which
- * more than one face's slab holds) must still land on exactly one face.
+ * more than one face's slab holds) must still land on exactly one face. In half the trials the
+ * edges with an end in one plane are left out on both sides (as a defective section's are).
  */
 class SeamSumTest {
 
@@ -52,6 +53,12 @@ class SeamSumTest {
         labels[i] = random.nextInt(10) == 0 ? 0 : 1 + random.nextInt(6);  // 0: ignored voxels
       }
 
+      // odd trials leave out the edges of one plane's voxels, as a defective section's
+      long[] ignored = new long[n];
+      int ignoredPlane = trial % 2 == 1 ? random.nextInt(shape[2]) : -1;
+      for (int i = 0; i < n; i++) {
+        ignored[i] = i / (shape[0] * shape[1]) == ignoredPlane ? 1 : 0;
+      }
       int[] blockOf = new int[n];
       for (int i = 0; i < n; i++) {
         long[] p = {i % shape[0], (i / shape[0]) % shape[1], i / (shape[0] * shape[1])};
@@ -62,7 +69,7 @@ class SeamSumTest {
       long[] crossingAxes = new long[1];
       GridGraph.of(whole, rule, subsampling).forEachEdge((s, t, k, w) -> {
         if (blockOf[s] != blockOf[t] && labels[s] != 0 && labels[t] != 0
-            && labels[s] != labels[t]) {
+            && labels[s] != labels[t] && ignored[s] == 0 && ignored[t] == 0) {
           direct.add(labels[s], labels[t], w);
           long[] ps = grid.gridPosition(blockOf[s]);
           long[] pt = grid.gridPosition(blockOf[t]);
@@ -81,8 +88,14 @@ class SeamSumTest {
         AffinityBlock slabAffinities = ReducedGraphTest.crop(affinities, shape, offsets,
             slab.min(), slab.max());
         long[] slabLabels = ReducedGraphTest.cut(labels, shape, slab.min(), slab.max());
-        seams.add(SeamExtraction.extract(grid, face, slabLabels,
-            GridGraph.of(slabAffinities, rule, subsampling)).edges());
+        long[] slabIgnored = ReducedGraphTest.cut(ignored, shape, slab.min(), slab.max());
+        byte[] flags = new byte[slabIgnored.length];
+        for (int i = 0; i < flags.length; i++) {
+          flags[i] = (byte) slabIgnored[i];
+        }
+        seams.add(SeamExtraction.extract(grid, face, slabLabels, null,
+            ignoredPlane >= 0 ? flags : null, GridGraph.of(slabAffinities, rule, subsampling))
+            .edges());
       }
       EdgeStatistics summed = EdgeStatistics.mergeAll(seams);
       EdgeStatistics want = direct.build();

@@ -46,15 +46,17 @@ public final class SeamExtraction {
    * {@code slabGraph} (the grid graph of the slab's affinities).
    */
   public static SeamEdges extract(BlockGrid grid, Face face, long[] labels, GridGraph slabGraph) {
-    return extract(grid, face, labels, null, slabGraph);
+    return extract(grid, face, labels, null, null, slabGraph);
   }
 
   /**
    * As {@link #extract(BlockGrid, Face, long[], GridGraph)}, and with {@code continuations}
-   * (the blocks' continuation flags over the slab, or null) the face's continued pairs.
+   * (the blocks' continuation flags over the slab, or null) the face's continued pairs; edges
+   * with an end where {@code ignoredOrNull} (one flag per slab voxel, or null) is non-zero are
+   * left out, as the blocks leave out a defective section's edges.
    */
   public static SeamEdges extract(BlockGrid grid, Face face, long[] labels, byte[] continuations,
-      GridGraph slabGraph) {
+      byte[] ignoredOrNull, GridGraph slabGraph) {
     int n = grid.numDimensions();
     long[] min = slabGraph.block().globalMin();
     int[] shape = slabGraph.block().shape();
@@ -71,7 +73,8 @@ public final class SeamExtraction {
       }
       long ls = labels[s];
       long lt = labels[t];
-      if (ls == 0 || lt == 0) {
+      if (ls == 0 || lt == 0
+          || ignoredOrNull != null && (ignoredOrNull[s] | ignoredOrNull[t]) != 0) {
         return;
       }
       if (owner(bs, bt, gridShape, n, axis) == lower) {

@@ -7,6 +7,7 @@ import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.grid.Face;
 import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.fragments.DefectiveSections;
 import org.sunder.stitching.setup.AffinityReader;
 import org.sunder.stitching.setup.StitchingSetup;
 
@@ -34,6 +35,8 @@ public final class SeamTask {
         ? ((ByteArray) setup.openContinuations().read(new FinalInterval(slab.min(), slab.max()))
             .update(null)).getCurrentStorageArray()
         : null;
-    return SeamExtraction.extract(setup.grid(), face, labels, continuations, graph);
+    byte[] ignored = setup.tracksContinuations()
+        ? DefectiveSections.ignoredVoxels(affinities, config.fragments()) : null;
+    return SeamExtraction.extract(setup.grid(), face, labels, continuations, ignored, graph);
   }
 }

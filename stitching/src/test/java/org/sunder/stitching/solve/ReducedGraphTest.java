@@ -158,7 +158,7 @@ public class ReducedGraphTest {
       for (int i = 0; i < flags.length; i++) {
         flags[i] = (byte) slabFlags[i];
       }
-      SeamEdges seam = SeamExtraction.extract(grid, face, slabLabels, flags,
+      SeamEdges seam = SeamExtraction.extract(grid, face, slabLabels, flags, null,
           GridGraph.of(slabAffinities, rule, subsampling));
       parts.add(seam.edges());
       EdgeStatistics continued = continuedByDefinition(grid, face, pieceLabels, provisional,
