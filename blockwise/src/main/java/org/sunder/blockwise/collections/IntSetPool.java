@@ -18,16 +18,22 @@ import java.util.Arrays;
  * slot. Not thread-safe.
  */
 public final class IntSetPool {
+  /** A set's record is {@code meta[set << RECORD_LOG ..]}, {@code 1 << RECORD_LOG} ints. */
+  private static final int RECORD_LOG = 2;
   private static final int TAG = 0;
-  private static final int START = 1;
-  private static final int COUNT = 2;
+  /** The member count, with {@link #TABLED} set once the set has a table. */
+  private static final int COUNT = 1;
+  /** With a table: its address and log2 capacity; without: the members, from here. */
+  private static final int START = 2;
   private static final int LOG = 3;
+  private static final int INLINE = 2;
+  private static final int INLINE_CAPACITY = (1 << RECORD_LOG) - INLINE;
+  private static final int TABLED = Integer.MIN_VALUE;
   private static final int EMPTY = 0;
   private static final int MIN_LOG = 2;
   /** A table's address is {@code page << PAGE_BITS | offset}. */
   private static final int PAGE_BITS = 20;
   private static final int PAGE_MASK = (1 << PAGE_BITS) - 1;
-  /** Per set {@code s}: {@code meta[4 s + TAG | START | COUNT | LOG]}; START -1: no table. */
   private final int[] meta;
   private int[][] pages = new int[4][];
   private int pageCount;
@@ -35,51 +41,56 @@ public final class IntSetPool {
   private int used;
   /** Address of the first free table of capacity {@code 1 << log}, or -1; linked via slot 0. */
   private final int[] freeHead = new int[32];
+  /** The inline members of a set moving to a table. */
+  private final int[] spilled = new int[INLINE_CAPACITY];
 
   /** Empty sets {@code 0 .. setCount - 1} with tag 0 and room for about {@code expected} slots. */
   public IntSetPool(int setCount, int expected) {
-    if (setCount < 0 || expected < 0) {
+    if (setCount < 0 || expected < 0 || setCount > Integer.MAX_VALUE >> RECORD_LOG) {
       throw new IllegalArgumentException("setCount " + setCount + ", expected " + expected
-          + "; expected non-negative numbers");
+          + "; expected non-negative numbers, setCount at most 2^29 - 1");
     }
-    meta = new int[4 * setCount];
-    for (int s = 0; s < setCount; s++) {
-      meta[4 * s + START] = -1;
-    }
+    meta = new int[setCount << RECORD_LOG];
     pages[0] = new int[Math.min(1 << PAGE_BITS, Math.max(16, expected))];
     pageCount = 1;
     Arrays.fill(freeHead, -1);
   }
 
   public int setCount() {
-    return meta.length / 4;
+    return meta.length >> RECORD_LOG;
   }
 
   /** The caller's int of {@code set} (0 at first). */
   public int tag(int set) {
-    return meta[4 * set + TAG];
+    return meta[(set << RECORD_LOG) + TAG];
   }
 
   public void setTag(int set, int value) {
-    meta[4 * set + TAG] = value;
+    meta[(set << RECORD_LOG) + TAG] = value;
   }
 
   /** Number of members of {@code set}. */
   public int size(int set) {
-    return meta[4 * set + COUNT];
+    return meta[(set << RECORD_LOG) + COUNT] & ~TABLED;
   }
 
   /** Whether {@code value} is in {@code set}. */
   public boolean contains(int set, int value) {
-    int m = 4 * set;
-    if (meta[m + COUNT] == 0) {
+    int[] r = meta;
+    int m = set << RECORD_LOG;
+    int count = r[m + COUNT];
+    if (count >= 0) {
+      for (int i = m + INLINE, end = i + count; i < end; i++) {
+        if (r[i] == value) {
+          return true;
+        }
+      }
       return false;
     }
-    int address = meta[m + START];
+    int address = r[m + START];
     int[] p = pages[address >>> PAGE_BITS];
     int base = address & PAGE_MASK;
-    int log = meta[m + LOG];
-    return p[base + probe(p, base, log, value)] != EMPTY;
+    return p[base + probe(p, base, r[m + LOG], value)] != EMPTY;
   }
 
   /** Adds {@code value} (0 .. 2^31 - 2) to {@code set}; false if it was there. */
@@ -87,40 +98,67 @@ public final class IntSetPool {
     if (value < 0 || value == Integer.MAX_VALUE) {
       throw new IllegalArgumentException("value " + value + "; expected 0 .. 2^31 - 2");
     }
-    int m = 4 * set;
-    if (meta[m + START] < 0) {
-      meta[m + START] = allocate(MIN_LOG);
-      meta[m + LOG] = MIN_LOG;
+    int[] r = meta;
+    int m = set << RECORD_LOG;
+    int count = r[m + COUNT];
+    if (count >= 0) {
+      int first = m + INLINE;
+      for (int i = first, end = first + count; i < end; i++) {
+        if (r[i] == value) {
+          return false;
+        }
+      }
+      if (count < INLINE_CAPACITY) {
+        r[first + count] = value;
+        r[m + COUNT] = count + 1;
+      } else {
+        spill(set, value);
+      }
+      return true;
     }
-    int address = meta[m + START];
+    int address = r[m + START];
     int[] p = pages[address >>> PAGE_BITS];
     int base = address & PAGE_MASK;
-    int log = meta[m + LOG];
+    int log = r[m + LOG];
     int i = probe(p, base, log, value);
     if (p[base + i] != EMPTY) {
       return false;
     }
-    int count = meta[m + COUNT] + 1;
-    if (count > (3 << log) >>> 2) {
+    int grown = (count & ~TABLED) + 1;
+    if (grown > (3 << log) >>> 2) {
       grow(set);
       insertNew(set, value);
     } else {
       p[base + i] = value + 1;
     }
-    meta[m + COUNT] = count;
+    r[m + COUNT] = grown | TABLED;
     return true;
   }
 
   /** Removes {@code value} from {@code set}; false if it was not there. */
   public boolean remove(int set, int value) {
-    int m = 4 * set;
-    if (meta[m + COUNT] == 0) {
+    int[] r = meta;
+    int m = set << RECORD_LOG;
+    int count = r[m + COUNT];
+    if (count >= 0) {
+      int first = m + INLINE;
+      int last = first + count - 1;
+      for (int i = first; i <= last; i++) {
+        if (r[i] == value) {
+          r[i] = r[last];
+          r[m + COUNT] = count - 1;
+          return true;
+        }
+      }
       return false;
     }
-    int address = meta[m + START];
+    if (count == TABLED) {
+      return false;
+    }
+    int address = r[m + START];
     int[] p = pages[address >>> PAGE_BITS];
     int base = address & PAGE_MASK;
-    int log = meta[m + LOG];
+    int log = r[m + LOG];
     int mask = (1 << log) - 1;
     int i = probe(p, base, log, value);
     if (p[base + i] == EMPTY) {
@@ -141,7 +179,7 @@ public final class IntSetPool {
       }
     }
     p[base + hole] = EMPTY;
-    meta[m + COUNT]--;
+    r[m + COUNT] = count - 1;
     return true;
   }
 
@@ -150,9 +188,11 @@ public final class IntSetPool {
    * (it must have room for {@link #size}); returns their number.
    */
   public int copyTo(int set, int[] target) {
-    int m = 4 * set;
-    if (meta[m + COUNT] == 0) {
-      return 0;
+    int m = set << RECORD_LOG;
+    int count = meta[m + COUNT];
+    if (count >= 0) {
+      System.arraycopy(meta, m + INLINE, target, 0, count);
+      return count;
     }
     int address = meta[m + START];
     int[] p = pages[address >>> PAGE_BITS];
@@ -170,12 +210,11 @@ public final class IntSetPool {
 
   /** Empties {@code set} and frees its table; the tag stays. */
   public void clear(int set) {
-    int m = 4 * set;
-    if (meta[m + START] >= 0) {
+    int m = set << RECORD_LOG;
+    if (meta[m + COUNT] < 0) {
       release(meta[m + START], meta[m + LOG]);
-      meta[m + START] = -1;
-      meta[m + COUNT] = 0;
     }
+    meta[m + COUNT] = 0;
   }
 
   /** Slots in the pages, taken or free: the pool's footprint. */
@@ -202,8 +241,26 @@ public final class IntSetPool {
     return (value * 0x9E3779B9) >>> (32 - log);
   }
 
+  /** Moves the full inline members of {@code set} and {@code value} into a new table. */
+  private void spill(int set, int value) {
+    int m = set << RECORD_LOG;
+    int[] members = spilled;
+    System.arraycopy(meta, m + INLINE, members, 0, INLINE_CAPACITY);
+    int log = MIN_LOG;
+    while (INLINE_CAPACITY + 1 > (3 << log) >>> 2) {
+      log++;
+    }
+    meta[m + START] = allocate(log);
+    meta[m + LOG] = log;
+    meta[m + COUNT] = (INLINE_CAPACITY + 1) | TABLED;
+    for (int member : members) {
+      insertNew(set, member);
+    }
+    insertNew(set, value);
+  }
+
   private void grow(int set) {
-    int m = 4 * set;
+    int m = set << RECORD_LOG;
     int oldAddress = meta[m + START];
     int oldLog = meta[m + LOG];
     int log = oldLog + 1;
@@ -230,7 +287,7 @@ public final class IntSetPool {
 
   /** Puts {@code value}, known absent, into the table of {@code set} (which has room). */
   private void insertNew(int set, int value) {
-    int m = 4 * set;
+    int m = set << RECORD_LOG;
     int address = meta[m + START];
     int[] p = pages[address >>> PAGE_BITS];
     int base = address & PAGE_MASK;
