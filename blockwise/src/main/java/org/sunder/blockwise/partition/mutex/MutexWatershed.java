@@ -141,17 +141,23 @@ public final class MutexWatershed {
         }
       }
     }
+    // ordered buckets index ids, the others entries
     int[] start = new int[HIGH_BUCKETS];
     int idCount = 0;
+    int entryCount = 0;
     int largest = 0;
     for (int b = 0; b < HIGH_BUCKETS; b++) {
-      start[b] = idCount;
-      idCount += size[b];
       if (disordered[b]) {
+        start[b] = entryCount;
+        entryCount += size[b];
         largest = Math.max(largest, size[b]);
+      } else {
+        start[b] = idCount;
+        idCount += size[b];
       }
     }
     int[] ids = new int[idCount];
+    long[] entries = new long[entryCount];
     long[] repulsive = new long[(present.length + 63) >>> 6];
     int[] next = start.clone();
     int bits = voxelBits(n);
@@ -160,29 +166,29 @@ public final class MutexWatershed {
         float w = present[slot] == 0 ? 0 : graph.weight(v, k);
         if (w != 0) {
           int x = floatKey(w);
-          ids[next[x >>> LOW_BITS]++] = (k << bits) | v;
-          if ((x & 1) != 0) {
-            repulsive[slot >>> 6] |= 1L << slot;
+          int b = x >>> LOW_BITS;
+          int id = (k << bits) | v;
+          if (disordered[b]) {
+            entries[next[b]++] = entry(x, id);
+          } else {
+            ids[next[b]++] = id;
+            if ((x & 1) != 0) {
+              repulsive[slot >>> 6] |= 1L << slot;
+            }
           }
         }
       }
     }
     int[] delta = deltas(graph);
-    long[] entries = new long[largest];
     long[] scratch = new long[largest];
     int[] count = new int[DIGIT_BUCKETS];
-    int voxelMask = (1 << bits) - 1;
     for (int b = 0; b < HIGH_BUCKETS; b++) {
       int from = start[b];
       int to = from + size[b];
       if (disordered[b]) {
-        for (int i = from; i < to; i++) {
-          int id = ids[i];
-          entries[i - from] = entry(floatKey(graph.weight(id & voxelMask, id >>> bits)), id);
-        }
-        digitPass(entries, 0, to - from, scratch, 0, 0, count);
-        digitPass(scratch, 0, to - from, entries, 0, DIGIT_BITS, count);
-        process(entries, 0, to - from, bits, delta, clusters);
+        digitPass(entries, from, to, scratch, 0, 0, count);
+        digitPass(scratch, 0, to - from, entries, from, DIGIT_BITS, count);
+        process(entries, from, to, bits, delta, clusters);
       } else {
         processIds(repulsive, ids, from, to, bits, n, delta, clusters);
       }
