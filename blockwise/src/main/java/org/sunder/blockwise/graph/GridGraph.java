@@ -188,15 +188,31 @@ public final class GridGraph {
       int base = k * nodeCount;
       int dk = delta[k];
       int kk = k;
+      // the hash decisions of the rows of offset k, made on its first row
+      Subsampling.RowDecisions[] rows = new Subsampling.RowDecisions[1];
       forEachRow(k, (start, length, global, thin, mask) -> {
         long x0 = global[0];
+        if (thin && rows[0] == null) {
+          rows[0] = subsampling.rowDecisions(kk, x0, length);
+        }
+        Subsampling.RowDecisions decisions = thin ? rows[0] : null;
+        if (decisions == null) {
+          for (int i = 0; i < length; i++) {
+            int source = start + i;
+            if (kept(source, source + dk, kk, global, x0 + i, thin, mask)) {
+              present[base + source] = 1;
+            }
+          }
+          global[0] = x0;
+          return;
+        }
         for (int i = 0; i < length; i++) {
           int source = start + i;
-          if (kept(source, source + dk, kk, global, x0 + i, thin, mask)) {
+          if ((mask == null || (mask[source] != 0 && mask[source + dk] != 0))
+              && decisions.keeps(i, global)) {
             present[base + source] = 1;
           }
         }
-        global[0] = x0;
       });
     }
     return present;

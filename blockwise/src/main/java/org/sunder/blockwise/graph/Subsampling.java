@@ -31,6 +31,8 @@ public record Subsampling(Kind kind, int[] stride, double keepFraction, long see
 
   private static final long GOLDEN = 0x9E3779B97F4A7C15L;
   private static final double TWO_TO_MINUS_53 = 0x1.0p-53;
+  /** Added to each scaled coordinate before it is mixed in. */
+  private static final long COMPONENT = 0x632BE59BD9B4E019L;
 
   public enum Kind {
     @JsonProperty("none") NONE,
@@ -120,9 +122,51 @@ public record Subsampling(Kind kind, int[] stride, double keepFraction, long see
         }
         long h = mix(seed + GOLDEN * (k + 1));
         for (long c : globalVoxel) {
-          h = mix(h ^ (c * GOLDEN + 0x632BE59BD9B4E019L));
+          h = mix(h ^ (c * GOLDEN + COMPONENT));
         }
         return (h >>> 11) * TWO_TO_MINUS_53 < keepFraction;
+    }
+  }
+
+  /**
+   * The decisions of {@link #keepsLongRange} for offset {@code k} along rows of voxels on axis 0
+   * that start at global {@code x0} and hold {@code length} voxels: what depends on the first
+   * coordinate alone (two of the four mixes in 3D) is computed here once, {@code O(length)}.
+   * Null unless the kind is {@code hash} with a fraction below 1.
+   */
+  public RowDecisions rowDecisions(int k, long x0, int length) {
+    if (kind != Kind.HASH || keepFraction >= 1) {
+      return null;
+    }
+    long start = mix(seed + GOLDEN * (k + 1));
+    long[] firstMix = new long[length];
+    for (int i = 0; i < length; i++) {
+      firstMix[i] = mix(start ^ ((x0 + i) * GOLDEN + COMPONENT));
+    }
+    // (h >>> 11) * 2^-53 < f  iff  (h >>> 11) < ceil(f * 2^53): both sides exact
+    return new RowDecisions(firstMix, (long) Math.ceil(keepFraction * 0x1.0p53));
+  }
+
+  /** See {@link #rowDecisions}. Immutable. */
+  public static final class RowDecisions {
+    private final long[] firstMix;
+    private final long bound;
+
+    private RowDecisions(long[] firstMix, long bound) {
+      this.firstMix = firstMix;
+      this.bound = bound;
+    }
+
+    /**
+     * {@link #keepsLongRange} of the {@code i}-th voxel of a row whose other global coordinates
+     * are {@code global[1 ..]} ({@code global[0]} is not read).
+     */
+    public boolean keeps(int i, long[] global) {
+      long h = firstMix[i];
+      for (int d = 1; d < global.length; d++) {
+        h = mix(h ^ (global[d] * GOLDEN + COMPONENT));
+      }
+      return (h >>> 11) < bound;
     }
   }
 
