@@ -79,8 +79,15 @@ final class MutexClusters {
   void repel(int u, int v) {
     int ru = find(u);
     int rv = find(v);
-    if (ru != rv && partners.add(ru, rv)) {
-      partners.add(rv, ru);
+    if (ru == rv) {
+      return;
+    }
+    // the smaller set first: a constraint already there is found there
+    IntSetPool sets = partners;
+    int small = sets.size(ru) <= sets.size(rv) ? ru : rv;
+    int large = small == ru ? rv : ru;
+    if (sets.add(small, large)) {
+      sets.add(large, small);
     }
   }
 
