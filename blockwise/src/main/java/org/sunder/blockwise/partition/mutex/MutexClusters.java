@@ -23,6 +23,8 @@ final class MutexClusters {
   private final int[] parent;
   /** Per root: its partner roots; the tag holds the cluster size. */
   private final IntSetPool partners;
+  /** Sum of what {@link IntSetPool#prefetch} returned; read by nothing. */
+  private int prefetched;
   /** Scratch for the members of an absorbed set. */
   private int[] moved = new int[16];
   /** 1 for an open node; null unless merges are held back. */
@@ -119,6 +121,14 @@ final class MutexClusters {
     int[] m = moved;
     sets.copyTo(loser, m);
     sets.clear(loser);
+    if (count > 1) {
+      // the partners' records and tables fetched together, not one miss after another
+      int ignored = 0;
+      for (int i = 0; i < count; i++) {
+        ignored += sets.prefetch(m[i], loser);
+      }
+      prefetched += ignored;
+    }
     for (int i = 0; i < count; i++) {
       int x = m[i];
       sets.remove(x, loser);
