@@ -4,18 +4,20 @@ import java.util.Arrays;
 
 /**
  * A fixed number of hash sets of ints in {@code 0 .. 2^31 - 2}, sets
- * {@code 0 .. setCount - 1}, stored together in pooled pages: each set is an open-addressing
- * table (linear probing, deletion by backward shift, so no tombstones) of a power-of-two
- * capacity of at least 4, at most 3/4 full, grown by doubling. Expected {@code O(1)} per
- * operation; a set's members lie together, so walking a set reads one run of memory.
+ * {@code 0 .. setCount - 1}. A set of at most two members keeps them in its own record; the
+ * third member moves the set to an open-addressing table (linear probing, deletion by backward
+ * shift, so no tombstones) of a power-of-two capacity of at least 4, at most 3/4 full, grown by
+ * doubling, which the set keeps until {@link #clear}. Expected {@code O(1)} per operation; a
+ * set's members lie together, so walking a set reads one run of memory.
  *
- * <p>Storage: tables are cut from pages of up to {@code 2^20} ints (a table larger than that
- * gets a page of its own), so the pool grows without copying; pages start small and double.
- * A slot holds its value plus one, so 0 is empty and fresh pages (zeroed by the JVM) need no
- * filling. Freed tables are zeroed while still in cache and go to one free list per capacity
- * for reuse. Each set also carries one int of the caller's ({@link #tag}), kept beside the
- * set's own bookkeeping so that both come in one cache line: 16 bytes per set plus 4 bytes per
- * slot. Not thread-safe.
+ * <p>Storage: each set has a record of 4 ints (the caller's {@link #tag}, the count, and the
+ * two members or the table's address and capacity), so a small set's lookups and the tag come
+ * in one cache line and touch no table. Tables are cut from pooled pages of up to {@code 2^20}
+ * ints (a table larger than that gets a page of its own), so the pool grows without copying;
+ * pages start small and double. A slot holds its value plus one, so 0 is empty and fresh pages
+ * (zeroed by the JVM) need no filling. Freed tables are zeroed while still in cache and go to
+ * one free list per capacity for reuse. Memory: 16 bytes per set plus 4 bytes per table slot.
+ * Not thread-safe.
  */
 public final class IntSetPool {
   /** A set's record is {@code meta[set << RECORD_LOG ..]}, {@code 1 << RECORD_LOG} ints. */

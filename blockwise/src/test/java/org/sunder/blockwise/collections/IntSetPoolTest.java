@@ -51,6 +51,46 @@ class IntSetPoolTest {
     }
   }
 
+  /**
+   * Sets growing and shrinking across the two members kept in the record (and back after a
+   * clear), against java.util.HashSet; tags stay put and prefetch changes nothing.
+   */
+  @Test
+  void smallSetsAcrossTheInlineLimitMatchHashSets() {
+    Random random = new Random(37);
+    int sets = 300;
+    IntSetPool pool = new IntSetPool(sets, 0);
+    List<Set<Integer>> reference = new ArrayList<>();
+    for (int s = 0; s < sets; s++) {
+      reference.add(new HashSet<>());
+      pool.setTag(s, -s);
+    }
+    for (int op = 0; op < 200_000; op++) {
+      int s = random.nextInt(sets);
+      // values 0 .. 5 and one far value: sets of 0 to 7 members, often 2 or 3
+      int value = random.nextInt(7) == 0 ? Integer.MAX_VALUE - 1 : random.nextInt(6);
+      Set<Integer> r = reference.get(s);
+      switch (random.nextInt(12)) {
+        case 0, 1, 2, 3 -> assertEquals(r.add(value), pool.add(s, value));
+        case 4, 5, 6 -> assertEquals(r.remove(value), pool.remove(s, value));
+        case 7, 8 -> assertEquals(r.contains(value), pool.contains(s, value));
+        case 9 -> pool.prefetch(s, value);
+        case 10 -> assertEquals(r, members(pool, s), "set " + s + " at op " + op);
+        default -> {
+          if (random.nextInt(10) == 0) {
+            r.clear();
+            pool.clear(s);
+          }
+        }
+      }
+      assertEquals(r.size(), pool.size(s));
+    }
+    for (int s = 0; s < sets; s++) {
+      assertEquals(reference.get(s), members(pool, s), "set " + s);
+      assertEquals(-s, pool.tag(s));
+    }
+  }
+
   /** Growth to large tables, then removal of everything (backward shift over long runs). */
   @Test
   void growsAndShrinksToEmpty() {

@@ -10,14 +10,17 @@ import org.sunder.blockwise.partition.SettledPartition;
  * mutual-exclusion constraints between clusters.
  *
  * <p>Each root owns the exact set of the roots it is constrained against ({@link IntSetPool}),
- * kept symmetric, so a check is one lookup in the smaller of the two sets. On a union the root
- * with the smaller set is absorbed: its partners are walked, each renamed to the new root in its
- * own set, and added to the new root's set: {@code O(min(|A|, |B|))} expected per union, smaller
- * into larger. Duplicates vanish on the way, so the sets hold only live constraints. Union by
- * set size (ties by cluster size) keeps the walk small; path halving alone then keeps a find
- * {@code O(log n)} amortized. The size of a cluster sits in its root's set record (the pool's
- * tag), one cache line per root visited. Memory: 20 bytes per node plus the pool. Not
- * thread-safe.
+ * kept symmetric, so a check, and a repulsive edge's test for a constraint already there, is
+ * one lookup in the smaller of the two sets. On a union the root with the smaller set is
+ * absorbed: its partners are walked, each renamed to the new root in its own set, and added to
+ * the new root's set: {@code O(min(|A|, |B|))} expected per union, smaller into larger. A first
+ * pass only reads the partners' records and home slots, so their cache misses overlap instead
+ * of coming one after another. Duplicates vanish on the way, so the sets hold only live
+ * constraints. Union by set size (ties by cluster size) keeps the walk small; path halving
+ * alone then keeps a find {@code O(log n)} amortized. The size of a cluster sits in its root's
+ * set record (the pool's tag), one cache line per root visited, beside up to two partners.
+ * Memory: 20 bytes per node plus the pool's tables (none for a root with at most two partners;
+ * up to about 22 bytes per live constraint). Not thread-safe.
  */
 final class MutexClusters {
   private final int[] parent;

@@ -24,8 +24,10 @@ import org.sunder.blockwise.partition.SettledPartition;
  * of the 64-bit (key, edge id) entries of the buckets out of order, stable and {@code O(E)}; sparse graphs by a stable LSD radix sort of 64-bit keys. Then
  * {@code O(E α(N))} union-find work plus the constraint bookkeeping of {@link MutexClusters}.
  * Memory on the grid: 4 bytes per present edge plus 1 byte per edge slot and 24 per voxel,
- * plus the constraints (about 11 to 22 bytes per live constraint, in {@link MutexClusters}); float weights add 1 bit per
- * edge slot and two scratch arrays of 8 bytes per edge of the largest bucket out of order. Static functions,
+ * plus the constraints (up to about 22 bytes per live constraint, in {@link MutexClusters});
+ * float weights instead take 8 bytes per present edge of a bucket out of order (4 for the
+ * others), 1 bit per edge slot and a scratch array of 8 bytes per edge of the largest bucket
+ * out of order. Static functions,
  * thread-safe (no state); {@link MutexWatershedPartitioner} is the configured method.
  */
 public final class MutexWatershed {
@@ -113,13 +115,14 @@ public final class MutexWatershed {
    * most-significant-digit radix sort of the present slots' packed edge ids
    * {@code (k << bits) | voxel} (same order as the edge id, decoded without a division): a
    * stable counting sort by the top {@code 32 - LOW_BITS} key bits (exponent and top mantissa
-   * bits; few enough buckets for the scatter to stay in cache), one {@code int} per edge, the
-   * sign kept in one bit per edge slot. A bucket whose keys ascend with the edge id (ties,
-   * typically; the counting pass notes which) runs as it is. Any other bucket is copied into
-   * 64-bit entries, the key recomputed with its top bit flipped (so signed order is unsigned key
-   * order) above the id, sorted by a stable least-significant-digit radix sort of the low
-   * {@code LOW_BITS} bits in two passes. Stable passes over ids generated in ascending order
-   * give exactly (key, edge id) order. The weight of an edge is computed two to three times.
+   * bits; few enough buckets for the scatter to stay in cache). The counting pass notes the
+   * buckets whose keys ascend with the edge id (ties, typically); the scatter pass writes their
+   * edges as one {@code int} id each, the sign kept in one bit per edge slot, and runs them as
+   * they are. The edges of any other bucket are written as 64-bit entries, the key with its top
+   * bit flipped (so signed order is unsigned key order) above the id, so the weights are not
+   * read again; each such bucket is sorted by a stable least-significant-digit radix sort of
+   * the low {@code LOW_BITS} bits in two passes. Stable passes over ids generated in ascending
+   * order give exactly (key, edge id) order. The weight of an edge is computed twice.
    */
   private static void runFloat(GridGraph graph, MutexClusters clusters) {
     int n = graph.nodeCount();
