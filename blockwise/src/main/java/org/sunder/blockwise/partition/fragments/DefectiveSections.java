@@ -18,9 +18,10 @@ import org.sunder.blockwise.graph.AffinityBlock;
  *       values differ by 1/3 on average (the mean of {@code |U - V|} for two independent
  *       uniforms on [0, 1], a fact of probability).
  *   <li><b>starved</b>: the share of its in-plane edges that attract ({@code a >= 0.5}) is below
- *       {@value #MIN_ATTRACTION_SHARE} of the median plane's share: a section where the
- *       network joins almost nothing, though the planes around it join most voxels to their
- *       neighbours.
+ *       {@value #MIN_ATTRACTION_SHARE} of the median plane's share, while the planes next to it
+ *       (those the box holds) are above that: a section where the network joins almost
+ *       nothing between sections that it joins. A run of such planes (an empty stretch at the
+ *       end of the tissue, say) is not a defect.
  * </ul>
  * Only for anisotropic voxels (the slowest axis at least
  * {@value FragmentOptions#SLICE_ANISOTROPY} times the finest other), where planes are physical
@@ -61,10 +62,14 @@ public final class DefectiveSections {
     double median = shares[judged / 2];
     boolean[] defective = new boolean[planes];
     boolean any = false;
+    double starvedBelow = MIN_ATTRACTION_SHARE * median;
+    double[] attraction = figures.attraction();
     for (int p = 0; p < planes; p++) {
+      boolean starved = attraction[p] < starvedBelow
+          && (p == 0 || attraction[p - 1] >= starvedBelow)
+          && (p == planes - 1 || attraction[p + 1] >= starvedBelow);
       defective[p] = figures.pairs()[p] >= MIN_PAIRS
-          && (figures.incoherence()[p] > MAX_INCOHERENCE
-              || figures.attraction()[p] < MIN_ATTRACTION_SHARE * median);
+          && (figures.incoherence()[p] > MAX_INCOHERENCE || starved);
       any |= defective[p];
     }
     return any ? defective : null;

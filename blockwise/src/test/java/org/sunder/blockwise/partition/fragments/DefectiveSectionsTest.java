@@ -91,6 +91,25 @@ class DefectiveSectionsTest {
   }
 
   /**
+   * Empty planes at the end of the tissue (every affinity 0: nothing joins, as exact affinities
+   * of background read) are no missing sections; the missing plane between sound ones still is.
+   */
+  @Test
+  void aRunOfEmptyPlanesIsNoDefect() {
+    Volume v = volume(4);
+    float[] values = v.defective().clone();
+    int plane = SHAPE[0] * SHAPE[1];
+    int n = plane * SHAPE[2];
+    for (int k = 0; k < TissuePreset.offsets().count(); k++) {
+      java.util.Arrays.fill(values, k * n + (SHAPE[2] - 4) * plane, (k + 1) * n, 0f);
+    }
+    boolean[] expected = new boolean[SHAPE[2]];
+    expected[GARBAGE] = true;
+    expected[MISSING] = true;
+    assertArrayEquals(expected, DefectiveSections.find(block(values), v.voxelSize()));
+  }
+
+  /**
    * A garbage plane's incoherence is the mean of {@code |U - V|} for independent uniforms on
    * [0, 1], which is 1/3 (a fact of probability).
    */
