@@ -13,7 +13,8 @@ import org.sunder.blockwise.graph.AffinityBlock;
  * <p>Judged per plane of a box, from its in-plane nearest-neighbour channels only:
  * <ul>
  *   <li><b>incoherent</b>: the mean difference between a channel's affinity at a voxel and at its
- *       neighbour along the other in-plane axis exceeds {@value #MAX_INCOHERENCE}. Predictions
+ *       neighbour along the other in-plane axis exceeds {@value #MAX_INCOHERENCE} and
+ *       {@value #INCOHERENCE_OVER_MEDIAN} times the median plane's. Predictions
  *       of tissue are smooth inside objects and jump only at boundaries; independent uniform
  *       values differ by 1/3 on average (the mean of {@code |U - V|} for two independent
  *       uniforms on [0, 1], a fact of probability).
@@ -25,12 +26,15 @@ import org.sunder.blockwise.graph.AffinityBlock;
  * </ul>
  * Only for anisotropic voxels (the slowest axis at least
  * {@value FragmentOptions#SLICE_ANISOTROPY} times the finest other), where planes are physical
- * sections; planes with fewer than {@value #MIN_PAIRS}
- * judged pairs are never defective. O(n) per in-plane channel.
+ * sections; planes with fewer than {@value #MIN_PAIRS} judged pairs are never defective, and
+ * when more than half the judged planes fail the rules, none is defective (the rules then
+ * misread the data: defects are exceptions). O(n) per in-plane channel.
  */
 public final class DefectiveSections {
   /** Mean in-plane affinity difference between neighbours above which a plane is noise. */
   static final double MAX_INCOHERENCE = 0.2;
+  /** How many times the median plane's incoherence a noisy plane also exceeds. */
+  static final double INCOHERENCE_OVER_MEDIAN = 2;
   /** Share of the median plane's attractive in-plane edges below which a plane is missing. */
   static final double MIN_ATTRACTION_SHARE = 0.25;
   /** Fewest judged voxel pairs of a plane. */
@@ -48,31 +52,43 @@ public final class DefectiveSections {
     }
     PlaneFigures figures = measure(block);
     int planes = figures.pairs().length;
-    double[] shares = new double[planes];
+    double[] attraction = figures.attraction();
+    double[] incoherence = figures.incoherence();
     int judged = 0;
     for (int p = 0; p < planes; p++) {
-      if (figures.pairs()[p] >= MIN_PAIRS) {
-        shares[judged++] = figures.attraction()[p];
-      }
+      judged += figures.pairs()[p] >= MIN_PAIRS ? 1 : 0;
     }
     if (judged == 0) {
       return null;
     }
-    Arrays.sort(shares, 0, judged);
-    double median = shares[judged / 2];
+    double starvedBelow = MIN_ATTRACTION_SHARE * median(attraction, figures.pairs());
+    double incoherentAbove = Math.max(MAX_INCOHERENCE,
+        INCOHERENCE_OVER_MEDIAN * median(incoherence, figures.pairs()));
     boolean[] defective = new boolean[planes];
-    boolean any = false;
-    double starvedBelow = MIN_ATTRACTION_SHARE * median;
-    double[] attraction = figures.attraction();
+    int count = 0;
     for (int p = 0; p < planes; p++) {
       boolean starved = attraction[p] < starvedBelow
           && (p == 0 || attraction[p - 1] >= starvedBelow)
           && (p == planes - 1 || attraction[p + 1] >= starvedBelow);
       defective[p] = figures.pairs()[p] >= MIN_PAIRS
-          && (figures.incoherence()[p] > MAX_INCOHERENCE || starved);
-      any |= defective[p];
+          && (incoherence[p] > incoherentAbove || starved);
+      count += defective[p] ? 1 : 0;
     }
-    return any ? defective : null;
+    // defects are exceptions: when most planes fail, the rules misread this data
+    return count == 0 || 2 * count > judged ? null : defective;
+  }
+
+  /** The median of {@code values} over the planes with at least {@link #MIN_PAIRS} pairs. */
+  private static double median(double[] values, long[] pairs) {
+    double[] judged = new double[values.length];
+    int count = 0;
+    for (int p = 0; p < values.length; p++) {
+      if (pairs[p] >= MIN_PAIRS) {
+        judged[count++] = values[p];
+      }
+    }
+    Arrays.sort(judged, 0, count);
+    return judged[count / 2];
   }
 
   /**

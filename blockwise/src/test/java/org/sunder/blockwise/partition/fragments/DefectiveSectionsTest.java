@@ -110,6 +110,20 @@ class DefectiveSectionsTest {
   }
 
   /**
+   * Data noisy everywhere (every plane as incoherent as a garbage one) has no defective
+   * sections: the rules judge planes against the typical plane.
+   */
+  @Test
+  void noiseEverywhereIsNoDefect() {
+    Random random = new Random(8);
+    float[] values = new float[SHAPE[0] * SHAPE[1] * SHAPE[2] * TissuePreset.offsets().count()];
+    for (int i = 0; i < values.length; i++) {
+      values[i] = random.nextFloat();
+    }
+    assertNull(DefectiveSections.find(block(values), new double[] {8, 8, 32}));
+  }
+
+  /**
    * A garbage plane's incoherence is the mean of {@code |U - V|} for independent uniforms on
    * [0, 1], which is 1/3 (a fact of probability).
    */
