@@ -13,11 +13,15 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 import java.util.concurrent.TimeUnit;
 import java.util.function.BooleanSupplier;
 import java.util.jar.JarFile;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import java.util.stream.Stream;
 import net.imglib2.FinalInterval;
 import org.apache.spark.api.java.JavaSparkContext;
@@ -141,7 +145,7 @@ class StandaloneClusterIT {
     List<String> reference = Scenes.chunkFiles(localRun.resolve("scene.n5/segmentation"));
     assertFalse(reference.isEmpty());
 
-    waitUntil(() -> count(read(masterLog), "Registering worker") == 2, 60,
+    waitUntil(() -> workersRegisteredWithLeader(read(masterLog)) == 2, 60,
         "two workers registered", masterLog);
 
     long t0 = System.nanoTime();
@@ -304,12 +308,22 @@ class StandaloneClusterIT {
     }
   }
 
-  private static int count(String text, String part) {
-    int n = 0;
-    for (int at = text.indexOf(part); at >= 0; at = text.indexOf(part, at + 1)) {
-      n++;
+  /**
+   * Distinct workers the master registered once it led: a worker that asks before the master
+   * is elected leader is turned away and asks again, so its first line does not count.
+   */
+  private static int workersRegisteredWithLeader(String masterLog) {
+    int leader = masterLog.indexOf("elected leader");
+    if (leader < 0) {
+      return 0;
     }
-    return n;
+    Set<String> workers = new HashSet<>();
+    Matcher m = Pattern.compile("Registering worker (\\S+)")
+        .matcher(masterLog.substring(leader));
+    while (m.find()) {
+      workers.add(m.group(1));
+    }
+    return workers.size();
   }
 
   private static double seconds(long since) {
