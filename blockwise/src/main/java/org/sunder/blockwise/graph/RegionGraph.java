@@ -21,15 +21,7 @@ public final class RegionGraph {
 
   /** Region graph of {@code labels} (box voxels in memory order) over {@code graph}'s edges. */
   public static RegionGraph of(int[] labels, GridGraph graph) {
-    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
-    graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
-      int a = labels[s];
-      int b = labels[t];
-      if (a != 0 && b != 0) {
-        acc.add(a, b, w);
-      }
-    });
-    return new RegionGraph(acc.build(), EdgeStatistics.empty());
+    return of(labels, graph, null, null);
   }
 
   /**
@@ -60,9 +52,6 @@ public final class RegionGraph {
         throw new IllegalArgumentException(flags.length + " voxel flags for " + labels.length
             + " voxels");
       }
-    }
-    if (insideOrNull == null && ignoredOrNull == null) {
-      return of(labels, graph);
     }
     EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
     graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
