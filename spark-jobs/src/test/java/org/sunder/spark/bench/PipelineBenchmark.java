@@ -43,6 +43,10 @@ import org.sunder.testing.HeapPeak;
  * (goal: at least 0.7), and how much of the run's CPU went to JIT compilation (a fixed cost per
  * JVM, large beside a small volume) and to collection pauses.
  *
+ * <p>{@code -Druns=N} runs each size N times in this JVM, fresh each time: the first run pays
+ * the JIT compiler for Spark's and Sunder's code, as every executor does once, and the later
+ * runs show what each further block costs an executor that has warmed up.
+ *
  * <p>Not a test. Arguments: {@code [tissue] [seed] [z,y,x ...]}, default
  * {@code dense-neurites 1 96,256,256 192,512,512}. Volumes are generated once under
  * {@code java.io.tmpdir/sunder-pipeline-bench} (the larger one needs about 12 GB of heap).
@@ -73,8 +77,11 @@ public final class PipelineBenchmark {
         Runtime.getRuntime().availableProcessors(), Runtime.getRuntime().maxMemory() >> 20);
     JavaSparkContext sc = SharedSpark.start("local[2]");
     try {
+      int runs = Integer.getInteger("runs", 1);
       for (long[] zyx : sizes) {
-        measure(sc, cache, tissue, seed, zyx);
+        for (int run = 1; run <= runs; run++) {
+          measure(sc, cache, tissue, seed, zyx, run + " of " + runs);
+        }
       }
     } finally {
       sc.stop();
@@ -82,7 +89,7 @@ public final class PipelineBenchmark {
   }
 
   private static void measure(JavaSparkContext sc, Path cache, TissuePreset tissue, long seed,
-      long[] zyx) throws Exception {
+      long[] zyx, String runOfRuns) throws Exception {
     long voxels = zyx[0] * zyx[1] * zyx[2];
     String name = tissue.presetName() + "-" + seed + "-" + zyx[0] + "x" + zyx[1] + "x" + zyx[2];
     Path dir = cache.resolve(name);
@@ -100,12 +107,13 @@ public final class PipelineBenchmark {
         + root + "\", \"affinities\": \"" + SyntheticScenario.AFFINITIES + "\"}, "
         + "\"output\": {\"dataset\": \"segmentation\"}}");
 
-    System.out.printf(Locale.ROOT, "%n%d x %d x %d (z y x) = %.1f M voxels%n", zyx[0], zyx[1],
-        zyx[2], voxels / 1e6);
+    System.out.printf(Locale.ROOT, "%n%d x %d x %d (z y x) = %.1f M voxels, run %s%n", zyx[0],
+        zyx[1], zyx[2], voxels / 1e6, runOfRuns);
     double cpuTotal = 0;
     double wallTotal = 0;
     double compile0 = compilationSeconds();
     double gc0 = collectionSeconds();
+    double[] kindCpu = new double[ThreadKindCpu.Kind.values().length];
     StitchingSetup setup;
     try (PreparedRun run = RunLoader.prepare(config, null, true)) {
       setup = run.settings().setup();
@@ -120,10 +128,15 @@ public final class PipelineBenchmark {
       for (Stage stage : STAGES) {
         System.gc();
         HeapPeak heap = HeapPeak.start();
+        ThreadKindCpu threads0 = ThreadKindCpu.now();
         double cpu0 = processCpuSeconds();
         long wall0 = System.nanoTime();
         RunReport report = pipeline.run(run, List.of(stage));
         double cpu = processCpuSeconds() - cpu0;
+        ThreadKindCpu threads = ThreadKindCpu.now();
+        for (ThreadKindCpu.Kind kind : ThreadKindCpu.Kind.values()) {
+          kindCpu[kind.ordinal()] += threads.since(threads0, kind);
+        }
         double wall = (System.nanoTime() - wall0) / 1e9;
         long heapPeak = heap.growth();
         StageReport stageReport = report.stages().get(0);
@@ -139,6 +152,14 @@ public final class PipelineBenchmark {
         + "%.3f Mvoxels/s per core%n", wallTotal, cpuTotal, wallTotal / (voxels / 1e6), runRate);
     System.out.printf(Locale.ROOT, "    of its CPU: JIT compilation %.1f s, garbage collection "
         + "pauses %.1f s%n", compilationSeconds() - compile0, collectionSeconds() - gc0);
+    double rest = cpuTotal;
+    StringBuilder byKind = new StringBuilder("    by thread:");
+    for (ThreadKindCpu.Kind kind : ThreadKindCpu.Kind.values()) {
+      rest -= kindCpu[kind.ordinal()];
+      byKind.append(String.format(Locale.ROOT, " %s %.1f s,", kind.label,
+          kindCpu[kind.ordinal()]));
+    }
+    System.out.printf(Locale.ROOT, "%s the driver and the rest %.1f s%n", byKind, rest);
     double kernelRate = kernelRate(setup);
     System.out.printf(Locale.ROOT, "  partition kernel alone: %.3f Mvoxels/s per core (core "
         + "voxels, %d interior blocks); whole run / kernel = %.2f%n", kernelRate,
