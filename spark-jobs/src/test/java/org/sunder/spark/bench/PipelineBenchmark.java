@@ -107,8 +107,9 @@ public final class PipelineBenchmark {
         + root + "\", \"affinities\": \"" + SyntheticScenario.AFFINITIES + "\"}, "
         + "\"output\": {\"dataset\": \"segmentation\"}}");
 
-    System.out.printf(Locale.ROOT, "%n%d x %d x %d (z y x) = %.1f M voxels, run %s%n", zyx[0],
-        zyx[1], zyx[2], voxels / 1e6, runOfRuns);
+    System.out.printf(Locale.ROOT, "%n%d x %d x %d (z y x) = %.1f M voxels, run %s (the JVM's "
+        + "CPU so far: %.1f s)%n", zyx[0], zyx[1], zyx[2], voxels / 1e6, runOfRuns,
+        processCpuSeconds());
     double cpuTotal = 0;
     double wallTotal = 0;
     double compile0 = compilationSeconds();
