@@ -53,23 +53,79 @@ public final class RegionGraph {
             + " voxels");
       }
     }
-    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
-    graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
-      int a = labels[s];
-      int b = labels[t];
-      if (a != 0 && b != 0
-          && (ignoredOrNull == null || (ignoredOrNull[s] | ignoredOrNull[t]) == 0)) {
-        long high = Math.max(a, b);
-        boolean inside = insideOrNull != null && insideOrNull[s] != 0 && insideOrNull[t] != 0;
-        acc.add(Math.min(a, b), inside ? high | INSIDE : high, w);
-      }
-    });
-    EdgeStatistics rows = acc.build();
+    PairRuns runs = new PairRuns(labels, insideOrNull, ignoredOrNull);
+    graph.forEachEdgeAcross(labels, runs);
+    EdgeStatistics rows = runs.build();
     if (insideOrNull == null) {
       return new RegionGraph(rows, EdgeStatistics.empty());
     }
     EdgeStatistics insideRows = rowsWhere(rows, true);
     return new RegionGraph(rowsWhere(rows, false).merge(insideRows), insideRows);
+  }
+
+  /**
+   * Sums the edges of one pair that follow each other (a row of voxels along a boundary) in
+   * registers and adds each such run to the hash table once.
+   */
+  private static final class PairRuns implements GridGraph.EdgeVisitor {
+    private final int[] labels;
+    private final byte[] insideOrNull;
+    private final byte[] ignoredOrNull;
+    private final EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
+    /** The current run's pair (the larger label flagged {@link #INSIDE} or not). */
+    private long low;
+    private long high;
+    private long count;
+    private double sum;
+    private double min;
+    private double max;
+
+    PairRuns(int[] labels, byte[] insideOrNull, byte[] ignoredOrNull) {
+      this.labels = labels;
+      this.insideOrNull = insideOrNull;
+      this.ignoredOrNull = ignoredOrNull;
+    }
+
+    @Override
+    public void visit(int s, int t, int k, float w) {
+      int a = labels[s];
+      int b = labels[t];
+      if (a == 0 || b == 0
+          || ignoredOrNull != null && (ignoredOrNull[s] | ignoredOrNull[t]) != 0) {
+        return;
+      }
+      long x = Math.min(a, b);
+      long y = Math.max(a, b);
+      if (insideOrNull != null && insideOrNull[s] != 0 && insideOrNull[t] != 0) {
+        y |= INSIDE;
+      }
+      if (count > 0 && x == low && y == high) {
+        count++;
+        sum += w;
+        min = Math.min(min, w);
+        max = Math.max(max, w);
+        return;
+      }
+      flush();
+      low = x;
+      high = y;
+      count = 1;
+      sum = w;
+      min = w;
+      max = w;
+    }
+
+    private void flush() {
+      if (count > 0) {
+        acc.add(low, high, sum, count, min, max);
+      }
+    }
+
+    EdgeStatistics build() {
+      flush();
+      count = 0;
+      return acc.build();
+    }
   }
 
   /** The rows flagged {@link #INSIDE} (or not), the flag cleared. */
