@@ -40,12 +40,14 @@ import org.sunder.testing.HeapPeak;
  * (all concurrent tasks and the driver together; the JVM is shared in local mode). Per size: the
  * whole run in Mvoxels/s per core (volume voxels over process CPU seconds of all stages), the
  * partition kernel's Mvoxels/s per core (see {@link #kernelRate}) and the ratio of the two
- * (goal: at least 0.7), and how much of the run's CPU went to JIT compilation (a fixed cost per
- * JVM, large beside a small volume) and to collection pauses.
+ * (goal: at least 0.7), the collectors' pauses, and the run's CPU by thread
+ * ({@link ThreadKindCpu}: the JIT compiler's share is a fixed cost per JVM, large beside a small
+ * volume; the compilation MXBean's figure is the compiler's elapsed time, which overstates it).
  *
  * <p>{@code -Druns=N} runs each size N times in this JVM, fresh each time: the first run pays
- * the JIT compiler for Spark's and Sunder's code, as every executor does once, and the later
- * runs show what each further block costs an executor that has warmed up.
+ * for the JVM's warm-up (compiling Spark's and Sunder's code, growing the heap into new memory),
+ * as every executor does once, and the later runs show what each further block costs an
+ * executor that has warmed up.
  *
  * <p>Not a test. Arguments: {@code [tissue] [seed] [z,y,x ...]}, default
  * {@code dense-neurites 1 96,256,256 192,512,512}. Volumes are generated once under
@@ -112,7 +114,6 @@ public final class PipelineBenchmark {
         processCpuSeconds());
     double cpuTotal = 0;
     double wallTotal = 0;
-    double compile0 = compilationSeconds();
     double gc0 = collectionSeconds();
     double[] kindCpu = new double[ThreadKindCpu.Kind.values().length];
     StitchingSetup setup;
@@ -151,8 +152,8 @@ public final class PipelineBenchmark {
     double runRate = voxels / cpuTotal / 1e6;
     System.out.printf(Locale.ROOT, "  whole run: %.1f s wall, %.1f s CPU, %.2f s/Mvoxel wall, "
         + "%.3f Mvoxels/s per core%n", wallTotal, cpuTotal, wallTotal / (voxels / 1e6), runRate);
-    System.out.printf(Locale.ROOT, "    of its CPU: JIT compilation %.1f s, garbage collection "
-        + "pauses %.1f s%n", compilationSeconds() - compile0, collectionSeconds() - gc0);
+    System.out.printf(Locale.ROOT, "    garbage collection pauses %.1f s (wall)%n",
+        collectionSeconds() - gc0);
     double rest = cpuTotal;
     StringBuilder byKind = new StringBuilder("    by thread:");
     for (ThreadKindCpu.Kind kind : ThreadKindCpu.Kind.values()) {
@@ -193,11 +194,6 @@ public final class PipelineBenchmark {
 
   private static double threadCpuSeconds() {
     return ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() / 1e9;
-  }
-
-  /** Time the JIT compiler threads spent compiling (about their CPU time). */
-  private static double compilationSeconds() {
-    return ManagementFactory.getCompilationMXBean().getTotalCompilationTime() / 1e3;
   }
 
   /** Time the collectors report (pauses; G1's concurrent marking is not in it). */
