@@ -96,6 +96,14 @@ public final class IntIntHashMap {
     keys[hole] = EMPTY;
   }
 
+  /**
+   * Reads the slot where {@code key} would start its probe and returns what it holds, so that
+   * a caller can bring a map into the cache ahead of its use (the value means nothing).
+   */
+  public int touch(int key) {
+    return keys[slot(key)];
+  }
+
   private int slot(int key) {
     return (key * 0x9E3779B9) >>> shift;
   }
