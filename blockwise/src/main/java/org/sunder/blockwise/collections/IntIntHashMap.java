@@ -97,10 +97,11 @@ public final class IntIntHashMap {
   }
 
   /**
-   * Reads the slot where {@code key} would start its probe and returns what it holds, so that
-   * a caller can bring a map into the cache ahead of its use (the value means nothing).
+   * Reads the slot where a lookup of {@code key} starts and changes nothing: called for several
+   * maps ahead of their lookups, it lets the memory system fetch them in parallel. Returns a
+   * number with no meaning that the caller must use (so the read is not optimized away).
    */
-  public int touch(int key) {
+  public int prefetch(int key) {
     return keys[slot(key)];
   }
 

@@ -21,8 +21,8 @@ public final class ContractionGraph {
   private final int[] endA;
   private final int[] endB;
   private final boolean[] alive;
-  /** Keeps {@link #contract}'s first pass from being dropped as dead code. */
-  private int touchSink;
+  /** Sum of what {@link IntIntHashMap#prefetch} returned; read by nothing. */
+  private int prefetched;
 
   private ContractionGraph(IntIntHashMap[] adjacency, int[] endA, int[] endB, boolean[] alive) {
     this.adjacency = adjacency;
@@ -110,16 +110,15 @@ public final class ContractionGraph {
   public void contract(int into, int from, EdgeMerge merge, IntList touched) {
     IntIntHashMap gone = adjacency[from];
     IntIntHashMap kept = adjacency[into];
-    // first touch every neighbour's map in a pass of independent reads, so that their cache
-    // misses overlap instead of following one another in the pass below
-    int sink = 0;
+    // the neighbours' maps fetched together, not one miss after another in the pass below
+    int ignored = 0;
     for (int slot = 0; slot < gone.capacity(); slot++) {
       int c = gone.keyAt(slot);
       if (c >= 0) {
-        sink += adjacency[c].touch(from);
+        ignored += adjacency[c].prefetch(from);
       }
     }
-    touchSink = sink;
+    prefetched += ignored;
     for (int slot = 0; slot < gone.capacity(); slot++) {
       int c = gone.keyAt(slot);
       if (c < 0) {

@@ -140,8 +140,8 @@ public final class GridGraph {
 
   /** Visits the present edges of offset {@code k} in ascending source voxel. */
   public void forEachEdge(int k, EdgeVisitor visitor) {
-    forEachRow(k, (start, length, global, thin, mask) ->
-        visitRow(k, start, length, global, thin, mask, null, null, visitor));
+    forEachRow(k, (start, length, global, thin, decisions, mask) ->
+        visitRow(k, start, length, global, thin, decisions, mask, null, null, visitor));
   }
 
   /**
@@ -155,8 +155,8 @@ public final class GridGraph {
     requireLabels(labels.length);
     for (int k = 0; k < offsetCount; k++) {
       int kk = k;
-      forEachRow(k, (start, length, global, thin, mask) ->
-          visitRow(kk, start, length, global, thin, mask, labels, null, visitor));
+      forEachRow(k, (start, length, global, thin, decisions, mask) ->
+          visitRow(kk, start, length, global, thin, decisions, mask, labels, null, visitor));
     }
   }
 
@@ -165,8 +165,8 @@ public final class GridGraph {
     requireLabels(labels.length);
     for (int k = 0; k < offsetCount; k++) {
       int kk = k;
-      forEachRow(k, (start, length, global, thin, mask) ->
-          visitRow(kk, start, length, global, thin, mask, null, labels, visitor));
+      forEachRow(k, (start, length, global, thin, decisions, mask) ->
+          visitRow(kk, start, length, global, thin, decisions, mask, null, labels, visitor));
     }
   }
 
@@ -188,31 +188,15 @@ public final class GridGraph {
       int base = k * nodeCount;
       int dk = delta[k];
       int kk = k;
-      // the hash decisions of the rows of offset k, made on its first row
-      Subsampling.RowDecisions[] rows = new Subsampling.RowDecisions[1];
-      forEachRow(k, (start, length, global, thin, mask) -> {
+      forEachRow(k, (start, length, global, thin, decisions, mask) -> {
         long x0 = global[0];
-        if (thin && rows[0] == null) {
-          rows[0] = subsampling.rowDecisions(kk, x0, length);
-        }
-        Subsampling.RowDecisions decisions = thin ? rows[0] : null;
-        if (decisions == null) {
-          for (int i = 0; i < length; i++) {
-            int source = start + i;
-            if (kept(source, source + dk, kk, global, x0 + i, thin, mask)) {
-              present[base + source] = 1;
-            }
-          }
-          global[0] = x0;
-          return;
-        }
         for (int i = 0; i < length; i++) {
           int source = start + i;
-          if ((mask == null || (mask[source] != 0 && mask[source + dk] != 0))
-              && decisions.keeps(i, global)) {
+          if (kept(source, source + dk, kk, global, x0, i, thin, decisions, mask)) {
             present[base + source] = 1;
           }
         }
+        global[0] = x0;
       });
     }
     return present;
@@ -222,9 +206,12 @@ public final class GridGraph {
   private interface RowVisitor {
     /**
      * {@code global}: global coordinates of the row's first source (may be changed at [0] if
-     * restored); {@code thin}: long-range subsampling applies; {@code mask}: null or the mask.
+     * restored); {@code thin}: long-range subsampling applies; {@code decisions}: its hash
+     * decisions along every row of the offset, or null (see {@link Subsampling#rowDecisions});
+     * {@code mask}: null or the mask.
      */
-    void row(int start, int length, long[] global, boolean thin, byte[] mask);
+    void row(int start, int length, long[] global, boolean thin,
+        Subsampling.RowDecisions decisions, byte[] mask);
   }
 
   private void forEachRow(int k, RowVisitor visitor) {
@@ -242,6 +229,9 @@ public final class GridGraph {
     int[] row = lo.clone();
     long[] global = new long[n];
     boolean thin = longRange[k] && !subsampling.keepsAll();
+    // every row of the offset starts at the same first coordinate
+    Subsampling.RowDecisions decisions = thin
+        ? subsampling.rowDecisions(k, block.globalMin(0) + lo[0], hi[0] - lo[0]) : null;
     byte[] mask = block.maskOrNull();
     while (true) {
       int start = 0;
@@ -251,7 +241,7 @@ public final class GridGraph {
         step *= block.shape(d);
         global[d] = block.globalMin(d) + row[d];
       }
-      visitor.row(start, hi[0] - lo[0], global, thin, mask);
+      visitor.row(start, hi[0] - lo[0], global, thin, decisions, mask);
       int d = 1;
       while (d < n && ++row[d] >= hi[d]) {
         row[d] = lo[d];
@@ -264,8 +254,9 @@ public final class GridGraph {
   }
 
   /** One row of edges; with {@code intLabels} or {@code longLabels}, only edges across labels. */
-  private void visitRow(int k, int start, int length, long[] global, boolean thin, byte[] mask,
-      int[] intLabels, long[] longLabels, EdgeVisitor visitor) {
+  private void visitRow(int k, int start, int length, long[] global, boolean thin,
+      Subsampling.RowDecisions decisions, byte[] mask, int[] intLabels, long[] longLabels,
+      EdgeVisitor visitor) {
     int dk = delta[k];
     int base = k * nodeCount;
     long x0 = global[0];
@@ -279,7 +270,7 @@ public final class GridGraph {
           : longLabels != null && longLabels[source] == longLabels[target]) {
         continue;
       }
-      if (!kept(source, target, k, global, x0 + i, thin, mask)) {
+      if (!kept(source, target, k, global, x0, i, thin, decisions, mask)) {
         continue;
       }
       float w = bytes != null
@@ -290,17 +281,23 @@ public final class GridGraph {
     global[0] = x0;
   }
 
-  /** Mask and subsampling test of an edge whose ends lie in the box; sets {@code global[0]}. */
-  private boolean kept(int source, int target, int k, long[] global, long x, boolean thin,
-      byte[] mask) {
+  /**
+   * Mask and subsampling test of the {@code i}-th edge of a row starting at global {@code x0},
+   * whose ends lie in the box; may set {@code global[0]}.
+   */
+  private boolean kept(int source, int target, int k, long[] global, long x0, int i,
+      boolean thin, Subsampling.RowDecisions decisions, byte[] mask) {
     if (mask != null && (mask[source] == 0 || mask[target] == 0)) {
       return false;
     }
-    if (thin) {
-      global[0] = x;
-      return subsampling.keepsLongRange(global, k);
+    if (!thin) {
+      return true;
     }
-    return true;
+    if (decisions != null) {
+      return decisions.keeps(i, global);
+    }
+    global[0] = x0 + i;
+    return subsampling.keepsLongRange(global, k);
   }
 
   /** Counts present edges; one pass over all slots. */

@@ -47,7 +47,8 @@ public final class DefectiveSections {
    * not anisotropic ({@code voxelSize} in the box's axis order, fastest first, or null).
    */
   public static boolean[] find(AffinityBlock block, double[] voxelSize) {
-    if (block.shape().length != 3 || voxelSize == null || !sectioned(voxelSize)) {
+    if (block.shape().length != 3 || voxelSize == null
+        || !FragmentOptions.isSliced(voxelSize)) {
       return null;
     }
     PlaneFigures figures = measure(block);
@@ -230,13 +231,5 @@ public final class DefectiveSections {
       }
     }
     return flags;
-  }
-
-  private static boolean sectioned(double[] voxelSize) {
-    double finest = Double.POSITIVE_INFINITY;
-    for (int d = 0; d < voxelSize.length - 1; d++) {
-      finest = Math.min(finest, voxelSize[d]);
-    }
-    return voxelSize[voxelSize.length - 1] >= FragmentOptions.SLICE_ANISOTROPY * finest;
   }
 }

@@ -108,7 +108,8 @@ public final class FragmentOptions implements Serializable {
   /** Slowest axis over finest other axis at which {@link #fittedTo} floods per slice. */
   public static final double SLICE_ANISOTROPY = 2.0;
 
-  private static boolean isSliced(double[] voxelSize) {
+  /** Whether voxels of this size (fastest axis first) are sections cut thicker than wide. */
+  static boolean isSliced(double[] voxelSize) {
     int slow = voxelSize.length - 1;
     double finestOther = Double.POSITIVE_INFINITY;
     for (int d = 0; d < slow; d++) {
