@@ -136,7 +136,7 @@ class BadInputBatteryTest {
     if (source == null) {
       assertEquals(before, checksums(dir), "nothing written or changed");
     } else {
-      awaitNoRunningTasks();
+      CliRun.awaitNoRunningTasks(spark());
       Map<String, String> after = checksums(dir);
       before.forEach((file, sum) -> assertEquals(sum, after.get(file), file + " unchanged"));
     }
@@ -223,26 +223,9 @@ class BadInputBatteryTest {
           "more memory", "blocks.shape");
     } finally {
       System.clearProperty(TaskHooks.MEMORY_KEY);
-      awaitNoRunningTasks();
+      CliRun.awaitNoRunningTasks(spark());
     }
     assertEquals(inputBefore, checksums(input.resolve("affinities")));
-  }
-
-  /**
-   * Waits until the shared context runs no task: when a job fails, Spark cancels its other tasks
-   * asynchronously, and a task still writing its chunks would race the temporary folder's removal.
-   */
-  private static void awaitNoRunningTasks() {
-    long deadline = System.nanoTime() + 60_000_000_000L;
-    while (System.nanoTime() < deadline && java.util.Arrays.stream(spark().statusTracker()
-        .getExecutorInfos()).anyMatch(e -> e.numRunningTasks() > 0)) {
-      try {
-        Thread.sleep(50);
-      } catch (InterruptedException e) {
-        Thread.currentThread().interrupt();
-        return;
-      }
-    }
   }
 
   @Test

@@ -28,4 +28,21 @@ public record CliRun(int exitCode, String out, String err) {
         new PrintStream(err, true, StandardCharsets.UTF_8), false).execute(args);
     return new CliRun(code, out.toString(StandardCharsets.UTF_8), err.toString(StandardCharsets.UTF_8));
   }
+
+  /**
+   * Waits until a shared context runs no task. When a job fails, Spark cancels its other tasks
+   * asynchronously; one still writing would race whatever the test reads or removes next.
+   */
+  public static void awaitNoRunningTasks(JavaSparkContext spark) {
+    long deadline = System.nanoTime() + 60_000_000_000L;
+    while (System.nanoTime() < deadline && java.util.Arrays.stream(spark.statusTracker()
+        .getExecutorInfos()).anyMatch(e -> e.numRunningTasks() > 0)) {
+      try {
+        Thread.sleep(50);
+      } catch (InterruptedException e) {
+        Thread.currentThread().interrupt();
+        return;
+      }
+    }
+  }
 }

@@ -65,13 +65,17 @@ class LevelResumeTest {
     return CliRun.with(SparkContextSource.shared(sc), args);
   }
 
-  /** {@code run config} with the task {@code task} ({@code stage:index}) made to fail. */
+  /**
+   * {@code run config} with the task {@code task} ({@code stage:index}) made to fail; returns
+   * once the failed job's other tasks have stopped writing.
+   */
   private static CliRun runFailingAt(String task, Path config) {
     System.setProperty(TaskHooks.FAIL_KEY, task);
     try {
       return cli("run", config.toString());
     } finally {
       System.clearProperty(TaskHooks.FAIL_KEY);
+      CliRun.awaitNoRunningTasks(sc);
     }
   }
 
