@@ -145,28 +145,48 @@ public final class GridGraph {
   }
 
   /**
-   * Visits, in ascending edge id, the present edges whose ends carry different labels
-   * ({@code labels} per voxel of the box; label 0 is a label like any other here). The same
-   * edges and weights as {@link #forEachEdge} with a {@code labels[s] != labels[t]} test in the
-   * visitor, but the weight is computed only for the edges visited: the cheap pass over a
-   * segmentation's boundaries, where most edges join voxels of one segment.
+   * Visits the present edges whose ends carry different labels ({@code labels} per voxel of the
+   * box; label 0 is a label like any other here): the same edges and weights as
+   * {@link #forEachEdge} with a {@code labels[s] != labels[t]} test in the visitor, but the
+   * weight is computed only for the edges visited (the cheap pass over a segmentation's
+   * boundaries, where most edges join voxels of one segment), and in another order: slice by
+   * slice along the last axis, in each slice every offset in turn, its sources ascending. So a
+   * visitor that sums edges per pair of labels in a hash table touches, for a while, only the
+   * pairs of a few slices, which stay in the processor's cache; in edge-id order every offset
+   * swept the whole table again.
    */
   public void forEachEdgeAcross(int[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
-    for (int k = 0; k < offsetCount; k++) {
-      int kk = k;
-      forEachRow(k, (start, length, global, thin, decisions, mask) ->
-          visitRow(kk, start, length, global, thin, decisions, mask, labels, null, visitor));
-    }
+    forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
+        visitRow(k, start, length, global, thin, decisions, mask, labels, null, visitor));
   }
 
   /** As {@link #forEachEdgeAcross(int[], EdgeVisitor)} for 64-bit labels. */
   public void forEachEdgeAcross(long[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
-    for (int k = 0; k < offsetCount; k++) {
-      int kk = k;
-      forEachRow(k, (start, length, global, thin, decisions, mask) ->
-          visitRow(kk, start, length, global, thin, decisions, mask, null, labels, visitor));
+    forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
+        visitRow(k, start, length, global, thin, decisions, mask, null, labels, visitor));
+  }
+
+  /** A row of offset {@code k}; see {@link RowVisitor}. */
+  private interface OffsetRowVisitor {
+    void row(int k, int start, int length, long[] global, boolean thin,
+        Subsampling.RowDecisions decisions, byte[] mask);
+  }
+
+  /**
+   * Every offset's rows, slice by slice along the last axis (a one-dimensional box is one
+   * slice), each slice's offsets in turn.
+   */
+  private void forEachRowBySlice(OffsetRowVisitor visitor) {
+    int last = block.dimension() - 1;
+    int slices = last == 0 ? 1 : block.shape(last);
+    for (int slice = 0; slice < slices; slice++) {
+      for (int k = 0; k < offsetCount; k++) {
+        int kk = k;
+        forEachRow(k, last == 0 ? -1 : slice, (start, length, global, thin, decisions, mask) ->
+            visitor.row(kk, start, length, global, thin, decisions, mask));
+      }
     }
   }
 
@@ -215,6 +235,14 @@ public final class GridGraph {
   }
 
   private void forEachRow(int k, RowVisitor visitor) {
+    forEachRow(k, -1, visitor);
+  }
+
+  /**
+   * The rows of offset {@code k} whose sources lie in {@code slice} along the last axis, or
+   * every row when {@code slice < 0}.
+   */
+  private void forEachRow(int k, int slice, RowVisitor visitor) {
     int n = block.dimension();
     int[] lo = new int[n];
     int[] hi = new int[n];
@@ -222,6 +250,10 @@ public final class GridGraph {
       int o = block.offsets().component(k, d);
       lo[d] = Math.max(0, -o);
       hi[d] = Math.min(block.shape(d), block.shape(d) - o);
+      if (slice >= 0 && d == n - 1) {
+        lo[d] = Math.max(lo[d], slice);
+        hi[d] = Math.min(hi[d], slice + 1);
+      }
       if (lo[d] >= hi[d]) {
         return;
       }
