@@ -11,7 +11,9 @@ import java.util.Locale;
 import java.util.Random;
 import java.util.Set;
 import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.RegionGraph;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
 import org.sunder.blockwise.partition.Partitioner;
@@ -20,6 +22,8 @@ import org.sunder.blockwise.partition.agglomeration.Agglomeration;
 import org.sunder.blockwise.partition.agglomeration.AgglomerationPartitioner;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.fragments.BlockFragments;
+import org.sunder.blockwise.partition.fragments.FragmentOptions;
 import org.sunder.blockwise.partition.mutex.MutexWatershedPartitioner;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
@@ -42,8 +46,10 @@ import org.sunder.testing.HeapPeak;
  *
  * <p>Arguments: {@code [x y z] [repeats] [seed]}, default {@code 128 128 64 3 1}. System
  * properties: {@code -Dmethods=mws,mean,default} (which kernels; also {@code mws-all}, the Mutex
- * Watershed reading every long-range edge, and {@code mean-sparse}, mean linkage reading a
- * hash-chosen {@code -DkeepFraction} of them, default 0.1),
+ * Watershed reading every long-range edge; {@code mean-sparse}, mean linkage reading a
+ * hash-chosen {@code -DkeepFraction} of them, default 0.1; and {@code region-graph}, the
+ * default's fragment graph alone: {@link RegionGraph#of} over the preset's fitted fragments,
+ * every voxel inside, the pass a partition task makes),
  * {@code -Dinputs=clean,dense-neurites,...} (which inputs), {@code -DmeanRepeats=N} (repeats of
  * the slower linkage runs, default 1).
  */
@@ -89,6 +95,10 @@ public final class KernelBenchmark {
       }
       if (methods.contains("mean")) {
         measure(input + " mean linkage from voxels", block, mean, meanRepeats);
+      }
+      if (methods.contains("region-graph") && !input.equals("clean")) {
+        measureRegionGraph(input, block, TissuePreset.named(input).spec(seed).voxelSize(),
+            repeats);
       }
       if (methods.contains("default")) {
         double[] voxelSize = input.equals("clean") ? null
@@ -159,6 +169,29 @@ public final class KernelBenchmark {
     Files.move(temporary, cache, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
         java.nio.file.StandardCopyOption.ATOMIC_MOVE);
     return AffinityBlock.ofFloats(cut, shape, new long[3], offsets, null);
+  }
+
+  /** CPU seconds of {@link RegionGraph#of} (best of the repeats after one warm-up). */
+  private static void measureRegionGraph(String input, AffinityBlock block, double[] voxelSize,
+      int repeats) {
+    int[] fragments = BlockFragments.label(block, FragmentOptions.fittedTo(voxelSize));
+    GridGraph graph = GridGraph.of(block, WeightRule.byValue(WeightRule.Transform.LOGIT, null),
+        Subsampling.none());
+    byte[] inside = new byte[fragments.length];
+    Arrays.fill(inside, (byte) 1);
+    com.sun.management.ThreadMXBean threads =
+        (com.sun.management.ThreadMXBean) ManagementFactory.getThreadMXBean();
+    double best = Double.MAX_VALUE;
+    int pairs = 0;
+    for (int r = 0; r <= repeats; r++) {
+      long cpu0 = threads.getCurrentThreadCpuTime();
+      pairs = RegionGraph.of(fragments, graph, inside).statistics().size();
+      if (r > 0) {
+        best = Math.min(best, (threads.getCurrentThreadCpuTime() - cpu0) / 1e9);
+      }
+    }
+    System.out.printf(Locale.ROOT, "  %-45s %7.3f s cpu (best of %d), %d fragment pairs%n",
+        input + " region graph of the fragments", best, repeats, pairs);
   }
 
   private static void measure(String name, AffinityBlock block, Partitioner partitioner,
