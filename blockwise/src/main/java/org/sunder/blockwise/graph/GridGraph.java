@@ -181,11 +181,16 @@ public final class GridGraph {
   private void forEachRowBySlice(OffsetRowVisitor visitor) {
     int last = block.dimension() - 1;
     int slices = last == 0 ? 1 : block.shape(last);
+    Subsampling.RowDecisions[] decisionsOf = new Subsampling.RowDecisions[offsetCount];
+    for (int k = 0; k < offsetCount; k++) {
+      decisionsOf[k] = rowDecisions(k);
+    }
     for (int slice = 0; slice < slices; slice++) {
       for (int k = 0; k < offsetCount; k++) {
         int kk = k;
-        forEachRow(k, last == 0 ? -1 : slice, (start, length, global, thin, decisions, mask) ->
-            visitor.row(kk, start, length, global, thin, decisions, mask));
+        forEachRow(k, last == 0 ? -1 : slice, decisionsOf[k],
+            (start, length, global, thin, decisions, mask) ->
+                visitor.row(kk, start, length, global, thin, decisions, mask));
       }
     }
   }
@@ -235,14 +240,29 @@ public final class GridGraph {
   }
 
   private void forEachRow(int k, RowVisitor visitor) {
-    forEachRow(k, -1, visitor);
+    forEachRow(k, -1, rowDecisions(k), visitor);
+  }
+
+  /**
+   * The hash decisions of offset {@code k}'s long-range subsampling, shared by all its rows
+   * (every row starts at the same first coordinate), or null without subsampling or rows.
+   */
+  private Subsampling.RowDecisions rowDecisions(int k) {
+    if (!longRange[k] || subsampling.keepsAll()) {
+      return null;
+    }
+    int o = block.offsets().component(k, 0);
+    int lo = Math.max(0, -o);
+    int hi = Math.min(block.shape(0), block.shape(0) - o);
+    return lo < hi ? subsampling.rowDecisions(k, block.globalMin(0) + lo, hi - lo) : null;
   }
 
   /**
    * The rows of offset {@code k} whose sources lie in {@code slice} along the last axis, or
-   * every row when {@code slice < 0}.
+   * every row when {@code slice < 0}; {@code decisions} from {@link #rowDecisions}.
    */
-  private void forEachRow(int k, int slice, RowVisitor visitor) {
+  private void forEachRow(int k, int slice, Subsampling.RowDecisions decisions,
+      RowVisitor visitor) {
     int n = block.dimension();
     int[] lo = new int[n];
     int[] hi = new int[n];
@@ -261,9 +281,6 @@ public final class GridGraph {
     int[] row = lo.clone();
     long[] global = new long[n];
     boolean thin = longRange[k] && !subsampling.keepsAll();
-    // every row of the offset starts at the same first coordinate
-    Subsampling.RowDecisions decisions = thin
-        ? subsampling.rowDecisions(k, block.globalMin(0) + lo[0], hi[0] - lo[0]) : null;
     byte[] mask = block.maskOrNull();
     while (true) {
       int start = 0;
