@@ -3,6 +3,7 @@ package org.sunder.stitching.solve;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
+import org.sunder.blockwise.collections.RadixSort;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.config.PartitionConfig;
@@ -58,25 +59,26 @@ final class FinalSizeFilter {
     long[] nodeIds = graph.nodeIds();
     long[] interiorIds = interiorEnds(interior, nodeIds);
     int total = clusterCount + interiorIds.length;
+    int[] position = rankPositions(dense, nodeIds, interiorIds, clusterCount);
     long[] sizes = new long[total];
     for (int i = 0; i < nodes; i++) {
-      sizes[dense[i]] += sizeOf(layout, blocks, nodeIds[i]);
+      sizes[position[dense[i]]] += sizeOf(layout, blocks, nodeIds[i]);
     }
     for (int j = 0; j < interiorIds.length; j++) {
-      sizes[clusterCount + j] = sizeOf(layout, blocks, interiorIds[j]);
+      sizes[position[clusterCount + j]] = sizeOf(layout, blocks, interiorIds[j]);
     }
     EdgeStatistics statistics = clusterStatistics(graph.edges(), dense, interior, nodeIds,
-        interiorIds, clusterCount);
+        interiorIds, clusterCount, position);
     boolean[] flags = SizeFilteredPartitioner.cannotLinkFlags(config.sizeFilterCannotLink(),
         statistics, config.linkage());
     int[] group = filter.groups(sizes, statistics, flags, null);
     int[] clusterOfNode = new int[nodes];
     for (int i = 0; i < nodes; i++) {
-      clusterOfNode[i] = group[dense[i]];
+      clusterOfNode[i] = group[position[dense[i]]];
     }
     int[] joinedCluster = new int[interiorIds.length];
     for (int j = 0; j < interiorIds.length; j++) {
-      joinedCluster[j] = group[clusterCount + j];
+      joinedCluster[j] = group[position[clusterCount + j]];
     }
     return new Result(clusterOfNode, interiorIds, joinedCluster);
   }
@@ -101,6 +103,29 @@ final class FinalSizeFilter {
     return dense;
   }
 
+  /**
+   * The filter's order of its segments (clusters {@code 0..clusterCount-1}, then interior ids):
+   * by rank, a cluster's its smallest node id, an interior segment's its id; so the order, and
+   * the filter's ties, depend on provisional ids alone, as in the filter by parts
+   * ({@link SizeFilterPartSolver}). Per segment, its position.
+   */
+  private static int[] rankPositions(int[] dense, long[] nodeIds, long[] interiorIds,
+      int clusterCount) {
+    long[] rank = new long[clusterCount + interiorIds.length];
+    for (int i = nodeIds.length - 1; i >= 0; i--) {
+      rank[dense[i]] = nodeIds[i];
+    }
+    for (int j = 0; j < interiorIds.length; j++) {
+      rank[clusterCount + j] = interiorIds[j];
+    }
+    int[] byRank = RadixSort.order(rank.length, i -> RadixSort.signedKey(rank[i]));
+    int[] position = new int[rank.length];
+    for (int p = 0; p < byRank.length; p++) {
+      position[byRank[p]] = p;
+    }
+    return position;
+  }
+
   /** The ends of {@code interior}'s pairs that are not reduced-graph nodes, ascending, unique. */
   private static long[] interiorEnds(EdgeStatistics interior, long[] nodeIds) {
     long[] ends = new long[2 * interior.size()];
@@ -121,20 +146,23 @@ final class FinalSizeFilter {
         (int) layout.localOf(provisionalId) - 1];
   }
 
-  /** Statistics between filter nodes, ids {@code 1..}: clusters first, then interior ids. */
+  /** Statistics between filter segments, ids {@code 1..}: their positions plus 1. */
   private static EdgeStatistics clusterStatistics(EdgeStatistics edges, int[] dense,
-      EdgeStatistics interior, long[] nodeIds, long[] interiorIds, int clusterCount) {
+      EdgeStatistics interior, long[] nodeIds, long[] interiorIds, int clusterCount,
+      int[] position) {
     int m = edges.size();
     int k = interior.size();
     long[] u = new long[m + k];
     long[] v = new long[m + k];
     for (int e = 0; e < m; e++) {
-      u[e] = dense[(int) edges.u(e)] + 1;
-      v[e] = dense[(int) edges.v(e)] + 1;
+      u[e] = position[dense[(int) edges.u(e)]] + 1;
+      v[e] = position[dense[(int) edges.v(e)]] + 1;
     }
     for (int e = 0; e < k; e++) {
-      u[m + e] = filterNode(interior.u(e), dense, nodeIds, interiorIds, clusterCount) + 1;
-      v[m + e] = filterNode(interior.v(e), dense, nodeIds, interiorIds, clusterCount) + 1;
+      u[m + e] = position[filterNode(interior.u(e), dense, nodeIds, interiorIds,
+          clusterCount)] + 1;
+      v[m + e] = position[filterNode(interior.v(e), dense, nodeIds, interiorIds,
+          clusterCount)] + 1;
     }
     return EdgeStatistics.of(u, v, concat(edges.copySum(), interior.copySum()),
         concat(edges.copyCount(), interior.copyCount()),

@@ -18,8 +18,12 @@ import org.sunder.blockwise.partition.agglomeration.Linkage;
  * Merges away every segment smaller than a voxel count. Smallest segment first, a small segment
  * joins the adjacent segment it is most attracted to (largest {@link Linkage} value of the
  * statistics between them), and the merged segment waits its turn again while it is still
- * small. Ties, in both choices, go to the segment whose lowest original label is lower, so the
- * result depends only on the input. Only a segment below the size is ever merged
+ * small. Ties, in both choices, go to the lower <em>tie label</em>: a segment's label; a merged
+ * segment's, the lowest label of its parts while it is small, fixed once it is not (it holds
+ * {@code minSize} voxels or is left alone). So the result depends only on the input, and the
+ * filter acts on each connected set of small segments, with the segments around it, as if alone:
+ * a merge elsewhere changes neither the statistics nor the tie label of anything it sees (what
+ * lets a hierarchical solve filter part by part). Only a segment below the size is ever merged
  * away: two segments that both hold at least {@code minSize} voxels are never joined.
  *
  * <p>Cannot-link flags mark the pairs the partition method kept apart; flags and statistics
@@ -223,7 +227,10 @@ public final class SizeFilter {
     private final ContractionGraph.EdgeMerge combine;
     private final int[] parent;
     private final boolean[] leftAlone;
-    /** Per group representative, its lowest member index: the tie-breaker of both choices. */
+    /**
+     * Per group representative, its tie label: the lowest member index while the group is small,
+     * fixed once it is not. The tie-breaker of both choices.
+     */
     private final int[] lowest;
 
     Merging(int count, EdgeStatistics statistics, boolean[] flags, long[] size,
@@ -285,6 +292,7 @@ public final class SizeFilter {
         if (target < 0) {
           continue;
         }
+        int tieLabel = isSmall(target) ? Math.min(lowest[c], lowest[target]) : lowest[target];
         int keep = graph.degree(target) >= graph.degree(c) ? target : c;
         int gone = keep == c ? target : c;
         touched.clear();
@@ -293,7 +301,7 @@ public final class SizeFilter {
         size[keep] += size[gone];
         size[gone] = 0;
         leftAlone[keep] |= leftAlone[gone];
-        lowest[keep] = Math.min(lowest[keep], lowest[gone]);
+        lowest[keep] = tieLabel;
         if (isSmall(keep)) {
           small.push(-size[keep], lowest[keep], keep);
         }
