@@ -130,9 +130,9 @@ public final class EdgeFile {
         throw bad(file, "has checksum " + stored + " but its task recorded " + expectedChecksum);
       }
       for (int e = 0; e < m; e++) {
-        if (kind[e] < SolveEdges.MAX || kind[e] > MulticutPartSolver.JOINED) {
+        if (kind[e] < SolveEdges.MAX || kind[e] > SizeFilterPartSolver.JOINED) {
           throw bad(file, "edge " + e + " has kind " + kind[e] + ", expected 0 to "
-              + MulticutPartSolver.JOINED);
+              + SizeFilterPartSolver.JOINED);
         }
       }
       return SolveEdges.wrap(u, v, w, ku, kv, kind);

@@ -10,12 +10,18 @@ import java.nio.file.Path;
  *   up-&lt;l&gt;/&lt;p&gt;.merges    its merges ({@link MergeMapFile})
  *   final-&lt;l&gt;/&lt;p&gt;.reps    the final representatives of part p's nodes that have another one
  *                        (level 0: per block)
+ *   size-filter/         the same for the size filter after the solve
  * </pre>
  * A plain value; the files are written by tasks, atomically.
  *
  * @param root the folder
  */
 public record LevelFiles(Path root) {
+
+  /** The folder of the size filter after the solve, which has the same steps and files. */
+  public LevelFiles sizeFilter() {
+    return new LevelFiles(root.resolve("size-filter"));
+  }
 
   /** What part {@code part} of {@code level} hands up. */
   public Path edges(int level, int part) {

@@ -7,6 +7,7 @@ import java.util.Arrays;
 import java.util.HashMap;
 import java.util.Map;
 import java.util.function.IntFunction;
+import java.util.function.Supplier;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.IdLayout;
@@ -110,6 +111,21 @@ public final class LevelTasks {
         : new LinkagePartSolver(config.linkage(), config.constraints(), config.threshold());
   }
 
+  /** The part solver of the size filter after the run's solve ({@code minSegmentSize > 1}). */
+  public static PartSolver sizeFilterSolver(PartitionConfig config) {
+    return new SizeFilterPartSolver(config.createSizeFilter(), config.sizeFilterCannotLink(),
+        config.linkage());
+  }
+
+  /**
+   * Rows of the size filter's input for {@code pairs} reduced-graph pairs: at most four
+   * statistics and a joined row per pair and a size row per end (interior edges of small
+   * segments add a few more); saturates.
+   */
+  public static long sizeFilterRows(long pairs) {
+    return pairs > Long.MAX_VALUE / 7 ? Long.MAX_VALUE : 7 * pairs;
+  }
+
   /** The row format of the run's part solver. */
   static PartInputs.Rows rowsOf(PartitionConfig config) {
     return SuperBlockSolve.isMulticut(config) ? PartInputs.Rows.MULTICUT
@@ -162,6 +178,21 @@ public final class LevelTasks {
   }
 
   /**
+   * The clear error when the size filter's rest after {@code levels} levels ({@code rows}
+   * rows) is above the driver bound ({@link #sizeFilterRows} of it).
+   */
+  public static void requireSizeFilterFits(int levels, long rows, long maxDriverEdges) {
+    if (rows > sizeFilterRows(maxDriverEdges)) {
+      throw new SunderException(ErrorKind.INVALID_CONFIG, "the size filter after the solve,"
+          + " level by level over super-blocks of " + SuperBlockSolve.FACTOR + "^level blocks"
+          + " per axis, still leaves the driver " + rows + " rows after " + levels
+          + " levels, more than the " + sizeFilterRows(maxDriverEdges) + " rows of"
+          + " solve.maxDriverEdges = " + maxDriverEdges + " pairs; raise solve.maxDriverEdges"
+          + " (and the driver's memory)");
+    }
+  }
+
+  /**
    * Step 1: solves part {@code part} of {@code level} and writes what it hands up and its
    * merges. O(m log m) for the part's m edges.
    *
@@ -172,14 +203,38 @@ public final class LevelTasks {
   public static PartRecord up(StitchingSetup setup, LevelFiles files, int level, int part,
       long[] belowChecksums, IntFunction<BlockSummary> summaryOf,
       IntFunction<SeamEdges> seamsOf) {
-    long start = System.nanoTime();
-    long allocatedBefore = allocatedBytes();
     PartitionConfig config = setup.partition();
     SuperBlocks superBlocks = superBlocks(setup);
+    return up(superBlocks, files, level, part, belowChecksums,
+        () -> PartInputs.levelOne(setup.grid(), superBlocks, part, rowsOf(config),
+            PartInputs.steps(setup.grid(), setup.offsets()), summaryOf, seamsOf),
+        partSolver(config));
+  }
+
+  /**
+   * Step 1 of the size filter after the solve ({@link SizeFilterPartSolver}), once the solve's
+   * steps are done: as {@link #up}, its files in their own folder, level 1's input
+   * ({@link PartInputs#sizeFilterLevelOne}) read with the solve's final representatives.
+   *
+   * @param solvedOf reads a block's level-0 {@link LevelFiles#finals} file of the solve
+   */
+  public static PartRecord sizeFilterUp(StitchingSetup setup, LevelFiles files, int level,
+      int part, long[] belowChecksums, IntFunction<BlockSummary> summaryOf,
+      IntFunction<SeamEdges> seamsOf, IntFunction<MergeMap> solvedOf) {
+    SuperBlocks superBlocks = superBlocks(setup);
+    return up(superBlocks, files, level, part, belowChecksums,
+        () -> PartInputs.sizeFilterLevelOne(setup.grid(), superBlocks, part,
+            PartInputs.steps(setup.grid(), setup.offsets()), summaryOf, seamsOf, solvedOf),
+        sizeFilterSolver(setup.partition()));
+  }
+
+  private static PartRecord up(SuperBlocks superBlocks, LevelFiles files, int level, int part,
+      long[] belowChecksums, Supplier<SolveEdges> levelOne, PartSolver solver) {
+    long start = System.nanoTime();
+    long allocatedBefore = allocatedBytes();
     SolveEdges input;
     if (level == 1) {
-      input = PartInputs.levelOne(setup.grid(), superBlocks, part, rowsOf(config),
-          PartInputs.steps(setup.grid(), setup.offsets()), summaryOf, seamsOf);
+      input = levelOne.get();
     } else {
       SolveEdges all = new SolveEdges(16);
       for (int below : superBlocks.subParts(level, part)) {
@@ -189,7 +244,7 @@ public final class LevelTasks {
     }
     PartResult result = input.size() == 0
         ? new PartResult(new long[0], new long[0], new SolveEdges(0), 0, 0)
-        : partSolver(config).solve(input, node -> superBlocks.partOfNode(node, level) == part);
+        : solver.solve(input, node -> superBlocks.partOfNode(node, level) == part);
     SolveEdges out = result.remaining();
     long edgesChecksum = EdgeFile.write(files.edges(level, part), out);
     long mergesChecksum = MergeMapFile.write(files.merges(level, part), MergeMap.of(result));
@@ -207,6 +262,12 @@ public final class LevelTasks {
    */
   public static DriverRecord driver(StitchingSetup setup, LevelFiles files, int levels,
       long[] topChecksums) {
+    return driver(setup, files, levels, topChecksums, partSolver(setup.partition()));
+  }
+
+  /** Step 2 with another part solver: that of the size filter after the solve. */
+  public static DriverRecord driver(StitchingSetup setup, LevelFiles files, int levels,
+      long[] topChecksums, PartSolver solver) {
     long start = System.nanoTime();
     long allocatedBefore = allocatedBytes();
     SuperBlocks superBlocks = superBlocks(setup);
@@ -218,7 +279,7 @@ public final class LevelTasks {
     SolveEdges whole = all.joinCopies();
     all = null;
     MergeMap merges = whole.size() == 0 ? MergeMap.EMPTY
-        : MergeMap.of(partSolver(setup.partition()).solve(whole, node -> true));
+        : MergeMap.of(solver.solve(whole, node -> true));
     int[] partOf = new int[merges.size()];
     for (int i = 0; i < partOf.length; i++) {
       partOf[i] = superBlocks.partOfNode(merges.nodes()[i], levels);

@@ -2,8 +2,12 @@ package org.sunder.stitching.solve;
 
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
 import java.util.function.IntFunction;
+import java.util.function.LongPredicate;
+import java.util.function.LongUnaryOperator;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
@@ -150,33 +154,9 @@ public final class PartInputs {
       IntFunction<SeamEdges> seamsOf) {
     boolean linkage = rows != Rows.MUTEX;
     IdLayout layout = superBlocks.layout();
-    List<EdgeStatistics> tables = new ArrayList<>(grid.blockCount() + grid.faceCount());
-    List<BlockSummary> own = new ArrayList<>();
-    for (int b = 0; b < grid.blockCount(); b++) {
-      if (superBlocks.partOfBlock(b, 1) == part) {
-        BlockSummary s = summaryOf.apply(b);
-        own.add(s);
-        tables.add(s.innerEdges());
-      } else {
-        tables.add(EdgeStatistics.empty());
-      }
-    }
-    EdgeStatistics[] faces = new EdgeStatistics[grid.faceCount()];
-    EdgeStatistics[] continued = new EdgeStatistics[grid.faceCount()];
-    Arrays.fill(faces, EdgeStatistics.empty());
-    Arrays.fill(continued, EdgeStatistics.empty());
-    for (int b : neighbourhood(grid, superBlocks, part, steps)) {
-      for (int axis = 0; axis < grid.gridShape().length; axis++) {
-        int f = grid.faceIndex(b, axis);
-        if (f >= 0) {
-          SeamEdges seam = seamsOf.apply(f);
-          faces[f] = seam.edges();
-          continued[f] = seam.continued();
-        }
-      }
-    }
-    tables.addAll(Arrays.asList(faces));
-    EdgeStatistics merged = EdgeStatistics.mergeAll(tables);
+    Tables tables = Tables.read(grid, superBlocks, part, steps, summaryOf, seamsOf);
+    List<BlockSummary> own = tables.own;
+    EdgeStatistics merged = tables.pairs;
     SolveEdges out = new SolveEdges(16);
     if (!linkage) {
       for (BlockSummary s : own) {
@@ -209,7 +189,7 @@ public final class PartInputs {
       }
     }
     if (rows == Rows.MULTICUT) {
-      EdgeStatistics joined = EdgeStatistics.mergeAll(Arrays.asList(continued));
+      EdgeStatistics joined = tables.continued;
       for (int e = 0; e < joined.size(); e++) {
         long a = joined.u(e);
         long b = joined.v(e);
@@ -221,5 +201,123 @@ public final class PartInputs {
       }
     }
     return out;
+  }
+  /**
+   * Level 1's input of {@code part} for the size filter after the solve
+   * ({@link SizeFilterPartSolver}): per pair with an end in the part its four statistics, and a
+   * joined row when the solve put both ends in one segment (the same representative; so does
+   * a continued pair the solve joined); the statistics of the part's blocks' interior edges
+   * ({@link BlockSummary#interiorEdges}); and one size row per node of the part, its rank the
+   * solve's representative (every node with a pair, and every segment the solve joined to
+   * another).
+   *
+   * @param solvedOf reads block {@code b}'s final representatives of the solve (its
+   *     {@link LevelFiles#finals} file of level 0), for the part's blocks and those a pair
+   *     reaches
+   */
+  public static SolveEdges sizeFilterLevelOne(BlockGrid grid, SuperBlocks superBlocks, int part,
+      int[] steps, IntFunction<BlockSummary> summaryOf, IntFunction<SeamEdges> seamsOf,
+      IntFunction<MergeMap> solvedOf) {
+    IdLayout layout = superBlocks.layout();
+    Tables tables = Tables.read(grid, superBlocks, part, steps, summaryOf, seamsOf);
+    Map<Integer, MergeMap> solved = new HashMap<>();
+    LongUnaryOperator rank = node -> solved.computeIfAbsent(layout.blockOf(node),
+        solvedOf::apply).apply(node);
+    LongPredicate inside = node -> superBlocks.partOfBlock(layout.blockOf(node), 1) == part;
+    SolveEdges out = new SolveEdges(16);
+    EdgeStatistics pairs = tables.pairs;
+    for (int e = 0; e < pairs.size(); e++) {
+      long a = pairs.u(e);
+      long b = pairs.v(e);
+      if (inside.test(a) || inside.test(b)) {
+        LinkagePartSolver.addPair(out, a, b, pairs.sum(e), pairs.count(e), pairs.min(e),
+            pairs.max(e), a, b);
+        if (rank.applyAsLong(a) == rank.applyAsLong(b)) {
+          SizeFilterPartSolver.addJoined(out, a, b);
+        }
+      }
+    }
+    EdgeStatistics continued = tables.continued;
+    for (int e = 0; e < continued.size(); e++) {
+      long a = continued.u(e);
+      long b = continued.v(e);
+      if ((inside.test(a) || inside.test(b))
+          && rank.applyAsLong(a) == rank.applyAsLong(b)) {
+        SizeFilterPartSolver.addJoined(out, a, b);
+      }
+    }
+    for (BlockSummary s : tables.own) {
+      EdgeStatistics interior = s.interiorEdges();
+      for (int e = 0; e < interior.size(); e++) {
+        LinkagePartSolver.addPair(out, interior.u(e), interior.v(e), interior.sum(e),
+            interior.count(e), interior.min(e), interior.max(e), interior.u(e),
+            interior.v(e));
+      }
+    }
+    long[] nodes = new long[2 * out.size()];
+    int count = 0;
+    for (int e = 0; e < out.size(); e++) {
+      for (long node : new long[] {out.u(e), out.v(e)}) {
+        if (inside.test(node)) {
+          nodes[count++] = node;
+        }
+      }
+    }
+    Map<Integer, BlockSummary> own = new HashMap<>();
+    for (BlockSummary s : tables.own) {
+      own.put(s.block(), s);
+      // every segment the solve joined to another is a node, pairs or not
+      long[] joined = solved.computeIfAbsent(s.block(), solvedOf::apply).nodes();
+      if (count + joined.length > nodes.length) {
+        nodes = Arrays.copyOf(nodes, count + joined.length);
+      }
+      System.arraycopy(joined, 0, nodes, count, joined.length);
+      count += joined.length;
+    }
+    for (long node : Arrays.stream(nodes, 0, count).sorted().distinct().toArray()) {
+      long voxels = own.get(layout.blockOf(node)).segmentSizes()[
+          (int) layout.localOf(node) - 1];
+      SizeFilterPartSolver.addNode(out, node, voxels, rank.applyAsLong(node));
+    }
+    return out;
+  }
+
+  /**
+   * What level 1 of a part reads: its blocks' summaries, and the reduced graph's pairs and
+   * continued pairs with an end near the part, merged as the single-level solve merges them.
+   */
+  private record Tables(List<BlockSummary> own, EdgeStatistics pairs,
+      EdgeStatistics continued) {
+    static Tables read(BlockGrid grid, SuperBlocks superBlocks, int part, int[] steps,
+        IntFunction<BlockSummary> summaryOf, IntFunction<SeamEdges> seamsOf) {
+      List<EdgeStatistics> tables = new ArrayList<>(grid.blockCount() + grid.faceCount());
+      List<BlockSummary> own = new ArrayList<>();
+      for (int b = 0; b < grid.blockCount(); b++) {
+        if (superBlocks.partOfBlock(b, 1) == part) {
+          BlockSummary s = summaryOf.apply(b);
+          own.add(s);
+          tables.add(s.innerEdges());
+        } else {
+          tables.add(EdgeStatistics.empty());
+        }
+      }
+      EdgeStatistics[] faces = new EdgeStatistics[grid.faceCount()];
+      EdgeStatistics[] continued = new EdgeStatistics[grid.faceCount()];
+      Arrays.fill(faces, EdgeStatistics.empty());
+      Arrays.fill(continued, EdgeStatistics.empty());
+      for (int b : neighbourhood(grid, superBlocks, part, steps)) {
+        for (int axis = 0; axis < grid.gridShape().length; axis++) {
+          int f = grid.faceIndex(b, axis);
+          if (f >= 0) {
+            SeamEdges seam = seamsOf.apply(f);
+            faces[f] = seam.edges();
+            continued[f] = seam.continued();
+          }
+        }
+      }
+      tables.addAll(Arrays.asList(faces));
+      return new Tables(own, EdgeStatistics.mergeAll(tables),
+          EdgeStatistics.mergeAll(Arrays.asList(continued)));
+    }
   }
 }

@@ -16,35 +16,31 @@ import org.sunder.blockwise.partition.sizefilter.SizeFilteredPartitioner;
  * <p>Input rows: per node (a provisional id) one {@link #SIZE} row, its voxels and its
  * <em>rank</em> (the smallest provisional id of the segment it is a piece of before filtering;
  * the filter's order and tie label); a {@link #JOINED} row for pairs of nodes that are pieces
- * of one segment (for example every node to the smallest of its segment, or every pair the
- * solve left uncut); and a pair's statistics as {@link LinkagePartSolver}'s four rows. Pieces
+ * of one segment (for example every pair the solve left uncut, or every node and the smallest
+ * of its segment); and a pair's statistics as {@link LinkagePartSolver}'s four rows. Pieces
  * with one rank are one segment.
  *
- * <p>The part joins the pieces it holds. A segment with a joined row leaving the part is
- * <em>open</em>: its size is a lower bound. It is <em>large</em> when that bound reaches the
- * filter's size, <em>unknown</em> when open and below it, <em>small</em> when closed and below
- * it. The filter acts on each connected set of small segments with the segments around it as
- * if alone (see {@link SizeFilter}: a merge elsewhere changes nothing such a set sees), so the
- * part filters every set of small segments with no pair leaving the part and no unknown
- * neighbour, exactly as the single-level filter would, ranks in the same order. The rest goes
- * up: the open pieces' joined rows, every pair leaving, and the inner pairs with an end that is
- * not large (two large segments never join), combined per pair of segments (sums in key
- * order, the smallest key kept), with one size row per segment still needed. Large segments
- * keep their rank when they absorb small ones. A part holding every node (the driver's)
- * decides everything. Results equal the single-level filter's up to the order in which
- * floating-point statistics are summed.
+ * <p>The part joins the pieces it holds. A segment is <em>small</em> when its voxels in the
+ * part are below the filter's size (with a row leaving the part, pieces outside may add more).
+ * The filter acts on each connected set of small segments with the segments around it as if
+ * alone (see {@link SizeFilter}: a merge elsewhere changes nothing such a set sees), so the
+ * part filters every such set none of whose members has a row leaving the part, exactly as the
+ * single-level filter would, ranks in the same order. (A set beside a piece of a segment that
+ * continues outside has that piece as a member, since the piece has a joined or pair row
+ * leaving.) The rest goes up: every row leaving the part, and the inner pairs with an end that
+ * is small (two large segments never join), combined per pair of segments (sums in key order,
+ * the smallest key kept), with one size row per segment those rows name. Large segments keep
+ * their rank when they absorb small ones. A part holding every node (the driver's) decides
+ * everything. Results equal the single-level filter's up to the order in which floating-point
+ * statistics are summed.
  *
  * <p>O(m log m) for the part's m rows plus the filter's O(p log p) on the pairs it decides.
  */
 public final class SizeFilterPartSolver implements PartSolver {
   /** A node's voxels (weight) and rank ({@code keyV}); a self row. */
   public static final byte SIZE = 10;
-  /** Present (weight 0) when the pair's ends are pieces of one segment. */
+  /** Present (weight 0) when the pair's ends are pieces of one segment; the last row kind. */
   public static final byte JOINED = 11;
-
-  private static final byte LARGE = 0;
-  private static final byte SMALL = 1;
-  private static final byte UNKNOWN = 2;
 
   private final SizeFilter filter;
   private final SizeFilteredPartitioner.CannotLink cannotLink;
@@ -95,12 +91,12 @@ public final class SizeFilterPartSolver implements PartSolver {
     private final int n;
     /** Per node, its segment's node (the smallest node of the segment in the part). */
     private final int[] segment;
-    /** Per segment node: voxels, rank, class, and whether a row of it leaves the part. */
+    /** Per segment node: its voxels in the part, rank, and whether a row leaves the part. */
     private final long[] size;
     private final long[] rank;
-    private final byte[] kind;
     private final boolean[] touchesOutside;
-    /** Per segment node, whether it is small and the part filters it. */
+    /** Per segment node, whether it is small, and whether the part filters it. */
+    private final boolean[] small;
     private final boolean[] decided;
 
     Run(SolveEdges rows, int[] order, PartNodes part) {
@@ -113,38 +109,39 @@ public final class SizeFilterPartSolver implements PartSolver {
       this.segment = new int[n];
       this.size = new long[n];
       this.rank = new long[n];
-      this.kind = new byte[n];
       this.touchesOutside = new boolean[n];
+      this.small = new boolean[n];
       this.decided = new boolean[n];
     }
 
     PartResult solve() {
       joinPieces();
-      int[] filtered = filterDecidable();
+      Pairs inner = Pairs.of(rows, order, iu, iv, segment);
+      int[] filtered = filterDecidable(inner);
       int[] root = new int[n];
-      for (int i = 0; i < n; i++) {
-        root[i] = UnionFind.root(filtered, segment[i]);
-      }
       long[] rep = new long[n];
       for (int i = 0; i < n; i++) {
+        root[i] = UnionFind.root(filtered, segment[i]);
         rep[i] = nodes[root[i]];
       }
-      return handUp(root, rep, filtered);
+      return handUp(root, rep);
     }
 
-    /** Joins the pieces of each segment; sizes, ranks, classes. */
+    /** Joins the pieces of each segment: sizes, ranks, which are small. */
     private void joinPieces() {
+      long[] nodeSize = new long[n];
+      long[] nodeRank = nodes.clone();
+      boolean[] hasSize = new boolean[n];
       for (int i = 0; i < n; i++) {
         segment[i] = i;
-        rank[i] = nodes[i];
       }
-      boolean[] hasSize = new boolean[n];
       for (int k = 0; k < order.length; k++) {
         int e = order[k];
         if (rows.kind(e) == SIZE && iu[k] >= 0) {
-          size[iu[k]] += (long) rows.weight(e);
-          rank[iu[k]] = hasSize[iu[k]] ? Math.min(rank[iu[k]], rows.keyV(e)) : rows.keyV(e);
-          hasSize[iu[k]] = true;
+          int i = iu[k];
+          nodeSize[i] += (long) rows.weight(e);
+          nodeRank[i] = hasSize[i] ? Math.min(nodeRank[i], rows.keyV(e)) : rows.keyV(e);
+          hasSize[i] = true;
         } else if (rows.kind(e) == JOINED && iu[k] >= 0 && iv[k] >= 0) {
           union(segment, iu[k], iv[k]);
         }
@@ -152,73 +149,47 @@ public final class SizeFilterPartSolver implements PartSolver {
       Long2IntOpenHashMap byRank = new Long2IntOpenHashMap(n);
       byRank.defaultReturnValue(-1);
       for (int i = 0; i < n; i++) {
-        int first = byRank.putIfAbsent(rank[i], i);
+        int first = byRank.putIfAbsent(nodeRank[i], i);
         if (first >= 0) {
           union(segment, first, i);
         }
       }
-      long[] total = new long[n];
-      long[] segmentRank = new long[n];
-      Arrays.fill(segmentRank, Long.MAX_VALUE);
-      boolean[] open = new boolean[n];
+      Arrays.fill(rank, Long.MAX_VALUE);
       for (int i = 0; i < n; i++) {
         segment[i] = UnionFind.root(segment, i);
-        total[segment[i]] += size[i];
-        segmentRank[segment[i]] = Math.min(segmentRank[segment[i]], rank[i]);
+        size[segment[i]] += nodeSize[i];
+        rank[segment[i]] = Math.min(rank[segment[i]], nodeRank[i]);
       }
       for (int k = 0; k < order.length; k++) {
         if ((iu[k] < 0) != (iv[k] < 0)) {
-          int s = segment[iu[k] >= 0 ? iu[k] : iv[k]];
-          touchesOutside[s] = true;
-          open[s] |= rows.kind(order[k]) == JOINED;
+          touchesOutside[segment[iu[k] >= 0 ? iu[k] : iv[k]]] = true;
         }
       }
-      System.arraycopy(total, 0, size, 0, n);
-      System.arraycopy(segmentRank, 0, rank, 0, n);
       for (int s = 0; s < n; s++) {
-        boolean below = size[s] < filter.minSize();
-        kind[s] = !below ? LARGE : open[s] ? UNKNOWN : size[s] > 0 ? SMALL : LARGE;
+        // a segment of no voxels is never merged away, unless pieces outside may add some
+        small[s] = s == segment[s] && size[s] < filter.minSize()
+            && (size[s] > 0 || touchesOutside[s]);
       }
     }
 
     /**
-     * Filters every connected set of small segments with no pair leaving the part and no
-     * unknown neighbour. Returns a union-find forest over segment nodes: the filter's merges.
+     * Filters every connected set of small segments none of which has a row leaving the part.
+     * Returns a union-find forest over segment nodes: the filter's merges.
      */
-    private int[] filterDecidable() {
-      Pairs inner = Pairs.of(rows, order, iu, iv, segment);
-      if (inner.size == 0) {
-        int[] forest = new int[n];
-        for (int s = 0; s < n; s++) {
-          forest[s] = s;
-        }
-        return forest;
-      }
-      int[] set = new int[n];
-      for (int s = 0; s < n; s++) {
-        set[s] = s;
-      }
+    private int[] filterDecidable(Pairs inner) {
+      int[] set = identity(n);
       for (int p = 0; p < inner.size; p++) {
-        if (kind[inner.a[p]] == SMALL && kind[inner.b[p]] == SMALL) {
+        if (small[inner.a[p]] && small[inner.b[p]]) {
           union(set, inner.a[p], inner.b[p]);
         }
       }
       boolean[] blocked = new boolean[n];
       for (int s = 0; s < n; s++) {
         set[s] = UnionFind.root(set, s);
-        blocked[set[s]] |= kind[s] == SMALL && touchesOutside[s];
-      }
-      for (int p = 0; p < inner.size; p++) {
-        int a = inner.a[p];
-        int b = inner.b[p];
-        if (kind[a] == SMALL && kind[b] == UNKNOWN) {
-          blocked[set[a]] = true;
-        } else if (kind[b] == SMALL && kind[a] == UNKNOWN) {
-          blocked[set[b]] = true;
-        }
+        blocked[set[s]] |= small[s] && touchesOutside[s];
       }
       for (int s = 0; s < n; s++) {
-        decided[s] = s == segment[s] && kind[s] == SMALL && !blocked[set[s]];
+        decided[s] = small[s] && !blocked[set[s]];
       }
       return filterSegments(inner);
     }
@@ -232,11 +203,9 @@ public final class SizeFilterPartSolver implements PartSolver {
       int[] used = new int[inner.size];
       int usedCount = 0;
       for (int p = 0; p < inner.size; p++) {
-        int a = inner.a[p];
-        int b = inner.b[p];
-        if ((decided[a] || decided[b]) && kind[a] != UNKNOWN && kind[b] != UNKNOWN) {
-          member[a] = true;
-          member[b] = true;
+        if (decided[inner.a[p]] || decided[inner.b[p]]) {
+          member[inner.a[p]] = true;
+          member[inner.b[p]] = true;
           used[usedCount++] = p;
         }
       }
@@ -279,10 +248,7 @@ public final class SizeFilterPartSolver implements PartSolver {
       boolean[] flags = SizeFilteredPartitioner.cannotLinkFlags(cannotLink, statistics,
           methodLinkage);
       int[] group = filter.groups(sizes, statistics, flags, null);
-      int[] forest = new int[n];
-      for (int s = 0; s < n; s++) {
-        forest[s] = s;
-      }
+      int[] forest = identity(n);
       for (int i = 0; i < count; i++) {
         union(forest, members[i], members[group[i]]);
       }
@@ -291,13 +257,14 @@ public final class SizeFilterPartSolver implements PartSolver {
 
     /**
      * The part's result: every node's representative, and for the next level the rows still
-     * needed (see the class comment). A filtered segment made only of decided small segments
+     * needed (see the class comment). A filtered segment made of decided small segments alone
      * is finished: nothing of it goes up.
      */
-    private PartResult handUp(int[] root, long[] rep, int[] filtered) {
-      // per filtered segment (at its root): the class of its undecided piece, if any
-      byte[] rootKind = new byte[n];
+    private PartResult handUp(int[] root, long[] rep) {
+      // per filtered segment (at its root): its voxels, and its undecided piece's class and rank
+      // (a filtered segment holds at most one undecided segment: the filter joins no two)
       boolean[] finished = new boolean[n];
+      boolean[] rootSmall = new boolean[n];
       long[] total = new long[n];
       long[] rootRank = new long[n];
       Arrays.fill(finished, true);
@@ -309,46 +276,44 @@ public final class SizeFilterPartSolver implements PartSolver {
         total[r] += size[s];
         if (!decided[s]) {
           finished[r] = false;
-          rootKind[r] = kind[s];
+          rootSmall[r] = small[s];
           rootRank[r] = rank[s];
         }
       }
       SolveEdges out = new SolveEdges(16);
-      boolean[] needed = new boolean[n];
-      long decided = 0;
-      long heldBack = 0;
+      boolean[] named = new boolean[n];
       for (int k = 0; k < order.length; k++) {
         int e = order[k];
         boolean innerU = iu[k] >= 0;
         boolean innerV = iv[k] >= 0;
         if (innerU != innerV) {
           out.add(rows, e, innerU ? rep[iu[k]] : rows.u(e), innerV ? rep[iv[k]] : rows.v(e));
-          needed[root[innerU ? iu[k] : iv[k]]] = true;
+          named[root[innerU ? iu[k] : iv[k]]] = true;
         }
       }
       Pairs pairs = Pairs.of(rows, order, iu, iv, root);
+      long decidedPairs = 0;
+      long heldBack = 0;
       for (int p = 0; p < pairs.size; p++) {
         int a = pairs.a[p];
         int b = pairs.b[p];
-        boolean goesUp = !finished[a] && !finished[b]
-            && (rootKind[a] != LARGE || rootKind[b] != LARGE);
-        if (goesUp) {
+        if (!finished[a] && !finished[b] && (rootSmall[a] || rootSmall[b])) {
           int first = pairs.firstRow[p];
           LinkagePartSolver.addPair(out, nodes[a], nodes[b], pairs.sum[p], pairs.count[p],
               pairs.min[p], pairs.max[p], rows.keyU(first), rows.keyV(first));
-          needed[a] = true;
-          needed[b] = true;
+          named[a] = true;
+          named[b] = true;
           heldBack += pairs.rows[p];
         } else {
-          decided += pairs.rows[p];
+          decidedPairs += pairs.rows[p];
         }
       }
       for (int r = 0; r < n; r++) {
-        if (needed[r]) {
+        if (named[r]) {
           addNode(out, nodes[r], total[r], rootRank[r]);
         }
       }
-      return PartResult.of(nodes, rep, out, decided, heldBack);
+      return PartResult.of(nodes, rep, out, decidedPairs, heldBack);
     }
   }
 
@@ -432,6 +397,14 @@ public final class SizeFilterPartSolver implements PartSolver {
       firstRow[size] = row;
       return size++;
     }
+  }
+
+  private static int[] identity(int n) {
+    int[] forest = new int[n];
+    for (int i = 0; i < n; i++) {
+      forest[i] = i;
+    }
+    return forest;
   }
 
   private static void union(int[] parent, int a, int b) {

@@ -26,8 +26,11 @@ import org.sunder.stitching.task.SeamEdges;
  * agglomeration of voxels with its linkage). The multicut of {@code fragments-multicut} on
  * summed weights runs level by level by domain decomposition ({@link MulticutPartSolver}): a
  * valid partition whose objective is close to, not equal to, the single-level one's.
- * Fragment agglomeration, whose solve first joins continued pieces, the multicut on another
- * linkage, and a size filter (it needs every final segment's neighbours) get a clear error.
+ * Fragment agglomeration, whose solve first joins continued pieces, and the multicut on another
+ * linkage get a clear error. A size filter ({@code minSegmentSize}) runs after the solve as a
+ * second pass of the same steps, its own folder ({@link LevelFiles#sizeFilter}) and part solver
+ * ({@link SizeFilterPartSolver}), whose final representatives replace the solve's: the
+ * single-level filter's result on the solve's segments.
  *
  * <p>The levels bound rows, not pairs: a pair is at most 2 Mutex Watershed rows (its largest and
  * smallest weight), 4 linkage rows and 1 multicut row, so the bound of
@@ -42,8 +45,8 @@ public final class SuperBlockSolve {
 
   /** Whether the method's solve can run level by level (else {@link #requireFits} applies). */
   public static boolean supports(PartitionConfig config) {
-    return config.minSegmentSize() <= 1 && (config.isMutexWatershed()
-        || config.method() instanceof AgglomerationMethod || isMulticut(config));
+    return config.isMutexWatershed() || config.method() instanceof AgglomerationMethod
+        || isMulticut(config);
   }
 
   /**
@@ -83,9 +86,82 @@ public final class SuperBlockSolve {
     }
     BlockGrid grid = setup.grid();
     LevelFiles files = new LevelFiles(workDir);
+    Pass solve = pass(setup, files, LevelTasks.rows(config, pairs),
+        LevelTasks.rows(config, maxDriverEdges),
+        (level, part, below) -> LevelTasks.up(setup, files, level, part, below, summaryOf,
+            seamsOf),
+        LevelTasks.partSolver(config),
+        (levels, rows) -> LevelTasks.requireDriverFits(config, levels, rows, maxDriverEdges));
+    if (solve.levels == 0) {
+      throw new IllegalArgumentException(pairs + " pairs fit under solve.maxDriverEdges = "
+          + maxDriverEdges + ": solve them whole (GlobalSolve)");
+    }
+    Pass result = solve;
+    LevelFiles idFiles = files;
+    if (config.minSegmentSize() > 1) {
+      LevelFiles filterFiles = files.sizeFilter();
+      long[] solvedChecksums = solve.blockChecksums;
+      result = pass(setup, filterFiles, LevelTasks.sizeFilterRows(pairs),
+          LevelTasks.sizeFilterRows(maxDriverEdges),
+          (level, part, below) -> LevelTasks.sizeFilterUp(setup, filterFiles, level, part,
+              below, summaryOf, seamsOf,
+              b -> MergeMapFile.read(files.finals(0, b), solvedChecksums[b])),
+          LevelTasks.sizeFilterSolver(config),
+          (levels, rows) -> LevelTasks.requireSizeFilterFits(levels, rows, maxDriverEdges));
+      // the filter's representatives include the solve's: its finals replace the solve's
+      idFiles = filterFiles;
+    }
+    long[] blockChecksums = result.blockChecksums;
+    long[] notOwned = result.notOwned;
+    int levels = solve.levels;
+    long[] segmentCounts = new long[grid.blockCount()];
+    long nodes = 0;
+    for (int b = 0; b < grid.blockCount(); b++) {
+      BlockSummary s = summaryOf.apply(b);
+      segmentCounts[b] = s.segmentCount();
+      nodes += s.boundaryLocalIds().length;
+    }
+    long[] offsets = LevelTasks.offsets(segmentCounts, notOwned);
+    List<SolvedFinalIds.BlockPart> parts = new ArrayList<>();
+    Path shares = workDir.resolve("ids");
+    for (int b = 0; b < grid.blockCount(); b++) {
+      Path file = shares.resolve(b + ".part");
+      LevelTasks.blockIds(setup, idFiles, b, offsets, blockChecksums, file);
+      parts.add(BlockIdMapFile.readPart(file, b));
+    }
+    long finalIds = offsets[grid.blockCount()];
+    SolvedFinalIds solved = SolvedFinalIds.ofParts(setup.idLayout(), segmentCounts, parts,
+        finalIds);
+    SolveReport report = new SolveReport(LevelTasks.partSolver(config).name() + " (" + levels
+        + " levels of super-blocks)", Arrays.stream(segmentCounts).sum(),
+        (int) Math.min(Integer.MAX_VALUE, nodes), (int) Math.min(Integer.MAX_VALUE, pairs),
+        finalIds, (System.nanoTime() - start) / 1e9);
+    return new GlobalSolve.Result(solved, report);
+  }
+  /**
+   * One pass's level-0 representatives: per block the checksum of its {@link LevelFiles#finals}
+   * file and its entries (segments another one represents).
+   */
+  private record Pass(int levels, long[] blockChecksums, long[] notOwned) {}
+
+  /** Step 1 of a pass for one part. */
+  private interface UpStep {
+    LevelTasks.PartRecord run(int level, int part, long[] belowChecksums);
+  }
+
+  /** The check that what the levels leave fits the driver. */
+  private interface FitCheck {
+    void require(int levels, long rows);
+  }
+
+  /**
+   * Runs a pass's steps one after another: levels up while its rows are above {@code maxRows},
+   * the driver, levels down. No level when the rows fit at once (nothing is written).
+   */
+  private static Pass pass(StitchingSetup setup, LevelFiles files, long rows, long maxRows,
+      UpStep up, PartSolver solver, FitCheck fits) {
     SuperBlocks superBlocks = LevelTasks.superBlocks(setup);
-    long maxRows = LevelTasks.rows(config, maxDriverEdges);
-    long rows = LevelTasks.rows(config, pairs);
+    int blocks = setup.grid().blockCount();
     List<long[]> mergesChecksums = new ArrayList<>();
     long[] below = new long[0];
     int level = 1;
@@ -95,8 +171,7 @@ public final class SuperBlockSolve {
       long[] edges = new long[parts];
       long[] merges = new long[parts];
       for (int p = 0; p < parts; p++) {
-        LevelTasks.PartRecord r = LevelTasks.up(setup, files, level, p, below, summaryOf,
-            seamsOf);
+        LevelTasks.PartRecord r = up.run(level, p, below);
         records.add(r);
         edges[p] = r.edgesChecksum();
         merges[p] = r.mergesChecksum();
@@ -107,14 +182,13 @@ public final class SuperBlockSolve {
       level++;
     }
     int levels = level - 1;
-    LevelTasks.requireDriverFits(config, levels, rows, maxDriverEdges);
+    fits.require(levels, rows);
     if (levels == 0) {
-      throw new IllegalArgumentException(pairs + " pairs fit under solve.maxDriverEdges = "
-          + maxDriverEdges + ": solve them whole (GlobalSolve)");
+      return new Pass(0, null, null);
     }
-    long[] finals = LevelTasks.driver(setup, files, levels, below).finalsChecksums();
-    long[] blockChecksums = new long[grid.blockCount()];
-    long[] notOwned = new long[grid.blockCount()];
+    long[] finals = LevelTasks.driver(setup, files, levels, below, solver).finalsChecksums();
+    long[] blockChecksums = new long[blocks];
+    long[] notOwned = new long[blocks];
     for (int l = levels; l >= 1; l--) {
       long[] next = new long[superBlocks.partCount(l - 1 == 0 ? 1 : l - 1)];
       for (int p = 0; p < superBlocks.partCount(l); p++) {
@@ -131,28 +205,6 @@ public final class SuperBlockSolve {
       }
       finals = next;
     }
-    long[] segmentCounts = new long[grid.blockCount()];
-    long nodes = 0;
-    for (int b = 0; b < grid.blockCount(); b++) {
-      BlockSummary s = summaryOf.apply(b);
-      segmentCounts[b] = s.segmentCount();
-      nodes += s.boundaryLocalIds().length;
-    }
-    long[] offsets = LevelTasks.offsets(segmentCounts, notOwned);
-    List<SolvedFinalIds.BlockPart> parts = new ArrayList<>();
-    Path shares = workDir.resolve("ids");
-    for (int b = 0; b < grid.blockCount(); b++) {
-      Path file = shares.resolve(b + ".part");
-      LevelTasks.blockIds(setup, files, b, offsets, blockChecksums, file);
-      parts.add(BlockIdMapFile.readPart(file, b));
-    }
-    long finalIds = offsets[grid.blockCount()];
-    SolvedFinalIds solved = SolvedFinalIds.ofParts(setup.idLayout(), segmentCounts, parts,
-        finalIds);
-    SolveReport report = new SolveReport(LevelTasks.partSolver(config).name() + " (" + levels
-        + " levels of super-blocks)", Arrays.stream(segmentCounts).sum(),
-        (int) Math.min(Integer.MAX_VALUE, nodes), (int) Math.min(Integer.MAX_VALUE, pairs),
-        finalIds, (System.nanoTime() - start) / 1e9);
-    return new GlobalSolve.Result(solved, report);
+    return new Pass(levels, blockChecksums, notOwned);
   }
 }

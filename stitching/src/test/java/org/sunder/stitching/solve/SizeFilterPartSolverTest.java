@@ -58,6 +58,13 @@ class SizeFilterPartSolverTest {
         parent[Math.max(a, b)] = Math.min(a, b);
       }
     }
+    // some pieces joined without a pair between them (as pieces joined across a face by
+    // continued voxel pairs alone): only their joined rows tell a part they are one segment
+    for (int k = 0; k < n / 10; k++) {
+      int a = UnionFind.root(parent, random.nextInt(n));
+      int b = UnionFind.root(parent, random.nextInt(n));
+      parent[Math.max(a, b)] = Math.min(a, b);
+    }
     int[] segment = new int[n];
     long[] sizes = new long[n];
     for (int i = 0; i < n; i++) {

@@ -12,6 +12,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.store.StorageFormat;
@@ -58,14 +59,19 @@ class SuperBlockSolveTest {
     return new Tables(summaries, seams, pairs);
   }
 
+  /** With and without a size filter after the solve (a second pass of levels). */
   @Test
   void mutexWatershedAndMeanAgglomerationEqualTheSingleLevelFinalIds() {
     PartitionConfig[] configs = {PartitionConfig.mutexWatershed(null, null),
-        PartitionConfig.agglomeration(Linkage.MEAN, false, null, null)};
+        PartitionConfig.agglomeration(Linkage.MEAN, false, null, null),
+        PartitionConfig.fromJson("{\"method\": \"mutex-watershed\", \"minSegmentSize\": 40}"),
+        PartitionConfig.fromJson("{\"method\": \"agglomeration\", \"linkage\": \"mean\","
+            + " \"minSegmentSize\": 40}")};
     int leveled = 0;
     for (PartitionConfig config : configs) {
       TissueScene scene = TissueScene.small(11, SHAPE, MILD);
-      Path root = dir.resolve(config.method().jsonName());
+      String name = config.method().jsonName() + config.minSegmentSize();
+      Path root = dir.resolve(name);
       SceneStore.write(scene, root, StorageFormat.ZARR, CHUNK);
       StitchingSetup setup = SceneStore.setup(scene, root, CHUNK, BLOCK, HALO, config);
       Tables t = tables(setup);
@@ -74,10 +80,10 @@ class SuperBlockSolveTest {
         GlobalSolve.Result levels;
         try {
           levels = SuperBlockSolve.run(setup, t.pairs(), bound, t.summaries()::get,
-              t.seams()::get, dir.resolve("levels-" + config.method().jsonName() + bound));
+              t.seams()::get, dir.resolve("levels-" + name + "-" + bound));
         } catch (SunderException tooSmall) {
           // the rest after every level does not fit under so low a bound: a clear error
-          assertEquals(ErrorKind.INVALID_CONFIG, tooSmall.kind());
+          assertEquals(ErrorKind.INVALID_CONFIG, tooSmall.kind(), tooSmall.getMessage());
           assertTrue(tooSmall.getMessage().contains("solve.maxDriverEdges"));
           continue;
         }
@@ -96,11 +102,12 @@ class SuperBlockSolveTest {
 
   @Test
   void fragmentAgglomerationAndAMulticutOnAnotherLinkageGetAClearError() {
-    PartitionConfig multicut = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
-    assertTrue(SuperBlockSolve.supports(multicut));
+    assertTrue(SuperBlockSolve.supports(
+        PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}")));
+    assertTrue(SuperBlockSolve.supports(
+        PartitionConfig.fromJson("{\"method\": \"fragments-multicut\", \"minSegmentSize\": 20}")));
     for (String json : new String[] {"{\"method\": \"fragments-agglomeration\"}",
-        "{\"method\": \"fragments-multicut\", \"linkage\": \"mean\"}",
-        "{\"method\": \"fragments-multicut\", \"minSegmentSize\": 20}"}) {
+        "{\"method\": \"fragments-multicut\", \"linkage\": \"mean\"}"}) {
       PartitionConfig config = PartitionConfig.fromJson(json);
       assertTrue(!SuperBlockSolve.supports(config), json);
       SunderException e = assertThrows(SunderException.class,
@@ -109,6 +116,61 @@ class SuperBlockSolveTest {
       assertTrue(e.getMessage().contains(config.method().jsonName())
           && e.getMessage().contains("solve.maxDriverEdges = 100"), e.getMessage());
     }
+  }
+
+  /**
+   * The default method's size filter after the multicut, level by level: the single-level
+   * filter ({@link FinalSizeFilter}, as {@link GlobalSolve} runs it) applied to the level-by-level
+   * multicut's segments, number for number, at every bound that fits.
+   */
+  @Test
+  void sizeFilterAfterTheMulticutLevelByLevelIsTheSingleLevelFilter() {
+    PartitionConfig config = PartitionConfig.fromJson(
+        "{\"method\": \"fragments-multicut\", \"minSegmentSize\": 60}");
+    PartitionConfig plain = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
+    TissueScene scene = TissueScene.small(11, SHAPE, MILD);
+    Path root = dir.resolve("multicut-filtered");
+    SceneStore.write(scene, root, StorageFormat.ZARR, CHUNK);
+    StitchingSetup setup = SceneStore.setup(scene, root, CHUNK, BLOCK, HALO, config);
+    StitchingSetup plainSetup = new StitchingSetup(setup.inputRoot(), setup.affinitiesPath(),
+        setup.maskPath(), setup.outputRoot(), setup.labelsPath(), setup.grid(), setup.offsets(),
+        plain);
+    Tables t = tables(setup);
+    IdLayout layout = setup.idLayout();
+    ReducedGraph graph = ReducedGraph.assemble(layout, t.summaries(), t.seams());
+    long[] segmentCounts = new long[t.summaries().size()];
+    for (BlockSummary s : t.summaries()) {
+      segmentCounts[s.block()] = s.segmentCount();
+    }
+    int leveled = 0;
+    for (long bound = t.pairs() - 1; bound >= t.pairs() / 16; bound = bound * 3 / 4) {
+      GlobalSolve.Result filtered;
+      GlobalSolve.Result multicut;
+      try {
+        filtered = SuperBlockSolve.run(setup, t.pairs(), bound, t.summaries()::get,
+            t.seams()::get, dir.resolve("filtered-" + bound));
+        multicut = SuperBlockSolve.run(plainSetup, t.pairs(), bound, t.summaries()::get,
+            t.seams()::get, dir.resolve("plain-" + bound));
+      } catch (SunderException tooSmall) {
+        assertEquals(ErrorKind.INVALID_CONFIG, tooSmall.kind(), tooSmall.getMessage());
+        continue;
+      }
+      FinalIdMap segments = multicut.finalIds();
+      int[] clusters = new int[graph.nodeCount()];
+      for (int i = 0; i < clusters.length; i++) {
+        clusters[i] = (int) segments.apply(graph.nodeIds()[i]);
+      }
+      FinalSizeFilter.Result expected = FinalSizeFilter.apply(layout, t.summaries(), graph,
+          clusters, config);
+      FinalIdMap expectedIds = GlobalSolve.solvedWithJoined(layout, segmentCounts,
+          graph.nodeIds(), expected.clusterOfNode(), expected.joinedIds(),
+          expected.joinedCluster()).toMap();
+      assertEquals(expectedIds, filtered.finalIds(), "bound " + bound);
+      assertTrue(filtered.finalIds().finalIdCount() < segments.finalIdCount(),
+          "the filter merged nothing");
+      leveled++;
+    }
+    assertTrue(leveled >= 2, leveled + " bounds fitted");
   }
 
   /**
