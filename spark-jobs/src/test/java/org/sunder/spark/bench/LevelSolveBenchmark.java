@@ -38,7 +38,9 @@ import org.sunder.stitching.solve.LevelTasks;
  * 192 and 384, blocks of 16 x 32 x 32. A scene already in {@code dir} is reused (its finished
  * tasks skipped); a bound the rest does not fit under after the levels is doubled and the solve
  * redone. The method is the Mutex Watershed, or the one named by the system property
- * {@value #METHOD_PROPERTY} (a JSON method name, e.g. {@code fragments-multicut}). Also printed:
+ * {@value #METHOD_PROPERTY} (a JSON method name, e.g. {@code fragments-multicut}, or a whole
+ * {@code "partition"} section, e.g. {@code {}} for the default method with its size filter,
+ * whose filter runs as a second pass of levels, printed apart). Also printed:
  * per level the parts' summed task time over the level's wall time (2 when both cores work the
  * whole level), and the process's CPU time over the solve stage's wall time.
  */
@@ -78,8 +80,9 @@ public final class LevelSolveBenchmark {
       SyntheticScenario.write(Container.create(root, StorageFormat.ZARR), spec,
           ScenarioOptions.defaults().withDegradation(Degradation.moderate(13))
               .withChunkShape(BLOCK_XYZ));
-      Scenes.writeConfig(config, root, BLOCK_XYZ, "{\"method\": \""
-          + System.getProperty(METHOD_PROPERTY, "mutex-watershed") + "\"}", null);
+      String method = System.getProperty(METHOD_PROPERTY, "mutex-watershed");
+      Scenes.writeConfig(config, root, BLOCK_XYZ, method.startsWith("{") ? method
+          : "{\"method\": \"" + method + "\"}", null);
     }
     String json = Files.readString(config).replaceAll(
         "\"solve\":\\s*\\{\"maxDriverEdges\":\\s*[0-9]+\\},\\s*", "");
@@ -124,7 +127,7 @@ public final class LevelSolveBenchmark {
     System.out.printf(Locale.ROOT, "volume %d x %d x %d (zyx) = %.1f M voxels, %d blocks,"
         + " bound %d pairs%n", zyx[0], zyx[1], zyx[2], voxels / 1e6, blocks, bound);
     for (String line : log.toString(StandardCharsets.UTF_8).split("\n")) {
-      if (line.startsWith("solve")) {
+      if (line.startsWith("solve") || line.startsWith("size filter")) {
         System.out.println("  " + line);
       }
     }
@@ -132,8 +135,34 @@ public final class LevelSolveBenchmark {
     StageLedger solve = work.ledger(Stage.SOLVE);
     long levelEdges = 0;
     double levelTaskSeconds = 0;
-    for (int level = 1; solve.step("up-" + level).isFinished(0); level++) {
-      StageLedger up = solve.step("up-" + level);
+    for (String pass : new String[] {"", "filter-"}) {
+      if (!solve.step(pass + "driver").isFinished(0)) {
+        continue;
+      }
+      PassFigures figures = pass(solve, pass, codec);
+      levelEdges += figures.levelEdges();
+      levelTaskSeconds += figures.taskSeconds();
+    }
+    System.out.printf(Locale.ROOT, "  ids wall %.2f s%n", wall(solve.step("ids")));
+    System.out.printf(Locale.ROOT, "  solve stage %.2f s; level tasks %.0f ns per edge; driver"
+        + " thread allocated %.1f MB over the stage (%d reduced-graph pairs: %.1f bytes per"
+        + " pair)%n", solveSeconds, 1e9 * levelTaskSeconds / levelEdges, driverAllocated / 1e6,
+        pairs, (double) driverAllocated / pairs);
+    System.out.printf(Locale.ROOT, "  solve stage: process CPU %.2f s over %.2f s wall (%.2f"
+        + " cores busy on average)%n", processCpu / 1e9, solveSeconds,
+        processCpu / 1e9 / solveSeconds);
+  }
+
+  /**
+   * Prints one pass's levels ({@code prefix} "" for the solve, "filter-" for the size filter
+   * after it), its driver and its down steps.
+   */
+  private static PassFigures pass(StageLedger solve, String prefix, PayloadCodec codec) {
+    long levelEdges = 0;
+    double levelTaskSeconds = 0;
+    String name = prefix.isEmpty() ? "solve" : "size filter";
+    for (int level = 1; solve.step(prefix + "up-" + level).isFinished(0); level++) {
+      StageLedger up = solve.step(prefix + "up-" + level);
       long edges = 0;
       double taskSeconds = 0;
       long maxAllocated = 0;
@@ -146,30 +175,26 @@ public final class LevelSolveBenchmark {
       }
       levelEdges += edges;
       levelTaskSeconds += taskSeconds;
-      System.out.printf(Locale.ROOT, "  level %d: %d tasks, %d edges, wall %.2f s, %.0f edges/s"
-          + " of task time (%.0f ns per edge), task peak allocation %.1f MB, task time over"
-          + " wall %.2f%n", level, parts, edges, wall(up), edges / taskSeconds,
+      System.out.printf(Locale.ROOT, "  %s level %d: %d tasks, %d edges, wall %.2f s, %.0f"
+          + " edges/s of task time (%.0f ns per edge), task peak allocation %.1f MB, task time"
+          + " over wall %.2f%n", name, level, parts, edges, wall(up), edges / taskSeconds,
           1e9 * taskSeconds / edges, maxAllocated / 1e6, taskSeconds / wall(up));
     }
-    LevelTasks.DriverRecord d = codec.decode(solve.step("driver").read(0),
+    LevelTasks.DriverRecord d = codec.decode(solve.step(prefix + "driver").read(0),
         LevelTasks.DriverRecord.class, "");
-    System.out.printf(Locale.ROOT, "  driver: %d edges, %.2f s, allocated %.1f MB%n", d.edges(),
-        d.seconds(), d.allocatedBytes() / 1e6);
-    System.out.printf(Locale.ROOT, "  down steps wall %.2f s, ids wall %.2f s%n",
-        downWall(solve), wall(solve.step("ids")));
-    System.out.printf(Locale.ROOT, "  solve stage %.2f s; level tasks %.0f ns per edge; driver"
-        + " thread allocated %.1f MB over the stage (%d reduced-graph pairs: %.1f bytes per"
-        + " pair)%n", solveSeconds, 1e9 * levelTaskSeconds / levelEdges, driverAllocated / 1e6,
-        pairs, (double) driverAllocated / pairs);
-    System.out.printf(Locale.ROOT, "  solve stage: process CPU %.2f s over %.2f s wall (%.2f"
-        + " cores busy on average)%n", processCpu / 1e9, solveSeconds,
-        processCpu / 1e9 / solveSeconds);
+    System.out.printf(Locale.ROOT, "  %s driver: %d edges, %.2f s, allocated %.1f MB; down"
+        + " steps wall %.2f s%n", name, d.edges(), d.seconds(), d.allocatedBytes() / 1e6,
+        downWall(solve, prefix));
+    return new PassFigures(levelEdges, levelTaskSeconds);
   }
 
-  private static double downWall(StageLedger solve) {
+  /** A pass's edges over its levels and its parts' summed task seconds. */
+  private record PassFigures(long levelEdges, double taskSeconds) {}
+
+  private static double downWall(StageLedger solve, String prefix) {
     double sum = 0;
-    for (int level = 1; solve.step("down-" + level).isFinished(0); level++) {
-      sum += wall(solve.step("down-" + level));
+    for (int level = 1; solve.step(prefix + "down-" + level).isFinished(0); level++) {
+      sum += wall(solve.step(prefix + "down-" + level));
     }
     return sum;
   }

@@ -41,6 +41,8 @@ class LevelResumeTest {
   private static final int BLOCKS = 64;
   private static final String MWS = "{\"method\": \"mutex-watershed\"}";
   private static final String MULTICUT = "{\"method\": \"fragments-multicut\"}";
+  private static final String MWS_FILTERED =
+      "{\"method\": \"mutex-watershed\", \"minSegmentSize\": 30}";
   /**
    * Bits of variation of information against the ground truth the multicut's level-by-level run
    * may lose to its single-level run on this scene. Its blocks are tiny (8 x 14 x 10 voxels), so
@@ -202,6 +204,43 @@ class LevelResumeTest {
     assertEquals(0, last.exitCode(), last.err());
     assertTrue(last.out().contains("solve driver: finished in an earlier run, skipped"),
         last.out());
+    assertUntouched(records, "last run");
+    assertEquals(reference, Scenes.chunkFiles(scene.container().resolve("segmentation")),
+        "output bytes differ from the single-level run");
+  }
+
+  /**
+   * With a size filter the level-by-level solve is followed by the filter's own steps: the run
+   * writes the single-level bytes, and a run that dies at a task of each of the filter's steps
+   * in turn resumes each time to them.
+   */
+  @Test
+  void sizeFilterStepsResumeToTheSingleLevelBytes(@TempDir Path dir) throws IOException {
+    Scenes.Scene single = Scenes.write(dir.resolve("single"), StorageFormat.ZARR,
+        Degradation.moderate(13), BLOCK_XYZ, MWS_FILTERED);
+    long bound = boundFor(single, 1);
+    List<String> reference = Scenes.chunkFiles(single.container().resolve("segmentation"));
+    Scenes.Scene scene = Scenes.write(dir.resolve("levels"), StorageFormat.ZARR,
+        Degradation.moderate(13), BLOCK_XYZ, MWS_FILTERED);
+    writeBound(scene, Files.readString(scene.config()), bound);
+    WorkDir work = workDir(scene);
+    Map<Path, FileTime> records = new HashMap<>();
+    for (String step : List.of("filter-up-1", "filter-driver", "filter-down-1", "ids")) {
+      String task = "solve-" + step + ":0";
+      CliRun died = runFailingAt(task, scene.config());
+      assertNotEquals(0, died.exitCode(), task + ":\n" + died.out());
+      assertTrue(Files.exists(work.root().resolve(".injected-failure-solve-" + step + "-0")),
+          task);
+      assertTrue(!work.ledger(Stage.SOLVE).step(step).isFinished(0), task);
+      assertUntouched(records, task);
+      records = recordTimes(work);
+    }
+    CliRun last = cli("run", scene.config().toString());
+    assertEquals(0, last.exitCode(), last.err());
+    assertTrue(last.out().contains("size filter driver: finished in an earlier run, skipped")
+        || last.out().contains("solve filter-driver: finished in an earlier run, skipped"),
+        last.out());
+    assertTrue(last.out().contains("then the size filter"), last.out());
     assertUntouched(records, "last run");
     assertEquals(reference, Scenes.chunkFiles(scene.container().resolve("segmentation")),
         "output bytes differ from the single-level run");
