@@ -151,6 +151,16 @@ public final class RunPlan {
         ByteSize.format(LevelEstimate.bytes(e.driverEdges())), e.fits() ? ""
         : "; above solve.maxDriverEdges after the last level: the solve would stop, raise the"
         + " bound or choose larger blocks"));
+    if (s.setup().partition().minSegmentSize() > 1) {
+      LevelEstimate f = LevelEstimate.sizeFilterOf(s.setup(), pairs, s.maxDriverEdges());
+      lines.add(String.format(Locale.ROOT, "           then the size filter, level by level"
+          + " from the blocks' statistics: %d levels, %d records; largest task about %d rows"
+          + " (%s), the driver's share about %d rows (%s)%s", f.levels(), f.taskRecords(),
+          f.largestTaskEdges(), ByteSize.format(LevelEstimate.bytes(f.largestTaskEdges())),
+          f.driverEdges(), ByteSize.format(LevelEstimate.bytes(f.driverEdges())), f.fits() ? ""
+          : "; above its bound after the last level: the filter would stop, raise the bound or"
+          + " choose larger blocks"));
+    }
     return lines;
   }
 

@@ -133,6 +133,16 @@ class CliOutputTest {
     assertTrue(Pattern.compile("           largest task about [0-9]+ edges \\(.+\\); the driver's"
         + " share about [0-9]+ edges \\(.+\\); above solve.maxDriverEdges after the last level")
         .matcher(out).find(), out);
+    assertTrue(!out.contains("size filter"), out);
+    // with a size filter, its own pass of levels: 4 parts up and down and the driver's record
+    Files.writeString(config, Files.readString(config).replace("\"mutex-watershed\"}",
+        "\"mutex-watershed\", \"minSegmentSize\": 30}"));
+    CliRun filtered = CliRun.withoutSpark("plan", config.toString(), "--cores", "2");
+    assertEquals(0, filtered.exitCode(), filtered.err());
+    assertTrue(Pattern.compile("           then the size filter, level by level from the blocks'"
+        + " statistics: 1 levels, 9 records; largest task about [0-9]+ rows \\(.+\\), the"
+        + " driver's share about [0-9]+ rows \\(.+\\); above its bound after the last level")
+        .matcher(filtered.out()).find(), filtered.out());
   }
 
   @Test

@@ -118,12 +118,13 @@ public final class LevelTasks {
   }
 
   /**
-   * Rows of the size filter's input for {@code pairs} reduced-graph pairs: at most four
-   * statistics and a joined row per pair and a size row per end (interior edges of small
-   * segments add a few more); saturates.
+   * Rows of the size filter for {@code pairs} reduced-graph pairs: four statistics per pair,
+   * plus joined rows, size rows and the interior edges of small segments (level 1's input of the
+   * default method on degraded synthetic tissue: 5.9 rows per pair, {@code LevelSolveBenchmark});
+   * saturates. The estimate of its input, and the bound of its driver's share.
    */
   public static long sizeFilterRows(long pairs) {
-    return pairs > Long.MAX_VALUE / 7 ? Long.MAX_VALUE : 7 * pairs;
+    return pairs > Long.MAX_VALUE / 6 ? Long.MAX_VALUE : 6 * pairs;
   }
 
   /** The row format of the run's part solver. */
