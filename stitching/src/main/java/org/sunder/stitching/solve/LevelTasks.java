@@ -120,8 +120,9 @@ public final class LevelTasks {
   /**
    * Rows of the size filter for {@code pairs} reduced-graph pairs: four statistics per pair,
    * plus joined rows, size rows and the interior edges of small segments (level 1's input of the
-   * default method on degraded synthetic tissue: 5.9 rows per pair, {@code LevelSolveBenchmark});
-   * saturates. The estimate of its input, and the bound of its driver's share.
+   * default method on degraded synthetic tissue: 4.6 rows per pair of the partition and seam
+   * records' count, {@code LevelSolveBenchmark}); saturates. The estimate of its input, and the
+   * bound of its driver's share.
    */
   public static long sizeFilterRows(long pairs) {
     return pairs > Long.MAX_VALUE / 6 ? Long.MAX_VALUE : 6 * pairs;
