@@ -84,6 +84,7 @@ final class SolveLevels {
     }
     Pass ids = solve;
     if (config.minSegmentSize() > 1) {
+      // its rows are above its bound whenever the solve's were: it runs at least one level
       ids = pass(settings, Kind.SIZE_FILTER, LevelTasks.sizeFilterRows(pairs),
           LevelTasks.sizeFilterRows(maxDriverEdges), solve.blockChecksums,
           (levels, rows) -> LevelTasks.requireSizeFilterFits(levels, rows, maxDriverEdges));
@@ -103,12 +104,9 @@ final class SolveLevels {
     for (long s : segments) {
       total += s;
     }
-    String method = LevelTasks.partSolver(config).name() + " (" + solve.levels
-        + " levels of super-blocks)" + (ids.kind == Kind.SIZE_FILTER ? ", then the "
-            + LevelTasks.sizeFilterSolver(config).name() + " (" + ids.levels + " levels)" : "");
-    return new SolveReport(method, total, (int) Math.min(Integer.MAX_VALUE, nodes),
-        (int) Math.min(Integer.MAX_VALUE, pairs), offsets[blocks],
-        (System.nanoTime() - start) / 1e9);
+    return new SolveReport(LevelTasks.methodName(config, solve.levels, ids.levels), total,
+        (int) Math.min(Integer.MAX_VALUE, nodes), (int) Math.min(Integer.MAX_VALUE, pairs),
+        offsets[blocks], (System.nanoTime() - start) / 1e9);
   }
 
   /** The two passes of steps: the solve, then the size filter after it. */

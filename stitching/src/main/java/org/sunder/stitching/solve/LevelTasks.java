@@ -32,6 +32,10 @@ import org.sunder.stitching.task.SeamEdges;
  *   <li>{@link #down}, level {@code l = L..1}, per part: the final representative of each node
  *       of the part that has another one, from its merges and what the level above wrote for
  *       it; written split per sub-part (per block at level 1).
+ *   <li>with a size filter, the same three steps again for the filter after the solve
+ *       ({@link #sizeFilterUp}, {@link #driver} with {@link #sizeFilterSolver}, {@link #down}),
+ *       their files in {@link LevelFiles#sizeFilter}; level 1 reads the solve's level-0
+ *       representatives, and the filter's replace them for the last step.
  *   <li>{@link #blockIds}, per block: the block's share of the final ids (the
  *       {@link SolvedFinalIds.BlockPart} a relabel reads), from its own file, its owners'
  *       files and the offsets, a prefix sum over one count per block ({@link #offsets}).
@@ -126,6 +130,16 @@ public final class LevelTasks {
    */
   public static long sizeFilterRows(long pairs) {
     return pairs > Long.MAX_VALUE / 6 ? Long.MAX_VALUE : 6 * pairs;
+  }
+
+  /**
+   * The solve report's method of a level-by-level solve: the part solver and its levels, and
+   * with a size filter the filter's.
+   */
+  public static String methodName(PartitionConfig config, int levels, int filterLevels) {
+    return partSolver(config).name() + " (" + levels + " levels of super-blocks)"
+        + (config.minSegmentSize() > 1 ? ", then the " + sizeFilterSolver(config).name() + " ("
+            + filterLevels + " levels)" : "");
   }
 
   /** The row format of the run's part solver. */

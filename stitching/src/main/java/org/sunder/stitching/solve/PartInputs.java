@@ -202,6 +202,7 @@ public final class PartInputs {
     }
     return out;
   }
+
   /**
    * Level 1's input of {@code part} for the size filter after the solve
    * ({@link SizeFilterPartSolver}): per pair with an end in the part its four statistics, and a
@@ -257,10 +258,11 @@ public final class PartInputs {
     long[] nodes = new long[2 * out.size()];
     int count = 0;
     for (int e = 0; e < out.size(); e++) {
-      for (long node : new long[] {out.u(e), out.v(e)}) {
-        if (inside.test(node)) {
-          nodes[count++] = node;
-        }
+      if (inside.test(out.u(e))) {
+        nodes[count++] = out.u(e);
+      }
+      if (inside.test(out.v(e))) {
+        nodes[count++] = out.v(e);
       }
     }
     Map<Integer, BlockSummary> own = new HashMap<>();

@@ -99,6 +99,7 @@ public final class SuperBlockSolve {
     Pass result = solve;
     LevelFiles idFiles = files;
     if (config.minSegmentSize() > 1) {
+      // its rows are above its bound whenever the solve's were: it runs at least one level
       LevelFiles filterFiles = files.sizeFilter();
       long[] solvedChecksums = solve.blockChecksums;
       result = pass(setup, filterFiles, LevelTasks.sizeFilterRows(pairs),
@@ -113,7 +114,6 @@ public final class SuperBlockSolve {
     }
     long[] blockChecksums = result.blockChecksums;
     long[] notOwned = result.notOwned;
-    int levels = solve.levels;
     long[] segmentCounts = new long[grid.blockCount()];
     long nodes = 0;
     for (int b = 0; b < grid.blockCount(); b++) {
@@ -132,12 +132,14 @@ public final class SuperBlockSolve {
     long finalIds = offsets[grid.blockCount()];
     SolvedFinalIds solved = SolvedFinalIds.ofParts(setup.idLayout(), segmentCounts, parts,
         finalIds);
-    SolveReport report = new SolveReport(LevelTasks.partSolver(config).name() + " (" + levels
-        + " levels of super-blocks)", Arrays.stream(segmentCounts).sum(),
+    SolveReport report = new SolveReport(
+        LevelTasks.methodName(config, solve.levels, result.levels),
+        Arrays.stream(segmentCounts).sum(),
         (int) Math.min(Integer.MAX_VALUE, nodes), (int) Math.min(Integer.MAX_VALUE, pairs),
         finalIds, (System.nanoTime() - start) / 1e9);
     return new GlobalSolve.Result(solved, report);
   }
+
   /**
    * One pass's level-0 representatives: per block the checksum of its {@link LevelFiles#finals}
    * file and its entries (segments another one represents).

@@ -34,9 +34,10 @@ import org.sunder.stitching.task.SeamTask;
 
 /**
  * The multicut by domain decomposition against the single-level multicut, on realistic tissue
- * ({@link TissuePreset}): the blockwise stages of the default method (without its size filter,
- * which has no level-by-level solve; {@code -DkernighanLin=true} refines it by Kernighan–Lin)
- * once, then the solve whole and under falling driver bounds,
+ * ({@link TissuePreset}): the blockwise stages of the default method (without its size filter;
+ * {@code -DsizeFilter=true} keeps it, so the whole default runs, the filter as its own pass of
+ * levels; {@code -DkernighanLin=true} refines the multicut by Kernighan–Lin) once, then the
+ * solve whole and under falling driver bounds,
  * and for the first bound that gives each number of levels of super-blocks: the variation of
  * information (bits, voxels weighted, background excluded) between the two segmentations, the
  * ratio of the multicut objectives on the reduced graph (the levels' over the single-level
@@ -67,8 +68,10 @@ public final class MulticutLevelsBenchmark {
     for (TissuePreset preset : presets) {
       SyntheticVolume volume = preset.volume(seed, shape);
       float[] affinities = preset.affinities(volume, seed);
-      PartitionConfig fitted = new FragmentsMulticutMethod().fittedTo(
-          volume.spec().voxelSize(), 0);
+      double[] voxelSize = volume.spec().voxelSize();
+      PartitionConfig fitted = new FragmentsMulticutMethod().fittedTo(voxelSize,
+          Boolean.getBoolean("sizeFilter") ? PartitionConfig.defaultMinSegmentSize(voxelSize)
+              : 0);
       PartitionConfig config = new PartitionConfig(fitted.method(), fitted.linkage(),
           fitted.constraints(), fitted.threshold(), fitted.weights(), fitted.subsampling(),
           fitted.fragments(), fitted.minSegmentSize(), null, Boolean.getBoolean("kernighanLin"));
