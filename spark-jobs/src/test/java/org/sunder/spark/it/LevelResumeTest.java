@@ -296,16 +296,30 @@ class LevelResumeTest {
    */
   @Test
   void killedInsideEachLevelResumesToTheSingleLevelBytes(@TempDir Path dir) throws Exception {
+    killedInsideStepsResumesToTheSingleLevelBytes(dir, MWS, 2, List.of("up-1", "up-2",
+        "down-1"));
+  }
+
+  /** As above, with a size filter: killed inside its level 1 on the way up and on the way down. */
+  @Test
+  void killedInsideTheSizeFilterResumesToTheSingleLevelBytes(@TempDir Path dir)
+      throws Exception {
+    killedInsideStepsResumesToTheSingleLevelBytes(dir, MWS_FILTERED, 1,
+        List.of("filter-up-1", "filter-down-1"));
+  }
+
+  private void killedInsideStepsResumesToTheSingleLevelBytes(Path dir, String method,
+      int levels, List<String> steps) throws Exception {
     Scenes.Scene single = Scenes.write(dir.resolve("single"), StorageFormat.ZARR,
-        Degradation.moderate(13), BLOCK_XYZ, MWS);
-    long bound = boundFor(single, 2);
+        Degradation.moderate(13), BLOCK_XYZ, method);
+    long bound = boundFor(single, levels);
     List<String> reference = Scenes.chunkFiles(single.container().resolve("segmentation"));
     Scenes.Scene scene = Scenes.write(dir.resolve("levels"), StorageFormat.ZARR,
-        Degradation.moderate(13), BLOCK_XYZ, MWS);
+        Degradation.moderate(13), BLOCK_XYZ, method);
     writeBound(scene, Files.readString(scene.config()), bound);
     WorkDir work = workDir(scene);
     Map<Path, FileTime> records = new HashMap<>();
-    for (String step : List.of("up-1", "up-2", "down-1")) {
+    for (String step : steps) {
       org.sunder.spark.workdir.StageLedger ledger = work.ledger(Stage.SOLVE).step(step);
       List<String> command = org.sunder.spark.cli.ChildCli.command("1g",
           List.of("-D" + TaskHooks.DELAY_KEY + "=300"), "run", scene.config().toString(),
@@ -330,7 +344,7 @@ class LevelResumeTest {
     assertEquals(0, last.exitCode(), last.err());
     assertTrue(last.out().contains("solve driver: finished in an earlier run, skipped"),
         last.out());
-    assertTrue(last.out().contains("solve up-1: "), last.out());
+    assertTrue(last.out().contains("solve " + steps.get(0) + ": "), last.out());
     assertUntouched(records, "last run");
     assertEquals(reference, Scenes.chunkFiles(scene.container().resolve("segmentation")),
         "output bytes differ from the single-level run");
