@@ -23,7 +23,7 @@ public record LevelEstimate(int levels, long largestTaskEdges, long driverEdges,
    * Fraction of a level's edges handed up to the next: measured 0.49 at level 1 and 0.44 at
    * level 2 (Mutex Watershed, synthetic tissue with moderate degradation, 144 blocks of
    * 16 x 32 x 32 voxels; {@code LevelSolveBenchmark}), rounded up. The size filter's pass after
-   * the default method's multicut handed up 0.31 and 0.38 of its rows at level 1 (the same
+   * the default method's multicut handed up 0.31 and 0.39 of its rows at level 1 (the same
    * tissue, 144 and 576 blocks).
    */
   public static final double HANDED_UP_PER_LEVEL = 0.5;
