@@ -137,15 +137,10 @@ public final class MulticutPartSolver implements PartSolver {
    * the part. O(m α(n)).
    */
   private static int[] joinedGroups(SolveEdges rows, int[] order, int[] iu, int[] iv, int n) {
-    int[] parent = new int[n];
-    for (int i = 0; i < n; i++) {
-      parent[i] = i;
-    }
+    int[] parent = UnionFind.singletons(n);
     for (int k = 0; k < order.length; k++) {
       if (rows.kind(order[k]) == JOINED && iu[k] >= 0 && iv[k] >= 0) {
-        int a = UnionFind.root(parent, iu[k]);
-        int b = UnionFind.root(parent, iv[k]);
-        parent[Math.max(a, b)] = Math.min(a, b);
+        UnionFind.union(parent, iu[k], iv[k]);
       }
     }
     for (int i = 0; i < n; i++) {

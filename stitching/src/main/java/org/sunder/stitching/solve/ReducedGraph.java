@@ -82,15 +82,10 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
    * continued voxel pairs: the smallest node index of its group. O(n + p α(n)).
    */
   int[] continuationGroups(long minPairs) {
-    int[] parent = new int[nodeIds.length];
-    for (int i = 0; i < parent.length; i++) {
-      parent[i] = i;
-    }
+    int[] parent = UnionFind.singletons(nodeIds.length);
     for (int e = 0; e < continued.size(); e++) {
       if (continued.count(e) >= minPairs) {
-        int a = UnionFind.root(parent, (int) continued.u(e));
-        int b = UnionFind.root(parent, (int) continued.v(e));
-        parent[Math.max(a, b)] = Math.min(a, b);
+        UnionFind.union(parent, (int) continued.u(e), (int) continued.v(e));
       }
     }
     for (int i = 0; i < parent.length; i++) {

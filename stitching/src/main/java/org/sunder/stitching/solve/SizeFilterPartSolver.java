@@ -143,7 +143,7 @@ public final class SizeFilterPartSolver implements PartSolver {
           nodeRank[i] = hasSize[i] ? Math.min(nodeRank[i], rows.keyV(e)) : rows.keyV(e);
           hasSize[i] = true;
         } else if (rows.kind(e) == JOINED && iu[k] >= 0 && iv[k] >= 0) {
-          union(segment, iu[k], iv[k]);
+          UnionFind.union(segment, iu[k], iv[k]);
         }
       }
       Long2IntOpenHashMap byRank = new Long2IntOpenHashMap(n);
@@ -151,7 +151,7 @@ public final class SizeFilterPartSolver implements PartSolver {
       for (int i = 0; i < n; i++) {
         int first = byRank.putIfAbsent(nodeRank[i], i);
         if (first >= 0) {
-          union(segment, first, i);
+          UnionFind.union(segment, first, i);
         }
       }
       Arrays.fill(rank, Long.MAX_VALUE);
@@ -177,10 +177,10 @@ public final class SizeFilterPartSolver implements PartSolver {
      * Returns a union-find forest over segment nodes: the filter's merges.
      */
     private int[] filterDecidable(Pairs inner) {
-      int[] set = identity(n);
+      int[] set = UnionFind.singletons(n);
       for (int p = 0; p < inner.size; p++) {
         if (small[inner.a[p]] && small[inner.b[p]]) {
-          union(set, inner.a[p], inner.b[p]);
+          UnionFind.union(set, inner.a[p], inner.b[p]);
         }
       }
       boolean[] blocked = new boolean[n];
@@ -248,9 +248,9 @@ public final class SizeFilterPartSolver implements PartSolver {
       boolean[] flags = SizeFilteredPartitioner.cannotLinkFlags(cannotLink, statistics,
           methodLinkage);
       int[] group = filter.groups(sizes, statistics, flags, null);
-      int[] forest = identity(n);
+      int[] forest = UnionFind.singletons(n);
       for (int i = 0; i < count; i++) {
-        union(forest, members[i], members[group[i]]);
+        UnionFind.union(forest, members[i], members[group[i]]);
       }
       return forest;
     }
@@ -397,19 +397,5 @@ public final class SizeFilterPartSolver implements PartSolver {
       firstRow[size] = row;
       return size++;
     }
-  }
-
-  private static int[] identity(int n) {
-    int[] forest = new int[n];
-    for (int i = 0; i < n; i++) {
-      forest[i] = i;
-    }
-    return forest;
-  }
-
-  private static void union(int[] parent, int a, int b) {
-    int x = UnionFind.root(parent, a);
-    int y = UnionFind.root(parent, b);
-    parent[Math.max(x, y)] = Math.min(x, y);
   }
 }

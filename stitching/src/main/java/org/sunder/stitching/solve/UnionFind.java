@@ -12,4 +12,20 @@ final class UnionFind {
     }
     return x;
   }
+
+  /** A forest of {@code n} single nodes. */
+  static int[] singletons(int n) {
+    int[] parent = new int[n];
+    for (int i = 0; i < n; i++) {
+      parent[i] = i;
+    }
+    return parent;
+  }
+
+  /** Joins the trees of {@code a} and {@code b}, the smaller root becoming the root of both. */
+  static void union(int[] parent, int a, int b) {
+    int x = root(parent, a);
+    int y = root(parent, b);
+    parent[Math.max(x, y)] = Math.min(x, y);
+  }
 }
