@@ -48,7 +48,9 @@ import org.sunder.stitching.setup.StitchingSetup;
  * (VOI, split + merge, bits) against ground truth (ground-truth background not evaluated,
  * {@code ScoreOptions.DEFAULT}); segments against ground-truth objects (both counted among
  * evaluated voxels); for blockwise runs the seam audit ({@link SeamAudit}: objects cut at block
- * faces against objects cut at as many control planes half a block away) and the VOI between
+ * faces against objects cut at as many control planes half a block away, and beside them the
+ * objects the method's whole-volume result cuts at the same face planes: what the planes cut
+ * with no block at all) and the VOI between
  * the blockwise and the whole-volume result of the same method; CPU seconds (whole volume:
  * read affinities, partition, write labels; blockwise: all four stages, same container).
  *
@@ -104,8 +106,8 @@ public final class QualityBenchmark {
    * {@link BlockwiseRuns#blockShape}).
    */
   private record Run(TissuePreset preset, long seed, String method, int requestedBlocks,
-      int actualBlocks, SegmentationScores scores, SeamAudit audit, double voiVsWhole,
-      double cpuSeconds) {}
+      int actualBlocks, SegmentationScores scores, SeamAudit audit, long wholeCutAtFaces,
+      double voiVsWhole, double cpuSeconds) {}
 
   /** The naive watershed at its fixed threshold and tuned, on one volume. */
   private record Baselines(TissuePreset preset, long seed, SegmentationScores fixed,
@@ -164,7 +166,7 @@ public final class QualityBenchmark {
             long start = cpuNanos();
             long[] whole = wholeVolume(root, shape, CHUNK, offsets, config, "whole-" + method);
             Run wholeRun = new Run(preset, seed, method, 1, 1, score(truth, whole, true), null,
-                Double.NaN, (cpuNanos() - start) / 1e9);
+                -1, Double.NaN, (cpuNanos() - start) / 1e9);
             runs.add(wholeRun);
             print(wholeRun, null);
             for (int i = 0; i < blockCounts.length; i++) {
@@ -179,6 +181,7 @@ public final class QualityBenchmark {
               long[] labels = read(setup.openLabels(), shape);
               Run run = new Run(preset, seed, method, blockCounts[i], grid.blockCount(),
                   score(truth, labels, true), SeamAudit.of(truth, labels, shape, block),
+                  SeamAudit.of(truth, whole, shape, block).objectsCutAtFaces(),
                   score(whole, labels, false).voi(), stages.total());
               runs.add(run);
               print(run, grid);
@@ -236,7 +239,7 @@ public final class QualityBenchmark {
       double seconds = (cpuNanos() - start) / 1e9;
       SegmentationScores scores = score(truth, labels, true);
       System.out.printf(Locale.ROOT, "  %-24s %5s  %s%n", "naive " + threshold, "whole",
-          figures(scores, null, Double.NaN, seconds));
+          figures(scores, null, seconds));
       if (threshold == FIXED_THRESHOLD) {
         fixed = scores;
       }
@@ -256,14 +259,16 @@ public final class QualityBenchmark {
             Arrays.toString(grid.gridShape()), Arrays.toString(grid.blockShape()),
             grid.blockCount());
     System.out.printf(Locale.ROOT, "  %-24s %5s  %s%s%n", run.method, blocks,
-        figures(run.scores, run.audit, run.voiVsWhole, run.cpuSeconds), layout);
+        figures(run.scores, run, run.cpuSeconds), layout);
   }
 
-  private static String figures(SegmentationScores s, SeamAudit audit, double voiVsWhole,
-      double seconds) {
-    String seams = audit == null ? "" : String.format(Locale.ROOT,
-        "  cut at faces %d (control %d), ~whole %.4f bits", audit.objectsCutAtFaces(),
-        audit.objectsCutAtControl(), voiVsWhole);
+  /** The scores, and a blockwise run's seam audit and distance to the whole-volume result. */
+  private static String figures(SegmentationScores s, Run blockwiseOrNull, double seconds) {
+    Run r = blockwiseOrNull;
+    String seams = r == null || r.audit == null ? "" : String.format(Locale.ROOT,
+        "  cut at faces %d (control %d, whole-volume result %d), ~whole %.4f bits",
+        r.audit.objectsCutAtFaces(), r.audit.objectsCutAtControl(), r.wholeCutAtFaces,
+        r.voiVsWhole);
     return String.format(Locale.ROOT, "ARE %.4f  VOI %.4f (split %.4f merge %.4f)  segments %d"
         + " / objects %d%s  CPU %.2f s", s.adaptedRandError(), s.voi(), s.voiSplit(),
         s.voiMerge(), s.segmentCount(), s.groundTruthObjectCount(), seams, seconds);
@@ -274,7 +279,7 @@ public final class QualityBenchmark {
       int blocks, int seedCount) {
     String[] header = {"tissue", "ARE", "naive " + FIXED_THRESHOLD + " ARE", "tuned ARE",
         "ARE / tuned", "VOI", "naive " + FIXED_THRESHOLD + " VOI", "tuned VOI", "VOI / tuned",
-        "cut faces", "control", "~whole bits", "segments", "objects", "seg / obj", "targets"};
+        "cut faces", "control", "whole-volume result", "~whole bits", "segments", "objects", "seg / obj", "targets"};
     List<String[]> rows = new ArrayList<>();
     List<String[]> targets = new ArrayList<>();
     SortedSet<Integer> actual = new TreeSet<>();
@@ -298,6 +303,7 @@ public final class QualityBenchmark {
       boolean blockwise = blocks > 1;
       double cut = blockwise ? mean(mine, r -> r.audit.objectsCutAtFaces()) : Double.NaN;
       double control = blockwise ? mean(mine, r -> r.audit.objectsCutAtControl()) : Double.NaN;
+      double wholeCut = blockwise ? mean(mine, r -> r.wholeCutAtFaces) : Double.NaN;
       double vsWhole = blockwise ? mean(mine, r -> r.voiVsWhole) : Double.NaN;
       double areRatio = are / tunedAre;
       double voiRatio = voi / tunedVoi;
@@ -315,7 +321,7 @@ public final class QualityBenchmark {
       long passed = Arrays.stream(marks).filter(m -> m.startsWith("PASS")).count();
       rows.add(new String[] {preset.presetName(), f4(are), f4(fixedAre), f4(tunedAre),
           f3(areRatio), f4(voi), f4(fixedVoi), f4(tunedVoi), f3(voiRatio), f1(cut), f1(control),
-          f4(vsWhole), f1(segments), f1(objects), f3(segmentRatio),
+          f1(wholeCut), f4(vsWhole), f1(segments), f1(objects), f3(segmentRatio),
           passed + "/" + marks.length});
       verdicts.add(preset.presetName() + ": " + String.join("; ", marks)
           + String.format(Locale.ROOT, "  (tuned thresholds %s; ARE / naive %s: %.3f,"
