@@ -5,6 +5,7 @@ import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonProperty;
 import java.io.Serializable;
 import java.util.Arrays;
+import java.util.Objects;
 import org.sunder.blockwise.ErrorKind;
 
 /**
@@ -18,19 +19,25 @@ import org.sunder.blockwise.ErrorKind;
  *       2020). {@code attractive} may be omitted: then nearest-neighbour offsets are attractive
  *       and long-range offsets repulsive.</li>
  *   <li>{@link Kind#VALUE} (JSON {@code "value"}): {@code w = logit(a) + bias[k]} with
- *       {@code a} clamped to {@code [1e-6, 1 - 1e-6]}, or {@code w = a - 0.5 + bias[k]}
- *       ({@link Transform#CENTERED}); {@code bias} may be omitted (all zero).</li>
+ *       {@code a} clamped to {@code [clamp, 1 - clamp]} (default {@value #LOGIT_EPSILON}), or
+ *       {@code w = a - 0.5 + bias[k]} ({@link Transform#CENTERED}); {@code bias} may be
+ *       omitted (all zero).</li>
  * </ul>
  *
+ * <p>The clamp bounds what one voxel edge can say: with {@code clamp = 0.01} no edge weighs
+ * more than {@code |logit(0.01)| = 4.6}, so affinities a prediction pushed to exactly 0 or 1
+ * (noise clipped to [0, 1], 8-bit values 0 and 255) count as very sure, not as 13.8 times
+ * surer than {@code a = 0.73}.
+ *
  * <p>Jackson reads it as {@code {"kind": "channel-role", "attractive": [true, false]}} or
- * {@code {"kind": "value", "transform": "logit", "bias": [0.0, -0.2]}}. Check it against the
- * offsets with {@link #validate(Offsets)}. Immutable (arrays copied).
+ * {@code {"kind": "value", "transform": "logit", "bias": [0.0, -0.2], "clamp": 0.01}}. Check
+ * it against the offsets with {@link #validate(Offsets)}. Immutable (arrays copied).
  */
 @JsonInclude(JsonInclude.Include.NON_NULL)
-public record WeightRule(Kind kind, boolean[] attractive, Transform transform, double[] bias)
-    implements Serializable {
+public record WeightRule(Kind kind, boolean[] attractive, Transform transform, double[] bias,
+    Double clamp) implements Serializable {
 
-  /** Clamp used by the logit so that {@code a = 0} and {@code a = 1} give finite weights. */
+  /** Clamp used by the logit when none is given, so that 0 and 1 give finite weights. */
   public static final double LOGIT_EPSILON = 1e-6;
 
   public enum Kind {
@@ -47,7 +54,8 @@ public record WeightRule(Kind kind, boolean[] attractive, Transform transform, d
   public WeightRule(@JsonProperty("kind") Kind kind,
       @JsonProperty("attractive") boolean[] attractive,
       @JsonProperty("transform") Transform transform,
-      @JsonProperty("bias") double[] bias) {
+      @JsonProperty("bias") double[] bias,
+      @JsonProperty("clamp") Double clamp) {
     if (kind == null) {
       throw config("weights.kind: missing; expected \"channel-role\" or \"value\"");
     }
@@ -61,25 +69,37 @@ public record WeightRule(Kind kind, boolean[] attractive, Transform transform, d
         }
       }
     }
+    if (clamp != null && (kind != Kind.VALUE || transform != Transform.LOGIT)) {
+      throw config("weights.clamp: only for {\"kind\": \"value\", \"transform\": \"logit\"}");
+    }
+    if (clamp != null && !(clamp > 0 && clamp < 0.5)) {
+      throw config("weights.clamp: " + clamp + "; expected a number in (0, 0.5)");
+    }
     this.kind = kind;
     this.attractive = attractive == null ? null : attractive.clone();
     this.transform = kind == Kind.VALUE ? transform : null;
     this.bias = bias == null ? null : bias.clone();
+    this.clamp = clamp;
   }
 
   /** Channel roles given explicitly, one per offset. */
   public static WeightRule byChannelRole(boolean[] attractive) {
-    return new WeightRule(Kind.CHANNEL_ROLE, attractive, null, null);
+    return new WeightRule(Kind.CHANNEL_ROLE, attractive, null, null, null);
   }
 
   /** Channel roles by offset: nearest-neighbour attractive, long-range repulsive. */
   public static WeightRule byChannelRole() {
-    return new WeightRule(Kind.CHANNEL_ROLE, null, null, null);
+    return new WeightRule(Kind.CHANNEL_ROLE, null, null, null, null);
   }
 
   /** Weights by value; {@code bias} may be null (all zero). */
   public static WeightRule byValue(Transform transform, double[] bias) {
-    return new WeightRule(Kind.VALUE, null, transform, bias);
+    return new WeightRule(Kind.VALUE, null, transform, bias, null);
+  }
+
+  /** Logit weights of affinities clamped to {@code [clamp, 1 - clamp]}; no bias. */
+  public static WeightRule logit(double clamp) {
+    return new WeightRule(Kind.VALUE, null, Transform.LOGIT, null, clamp);
   }
 
   @Override
@@ -134,26 +154,30 @@ public record WeightRule(Kind kind, boolean[] attractive, Transform transform, d
     if (transform == Transform.CENTERED) {
       return a - 0.5f + p;
     }
-    double c = Math.min(Math.max(a, LOGIT_EPSILON), 1 - LOGIT_EPSILON);
+    double low = clamp == null ? LOGIT_EPSILON : clamp;
+    double c = Math.min(Math.max(a, low), 1 - low);
     return (float) (Math.log(c / (1 - c)) + p);
   }
 
   @Override
   public boolean equals(Object o) {
     return o instanceof WeightRule r && kind == r.kind && transform == r.transform
-        && Arrays.equals(attractive, r.attractive) && Arrays.equals(bias, r.bias);
+        && Arrays.equals(attractive, r.attractive) && Arrays.equals(bias, r.bias)
+        && Objects.equals(clamp, r.clamp);
   }
 
   @Override
   public int hashCode() {
-    return 31 * (31 * kind.hashCode() + Arrays.hashCode(attractive)) + Arrays.hashCode(bias);
+    return Objects.hash(kind, transform, Arrays.hashCode(attractive), Arrays.hashCode(bias),
+        clamp);
   }
 
   @Override
   public String toString() {
     return "WeightRule[" + kind + (kind == Kind.VALUE ? " " + transform : "")
         + (attractive != null ? " attractive=" + Arrays.toString(attractive) : "")
-        + (bias != null ? " bias=" + Arrays.toString(bias) : "") + "]";
+        + (bias != null ? " bias=" + Arrays.toString(bias) : "")
+        + (clamp != null ? " clamp=" + clamp : "") + "]";
   }
 
   private static GraphInputException config(String message) {

@@ -71,6 +71,10 @@ class GraphValidationTest {
     GraphInputException e = assertThrows(GraphInputException.class, () -> rule.validate(OFFSETS));
     assertTrue(e.getMessage().contains("weights.bias"), e.getMessage());
     assertEquals(rule, json.readValue(json.writeValueAsString(rule), WeightRule.class));
+    WeightRule clamped = json.readValue(
+        "{\"kind\":\"value\",\"transform\":\"logit\",\"clamp\":0.01}", WeightRule.class);
+    assertEquals(WeightRule.logit(0.01), clamped);
+    assertEquals(clamped, json.readValue(json.writeValueAsString(clamped), WeightRule.class));
     Subsampling hash = json.readValue("{\"kind\":\"hash\",\"keepFraction\":0.25,\"seed\":7}",
         Subsampling.class);
     assertEquals(Subsampling.hash(0.25, 7), hash);
@@ -82,5 +86,45 @@ class GraphValidationTest {
     GraphInputException stride = assertThrows(GraphInputException.class,
         () -> Subsampling.stride(2, 2, 2).validate(OFFSETS));
     assertTrue(stride.getMessage().contains("subsampling.stride"), stride.getMessage());
+  }
+
+  @Test
+  void logitClampBoundsEveryWeight() {
+    // logit(0.01) = ln(0.01 / 0.99) = -4.59512 and logit(1e-6) = -13.81551: arithmetic facts
+    WeightRule clamped = WeightRule.logit(0.01);
+    WeightRule open = WeightRule.byValue(WeightRule.Transform.LOGIT, null);
+    assertEquals(-4.59512, clamped.weight(0f, 0f), 1e-5);
+    assertEquals(4.59512, clamped.weight(1f, 0f), 1e-5);
+    assertEquals(-13.81551, open.weight(0f, 0f), 1e-4);
+    java.util.Random random = new java.util.Random(5);
+    for (int i = 0; i < 1000; i++) {
+      float a = random.nextFloat();
+      float bias = (float) random.nextGaussian();
+      double expected = Math.log(Math.min(Math.max(a, 0.01), 0.99)
+          / (1 - Math.min(Math.max(a, 0.01), 0.99))) + bias;
+      assertEquals(expected, clamped.weight(a, bias), 1e-5, "a = " + a);
+      if (a >= 0.01 && a <= 0.99) {
+        assertEquals(open.weight(a, bias), clamped.weight(a, bias), 0f, "inside the clamp");
+      }
+    }
+  }
+
+  @Test
+  void logitClampIsRefusedOutsideItsRangeAndForOtherRules() {
+    ObjectMapper json = new ObjectMapper();
+    for (String clamp : new String[] {"0", "0.5", "-0.1", "2"}) {
+      Exception e = assertThrows(Exception.class, () -> json.readValue(
+          "{\"kind\":\"value\",\"transform\":\"logit\",\"clamp\":" + clamp + "}",
+          WeightRule.class));
+      assertTrue(String.valueOf(e.getMessage()).contains("weights.clamp: " + Double.valueOf(clamp)),
+          e.getMessage());
+    }
+    for (String rule : new String[] {"{\"kind\":\"value\",\"transform\":\"centered\"",
+        "{\"kind\":\"channel-role\""}) {
+      Exception e = assertThrows(Exception.class,
+          () -> json.readValue(rule + ",\"clamp\":0.01}", WeightRule.class));
+      assertTrue(String.valueOf(e.getMessage()).contains("weights.clamp: only for"),
+          e.getMessage());
+    }
   }
 }

@@ -48,6 +48,21 @@ class PartitionConfigTest {
   }
 
   @Test
+  void theMulticutClampsItsLogitsAndTheOtherValueMethodsDoNot() throws Exception {
+    assertEquals(WeightRule.logit(FragmentsMulticutMethod.LOGIT_CLAMP),
+        PartitionConfig.robustDefault(new double[] {8, 8, 32}).weights());
+    PartitionConfig named = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}");
+    assertEquals(WeightRule.logit(FragmentsMulticutMethod.LOGIT_CLAMP), named.weights());
+    assertEquals(named, PartitionConfig.fromJson(new ObjectMapper().writeValueAsString(named)));
+    assertEquals(WeightRule.byValue(WeightRule.Transform.LOGIT, null), PartitionConfig.fromJson(
+        "{\"method\": \"fragments-agglomeration\"}").weights());
+    PartitionConfig own = PartitionConfig.fromJson("{\"method\": \"fragments-multicut\","
+        + " \"weights\": {\"kind\": \"value\", \"transform\": \"logit\"}}");
+    assertEquals(WeightRule.byValue(WeightRule.Transform.LOGIT, null), own.weights(),
+        "a configuration's own rule is kept");
+  }
+
+  @Test
   void sizeFilterRuleIsReadValidatedAndRoundTrips() throws Exception {
     PartitionConfig strict = PartitionConfig.fromJson("{\"method\": \"mutex-watershed\","
         + " \"minSegmentSize\": 30, \"sizeFilter\": \"within-constraints\"}");
