@@ -39,8 +39,8 @@ public record FragmentsMulticutMethod() implements PartitionMethod {
    * Logit weights of affinities clamped to {@code [LOGIT_CLAMP, 1 - LOGIT_CLAMP]}, so that no
    * voxel edge adds more than 4.6 to a multicut cost. Measured on the realistic presets (whole
    * volume, seeds 1–3): against the clamp of {@link WeightRule#LOGIT_EPSILON}, 0.003, 0.01 and
-   * 0.05 each lower the adapted Rand error on dense neurites and on bodies and neurites by
-   * 4–12 % on every seed and leave compact cells within 0.002 (see README, "Choosing a
+   * 0.05 each lower the adapted Rand error on dense neurites and on bodies and neurites on
+   * every seed, by 3–16 %, and leave compact cells within 0.002 (see README, "Choosing a
    * method").
    */
   public static final double LOGIT_CLAMP = 0.01;
