@@ -279,7 +279,8 @@ public final class QualityBenchmark {
       int blocks, int seedCount) {
     String[] header = {"tissue", "ARE", "naive " + FIXED_THRESHOLD + " ARE", "tuned ARE",
         "ARE / tuned", "VOI", "naive " + FIXED_THRESHOLD + " VOI", "tuned VOI", "VOI / tuned",
-        "cut faces", "control", "whole-volume result", "~whole bits", "segments", "objects", "seg / obj", "targets"};
+        "cut faces", "control", "whole-volume result", "~whole bits", "segments", "objects",
+        "seg / obj", "targets"};
     List<String[]> rows = new ArrayList<>();
     List<String[]> targets = new ArrayList<>();
     SortedSet<Integer> actual = new TreeSet<>();
