@@ -31,12 +31,18 @@ public record CliRun(int exitCode, String out, String err) {
 
   /**
    * Waits until a shared context runs no task. When a job fails, Spark cancels its other tasks
-   * asynchronously; one still writing would race whatever the test reads or removes next.
+   * asynchronously; one still writing would race whatever the test reads or removes next. The
+   * status tracker learns of a task's start through the listener bus, after the task's thread
+   * may have begun, so the executor threads themselves are checked too (local mode runs them in
+   * this JVM), and the quiet must hold over several polls.
    */
   public static void awaitNoRunningTasks(JavaSparkContext spark) {
     long deadline = System.nanoTime() + 60_000_000_000L;
-    while (System.nanoTime() < deadline && java.util.Arrays.stream(spark.statusTracker()
-        .getExecutorInfos()).anyMatch(e -> e.numRunningTasks() > 0)) {
+    int quietPolls = 0;
+    while (quietPolls < 4 && System.nanoTime() < deadline) {
+      boolean busy = java.util.Arrays.stream(spark.statusTracker().getExecutorInfos())
+          .anyMatch(e -> e.numRunningTasks() > 0) || anyThreadRunsATask();
+      quietPolls = busy ? 0 : quietPolls + 1;
       try {
         Thread.sleep(50);
       } catch (InterruptedException e) {
@@ -44,5 +50,18 @@ public record CliRun(int exitCode, String out, String err) {
         return;
       }
     }
+  }
+
+  /** Whether a thread of this JVM is inside a Spark executor's task runner. */
+  private static boolean anyThreadRunsATask() {
+    for (StackTraceElement[] stack : Thread.getAllStackTraces().values()) {
+      for (StackTraceElement frame : stack) {
+        if (frame.getClassName().equals("org.apache.spark.executor.Executor$TaskRunner")
+            && frame.getMethodName().equals("run")) {
+          return true;
+        }
+      }
+    }
+    return false;
   }
 }
