@@ -24,14 +24,18 @@ import org.sunder.blockwise.partition.multicut.Multicut;
  * its ends are joined before the multicut, as the single-level solve joins them first; a joined
  * pair leaving a part is joined at the level where both its ends meet.
  *
- * <p>A group of joined nodes with any pair leaving the part is held back, as a block holds back
- * what leans on its halo: it is left out of the part's multicut, stays a node of its own, and
- * all its pairs go up. Its joins would lean on pairs the part cannot see (a joined pair leaving
- * makes it only a piece of a node of the whole problem; a cost pair leaving lets the whole
- * problem's contraction reach it from outside first). Contracting it anyway measured 11 % off
- * the single-level objective on undegraded synthetic tissue for joined pieces; for cost pairs,
- * on the tissue presets (seed 1, 768 blocks, 1–3 levels), 0.15–0.22 bits of variation of
- * information from the single level on dense neurites and bodies, against 0.06–0.08 held back
+ * <p>A group of joined nodes with any pair leaving the part is <em>open</em>, and held back as
+ * a block holds back what leans on its halo: it takes part in the part's multicut, but the
+ * cluster it lands in is given back as its groups (nothing in it is contracted), as a block
+ * gives back a cluster that holds an open voxel as its fragments. Such a cluster's joins lean
+ * on pairs the part cannot see (a joined pair leaving makes the group only a piece of a node of
+ * the whole problem; a cost pair leaving lets the whole problem's contraction reach it from
+ * outside first). Contracting open groups anyway measured 11 % off the single-level objective on
+ * undegraded synthetic tissue for joined pieces; for cost pairs, on the tissue presets (seed 1,
+ * 768 blocks, 1–3 levels), 0.15–0.22 bits of variation of information from the single level on
+ * dense neurites and bodies. Leaving only the open groups out of the part's multicut and
+ * contracting the rest (the earlier rule) measured 0.039–0.078 bits there: the other nodes of
+ * an open group's object were still decided without the pairs it has outside
  * ({@code MulticutLevelsBenchmark}). Only the sum linkage (the multicut's default) has this
  * additive form; other linkages stay on the driver.
  *
@@ -94,7 +98,7 @@ public final class MulticutPartSolver implements PartSolver {
     boolean[] open = openGroups(iu, iv, group);
     int[] cluster = multicut(rows, order, iu, iv, group, open);
     long[] rep = new long[n];
-    int[] smallest = new int[n];
+    int[] smallest = new int[2 * n];
     Arrays.fill(smallest, -1);
     for (int i = 0; i < n; i++) {
       if (smallest[cluster[i]] < 0) {
@@ -164,16 +168,15 @@ public final class MulticutPartSolver implements PartSolver {
   }
 
   /**
-   * The multicut of the part's inner pairs, their ends moved to their joined group's node, held
-   * back (open) groups left out (each stays a cluster of its own, all its pairs handed up): per
-   * node, its cluster (0..k-1). O(m log m) plus the multicut.
+   * The multicut of the part's inner pairs, their ends moved to their joined group's node; a
+   * cluster that holds an open group is given back as its groups (each its own cluster, all
+   * their pairs handed up): per node, its cluster (0..2n-1). O(m log m) plus the multicut.
    */
   private int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,
       boolean[] open) {
     int inner = 0;
     for (int k = 0; k < order.length; k++) {
-      if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0 && !open[group[iu[k]]]
-          && !open[group[iv[k]]]) {
+      if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0) {
         inner++;
       }
     }
@@ -182,8 +185,7 @@ public final class MulticutPartSolver implements PartSolver {
     double[] w = new double[inner];
     inner = 0;
     for (int k = 0; k < order.length; k++) {
-      if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0 && !open[group[iu[k]]]
-          && !open[group[iv[k]]]) {
+      if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0) {
         a[inner] = group[iu[k]];
         b[inner] = group[iv[k]];
         w[inner++] = rows.weight(order[k]);
@@ -191,9 +193,17 @@ public final class MulticutPartSolver implements PartSolver {
     }
     EdgeStatistics costs = EdgeStatistics.ofEdges(a, b, w);
     int[] labels = Multicut.ofLinkage(group.length, costs, Linkage.SUM, 0, kernighanLin).labels();
-    int[] cluster = new int[group.length];
-    for (int i = 0; i < group.length; i++) {
-      cluster[i] = labels[group[i]];
+    int n = group.length;
+    boolean[] givenBack = new boolean[n];
+    for (int i = 0; i < n; i++) {
+      if (open[group[i]]) {
+        givenBack[labels[group[i]]] = true;
+      }
+    }
+    int[] cluster = new int[n];
+    for (int i = 0; i < n; i++) {
+      int label = labels[group[i]];
+      cluster[i] = givenBack[label] ? n + group[i] : label;
     }
     return cluster;
   }

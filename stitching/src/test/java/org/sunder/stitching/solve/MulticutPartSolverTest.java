@@ -126,14 +126,15 @@ class MulticutPartSolverTest {
   }
 
   /**
-   * Tolerance: the decomposed objective summed over the trials is at least 97% of the
-   * single-level one's (both negative: a larger magnitude is better), and each trial's at least
-   * 70%. A part decides its inner pairs without the pairs leaving it, so a contraction it makes
-   * can be one the whole graph would not make, and on graphs of a few dozen nodes one such
-   * contraction is a large share of the objective. Measured on these graphs (noisy weights, 15%
-   * of signs flipped, 1 to 3 levels): 99.9% summed, worst trial 93%, 24 of 200 trials differ
-   * from the single-level partition (99.8%, 81% and 39 before nodes with pairs leaving their
-   * part were held back). A cost lost or counted twice on the way up moves the sum by far more.
+   * Tolerance: the decomposed objective summed over the trials is at least 99% of the
+   * single-level one's (both negative: a larger magnitude is better), each trial's at least 90%,
+   * and at most 10 of the 200 trials differ from the single-level partition. A part decides its
+   * inner pairs without the pairs leaving it, so a contraction it makes can be one the whole
+   * graph would not make; on graphs of a few dozen nodes one such contraction is a large share
+   * of the objective. Measured on these graphs (noisy weights, 15% of signs flipped, 1 to 3
+   * levels): no trial differs (24 did, at 99.9% summed and 93% worst, while a part still
+   * contracted the rest of a cluster that held an open group, and 39 before open groups were
+   * held back at all). A cost lost or counted twice on the way up moves the sum by far more.
    */
   @Test
   void decomposedIsAValidPartitionNearTheSingleLevelObjective() {
@@ -142,6 +143,7 @@ class MulticutPartSolverTest {
     double decomposed = 0;
     double worst = 1;
     int leveled = 0;
+    int differ = 0;
     for (int trial = 0; trial < 200; trial++) {
       BlockGrid grid = RandomReducedGraphs.grid(2 + random.nextInt(6), 1 + random.nextInt(5),
           1 + random.nextInt(3));
@@ -164,12 +166,14 @@ class MulticutPartSolverTest {
         worst = Math.min(worst, d / s);
       }
       leveled += solver.lastResult().levels().isEmpty() ? 0 : 1;
+      differ += Arrays.equals(expected, actual) ? 0 : 1;
     }
-    // a node with a pair leaving its part is held back, so on graphs this small many trials
-    // fit the driver only without levels; 120 of the 200 use one
-    assertTrue(leveled >= 100, "trials that used a level: " + leveled);
-    assertTrue(decomposed / single >= 0.97, "objective ratio " + decomposed / single);
-    assertTrue(worst >= 0.7, "worst trial's objective ratio " + worst);
+    // a cluster holding an open group is given back whole, so on graphs this small many trials
+    // fit the driver only without levels; 94 of the 200 use one
+    assertTrue(leveled >= 80, "trials that used a level: " + leveled);
+    assertTrue(decomposed / single >= 0.99, "objective ratio " + decomposed / single);
+    assertTrue(worst >= 0.9, "worst trial's objective ratio " + worst);
+    assertTrue(differ <= 10, "trials whose partition differs: " + differ);
   }
 
   /**
