@@ -24,19 +24,20 @@ import org.sunder.blockwise.partition.multicut.Multicut;
  * its ends are joined before the multicut, as the single-level solve joins them first; a joined
  * pair leaving a part is joined at the level where both its ends meet.
  *
- * <p>A group of joined nodes with any pair leaving the part is <em>open</em>, and held back as
- * a block holds back what leans on its halo: it takes part in the part's multicut, but the
- * cluster it lands in is given back as its groups (nothing in it is contracted), as a block
- * gives back a cluster that holds an open voxel as its fragments. Such a cluster's joins lean
- * on pairs the part cannot see (a joined pair leaving makes the group only a piece of a node of
- * the whole problem; a cost pair leaving lets the whole problem's contraction reach it from
- * outside first). Contracting open groups anyway measured 11 % off the single-level objective on
+ * <p>A group of joined nodes with any pair leaving the part is <em>open</em> and held back, as
+ * a block holds back what leans on its halo: it takes part in the part's multicut, so the other
+ * nodes decide with its pairs in view, but it is never contracted: it stays a node of its own
+ * and all its pairs go up; the rest of its cluster is contracted. Its joins would lean on pairs
+ * the part cannot see (a joined pair leaving makes it only a piece of a node of the whole
+ * problem; a cost pair leaving lets the whole problem's contraction reach it from outside
+ * first). Contracting open groups anyway measured 11 % off the single-level objective on
  * undegraded synthetic tissue for joined pieces; for cost pairs, on the tissue presets (seed 1,
  * 768 blocks, 1–3 levels), 0.15–0.22 bits of variation of information from the single level on
- * dense neurites and bodies. Leaving only the open groups out of the part's multicut and
- * contracting the rest (the earlier rule) measured 0.039–0.078 bits there: the other nodes of
- * an open group's object were still decided without the pairs it has outside
- * ({@code MulticutLevelsBenchmark}). Only the sum linkage (the multicut's default) has this
+ * dense neurites and bodies; leaving them out of the part's multicut as well (the earlier rule)
+ * 0.039–0.078 bits, against 0.021–0.022 now ({@code MulticutLevelsBenchmark}). Giving back the
+ * whole cluster of an open group measured 0.006–0.007 bits, but left the driver four times the
+ * pairs (27 % of the reduced graph after 3 levels, against 6 %): an object that crosses parts
+ * would reach the driver as all its nodes. Only the sum linkage (the multicut's default) has this
  * additive form; other linkages stay on the driver.
  *
  * <p>Pairs leaving the part are handed up one row per pair, never combined, so the copies the
@@ -168,9 +169,9 @@ public final class MulticutPartSolver implements PartSolver {
   }
 
   /**
-   * The multicut of the part's inner pairs, their ends moved to their joined group's node; a
-   * cluster that holds an open group is given back as its groups (each its own cluster, all
-   * their pairs handed up): per node, its cluster (0..2n-1). O(m log m) plus the multicut.
+   * The multicut of the part's inner pairs, their ends moved to their joined group's node; each
+   * open group then leaves its cluster and stays one of its own (all its pairs handed up): per
+   * node, its cluster (0..2n-1). O(m log m) plus the multicut.
    */
   private int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,
       boolean[] open) {
@@ -194,16 +195,9 @@ public final class MulticutPartSolver implements PartSolver {
     EdgeStatistics costs = EdgeStatistics.ofEdges(a, b, w);
     int[] labels = Multicut.ofLinkage(group.length, costs, Linkage.SUM, 0, kernighanLin).labels();
     int n = group.length;
-    boolean[] givenBack = new boolean[n];
-    for (int i = 0; i < n; i++) {
-      if (open[group[i]]) {
-        givenBack[labels[group[i]]] = true;
-      }
-    }
     int[] cluster = new int[n];
     for (int i = 0; i < n; i++) {
-      int label = labels[group[i]];
-      cluster[i] = givenBack[label] ? n + group[i] : label;
+      cluster[i] = open[group[i]] ? n + group[i] : labels[group[i]];
     }
     return cluster;
   }
