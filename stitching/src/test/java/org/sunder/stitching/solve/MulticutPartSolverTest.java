@@ -250,6 +250,31 @@ class MulticutPartSolverTest {
     assertTrue(leveled >= 30, "trials that used a level: " + leveled);  // 41 of the 80
   }
 
+  /**
+   * An open node (3, with a pair to node 9 outside the part) takes part in the part's multicut:
+   * node 1 joins it first (cost 5), and the joined pair then repels node 2 (1 − 10), as in the
+   * whole graph; left out, it would let 1 and 2 contract on their own cost of 1. It is never
+   * contracted itself, while the rest of its cluster is. Worked by hand.
+   */
+  @Test
+  void anOpenNodeTakesPartButStaysItsOwnNode() {
+    SolveEdges repelled = new SolveEdges(4);
+    MulticutPartSolver.addPair(repelled, 1, 2, 1);
+    MulticutPartSolver.addPair(repelled, 1, 3, 5);
+    MulticutPartSolver.addPair(repelled, 2, 3, -10);
+    MulticutPartSolver.addPair(repelled, 3, 9, 1);
+    PartResult none = new MulticutPartSolver(false).solve(repelled, node -> node < 9);
+    assertArrayEquals(new long[0], none.merged());
+
+    SolveEdges joined = new SolveEdges(3);
+    MulticutPartSolver.addPair(joined, 1, 2, 5);
+    MulticutPartSolver.addPair(joined, 2, 3, 1);
+    MulticutPartSolver.addPair(joined, 3, 9, 1);
+    PartResult rest = new MulticutPartSolver(false).solve(joined, node -> node < 9);
+    assertArrayEquals(new long[] {2}, rest.merged());
+    assertArrayEquals(new long[] {1}, rest.representative());
+  }
+
   @Test
   void aRowOfAnotherSolverIsRefused() {
     SolveEdges rows = new SolveEdges(1);
