@@ -144,7 +144,8 @@ public final class RunPlan {
     List<String> lines = new ArrayList<>();
     lines.add(String.format(Locale.ROOT, "levels     the solve runs level by level over"
         + " super-blocks: %d levels (each taken to hand up %s of its edges), %s records",
-        e.levels(), trim(LevelEstimate.HANDED_UP_PER_LEVEL), e.taskRecords()));
+        e.levels(), trim(LevelEstimate.handedUpPerLevel(s.setup().partition())),
+        e.taskRecords()));
     lines.add(String.format(Locale.ROOT, "           largest task about %d edges (%s); the"
         + " driver's share about %d edges (%s)%s", e.largestTaskEdges(),
         ByteSize.format(LevelEstimate.bytes(e.largestTaskEdges())), e.driverEdges(),

@@ -7,7 +7,8 @@ import org.sunder.stitching.setup.StitchingSetup;
  * The shape of the level-by-level solve before it runs, for {@code plan}: how many levels a
  * reduced graph of a given size needs under the driver bound, the largest task's graph, and the
  * driver's share. A model, not a measurement: each level is taken to hand up
- * {@value #HANDED_UP_PER_LEVEL} of its graph's edges, and a part to hold its blocks' share of
+ * {@value #HANDED_UP_PER_LEVEL} of its graph's edges ({@value #MULTICUT_HANDED_UP_PER_LEVEL} for
+ * the multicut), and a part to hold its blocks' share of
  * the level's edges times {@value #LARGEST_PART_SKEW} (the largest part against the mean).
  *
  * @param levels levels of super-blocks (0 when the graph fits on the driver at once)
@@ -27,6 +28,12 @@ public record LevelEstimate(int levels, long largestTaskEdges, long driverEdges,
    * tissue, 144 and 576 blocks).
    */
   public static final double HANDED_UP_PER_LEVEL = 0.5;
+  /**
+   * The same for the multicut by domain decomposition, whose parts never contract a node with a
+   * pair leaving them: measured 0.66 and 0.68 at levels 1 and 2 (144 blocks) and 0.74, 0.66 and
+   * 0.82 at levels 1 to 3 (576 blocks) on that tissue, rounded up.
+   */
+  public static final double MULTICUT_HANDED_UP_PER_LEVEL = 0.8;
   /** The largest part's edges against the mean part's: measured 1.4 (level 1), 1.9 (level 2). */
   public static final double LARGEST_PART_SKEW = 2.0;
   /**
@@ -39,7 +46,7 @@ public record LevelEstimate(int levels, long largestTaskEdges, long driverEdges,
   public static LevelEstimate of(StitchingSetup setup, long pairs, long maxDriverEdges) {
     PartitionConfig config = setup.partition();
     LevelEstimate e = estimate(setup, LevelTasks.rows(config, pairs),
-        LevelTasks.rows(config, maxDriverEdges));
+        LevelTasks.rows(config, maxDriverEdges), handedUpPerLevel(config));
     // the per-block records of the final ids
     return e.levels() == 0 ? e : new LevelEstimate(e.levels(), e.largestTaskEdges(),
         e.driverEdges(), e.fits(), e.taskRecords() + setup.grid().blockCount());
@@ -52,12 +59,19 @@ public record LevelEstimate(int levels, long largestTaskEdges, long driverEdges,
   public static LevelEstimate sizeFilterOf(StitchingSetup setup, long pairs,
       long maxDriverEdges) {
     LevelEstimate e = estimate(setup, LevelTasks.sizeFilterRows(pairs),
-        LevelTasks.sizeFilterRows(maxDriverEdges));
+        LevelTasks.sizeFilterRows(maxDriverEdges), HANDED_UP_PER_LEVEL);
     return new LevelEstimate(e.levels(), e.largestTaskEdges(), e.driverEdges(), e.fits(),
         e.taskRecords() - 1);
   }
 
-  private static LevelEstimate estimate(StitchingSetup setup, double rows, long maxRows) {
+  /** The fraction of a level's edges the model takes the run's method to hand up. */
+  public static double handedUpPerLevel(PartitionConfig config) {
+    return SuperBlockSolve.isMulticut(config) ? MULTICUT_HANDED_UP_PER_LEVEL
+        : HANDED_UP_PER_LEVEL;
+  }
+
+  private static LevelEstimate estimate(StitchingSetup setup, double rows, long maxRows,
+      double handedUp) {
     SuperBlocks superBlocks = LevelTasks.superBlocks(setup);
     long largest = 0;
     long records = 1;
@@ -66,7 +80,7 @@ public record LevelEstimate(int levels, long largestTaskEdges, long driverEdges,
       int parts = superBlocks.partCount(level);
       largest = Math.max(largest, (long) (rows / parts * LARGEST_PART_SKEW));
       records += 2L * parts;
-      rows *= HANDED_UP_PER_LEVEL;
+      rows *= handedUp;
       level++;
     }
     int levels = level - 1;

@@ -137,6 +137,30 @@ class LevelTasksTest {
     }
   }
 
+  /**
+   * The plan's model hands up half of a level's edges, and 0.8 for the default method's
+   * multicut, whose parts hold back every node with a pair leaving them: the driver's share is
+   * the method's rows times that fraction per level.
+   */
+  @Test
+  void thePlansModelTakesTheMulticutToHandUpMorePerLevel() {
+    TissueScene scene = TissueScene.small(11, SHAPE, MILD);
+    Path root = dir.resolve("scene");
+    SceneStore.write(scene, root, StorageFormat.ZARR, CHUNK);
+    long pairs = 1_000_000;
+    long bound = 100_000;
+    for (PartitionConfig config : List.of(PartitionConfig.mutexWatershed(null,
+        Subsampling.none()), PartitionConfig.robustDefault(null))) {
+      StitchingSetup setup = SceneStore.setup(scene, root, CHUNK, BLOCK, HALO, config);
+      double handedUp = LevelEstimate.handedUpPerLevel(config);
+      assertEquals(config.isMutexWatershed() ? 0.5 : 0.8, handedUp);
+      LevelEstimate estimate = LevelEstimate.of(setup, pairs, bound);
+      assertEquals(2, estimate.levels(), config.method().jsonName());  // 1 part at level 3
+      assertEquals(LevelTasks.rows(config, pairs) * Math.pow(handedUp, 2),
+          estimate.driverEdges(), 1.0, config.method().jsonName());
+    }
+  }
+
   @Test
   void subPartsFromTheGridsShapeAreTheChildrenFoundFromEveryBlock() {
     // a grid of 7 x 5 x 3 blocks: cut-off super-blocks along every axis
