@@ -8,8 +8,8 @@ import org.sunder.stitching.setup.StitchingSetup;
  * reduced graph of a given size needs under the driver bound, the largest task's graph, and the
  * driver's share. A model, not a measurement: each level is taken to hand up
  * {@value #HANDED_UP_PER_LEVEL} of its graph's edges ({@value #MULTICUT_HANDED_UP_PER_LEVEL} for
- * the multicut), and a part to hold its blocks' share of
- * the level's edges times {@value #LARGEST_PART_SKEW} (the largest part against the mean).
+ * the multicut), and a part to hold its blocks' share of the level's edges times
+ * {@value #LARGEST_PART_SKEW} (the largest part against the mean).
  *
  * @param levels levels of super-blocks (0 when the graph fits on the driver at once)
  * @param largestTaskEdges edges (rows) of the largest part of any level

@@ -27,19 +27,19 @@ import org.sunder.blockwise.partition.multicut.Multicut;
  * <p>A group of joined nodes with any pair leaving the part is <em>open</em> and held back, as
  * a block holds back what leans on its halo: it takes part in the part's multicut, so the other
  * nodes decide with its pairs in view, but it is never contracted: it stays a node of its own
- * and all its pairs go up; the rest of its cluster is contracted, each piece its inner pairs
- * connect on its own (pieces joined only through the open group may end in different
- * segments). Its joins would lean on pairs
- * the part cannot see (a joined pair leaving makes it only a piece of a node of the whole
- * problem; a cost pair leaving lets the whole problem's contraction reach it from outside
- * first). Contracting open groups anyway measured 11 % off the single-level objective on
- * undegraded synthetic tissue for joined pieces; for cost pairs, on the tissue presets (seed 1,
- * 768 blocks, 1–3 levels), 0.15–0.22 bits of variation of information from the single level on
- * dense neurites and bodies; leaving them out of the part's multicut as well (the earlier rule)
- * 0.039–0.078 bits, against 0.021–0.022 now ({@code MulticutLevelsBenchmark}). Giving back the
- * whole cluster of an open group measured 0.006–0.007 bits, but left the driver four times the
- * pairs (27 % of the reduced graph after 3 levels, against 6 %): an object that crosses parts
- * would reach the driver as all its nodes. Only the sum linkage (the multicut's default) has this
+ * and all its pairs go up. The rest of its cluster is contracted piece by piece, each piece
+ * connected by the cluster's inner pairs (two pieces that touch only through the open group may
+ * end in different segments). The open group's joins would lean on pairs the part cannot see
+ * (a joined pair leaving makes it only a piece of a node of the whole problem; a cost pair
+ * leaving lets the whole problem's contraction reach it from outside first). Contracting open
+ * groups anyway measured 11 % off the single-level objective on undegraded synthetic tissue for
+ * joined pieces; for cost pairs, on the tissue presets (seed 1, 768 blocks, 1–3 levels),
+ * 0.15–0.22 bits of variation of information from the single level on dense neurites and
+ * bodies; leaving them out of the part's multicut as well (the earlier rule) 0.039–0.078 bits,
+ * against 0.021–0.022 now ({@code MulticutLevelsBenchmark}). Giving back the whole cluster of an
+ * open group measured 0.006–0.009 bits, but left the driver four times the pairs (27 % of the
+ * reduced graph after 3 levels, against 6 %): an object that crosses parts would reach the
+ * driver as all its nodes. Only the sum linkage (the multicut's default) has this
  * additive form; other linkages stay on the driver.
  *
  * <p>Pairs leaving the part are handed up one row per pair, never combined, so the copies the

@@ -254,7 +254,8 @@ class MulticutPartSolverTest {
    * An open node (3, with a pair to node 9 outside the part) takes part in the part's multicut:
    * node 1 joins it first (cost 5), and the joined pair then repels node 2 (1 − 10), as in the
    * whole graph; left out, it would let 1 and 2 contract on their own cost of 1. It is never
-   * contracted itself, while the rest of its cluster is. Worked by hand.
+   * contracted itself, while the rest of its cluster is, piece by piece: 1 and 2, joined only
+   * through it, stay apart. Worked by hand.
    */
   @Test
   void anOpenNodeTakesPartButStaysItsOwnNode() {
@@ -273,6 +274,13 @@ class MulticutPartSolverTest {
     PartResult rest = new MulticutPartSolver(false).solve(joined, node -> node < 9);
     assertArrayEquals(new long[] {2}, rest.merged());
     assertArrayEquals(new long[] {1}, rest.representative());
+
+    SolveEdges through = new SolveEdges(3);
+    MulticutPartSolver.addPair(through, 1, 3, 5);
+    MulticutPartSolver.addPair(through, 2, 3, 5);
+    MulticutPartSolver.addPair(through, 3, 9, 1);
+    PartResult apart = new MulticutPartSolver(false).solve(through, node -> node < 9);
+    assertArrayEquals(new long[0], apart.merged());
   }
 
   @Test
