@@ -202,13 +202,11 @@ public final class MulticutPartSolver implements PartSolver {
     // contracted with another it would be cut from if that group went elsewhere
     int n = group.length;
     int[] piece = UnionFind.singletons(n);
-    for (int k = 0; k < order.length; k++) {
-      if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0) {
-        int ga = group[iu[k]];
-        int gb = group[iv[k]];
-        if (!open[ga] && !open[gb] && labels[ga] == labels[gb]) {
-          UnionFind.union(piece, ga, gb);
-        }
+    for (int e = 0; e < a.length; e++) {
+      int ga = (int) a[e];
+      int gb = (int) b[e];
+      if (!open[ga] && !open[gb] && labels[ga] == labels[gb]) {
+        UnionFind.union(piece, ga, gb);
       }
     }
     int[] cluster = new int[n];
