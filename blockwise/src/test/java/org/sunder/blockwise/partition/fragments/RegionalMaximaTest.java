@@ -98,6 +98,88 @@ class RegionalMaximaTest {
     }
   }
 
+  /**
+   * On random boxes with ineligible voxels and slice planes, checked against the definition by
+   * brute force (each voxel's neighbours enumerated by coordinates): a voxel is a seed exactly
+   * when no voxel of its plateau has a higher eligible neighbour, and a plateau is one seed.
+   */
+  @Test
+  void seedsAreThePlateausWithoutAHigherNeighbourOnRandomBoxes() {
+    Random random = new Random(29);
+    for (int trial = 0; trial < 40; trial++) {
+      int[] shape = {1 + random.nextInt(9), 1 + random.nextInt(7), 1 + random.nextInt(6)};
+      int sliceAxis = new int[] {-1, 2, 0}[trial % 3];
+      int n = VoxelBox.size(shape);
+      double[] values = new double[n];
+      byte[] eligible = new byte[n];
+      for (int i = 0; i < n; i++) {
+        values[i] = random.nextInt(4);
+        eligible[i] = (byte) (random.nextDouble() < 0.8 ? 1 : 0);
+      }
+      int[] labels = RegionalMaxima.label(values, eligible, shape, sliceAxis);
+      int[] plateau = new int[n];
+      for (int i = 0; i < n; i++) {
+        plateau[i] = i;
+      }
+      boolean[] higher = new boolean[n];
+      for (int i = 0; i < n; i++) {
+        for (int j : neighbours(i, shape, sliceAxis)) {
+          if (eligible[i] != 0 && eligible[j] != 0) {
+            higher[i] |= values[j] > values[i];
+            if (values[j] == values[i]) {
+              plateau[root(plateau, i)] = root(plateau, j);
+            }
+          }
+        }
+      }
+      boolean[] plateauHigher = new boolean[n];
+      for (int i = 0; i < n; i++) {
+        plateauHigher[root(plateau, i)] |= higher[i];
+      }
+      int[] seedOfPlateau = new int[n];
+      for (int i = 0; i < n; i++) {
+        boolean seed = eligible[i] != 0 && !plateauHigher[root(plateau, i)];
+        assertEquals(seed, labels[i] > 0, "trial " + trial + " voxel " + i);
+        if (seed) {
+          int r = root(plateau, i);
+          if (seedOfPlateau[r] == 0) {
+            seedOfPlateau[r] = labels[i];
+          }
+          assertEquals(seedOfPlateau[r], labels[i], "trial " + trial + " voxel " + i);
+        }
+      }
+    }
+  }
+
+  private static int root(int[] parent, int i) {
+    while (parent[i] != i) {
+      i = parent[i];
+    }
+    return i;
+  }
+
+  /** The full neighbourhood of {@code i}, inside the slice plane when an axis is given. */
+  private static List<Integer> neighbours(int i, int[] shape, int sliceAxis) {
+    int[] c = {i % shape[0], i / shape[0] % shape[1], i / (shape[0] * shape[1])};
+    List<Integer> out = new ArrayList<>();
+    for (int dz = -1; dz <= 1; dz++) {
+      for (int dy = -1; dy <= 1; dy++) {
+        for (int dx = -1; dx <= 1; dx++) {
+          int[] step = {dx, dy, dz};
+          boolean inside = !(dx == 0 && dy == 0 && dz == 0);
+          for (int d = 0; d < 3; d++) {
+            int q = c[d] + step[d];
+            inside &= q >= 0 && q < shape[d] && (d != sliceAxis || step[d] == 0);
+          }
+          if (inside) {
+            out.add(c[0] + dx + shape[0] * (c[1] + dy + shape[1] * (c[2] + dz)));
+          }
+        }
+      }
+    }
+    return out;
+  }
+
   static byte[] ones(int n) {
     byte[] b = new byte[n];
     Arrays.fill(b, (byte) 1);
