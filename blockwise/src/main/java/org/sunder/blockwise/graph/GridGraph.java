@@ -141,7 +141,7 @@ public final class GridGraph {
   /** Visits the present edges of offset {@code k} in ascending source voxel. */
   public void forEachEdge(int k, EdgeVisitor visitor) {
     forEachRow(k, (start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, null, visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, null, null, false, visitor));
   }
 
   /**
@@ -158,14 +158,32 @@ public final class GridGraph {
   public void forEachEdgeAcross(int[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, labels, null, visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, labels, null, false,
+            visitor));
+  }
+
+  /**
+   * As {@link #forEachEdgeAcross(int[], EdgeVisitor)}, passing each edge's affinity (in [0, 1];
+   * {@code value / 255} when quantized) where the weight would be: for visitors that apply the
+   * {@link #rule()} themselves, once per run of edges rather than per edge.
+   */
+  public void forEachAffinityAcross(int[] labels, EdgeVisitor visitor) {
+    requireLabels(labels.length);
+    forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
+        visitRow(k, start, length, global, thin, decisions, mask, labels, null, true, visitor));
+  }
+
+  /** The rule that makes this graph's weights. */
+  public WeightRule rule() {
+    return rule;
   }
 
   /** As {@link #forEachEdgeAcross(int[], EdgeVisitor)} for 64-bit labels. */
   public void forEachEdgeAcross(long[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, labels, visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, null, labels, false,
+            visitor));
   }
 
   /** A row of offset {@code k}; see {@link RowVisitor}. */
@@ -302,10 +320,13 @@ public final class GridGraph {
     }
   }
 
-  /** One row of edges; with {@code intLabels} or {@code longLabels}, only edges across labels. */
+  /**
+   * One row of edges; with {@code intLabels} or {@code longLabels}, only edges across labels;
+   * {@code affinities}: pass the affinity instead of the weight.
+   */
   private void visitRow(int k, int start, int length, long[] global, boolean thin,
       Subsampling.RowDecisions decisions, byte[] mask, int[] intLabels, long[] longLabels,
-      EdgeVisitor visitor) {
+      boolean affinities, EdgeVisitor visitor) {
     int dk = delta[k];
     int base = k * nodeCount;
     long x0 = global[0];
@@ -322,9 +343,14 @@ public final class GridGraph {
       if (!kept(source, target, k, global, x0, i, thin, decisions, mask)) {
         continue;
       }
-      float w = bytes != null
-          ? byteWeights[(k << 8) + (bytes[base + source] & 0xff)]
-          : rule.weight(floats[base + source], p);
+      float w;
+      if (affinities) {
+        w = bytes != null ? (bytes[base + source] & 0xff) / 255f : floats[base + source];
+      } else {
+        w = bytes != null
+            ? byteWeights[(k << 8) + (bytes[base + source] & 0xff)]
+            : rule.weight(floats[base + source], p);
+      }
       visitor.visit(source, target, k, w);
     }
     global[0] = x0;

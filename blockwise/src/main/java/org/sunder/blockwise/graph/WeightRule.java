@@ -146,6 +146,25 @@ public record WeightRule(Kind kind, boolean[] attractive, Transform transform, d
     return p;
   }
 
+  /**
+   * The clamp of a logit rule without bias, whose weight is {@code log(c / (1 − c))} of the
+   * clamped affinity {@code c} on every channel (so sums of weights may be taken as logarithms
+   * of products); NaN for any other rule.
+   */
+  public double unbiasedLogitClamp() {
+    if (kind != Kind.VALUE || transform != Transform.LOGIT) {
+      return Double.NaN;
+    }
+    if (bias != null) {
+      for (double b : bias) {
+        if ((float) b != 0f) {
+          return Double.NaN;
+        }
+      }
+    }
+    return clamp == null ? LOGIT_EPSILON : clamp;
+  }
+
   /** The weight of affinity {@code a} with channel parameter {@code p} (see above). */
   public float weight(float a, float p) {
     if (kind == Kind.CHANNEL_ROLE) {
