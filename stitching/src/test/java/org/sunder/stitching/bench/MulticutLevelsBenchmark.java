@@ -20,6 +20,7 @@ import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.multicut.Multicut;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.stitching.setup.StitchingSetup;
@@ -42,7 +43,9 @@ import org.sunder.stitching.task.SeamTask;
  * information (bits, voxels weighted, background excluded) between the two segmentations, the
  * ratio of the multicut objectives on the reduced graph (the levels' over the single-level
  * one's; both negative, so below 1 is worse), the edges the driver solved, and the solve's wall
- * and this process's CPU time (the in-process runner solves the parts one after another). Not a
+ * and this process's CPU time (the in-process runner solves the parts one after another).
+ * {@code -Dnumbering=true} also prints how much the reduced graph's greedy additive contraction
+ * depends on the node numbering that breaks its ties (see {@link #numberingVoi}). Not a
  * test. Arguments (optional): {@code x y z} shape (default 256 256 96), blocks {@code x y z}
  * (default 32 32 8), presets (comma-separated, default all), seed (default 1).
  */
@@ -103,6 +106,11 @@ public final class MulticutLevelsBenchmark {
             + " objective %.1f%n", preset.presetName(), seed, Arrays.toString(shape),
             Arrays.toString(grid.gridShape()), Arrays.toString(block), graph.edges().size(),
             single.wall(), single.cpu(), single.result().finalIds().finalIdCount(), objective);
+        if (Boolean.getBoolean("numbering")) {
+          System.out.printf(Locale.ROOT, "  the reduced graph's greedy additive contraction with"
+              + " its nodes renumbered at random (3 numberings): VOI %s bits against the given"
+              + " numbering%n", numberingVoi(summaries, setup, graph));
+        }
         int seen = 0;
         for (long bound = pairs / 2; bound >= 64; bound /= 2) {
           long b = bound;
@@ -187,6 +195,75 @@ public final class MulticutLevelsBenchmark {
     }
     double hJoint = entropy(pairs.values(), total);
     return 2 * hJoint - entropy(ofA.values(), total) - entropy(ofB.values(), total);
+  }
+
+  /**
+   * How much the greedy additive contraction of the reduced graph (sum costs, nothing joined
+   * first) depends on its node numbering, which breaks its ties: VOI, bits, between the
+   * partition under the given numbering and under random ones, over every segment weighted by
+   * its voxels (segments in no reduced-graph node count as their own).
+   */
+  private static String numberingVoi(List<BlockSummary> summaries, StitchingSetup setup,
+      ReducedGraph graph) {
+    int n = graph.nodeIds().length;
+    EdgeStatistics edges = graph.edges();
+    int[] u = new int[edges.size()];
+    int[] v = new int[edges.size()];
+    double[] w = new double[edges.size()];
+    for (int e = 0; e < edges.size(); e++) {
+      u[e] = (int) edges.u(e);
+      v[e] = (int) edges.v(e);
+      w[e] = edges.sum(e);
+    }
+    int[] given = Multicut.greedyAdditive(n, u, v, w).labels();
+    Map<Long, Integer> nodeOf = new HashMap<>();
+    for (int i = 0; i < n; i++) {
+      nodeOf.put(graph.nodeIds()[i], i);
+    }
+    java.util.Random random = new java.util.Random(7);
+    List<String> out = new ArrayList<>();
+    for (int trial = 0; trial < 3; trial++) {
+      int[] perm = new int[n];
+      for (int i = 0; i < n; i++) {
+        perm[i] = i;
+      }
+      for (int i = n - 1; i > 0; i--) {
+        int j = random.nextInt(i + 1);
+        int t = perm[i];
+        perm[i] = perm[j];
+        perm[j] = t;
+      }
+      int[] pu = new int[u.length];
+      int[] pv = new int[v.length];
+      for (int e = 0; e < u.length; e++) {
+        pu[e] = perm[u[e]];
+        pv[e] = perm[v[e]];
+      }
+      int[] permuted = Multicut.greedyAdditive(n, pu, pv, w).labels();
+      Map<Long, Double> ofA = new HashMap<>();
+      Map<Long, Double> ofB = new HashMap<>();
+      Map<String, Double> both = new HashMap<>();
+      double total = 0;
+      for (BlockSummary s : summaries) {
+        for (int k = 0; k < s.segmentSizes().length; k++) {
+          double size = s.segmentSizes()[k];
+          if (size == 0) {
+            continue;
+          }
+          long id = setup.idLayout().provisional(s.block(), k + 1);
+          Integer node = nodeOf.get(id);
+          long x = node == null ? -1 - id : given[node];
+          long y = node == null ? -1 - id : permuted[perm[node]];
+          ofA.merge(x, size, Double::sum);
+          ofB.merge(y, size, Double::sum);
+          both.merge(x + ":" + y, size, Double::sum);
+          total += size;
+        }
+      }
+      out.add(String.format(Locale.ROOT, "%.4f", 2 * entropy(both.values(), total)
+          - entropy(ofA.values(), total) - entropy(ofB.values(), total)));
+    }
+    return String.join(" / ", out);
   }
 
   private static double entropy(java.util.Collection<Double> counts, double total) {
