@@ -25,17 +25,8 @@ class RegionGraphTest {
     GridGraph graph = GridGraph.of(AffinityBlock.ofFloats(
         GridGraphTest.randomAffinities(n, offsets.count(), random), shape, new long[3], offsets,
         mask), WeightRule.byValue(WeightRule.Transform.CENTERED, null), Subsampling.hash(0.5, 3));
-    SignedGraph voxels = graph.toSignedGraph();
-    EdgeStatistics.Accumulator expected = new EdgeStatistics.Accumulator(16);
-    for (int e = 0; e < voxels.edgeCount(); e++) {
-      int a = labels[voxels.edgeU(e)];
-      int b = labels[voxels.edgeV(e)];
-      if (a != b && a != 0 && b != 0) {
-        expected.add(a, b, voxels.weight(e));
-      }
-    }
     EdgeStatistics stats = RegionGraph.of(labels, graph).statistics();
-    EdgeStatistics want = expected.build();
+    EdgeStatistics want = edgeByEdge(graph, labels, null);
     assertEquals(want.size(), stats.size());
     for (int i = 0; i < want.size(); i++) {
       assertEquals(want.u(i), stats.u(i));
@@ -71,18 +62,8 @@ class RegionGraphTest {
           GridGraphTest.randomAffinities(n, offsets.count(), random), shape, new long[3],
           offsets, null), WeightRule.byValue(WeightRule.Transform.LOGIT, null),
           trial % 2 == 0 ? Subsampling.none() : Subsampling.hash(0.5, trial));
-      SignedGraph voxels = graph.toSignedGraph();
-      EdgeStatistics.Accumulator expected = new EdgeStatistics.Accumulator(16);
-      for (int e = 0; e < voxels.edgeCount(); e++) {
-        int s = voxels.edgeU(e);
-        int t = voxels.edgeV(e);
-        if (labels[s] != labels[t] && labels[s] != 0 && labels[t] != 0 && inside[s] != 0
-            && inside[t] != 0) {
-          expected.add(labels[s], labels[t], voxels.weight(e));
-        }
-      }
       RegionGraph split = RegionGraph.of(labels, graph, inside);
-      assertSameRows(expected.build(), split.insideStatistics());
+      assertSameRows(edgeByEdge(graph, labels, inside), split.insideStatistics());
       assertSameRows(RegionGraph.of(labels, graph).statistics(), split.statistics());
       assertEquals(0, RegionGraph.of(labels, graph).insideStatistics().size());
     }
@@ -153,17 +134,27 @@ class RegionGraphTest {
           : AffinityBlock.ofFloats(GridGraphTest.randomAffinities(n, offsets.count(), random),
               box, new long[3], offsets, null);
       GridGraph graph = GridGraph.of(block, WeightRule.logit(0.01), Subsampling.none());
-      SignedGraph voxels = graph.toSignedGraph();
-      EdgeStatistics.Accumulator expected = new EdgeStatistics.Accumulator(16);
-      for (int e = 0; e < voxels.edgeCount(); e++) {
-        int a = regions[voxels.edgeU(e)];
-        int b = regions[voxels.edgeV(e)];
-        if (a != b) {
-          expected.add(a, b, voxels.weight(e));
-        }
-      }
-      assertSameRows(expected.build(), RegionGraph.of(regions, graph).statistics());
+      assertSameRows(edgeByEdge(graph, regions, null),
+          RegionGraph.of(regions, graph).statistics());
     }
+  }
+
+  /**
+   * The statistics summed edge by edge over the graph's weights: every edge between different
+   * non-zero labels, with both ends inside when {@code insideOrNull} is given.
+   */
+  private static EdgeStatistics edgeByEdge(GridGraph graph, int[] labels, byte[] insideOrNull) {
+    SignedGraph voxels = graph.toSignedGraph();
+    EdgeStatistics.Accumulator expected = new EdgeStatistics.Accumulator(16);
+    for (int e = 0; e < voxels.edgeCount(); e++) {
+      int s = voxels.edgeU(e);
+      int t = voxels.edgeV(e);
+      if (labels[s] != labels[t] && labels[s] != 0 && labels[t] != 0
+          && (insideOrNull == null || insideOrNull[s] != 0 && insideOrNull[t] != 0)) {
+        expected.add(labels[s], labels[t], voxels.weight(e));
+      }
+    }
+    return expected.build();
   }
 
   private static void assertSameRows(EdgeStatistics want, EdgeStatistics got) {

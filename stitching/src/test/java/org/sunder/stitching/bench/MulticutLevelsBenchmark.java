@@ -13,12 +13,14 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.function.LongUnaryOperator;
 import java.util.stream.Stream;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
+import org.sunder.blockwise.partition.PartitionFixtures;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.partition.multicut.Multicut;
 import org.sunder.blockwise.synth.SyntheticVolume;
@@ -132,7 +134,7 @@ public final class MulticutLevelsBenchmark {
           System.out.printf(Locale.ROOT, "  bound %d: %d levels of super-blocks, VOI %.4f bits"
               + " against the single level, objective ratio %.4f, %d segments, solve %.2f s"
               + " wall, %.2f s CPU%n", bound, count,
-              voi(summaries, setup, single.result().finalIds(), ids),
+              voi(summaries, setup, single.result().finalIds()::apply, ids::apply),
               objective(graph, ids) / objective, ids.finalIdCount(), levels.wall(),
               levels.cpu());
         }
@@ -168,12 +170,12 @@ public final class MulticutLevelsBenchmark {
   }
 
   /**
-   * Variation of information, bits, between two final-id maps over every segment of every
-   * block weighted by its voxels: the voxel-level VOI of the two segmentations (background, in
-   * no segment, excluded).
+   * Variation of information, bits, between two labellings of the provisional segment ids over
+   * every segment of every block weighted by its voxels: the voxel-level VOI of the two
+   * segmentations (background, in no segment, excluded).
    */
-  private static double voi(List<BlockSummary> summaries, StitchingSetup setup, FinalIdMap a,
-      FinalIdMap b) {
+  private static double voi(List<BlockSummary> summaries, StitchingSetup setup,
+      LongUnaryOperator a, LongUnaryOperator b) {
     Map<Long, Double> ofA = new HashMap<>();
     Map<Long, Double> ofB = new HashMap<>();
     Map<String, Double> pairs = new HashMap<>();
@@ -185,8 +187,8 @@ public final class MulticutLevelsBenchmark {
           continue;
         }
         long id = setup.idLayout().provisional(s.block(), k + 1);
-        long x = a.apply(id);
-        long y = b.apply(id);
+        long x = a.applyAsLong(id);
+        long y = b.applyAsLong(id);
         ofA.merge(x, size, Double::sum);
         ofB.merge(y, size, Double::sum);
         pairs.merge(x + ":" + y, size, Double::sum);
@@ -223,16 +225,7 @@ public final class MulticutLevelsBenchmark {
     java.util.Random random = new java.util.Random(7);
     List<String> out = new ArrayList<>();
     for (int trial = 0; trial < 3; trial++) {
-      int[] perm = new int[n];
-      for (int i = 0; i < n; i++) {
-        perm[i] = i;
-      }
-      for (int i = n - 1; i > 0; i--) {
-        int j = random.nextInt(i + 1);
-        int t = perm[i];
-        perm[i] = perm[j];
-        perm[j] = t;
-      }
+      int[] perm = PartitionFixtures.permutation(random, n);
       int[] pu = new int[u.length];
       int[] pv = new int[v.length];
       for (int e = 0; e < u.length; e++) {
@@ -240,28 +233,16 @@ public final class MulticutLevelsBenchmark {
         pv[e] = perm[v[e]];
       }
       int[] permuted = Multicut.greedyAdditive(n, pu, pv, w).labels();
-      Map<Long, Double> ofA = new HashMap<>();
-      Map<Long, Double> ofB = new HashMap<>();
-      Map<String, Double> both = new HashMap<>();
-      double total = 0;
-      for (BlockSummary s : summaries) {
-        for (int k = 0; k < s.segmentSizes().length; k++) {
-          double size = s.segmentSizes()[k];
-          if (size == 0) {
-            continue;
-          }
-          long id = setup.idLayout().provisional(s.block(), k + 1);
-          Integer node = nodeOf.get(id);
-          long x = node == null ? -1 - id : given[node];
-          long y = node == null ? -1 - id : permuted[perm[node]];
-          ofA.merge(x, size, Double::sum);
-          ofB.merge(y, size, Double::sum);
-          both.merge(x + ":" + y, size, Double::sum);
-          total += size;
-        }
-      }
-      out.add(String.format(Locale.ROOT, "%.4f", 2 * entropy(both.values(), total)
-          - entropy(ofA.values(), total) - entropy(ofB.values(), total)));
+      LongUnaryOperator givenLabel = id -> {
+        Integer node = nodeOf.get(id);
+        return node == null ? -1 - id : given[node];
+      };
+      LongUnaryOperator permutedLabel = id -> {
+        Integer node = nodeOf.get(id);
+        return node == null ? -1 - id : permuted[perm[node]];
+      };
+      out.add(String.format(Locale.ROOT, "%.4f",
+          voi(summaries, setup, givenLabel, permutedLabel)));
     }
     return String.join(" / ", out);
   }
