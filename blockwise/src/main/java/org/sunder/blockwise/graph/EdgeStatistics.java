@@ -3,6 +3,7 @@ package org.sunder.blockwise.graph;
 import java.io.Serializable;
 import java.util.Arrays;
 import java.util.List;
+import java.util.function.DoubleUnaryOperator;
 import org.sunder.blockwise.collections.RadixSort;
 
 /**
@@ -238,6 +239,29 @@ public final class EdgeStatistics implements Serializable {
       }
     }
     return new EdgeStatistics(a, b, sum, count, min, max);
+  }
+
+  /**
+   * The table with every minimum and maximum replaced by its image under {@code rising}, a
+   * non-decreasing function (so the images are the minimum and maximum of the images of the
+   * edges' values): statistics gathered over one quantity, reported over another.
+   *
+   * @throws IllegalArgumentException when an image is not finite or a row's minimum's image
+   *     exceeds its maximum's
+   */
+  public EdgeStatistics withMinMax(DoubleUnaryOperator rising) {
+    double[] lo = new double[u.length];
+    double[] hi = new double[u.length];
+    for (int i = 0; i < u.length; i++) {
+      lo[i] = rising.applyAsDouble(min[i]);
+      hi[i] = rising.applyAsDouble(max[i]);
+      if (!(lo[i] <= hi[i]) || !Double.isFinite(lo[i]) || !Double.isFinite(hi[i])) {
+        throw new IllegalArgumentException("row " + i + " (" + u[i] + ", " + v[i] + "): min "
+            + min[i] + " and max " + max[i] + " map to " + lo[i] + " and " + hi[i]
+            + "; expected finite, non-decreasing images");
+      }
+    }
+    return new EdgeStatistics(u, v, sum, count, lo, hi);
   }
 
   private static long map(long id, long[] oldIds, long[] newIds) {

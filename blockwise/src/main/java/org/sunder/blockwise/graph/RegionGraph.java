@@ -73,8 +73,9 @@ public final class RegionGraph {
    * registers and adds each such run to the hash table once. Under an unbiased logit rule the
    * visits bring affinities, and a run's weights {@code log(c / (1 − c))} are summed as the
    * logarithm of the product of the odds {@code c / (1 − c)}: one logarithm per run instead of
-   * one per edge (a third of the pass's time went to them); the run's smallest and largest
-   * weight are those of its smallest and largest clamped affinity, as the weight rises with it.
+   * one per edge (a third of the pass's time went to them). The weight rises with the clamped
+   * affinity, so the table keeps each pair's smallest and largest clamped affinity and turns
+   * them into weights once per pair, after the pass.
    */
   private static final class PairRuns implements GridGraph.EdgeVisitor {
     /** Odds products beyond these are folded into the sum before they leave the double range. */
@@ -157,12 +158,7 @@ public final class RegionGraph {
         return;
       }
       double total = sum + Math.log(odds);
-      if (count == 1) {
-        double w = (float) total;
-        acc.add(low, high, w, 1, w, w);
-      } else {
-        acc.add(low, high, total, count, logitWeight(min), logitWeight(max));
-      }
+      acc.add(low, high, count == 1 ? (float) total : total, count, min, max);
     }
 
     /** The rule's weight of a clamped affinity, as {@link WeightRule#weight} computes it. */
@@ -173,7 +169,8 @@ public final class RegionGraph {
     EdgeStatistics build() {
       flush();
       count = 0;
-      return acc.build();
+      EdgeStatistics rows = acc.build();
+      return logits ? rows.withMinMax(PairRuns::logitWeight) : rows;
     }
   }
 

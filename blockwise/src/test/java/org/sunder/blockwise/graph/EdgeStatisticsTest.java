@@ -221,6 +221,42 @@ class EdgeStatisticsTest {
     }
   }
 
+  /**
+   * Minima and maxima gathered over random affinities and mapped through the logit afterwards
+   * equal those gathered over the logits themselves, the logit rising with the affinity; a
+   * falling function is refused.
+   */
+  @Test
+  void withMinMaxOfARisingFunctionEqualsTheStatisticsOfItsImages() {
+    Random random = new Random(71);
+    int m = 3000;
+    long[] u = new long[m];
+    long[] v = new long[m];
+    double[] affinity = new double[m];
+    double[] logit = new double[m];
+    for (int e = 0; e < m; e++) {
+      u[e] = random.nextInt(60);
+      v[e] = random.nextInt(60);
+      affinity[e] = 0.001 + 0.998 * random.nextDouble();
+      logit[e] = Math.log(affinity[e] / (1 - affinity[e]));
+    }
+    EdgeStatistics ofAffinities = EdgeStatistics.ofEdges(u, v, affinity);
+    EdgeStatistics ofLogits = EdgeStatistics.ofEdges(u, v, logit);
+    EdgeStatistics mapped = ofAffinities.withMinMax(c -> Math.log(c / (1 - c)));
+    assertEquals(ofLogits.size(), mapped.size());
+    for (int i = 0; i < mapped.size(); i++) {
+      assertEquals(ofLogits.u(i), mapped.u(i));
+      assertEquals(ofLogits.v(i), mapped.v(i));
+      assertEquals(ofLogits.min(i), mapped.min(i));
+      assertEquals(ofLogits.max(i), mapped.max(i));
+      assertEquals(ofAffinities.sum(i), mapped.sum(i));
+      assertEquals(ofAffinities.count(i), mapped.count(i));
+    }
+    assertTrue(Arrays.stream(ofAffinities.copyMin()).anyMatch(c -> c < 0.5)
+        && Arrays.stream(ofAffinities.copyMax()).anyMatch(c -> c > 0.5));
+    assertThrows(IllegalArgumentException.class, () -> ofAffinities.withMinMax(c -> -c));
+  }
+
   private static long[] slice(long[] a, int from, int to) {
     return java.util.Arrays.copyOfRange(a, from, to);
   }
