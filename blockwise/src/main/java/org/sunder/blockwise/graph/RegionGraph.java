@@ -158,6 +158,7 @@ public final class RegionGraph {
         return;
       }
       double total = sum + Math.log(odds);
+      // a lone edge's sum is its weight, rounded to a float as the rule rounds it
       acc.add(low, high, count == 1 ? (float) total : total, count, min, max);
     }
 
