@@ -61,9 +61,18 @@ public final class LevelQueue implements FloodQueue {
     return new LevelQueue(levelOf, distinct.length);
   }
 
+  /** The level of {@code voxel}: the rank of its priority among the distinct ones. */
+  public int level(int voxel) {
+    return levelOf[voxel];
+  }
+
   @Override
   public void push(int voxel) {
-    int level = levelOf[voxel];
+    push(voxel, levelOf[voxel]);
+  }
+
+  @Override
+  public void push(int voxel, int level) {
     next[voxel] = -1;
     if (head[level] < 0) {
       head[level] = voxel;

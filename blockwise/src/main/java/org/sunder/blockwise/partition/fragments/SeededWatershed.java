@@ -49,50 +49,51 @@ public final class SeededWatershed {
     if (boundary.length != n || markers.length != n || (mask != null && mask.length != n)) {
       throw new IllegalArgumentException("arrays do not match the box " + Arrays.toString(shape));
     }
+    LevelQueue levels = buckets ? LevelQueue.forPriorities(boundary, MAX_LEVELS) : null;
+    FloodQueue queue = levels != null ? levels : VoxelQueue.inArrivalOrder(boundary, n / 4);
+    // one array for what a visit reads: a label (> 0), 0 outside the mask, or -1 - the
+    // voxel's level in the queue while it waits to be reached
     int[] labels = new int[n];
-    FloodQueue queue = buckets ? LevelQueue.forPriorities(boundary, MAX_LEVELS) : null;
-    if (queue == null) {
-      queue = VoxelQueue.inArrivalOrder(boundary, n / 4);
+    for (int i = 0; i < n; i++) {
+      labels[i] = mask == null || mask[i] != 0 ? -1 - (levels != null ? levels.level(i) : 0) : 0;
     }
-    Flood flood = new Flood(boundary, shape, mask, sliceAxis, labels);
+    Flood flood = new Flood(shape, sliceAxis, labels);
     // planes along the last axis lie apart in memory and flood apart: one after another keeps
     // the queue's working set to one plane, with the same pops per plane as all at once
     int run = sliceAxis == shape.length - 1 ? n / Math.max(1, shape[sliceAxis]) : n;
     int largest = 0;
     for (int start = 0; start < n; start += run) {
       for (int i = start; i < start + run; i++) {
-        if (markers[i] > 0 && (mask == null || mask[i] != 0)) {
+        int waiting = labels[i];
+        if (markers[i] > 0 && waiting < 0) {
           labels[i] = markers[i];
           largest = Math.max(largest, markers[i]);
-          queue.push(i);
+          queue.push(i, -1 - waiting);
         }
       }
       flood.run(queue);
     }
     for (int i = 0; i < n; i++) {
-      if (labels[i] == 0 && (mask == null || mask[i] != 0)) {
+      int waiting = labels[i];
+      if (waiting < 0) {
         labels[i] = ++largest;
-        queue.push(i);
+        queue.push(i, -1 - waiting);
         flood.run(queue);
       }
     }
     return labels;
   }
 
-  /** One flood over a box; {@code labels} is updated in place. */
+  /** One flood over a box; {@code labels} (the state array above) is updated in place. */
   private static final class Flood {
-    private final float[] boundary;
     private final int[] shape;
-    private final byte[] mask;
     private final int sliceAxis;
     private final int[] labels;
     private final int[] strides;
     private final int[] coordinate;
 
-    Flood(float[] boundary, int[] shape, byte[] mask, int sliceAxis, int[] labels) {
-      this.boundary = boundary;
+    Flood(int[] shape, int sliceAxis, int[] labels) {
       this.shape = shape;
-      this.mask = mask;
       this.sliceAxis = sliceAxis;
       this.labels = labels;
       this.strides = VoxelBox.strides(shape);
@@ -124,9 +125,10 @@ public final class SeededWatershed {
     }
 
     private void visit(FloodQueue queue, int j, int label) {
-      if (labels[j] == 0 && (mask == null || mask[j] != 0)) {
+      int waiting = labels[j];
+      if (waiting < 0) {
         labels[j] = label;
-        queue.push(j);
+        queue.push(j, -1 - waiting);
       }
     }
   }
