@@ -11,9 +11,9 @@ import org.junit.jupiter.api.Test;
 class LevelQueueTest {
 
   /**
-   * Random pushes and pops, in bursts long enough to chain many segments on one level and to
-   * reuse released ones, against a reference of one JDK {@link ArrayDeque} per priority: voxels
-   * leave by ascending priority, equal priorities first in, first out.
+   * Random pushes (with and without the level given) and pops, in bursts of up to 2000 so that
+   * levels fill and empty many times, against a reference of one JDK {@link ArrayDeque} per
+   * priority: voxels leave by ascending priority, equal priorities first in, first out.
    */
   @Test
   void popsLikeOneFifoPerPriorityUnderRandomInterleavings() {
@@ -39,7 +39,11 @@ class LevelQueueTest {
         int burst = random.nextInt(2000);
         for (int k = 0; k < burst && pushed < n; k++) {
           int voxel = order[pushed++];
-          queue.push(voxel);
+          if (random.nextBoolean()) {
+            queue.push(voxel);
+          } else {
+            queue.push(voxel, queue.level(voxel));
+          }
           reference.computeIfAbsent(priority[voxel], p -> new ArrayDeque<>()).add(voxel);
         }
         int drain = pushed == n ? n : random.nextInt(2000);
