@@ -7,6 +7,7 @@ import java.util.ArrayDeque;
 import java.util.Random;
 import java.util.TreeMap;
 import org.junit.jupiter.api.Test;
+import org.sunder.blockwise.partition.PartitionFixtures;
 
 class LevelQueueTest {
 
@@ -27,12 +28,7 @@ class LevelQueueTest {
       }
       LevelQueue queue = LevelQueue.forPriorities(priority, 4096);
       TreeMap<Float, ArrayDeque<Integer>> reference = new TreeMap<>();
-      int[] order = new int[n];
-      for (int i = 0; i < n; i++) {
-        int j = random.nextInt(i + 1);
-        order[i] = order[j];
-        order[j] = i;
-      }
+      int[] order = PartitionFixtures.permutation(random, n);
       int pushed = 0;
       int popped = 0;
       while (popped < n) {
