@@ -27,6 +27,8 @@ public final class RegionalMaxima {
         state[i] = LOWER;
       }
     }
+    // A walk crosses only voxels without a larger neighbour: the part of a plateau they connect
+    // is the whole plateau, or touches one of its other voxels, which has a larger neighbour.
     int[] labels = new int[n];
     int[] plateau = new int[64];
     int next = 0;
@@ -53,6 +55,7 @@ public final class RegionalMaxima {
           }
           if (state[j] == LOWER) {
             maximal = false;
+            continue;
           }
           state[j] = VISITED;
           if (size == plateau.length) {

@@ -23,6 +23,18 @@ class RegionalMaximaTest {
     assertArrayEquals(new int[] {0, 1, 1, 0, 2}, labels);
   }
 
+  /**
+   * The plateau of 1s along y = 0 has a larger neighbour (the 3 below its middle) at its three
+   * middle voxels only: its two ends have none, and their pieces, which touch only through the
+   * middle, are no seeds either.
+   */
+  @Test
+  void plateauWithALargerNeighbourAnywhereIsNoSeedEvenWhereItsPiecesTouchOnlyThroughIt() {
+    double[] values = {1, 1, 1, 1, 1, 0, 0, 3, 0, 0};
+    assertArrayEquals(new int[] {0, 0, 0, 0, 0, 0, 0, 1, 0, 0},
+        RegionalMaxima.label(values, ones(10), new int[] {5, 2}, -1));
+  }
+
   @Test
   void ineligibleVoxelsTakeNoPartSoEveryEligibleComponentHasASeed() {
     double[] values = {0, 5, 1, 2, 1};
