@@ -39,6 +39,31 @@ class DistanceTransformTest {
     }
   }
 
+  /**
+   * The first axis's lines hold only 0 and infinity and skip the envelope: the same values bit
+   * for bit as the envelope's (seeds compare distances for equality), spacings that are not
+   * binary fractions included.
+   */
+  @Test
+  void binaryLinesEqualTheEnvelopeBitForBit() {
+    Random random = new Random(31);
+    for (int trial = 0; trial < 500; trial++) {
+      int length = 1 + random.nextInt(60);
+      double s = new double[] {1.0, 4.0, 0.1, 3.7, 1 / 3.0}[trial % 5];
+      double background = random.nextDouble();
+      DistanceTransform.LineBuffers envelope = new DistanceTransform.LineBuffers(length);
+      DistanceTransform.LineBuffers scans = new DistanceTransform.LineBuffers(length);
+      for (int q = 0; q < length; q++) {
+        double value = random.nextDouble() < background ? 0 : Double.POSITIVE_INFINITY;
+        envelope.line[q] = value;
+        scans.line[q] = value;
+      }
+      DistanceTransform.transformLine(envelope, length, s);
+      DistanceTransform.binaryLine(scans, length, s);
+      assertArrayEquals(envelope.result, scans.result, 0.0, "trial " + trial);
+    }
+  }
+
   @Test
   void voxelsWithoutReachableBackgroundAreInfinite() {
     byte[] fg = new byte[3 * 2 * 2];
