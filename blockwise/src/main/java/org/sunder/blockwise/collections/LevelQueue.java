@@ -4,24 +4,29 @@ import java.util.Arrays;
 
 /**
  * A bucket queue for priorities with few distinct values (8-bit affinities give at most 256):
- * one first-in-first-out list per level, linked through the voxel indices, so each voxel may be
- * queued at most once. {@code O(1)} push, pop amortised over the levels; the same order as
- * {@link VoxelQueue} on the same priorities.
+ * one first-in-first-out array per level, read and written in sequence. {@code O(1)} push
+ * (amortised), pop amortised over the levels; the same order as {@link VoxelQueue} on the same
+ * priorities.
+ *
+ * <p>Arrays, not a list linked through the voxel indices: a flood pops each level's voxels
+ * from all over its box, and a linked list made every pop wait for the previous voxel's link to
+ * arrive from memory before it could ask for the next.
  */
 public final class LevelQueue implements FloodQueue {
+  private static final int FIRST_CAPACITY = 16;
   private final int[] levelOf;
-  private final int[] head;
-  private final int[] tail;
-  private final int[] next;
+  /** Per level, its voxels; those at {@code first[level] .. end[level] − 1} wait. */
+  private final int[][] voxels;
+  private final int[] first;
+  private final int[] end;
   private int lowest;
   private int size;
 
   private LevelQueue(int[] levelOf, int levels) {
     this.levelOf = levelOf;
-    head = new int[levels];
-    tail = new int[levels];
-    Arrays.fill(head, -1);
-    next = new int[levelOf.length];
+    voxels = new int[levels][];
+    first = new int[levels];
+    end = new int[levels];
     lowest = levels;
   }
 
@@ -73,28 +78,42 @@ public final class LevelQueue implements FloodQueue {
 
   @Override
   public void push(int voxel, int level) {
-    next[voxel] = -1;
-    if (head[level] < 0) {
-      head[level] = voxel;
-    } else {
-      next[tail[level]] = voxel;
+    int[] waiting = voxels[level];
+    if (waiting == null) {
+      waiting = voxels[level] = new int[FIRST_CAPACITY];
+    } else if (end[level] == waiting.length) {
+      waiting = voxels[level] = makeRoom(waiting, level);
     }
-    tail[level] = voxel;
+    waiting[end[level]++] = voxel;
     if (level < lowest) {
       lowest = level;
     }
     size++;
   }
 
+  /**
+   * A full level's array with room at its end, its waiting voxels moved to its start: the same
+   * array when they fill less than half of it, else one twice as long (amortised O(1) a push,
+   * at most twice the most voxels the level held at once).
+   */
+  private int[] makeRoom(int[] waiting, int level) {
+    int waitingCount = end[level] - first[level];
+    int[] room = waitingCount < waiting.length / 2 ? waiting : new int[2 * waiting.length];
+    System.arraycopy(waiting, first[level], room, 0, waitingCount);
+    first[level] = 0;
+    end[level] = waitingCount;
+    return room;
+  }
+
   @Override
   public int pop() {
-    while (head[lowest] < 0) {
+    while (first[lowest] == end[lowest]) {
+      first[lowest] = 0;
+      end[lowest] = 0;
       lowest++;
     }
-    int voxel = head[lowest];
-    head[lowest] = next[voxel];
     size--;
-    return voxel;
+    return voxels[lowest][first[lowest]++];
   }
 
   @Override
