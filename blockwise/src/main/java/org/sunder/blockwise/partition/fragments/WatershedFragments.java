@@ -66,11 +66,22 @@ public final class WatershedFragments {
       }
     }
     if (options.seedSmoothing() > 0) {
+      // an interior voxel lies at least one voxel step from the boundary, or at `beyond`
+      double nearest = beyond;
+      for (int d = 0; d < shape.length; d++) {
+        nearest = included[d] ? Math.min(nearest, spacing[d]) : nearest;
+      }
       double[] sigma = new double[shape.length];
+      boolean changes = false;
       for (int d = 0; d < shape.length; d++) {
         sigma[d] = included[d] ? options.seedSmoothing() / spacing[d] : 0;
+        changes |= !GaussianSmoothing.changesNothing(sigma[d], nearest, beyond);
       }
-      GaussianSmoothing.smooth(distance, shape, sigma);
+      // a smoothing that cannot change an interior distance (σ of a tenth of a voxel, as the
+      // default's 1 nm gives 10 nm voxels) is skipped: the seeds only read interior voxels
+      if (changes) {
+        GaussianSmoothing.smooth(distance, shape, sigma);
+      }
     }
     return RegionalMaxima.label(distance, interior, shape, sliceAxis);
   }
