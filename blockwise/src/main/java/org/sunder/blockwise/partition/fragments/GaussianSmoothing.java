@@ -56,8 +56,9 @@ final class GaussianSmoothing {
    * Whether smoothing with {@code sigma} along an axis leaves every value in
    * {@code [smallest, largest]} ({@code 0 < smallest}) bit for bit as it is, whatever its
    * neighbours in that range or in {@code [0, largest]}: the kernel's centre weight is 1 in
-   * double arithmetic, and all its other weights times {@code largest} add up to less than half
-   * a unit in the last place of {@code smallest}, so each sum rounds back to the centre value.
+   * double arithmetic, and all its other weights times {@code largest} add up to less than a
+   * quarter of a unit in the last place of {@code smallest}, so each sum rounds back to the
+   * centre value.
    * A σ of a tenth of a voxel qualifies (weight 2·10⁻²² one voxel away); one of an eighth does
    * not (10⁻¹⁴).
    */
