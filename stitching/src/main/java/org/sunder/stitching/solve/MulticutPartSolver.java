@@ -24,23 +24,28 @@ import org.sunder.blockwise.partition.multicut.Multicut;
  * its ends are joined before the multicut, as the single-level solve joins them first; a joined
  * pair leaving a part is joined at the level where both its ends meet.
  *
- * <p>A group of joined nodes with any pair leaving the part is <em>open</em> and held back, as
- * a block holds back what leans on its halo: it takes part in the part's multicut, so the other
- * nodes decide with its pairs in view, but it is never contracted: it stays a node of its own
- * and all its pairs go up. The rest of its cluster is contracted piece by piece, each piece
- * connected by the cluster's inner pairs (two pieces that touch only through the open group may
- * end in different segments). The open group's joins would lean on pairs the part cannot see
- * (a joined pair leaving makes it only a piece of a node of the whole problem; a cost pair
- * leaving lets the whole problem's contraction reach it from outside first). Contracting open
- * groups anyway measured 11 % off the single-level objective on undegraded synthetic tissue for
- * joined pieces; for cost pairs, on the tissue presets (seed 1, 768 blocks, 1–3 levels),
- * 0.15–0.22 bits of variation of information from the single level on dense neurites and
- * bodies; leaving them out of the part's multicut as well (the earlier rule) 0.039–0.078 bits,
- * against 0.021–0.022 now ({@code MulticutLevelsBenchmark}). Giving back the whole cluster of an
- * open group measured 0.006–0.009 bits, but left the driver four times the pairs (27 % of the
- * reduced graph after 3 levels, against 6 %): an object that crosses parts would reach the
- * driver as all its nodes. Only the sum linkage (the multicut's default) has this
- * additive form; other linkages stay on the driver.
+ * <p>A group of joined nodes with any pair leaving the part is <em>open</em>. It and every
+ * group with an inner cost pair to an open group are held back, as a block holds back what
+ * leans on its halo: each takes part in the part's multicut, so the other nodes decide with its
+ * pairs in view, but is never contracted: it stays a node of its own and all its pairs go up.
+ * The rest of its cluster is contracted piece by piece, each piece connected by the cluster's
+ * inner pairs (two pieces that touch only through a held-back group may end in different
+ * segments). An open group's joins would lean on pairs the part cannot see (a joined pair
+ * leaving makes it only a piece of a node of the whole problem; a cost pair leaving lets the
+ * whole problem's contraction reach it from outside first), and its neighbours' first
+ * contraction in the whole problem may be with the open group's cluster grown from outside,
+ * whose summed costs the part cannot know. On the tissue presets (the whole default, 768
+ * blocks, 2–3 levels, seeds 1–3; {@code MulticutLevelsBenchmark}) holding back the neighbours
+ * took the difference from the single level from 0.014–0.022 bits of variation of information
+ * to 0.0000–0.0084, for 1.3–1.6 times the driver's share after 3 levels (9–19 % of the reduced
+ * graph's pairs, against 6–14 %). Contracting open groups anyway measured 11 % off the
+ * single-level objective on undegraded synthetic tissue for joined pieces; for cost pairs, on
+ * the presets, 0.15–0.22 bits on dense neurites and bodies; leaving them out of the part's
+ * multicut as well 0.039–0.078 bits. Giving back the whole cluster of an open group measured
+ * 0.006–0.009 bits, but left the driver four times the pairs (27 % of the reduced graph after 3
+ * levels): an object that crosses parts would reach the driver as all its nodes; holding back
+ * only the neighbours joined by an attractive pair, 0.036 bits on dense neurites. Only the sum
+ * linkage (the multicut's default) has this additive form; other linkages stay on the driver.
  *
  * <p>Pairs leaving the part are handed up one row per pair, never combined, so the copies the
  * parts at both ends hand up agree (see {@link SolveEdges#joinCopies}); cut inner pairs between
@@ -98,8 +103,9 @@ public final class MulticutPartSolver implements PartSolver {
     int[] iv = part.iv();
     int n = nodes.length;
     int[] group = joinedGroups(rows, order, iu, iv, n);
-    boolean[] open = openGroups(iu, iv, group);
-    int[] cluster = multicut(rows, order, iu, iv, group, open);
+    boolean[] heldGroups = withNeighbours(rows, order, iu, iv, group,
+        openGroups(iu, iv, group));
+    int[] cluster = multicut(rows, order, iu, iv, group, heldGroups);
     long[] rep = new long[n];
     int[] smallest = new int[2 * n];
     Arrays.fill(smallest, -1);
@@ -171,13 +177,33 @@ public final class MulticutPartSolver implements PartSolver {
   }
 
   /**
+   * Per group node, whether it is held back: open, or joined to an open group by an inner cost
+   * pair. O(m).
+   */
+  private static boolean[] withNeighbours(SolveEdges rows, int[] order, int[] iu, int[] iv,
+      int[] group, boolean[] open) {
+    boolean[] heldBack = open.clone();
+    for (int k = 0; k < order.length; k++) {
+      if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0) {
+        int a = group[iu[k]];
+        int b = group[iv[k]];
+        if (open[a] || open[b]) {
+          heldBack[a] = true;
+          heldBack[b] = true;
+        }
+      }
+    }
+    return heldBack;
+  }
+
+  /**
    * The multicut of the part's inner pairs, their ends moved to their joined group's node; each
-   * open group then leaves its cluster and stays one of its own (all its pairs handed up), and
-   * the rest of the cluster contracts by the pieces its inner pairs connect: per node, its
+   * held-back group then leaves its cluster and stays one of its own (all its pairs handed up),
+   * and the rest of the cluster contracts by the pieces its inner pairs connect: per node, its
    * cluster (0..2n-1). O(m log m) plus the multicut.
    */
   private int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,
-      boolean[] open) {
+      boolean[] heldBack) {
     int inner = 0;
     for (int k = 0; k < order.length; k++) {
       if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0) {
@@ -197,21 +223,21 @@ public final class MulticutPartSolver implements PartSolver {
     }
     EdgeStatistics costs = EdgeStatistics.ofEdges(a, b, w);
     int[] labels = Multicut.ofLinkage(group.length, costs, Linkage.SUM, 0, kernighanLin).labels();
-    // the rest of a cluster contracts by its connected pieces: without its open groups a
-    // cluster may fall apart, and a piece joined only through an open group must not be
+    // the rest of a cluster contracts by its connected pieces: without its held-back groups a
+    // cluster may fall apart, and a piece joined only through a held-back group must not be
     // contracted with another it would be cut from if that group went elsewhere
     int n = group.length;
     int[] piece = UnionFind.singletons(n);
     for (int e = 0; e < a.length; e++) {
       int ga = (int) a[e];
       int gb = (int) b[e];
-      if (!open[ga] && !open[gb] && labels[ga] == labels[gb]) {
+      if (!heldBack[ga] && !heldBack[gb] && labels[ga] == labels[gb]) {
         UnionFind.union(piece, ga, gb);
       }
     }
     int[] cluster = new int[n];
     for (int i = 0; i < n; i++) {
-      cluster[i] = open[group[i]] ? n + group[i] : UnionFind.root(piece, group[i]);
+      cluster[i] = heldBack[group[i]] ? n + group[i] : UnionFind.root(piece, group[i]);
     }
     return cluster;
   }

@@ -125,15 +125,19 @@ public final class MulticutLevelsBenchmark {
             continue;
           }
           String method = levels.result().report().method();
-          int count = Integer.parseInt(method.replaceAll(".*\\((\\d+) levels.*", "$1"));
+          // the multicut's levels come first; with the size filter its pass's levels follow
+          int count = Integer.parseInt(method.replaceFirst("^.*?\\((\\d+) levels.*", "$1"));
+          String filterLevels = method.contains(", then")
+              ? ", size filter " + method.replaceFirst(".*\\((\\d+) levels\\)$", "$1")
+                  + " levels" : "";
           if (count <= seen) {
             continue;
           }
           seen = count;
           FinalIdMap ids = levels.result().finalIds();
-          System.out.printf(Locale.ROOT, "  bound %d: %d levels of super-blocks, VOI %.4f bits"
-              + " against the single level, objective ratio %.4f, %d segments, solve %.2f s"
-              + " wall, %.2f s CPU%n", bound, count,
+          System.out.printf(Locale.ROOT, "  bound %d: %d levels of super-blocks%s, VOI %.4f"
+              + " bits against the single level, objective ratio %.4f, %d segments, solve %.2f s"
+              + " wall, %.2f s CPU%n", bound, count, filterLevels,
               voi(summaries, setup, single.result().finalIds()::apply, ids::apply),
               objective(graph, ids) / objective, ids.finalIdCount(), levels.wall(),
               levels.cpu());

@@ -132,9 +132,10 @@ class MulticutPartSolverTest {
    * inner pairs without the pairs leaving it, so a contraction it makes can be one the whole
    * graph would not make; on graphs of a few dozen nodes one such contraction is a large share
    * of the objective. Measured on these graphs (noisy weights, 15% of signs flipped, 1 to 3
-   * levels): 100.0% summed, worst trial 99.4%, 3 trials differ (99.9%, 93% and 24 while open
-   * groups were left out of the part's multicut; 99.8%, 81% and 39 before they were held back
-   * at all). A cost lost or counted twice on the way up moves the sum by far more.
+   * levels): 100.0% summed, worst trial 99.99%, 1 trial differs (99.4% and 3 before the open
+   * groups' neighbours were held back too; 99.9%, 93% and 24 while open groups were left out of
+   * the part's multicut; 99.8%, 81% and 39 before they were held back at all). A cost lost or
+   * counted twice on the way up moves the sum by far more.
    */
   @Test
   void decomposedIsAValidPartitionNearTheSingleLevelObjective() {
@@ -168,9 +169,9 @@ class MulticutPartSolverTest {
       leveled += solver.lastResult().levels().isEmpty() ? 0 : 1;
       differ += Arrays.equals(expected, actual) ? 0 : 1;
     }
-    // open groups are held back, so on graphs this small many trials fit the driver only
-    // without levels; 121 of the 200 use one
-    assertTrue(leveled >= 100, "trials that used a level: " + leveled);
+    // open groups and their neighbours are held back, so on graphs this small many trials fit
+    // the driver only without levels; 88 of the 200 use one
+    assertTrue(leveled >= 75, "trials that used a level: " + leveled);
     assertTrue(decomposed / single >= 0.99, "objective ratio " + decomposed / single);
     assertTrue(worst >= 0.9, "worst trial's objective ratio " + worst);
     assertTrue(differ <= 10, "trials whose partition differs: " + differ);
@@ -252,32 +253,56 @@ class MulticutPartSolverTest {
 
   /**
    * An open node (3, with a pair to node 9 outside the part) takes part in the part's multicut:
-   * node 1 joins it first (cost 5), and the joined pair then repels node 2 (1 − 10), as in the
-   * whole graph; left out, it would let 1 and 2 contract on their own cost of 1. It is never
-   * contracted itself, while the rest of its cluster is, piece by piece: 1 and 2, joined only
-   * through it, stay apart. Worked by hand.
+   * it draws its neighbours 4 and 5 together (+10 each), and the three then pull node 1 (3 + 3)
+   * away from node 2, which they repel (-5 - 5), so 1 and 2 end apart; left out, 3 would let 1
+   * and 2 contract first on their own cost of 4. Worked by hand.
    */
   @Test
-  void anOpenNodeTakesPartButStaysItsOwnNode() {
-    SolveEdges repelled = new SolveEdges(4);
-    MulticutPartSolver.addPair(repelled, 1, 2, 1);
-    MulticutPartSolver.addPair(repelled, 1, 3, 5);
-    MulticutPartSolver.addPair(repelled, 2, 3, -10);
-    MulticutPartSolver.addPair(repelled, 3, 9, 1);
-    PartResult none = new MulticutPartSolver(false).solve(repelled, node -> node < 9);
-    assertArrayEquals(new long[0], none.merged());
+  void anOpenNodeTakesPartInThePartsMulticut() {
+    SolveEdges rows = new SolveEdges(8);
+    MulticutPartSolver.addPair(rows, 1, 2, 4);
+    MulticutPartSolver.addPair(rows, 1, 4, 3);
+    MulticutPartSolver.addPair(rows, 1, 5, 3);
+    MulticutPartSolver.addPair(rows, 2, 4, -5);
+    MulticutPartSolver.addPair(rows, 2, 5, -5);
+    MulticutPartSolver.addPair(rows, 3, 4, 10);
+    MulticutPartSolver.addPair(rows, 3, 5, 10);
+    MulticutPartSolver.addPair(rows, 3, 9, 1);
+    PartResult part = new MulticutPartSolver(false).solve(rows, node -> node < 9);
+    assertArrayEquals(new long[0], part.merged());
 
-    SolveEdges joined = new SolveEdges(3);
+    SolveEdges without = new SolveEdges(8);
+    for (int e = 0; e < rows.size(); e++) {
+      if (rows.u(e) != 3 && rows.v(e) != 3) {
+        without.add(rows, e, rows.u(e), rows.v(e));
+      }
+    }
+    PartResult closed = new MulticutPartSolver(false).solve(without, node -> node < 9);
+    assertArrayEquals(new long[] {2}, closed.merged());
+    assertArrayEquals(new long[] {1}, closed.representative());
+  }
+
+  /**
+   * An open node (3) and its neighbour in the part (4) are never contracted, though the part's
+   * multicut puts them in one cluster with 1 and 2; the rest of the cluster is, piece by piece:
+   * 1 and 2 join when a pair of their own connects them, and stay apart when they touch only
+   * through 4. Worked by hand.
+   */
+  @Test
+  void anOpenNodeAndItsNeighboursStayTheirOwnNodes() {
+    SolveEdges joined = new SolveEdges(4);
     MulticutPartSolver.addPair(joined, 1, 2, 5);
-    MulticutPartSolver.addPair(joined, 2, 3, 1);
+    MulticutPartSolver.addPair(joined, 2, 4, 1);
+    MulticutPartSolver.addPair(joined, 3, 4, 1);
     MulticutPartSolver.addPair(joined, 3, 9, 1);
     PartResult rest = new MulticutPartSolver(false).solve(joined, node -> node < 9);
     assertArrayEquals(new long[] {2}, rest.merged());
     assertArrayEquals(new long[] {1}, rest.representative());
 
-    SolveEdges through = new SolveEdges(3);
-    MulticutPartSolver.addPair(through, 1, 3, 5);
-    MulticutPartSolver.addPair(through, 2, 3, 5);
+    SolveEdges through = new SolveEdges(4);
+    MulticutPartSolver.addPair(through, 1, 4, 5);
+    MulticutPartSolver.addPair(through, 2, 4, 5);
+    MulticutPartSolver.addPair(through, 3, 4, 1);
     MulticutPartSolver.addPair(through, 3, 9, 1);
     PartResult apart = new MulticutPartSolver(false).solve(through, node -> node < 9);
     assertArrayEquals(new long[0], apart.merged());
