@@ -30,8 +30,9 @@ public record LevelEstimate(int levels, long largestTaskEdges, long driverEdges,
   public static final double HANDED_UP_PER_LEVEL = 0.5;
   /**
    * The same for the multicut by domain decomposition, whose parts never contract a node with a
-   * pair leaving them: measured 0.66 and 0.68 at levels 1 and 2 (144 blocks) and 0.74, 0.66 and
-   * 0.82 at levels 1 to 3 (576 blocks) on that tissue, rounded up.
+   * pair leaving them nor its neighbours: measured 0.84 and 0.74 at levels 1 and 2 (144 blocks)
+   * and 0.88, 0.72 and 0.77 at levels 1 to 3 (576 blocks) on that tissue, 0.79 per level over
+   * the levels at both sizes, rounded up.
    */
   public static final double MULTICUT_HANDED_UP_PER_LEVEL = 0.8;
   /** The largest part's edges against the mean part's: measured 1.4 (level 1), 1.9 (level 2). */
