@@ -103,9 +103,7 @@ public final class MulticutPartSolver implements PartSolver {
     int[] iv = part.iv();
     int n = nodes.length;
     int[] group = joinedGroups(rows, order, iu, iv, n);
-    boolean[] heldGroups = withNeighbours(rows, order, iu, iv, group,
-        openGroups(iu, iv, group));
-    int[] cluster = multicut(rows, order, iu, iv, group, heldGroups);
+    int[] cluster = multicut(rows, order, iu, iv, group, openGroups(iu, iv, group));
     long[] rep = new long[n];
     int[] smallest = new int[2 * n];
     Arrays.fill(smallest, -1);
@@ -164,7 +162,7 @@ public final class MulticutPartSolver implements PartSolver {
 
   /**
    * Per group node, whether its group has a pair (joined or cost) leaving the part: then its
-   * joins lean on pairs this part cannot see, and it is held back. O(m).
+   * joins lean on pairs this part cannot see, and it and its neighbours are held back. O(m).
    */
   private static boolean[] openGroups(int[] iu, int[] iv, int[] group) {
     boolean[] open = new boolean[group.length];
@@ -177,33 +175,14 @@ public final class MulticutPartSolver implements PartSolver {
   }
 
   /**
-   * Per group node, whether it is held back: open, or joined to an open group by an inner cost
-   * pair. O(m).
-   */
-  private static boolean[] withNeighbours(SolveEdges rows, int[] order, int[] iu, int[] iv,
-      int[] group, boolean[] open) {
-    boolean[] heldBack = open.clone();
-    for (int k = 0; k < order.length; k++) {
-      if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0) {
-        int a = group[iu[k]];
-        int b = group[iv[k]];
-        if (open[a] || open[b]) {
-          heldBack[a] = true;
-          heldBack[b] = true;
-        }
-      }
-    }
-    return heldBack;
-  }
-
-  /**
    * The multicut of the part's inner pairs, their ends moved to their joined group's node; each
-   * held-back group then leaves its cluster and stays one of its own (all its pairs handed up),
-   * and the rest of the cluster contracts by the pieces its inner pairs connect: per node, its
-   * cluster (0..2n-1). O(m log m) plus the multicut.
+   * held-back group (an {@code open} one, or one with an inner pair to an open one) then leaves
+   * its cluster and stays one of its own (all its pairs handed up), and the rest of the cluster
+   * contracts by the pieces its inner pairs connect: per node, its cluster (0..2n-1).
+   * O(m log m) plus the multicut.
    */
   private int[] multicut(SolveEdges rows, int[] order, int[] iu, int[] iv, int[] group,
-      boolean[] heldBack) {
+      boolean[] open) {
     int inner = 0;
     for (int k = 0; k < order.length; k++) {
       if (rows.kind(order[k]) == COST && iu[k] >= 0 && iv[k] >= 0) {
@@ -219,6 +198,13 @@ public final class MulticutPartSolver implements PartSolver {
         a[inner] = group[iu[k]];
         b[inner] = group[iv[k]];
         w[inner++] = rows.weight(order[k]);
+      }
+    }
+    boolean[] heldBack = open.clone();
+    for (int e = 0; e < a.length; e++) {
+      if (open[(int) a[e]] || open[(int) b[e]]) {
+        heldBack[(int) a[e]] = true;
+        heldBack[(int) b[e]] = true;
       }
     }
     EdgeStatistics costs = EdgeStatistics.ofEdges(a, b, w);
