@@ -79,6 +79,7 @@ import org.sunder.stitching.setup.StitchingSetup;
  * as a multiple of the longest offset per axis (default 1, what a run uses). Blocks are
  * {@code ceil(shape / n)} rounded up to whole chunks ({@link BlockwiseRuns#blockShape}), so a
  * short axis can hold fewer than {@code n} blocks; each line prints the grid actually used.
+ * {@code -Dpresets=dense-neurites,...} measures only the named tissue kinds (default: all).
  */
 public final class QualityBenchmark {
   /** Chunks of the affinity and label datasets, memory order. */
@@ -148,7 +149,11 @@ public final class QualityBenchmark {
 
     List<Run> runs = new ArrayList<>();
     List<Baselines> baselines = new ArrayList<>();
+    List<String> presets = List.of(System.getProperty("presets", "").split(","));
     for (TissuePreset preset : TissuePreset.values()) {
+      if (!presets.equals(List.of("")) && !presets.contains(preset.presetName())) {
+        continue;
+      }
       for (long seed : seeds) {
         long t0 = cpuNanos();
         SyntheticVolume volume = preset.volume(seed, shape);
