@@ -38,7 +38,9 @@ import org.sunder.stitching.solve.SuperBlocks;
  *
  * <p>Arguments (optional): edge counts, comma-separated (default {@code 1e6,1e7,1e8});
  * {@code noisy} (default) or {@code exact}; driver bound as a fraction of the edges (default
- * 0.06; doubled until the last level's rest fits). Run with {@code SUNDER_JAVA_OPTS=-Xmx8g} (the default of {@code bin/bench}).
+ * 0.06; doubled until the last level's rest fits). {@code -Dfactor=N} groups N blocks per axis
+ * into a super-block (default 2, what a run uses). Run with {@code SUNDER_JAVA_OPTS=-Xmx8g}
+ * (the default of {@code bin/bench}).
  */
 public final class HierarchicalSolveBenchmark {
   private static final int N = 12;
@@ -97,7 +99,7 @@ public final class HierarchicalSolveBenchmark {
     BlockGrid grid = BlockGrid.of(new long[] {16L * g, 16L * g, 8L * gz}, new int[] {16, 16, 8},
         new int[] {16, 16, 8}, new int[] {1, 1, 1});
     IdLayout layout = IdLayout.forGrid(grid);
-    SuperBlocks superBlocks = new SuperBlocks(grid, layout, 2);
+    SuperBlocks superBlocks = new SuperBlocks(grid, layout, Integer.getInteger("factor", 2));
     SyntheticBlocks synth = new SyntheticBlocks(grid, layout, exact, 17);
     long edges = 0;
     for (int b = 0; b < grid.blockCount(); b++) {
@@ -273,19 +275,20 @@ public final class HierarchicalSolveBenchmark {
     /** Level 1's input of part {@code part}: every edge with an end in it. */
     SolveEdges partInput(SuperBlocks superBlocks, int part) {
       long cpu = THREADS.getCurrentThreadCpuTime();
+      int f = superBlocks.factor();
       long[] parts = new long[3];
       for (int d = 0; d < 3; d++) {
-        parts[d] = (shape[d] + 1) / 2;
+        parts[d] = (shape[d] + f - 1) / f;
       }
-      long[] origin = {2 * (part % parts[0]), 2 * (part / parts[0] % parts[1]),
-          2 * (part / (parts[0] * parts[1]))};
+      long[] origin = {f * (part % parts[0]), f * (part / parts[0] % parts[1]),
+          f * (part / (parts[0] * parts[1]))};
       SolveEdges in = new SolveEdges(16);
       long[] q = new long[3];
       // the part's blocks and, below each of its lower faces, the blocks whose pairs reach in
-      for (q[2] = Math.max(0, origin[2] - 1); q[2] < Math.min(shape[2], origin[2] + 2); q[2]++) {
-        for (q[1] = Math.max(0, origin[1] - 1); q[1] < Math.min(shape[1], origin[1] + 2);
+      for (q[2] = Math.max(0, origin[2] - 1); q[2] < Math.min(shape[2], origin[2] + f); q[2]++) {
+        for (q[1] = Math.max(0, origin[1] - 1); q[1] < Math.min(shape[1], origin[1] + f);
             q[1]++) {
-          for (q[0] = Math.max(0, origin[0] - 1); q[0] < Math.min(shape[0], origin[0] + 2);
+          for (q[0] = Math.max(0, origin[0] - 1); q[0] < Math.min(shape[0], origin[0] + f);
               q[0]++) {
             SolveEdges owned = ownedEdges(grid.blockIndex(q));
             for (int e = 0; e < owned.size(); e++) {
