@@ -70,7 +70,8 @@ public final class SplitSurvey {
     pieces.printExtrasBySpan();
     printPurity("fragments", toLongs(fragments), truth);
     printPurity("segments", segments, truth);
-    printCostsApart(pieces, segments, truth, affinities, offsets, shape);
+    printCostsApart(pieces, segments, truth, majorityObjects(fragments, truth), fragments,
+        affinities, offsets, shape);
   }
 
   /** Each segment's size, z span and majority object; each object's largest segment. */
@@ -167,7 +168,13 @@ public final class SplitSurvey {
   }
 
   private static void printCostsApart(Pieces pieces, long[] segments, long[] truth,
-      float[] affinities, Offsets offsets, long[] shape) {
+      Map<Long, Long> objectOfFragment, int[] fragments, float[] affinities, Offsets offsets,
+      long[] shape) {
+    // the foreign ends of edges across objects: in a fragment of the segment's own object (a
+    // sliver the flood gave it), in a fragment of another object (joined by the multicut), or
+    // on ground-truth background
+    double[] foreignWeight = new double[3];
+    long[] foreignEnds = new long[3];
     int[][] vectors = offsets.vectors();
     int nx = (int) shape[0];
     int ny = (int) shape[1];
@@ -206,6 +213,16 @@ public final class SplitSurvey {
         } else {
           costAcross[k] += w;
           edgesAcross[k]++;
+          for (int end : new int[] {i, j}) {
+            long object = pieces.objectOf.get(segments[end]);
+            if (truth[end] == object) {
+              continue;
+            }
+            int kind = truth[end] == 0 ? 2
+                : objectOfFragment.get((long) fragments[end]) == object ? 0 : 1;
+            foreignWeight[kind] += w;
+            foreignEnds[kind]++;
+          }
         }
       }
     }
@@ -217,6 +234,25 @@ public final class SplitSurvey {
           java.util.Arrays.toString(vectors[k]), edgesSame[k], costSame[k], edgesAcross[k],
           costAcross[k]);
     }
+    System.out.printf(Locale.ROOT, "  their foreign ends: in a fragment of the segment's own"
+        + " object %d (weight %.0f), in a fragment of another object %d (%.0f), on background %d"
+        + " (%.0f)%n", foreignEnds[0], foreignWeight[0], foreignEnds[1], foreignWeight[1],
+        foreignEnds[2], foreignWeight[2]);
+  }
+
+  /** Per fragment, the ground-truth object (background included) holding most of its voxels. */
+  private static Map<Long, Long> majorityObjects(int[] fragments, long[] truth) {
+    Map<Long, Map<Long, Long>> overlap = new HashMap<>();
+    for (int i = 0; i < fragments.length; i++) {
+      overlap.computeIfAbsent((long) fragments[i], k -> new HashMap<>())
+          .merge(truth[i], 1L, Long::sum);
+    }
+    Map<Long, Long> out = new HashMap<>();
+    for (var e : overlap.entrySet()) {
+      out.put(e.getKey(), e.getValue().entrySet().stream()
+          .max(Map.Entry.comparingByValue()).orElseThrow().getKey());
+    }
+    return out;
   }
 
   /** Whether {@code piece} is a long extra segment and {@code main} its object's largest. */
