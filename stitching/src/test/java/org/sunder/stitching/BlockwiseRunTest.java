@@ -12,10 +12,14 @@ import java.util.ArrayList;
 import java.util.Collections;
 import java.util.List;
 import java.util.Random;
+import net.imglib2.FinalInterval;
 import net.imglib2.img.array.ArrayImgs;
+import net.imglib2.img.basictypeaccess.array.ByteArray;
+import net.imglib2.img.basictypeaccess.array.LongArray;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
@@ -28,6 +32,7 @@ import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.FragmentsAgglomerationMethod;
 import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.blockwise.partition.fragments.DetachedVoxels;
 import org.sunder.blockwise.store.Container;
 import org.sunder.blockwise.store.DataType;
 import org.sunder.blockwise.store.Dataset;
@@ -36,11 +41,13 @@ import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
+import org.sunder.stitching.setup.AffinityReader;
 import org.sunder.stitching.setup.StitchingSetup;
 import org.sunder.stitching.solve.GlobalSolve;
 import org.sunder.stitching.solve.RelabelTask;
 import org.sunder.stitching.task.BlockSummary;
 import org.sunder.stitching.task.PartitionTask;
+import org.sunder.stitching.task.SeamExtraction;
 import org.sunder.stitching.task.SeamEdges;
 import org.sunder.stitching.task.SeamTask;
 import org.sunder.testing.PythonReference;
@@ -217,6 +224,73 @@ class BlockwiseRunTest {
   }
 
   /**
+   * The fragment methods' seams read a slab widened by the reach of {@link DetachedVoxels}: it
+   * holds exactly the narrower slab's edges of the face and continued pairs, and inside the
+   * narrower slab it judges every voxel detached or not as the whole volume does
+   * (dense-neurites preset, whose background between fibres holds detached voxels; 8 blocks).
+   */
+  @Test
+  void aSeamSlabReadsTheFaceAsBeforeAndJudgesVoxelsAsTheWholeVolume() {
+    long[] shape = {96, 96, 32};
+    TissuePreset preset = TissuePreset.DENSE_NEURITES;
+    SyntheticVolume volume = preset.volume(2, shape);
+    float[] affinities = preset.affinities(volume, 2);
+    int[][] offsets = TissuePreset.offsets().vectors();
+    TissueScene scene = new TissueScene(new int[] {96, 96, 32}, volume.labels(), affinities,
+        offsets);
+    StitchingSetup setup = stage(scene, "wide-seams", StorageFormat.ZARR, new int[] {48, 48, 16},
+        TissuePreset.offsets().reach(), PartitionConfig.robustDefault(volume.spec().voxelSize()));
+    setup.validateInputs();
+    setup.createLabels();
+    BlockGrid grid = setup.grid();
+    for (int b = 0; b < grid.blockCount(); b++) {
+      PartitionTask.run(setup, b);
+    }
+    byte[] wholeDetached = DetachedVoxels.find(AffinityBlock.ofFloats(affinities, scene.shape,
+        new long[3], Offsets.of(offsets), null));
+    int detachedSeen = 0;
+    for (int f = 0; f < grid.faceCount(); f++) {
+      Face face = grid.face(f);
+      SeamExtraction.Box slab = SeamExtraction.slab(grid, face, setup.offsets());
+      SeamExtraction.Box wide = SeamTask.readBox(setup, face);
+      SeamEdges narrow = seamEdges(setup, face, slab);
+      SeamEdges wider = seamEdges(setup, face, wide);
+      assertTrue(narrow.edges().size() > 0, "face " + f);
+      assertEquals(narrow.edges(), wider.edges(), "face " + f);
+      assertEquals(narrow.continued(), wider.continued(), "face " + f);
+      byte[] judged = DetachedVoxels.find(AffinityReader.read(setup, wide.min(), wide.max()));
+      int[] wideShape = new int[3];
+      for (int d = 0; d < 3; d++) {
+        wideShape[d] = (int) (wide.max()[d] - wide.min()[d] + 1);
+      }
+      for (long z = slab.min()[2]; z <= slab.max()[2]; z++) {
+        for (long y = slab.min()[1]; y <= slab.max()[1]; y++) {
+          for (long x = slab.min()[0]; x <= slab.max()[0]; x++) {
+            int inWide = (int) (x - wide.min()[0] + wideShape[0] * (y - wide.min()[1]
+                + wideShape[1] * (z - wide.min()[2])));
+            int inWhole = (int) (x + shape[0] * (y + shape[1] * z));
+            assertEquals(wholeDetached[inWhole], judged[inWide],
+                "voxel " + x + ", " + y + ", " + z);
+            detachedSeen += judged[inWide];
+          }
+        }
+      }
+    }
+    assertTrue(detachedSeen > 1000, "the slabs hold detached voxels: " + detachedSeen);
+  }
+
+  private static SeamEdges seamEdges(StitchingSetup setup, Face face, SeamExtraction.Box box) {
+    FinalInterval interval = new FinalInterval(box.min(), box.max());
+    long[] labels = ((LongArray) setup.openLabels().read(interval).update(null))
+        .getCurrentStorageArray();
+    byte[] continuations = ((ByteArray) setup.openContinuations().read(interval).update(null))
+        .getCurrentStorageArray();
+    GridGraph graph = GridGraph.of(AffinityReader.read(setup, box.min(), box.max()),
+        setup.partition().weights(), setup.partition().subsampling());
+    return SeamExtraction.extract(setup.grid(), face, labels, continuations, null, graph);
+  }
+
+  /**
    * The fragment methods' size filter runs once, after the global solve, on every segment of the
    * volume: a blockwise run with {@code minSegmentSize} gives the run without it, filtered as one
    * volume (dense-neurites preset, 96 x 96 x 32 voxels, 8 blocks; the filter of the default,
@@ -259,7 +333,7 @@ class BlockwiseRunTest {
         Offsets.of(offsets), null);
     org.sunder.blockwise.graph.EdgeStatistics statistics = org.sunder.blockwise.graph.RegionGraph
         .of(segments.labels(), org.sunder.blockwise.graph.GridGraph.of(all, filtered.weights(),
-            filtered.subsampling())).statistics();
+            filtered.subsampling()), null, filtered.create().ignoredVoxels(all)).statistics();
     int[] expected = filtered.createSizeFilter().apply(segments, statistics, null).labels();
     long[] expectedLabels = new long[expected.length];
     for (int i = 0; i < expected.length; i++) {

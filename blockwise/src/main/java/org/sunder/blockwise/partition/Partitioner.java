@@ -36,4 +36,14 @@ public interface Partitioner {
   default SettledPartition partitionSettled(AffinityBlock block, byte[] open, byte[] inside) {
     return partitionSettled(block, open);
   }
+
+  /**
+   * Per voxel of {@code block}, 1 where the method leaves the voxel's edges out of the
+   * statistics between segments, or null when it counts every edge; a size filter after the
+   * method weighs the segments' attraction by the same edges. The fragment methods leave out
+   * defective sections and detached voxels ({@code BlockFragments#ignoredVoxels}).
+   */
+  default byte[] ignoredVoxels(AffinityBlock block) {
+    return null;
+  }
 }

@@ -7,7 +7,8 @@ import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.grid.Face;
 import org.sunder.blockwise.partition.config.PartitionConfig;
-import org.sunder.blockwise.partition.fragments.DefectiveSections;
+import org.sunder.blockwise.partition.fragments.BlockFragments;
+import org.sunder.blockwise.partition.fragments.DetachedVoxels;
 import org.sunder.stitching.setup.AffinityReader;
 import org.sunder.stitching.setup.StitchingSetup;
 
@@ -25,7 +26,7 @@ public final class SeamTask {
   /** Runs the task for face {@code faceIndex}. */
   public static SeamEdges run(StitchingSetup setup, int faceIndex) {
     Face face = setup.grid().face(faceIndex);
-    SeamExtraction.Box slab = SeamExtraction.slab(setup.grid(), face, setup.offsets());
+    SeamExtraction.Box slab = readBox(setup, face);
     AffinityBlock affinities = AffinityReader.read(setup, slab.min(), slab.max());
     long[] labels = ((LongArray) setup.openLabels()
         .read(new FinalInterval(slab.min(), slab.max())).update(null)).getCurrentStorageArray();
@@ -36,7 +37,29 @@ public final class SeamTask {
             .update(null)).getCurrentStorageArray()
         : null;
     byte[] ignored = setup.tracksContinuations()
-        ? DefectiveSections.ignoredVoxels(affinities, config.fragments()) : null;
+        ? BlockFragments.ignoredVoxels(affinities, config.fragments()) : null;
     return SeamExtraction.extract(setup.grid(), face, labels, continuations, ignored, graph);
+  }
+
+  /**
+   * The box the task reads for {@code face}: its slab ({@link SeamExtraction#slab}), for the
+   * fragment methods grown by {@link DetachedVoxels#REACH} voxels on every side (clipped to the
+   * volume) so that every voxel of the slab is judged from its whole neighbourhood. A wider
+   * slab holds the same edges of the face (each has both ends within the slab) and the same
+   * face voxel pairs.
+   */
+  public static SeamExtraction.Box readBox(StitchingSetup setup, Face face) {
+    SeamExtraction.Box slab = SeamExtraction.slab(setup.grid(), face, setup.offsets());
+    if (!setup.tracksContinuations()) {
+      return slab;
+    }
+    long[] volume = setup.grid().volumeShape();
+    long[] min = slab.min().clone();
+    long[] max = slab.max().clone();
+    for (int d = 0; d < min.length; d++) {
+      min[d] = Math.max(0, min[d] - DetachedVoxels.REACH);
+      max[d] = Math.min(volume[d] - 1, max[d] + DetachedVoxels.REACH);
+    }
+    return new SeamExtraction.Box(min, max);
   }
 }

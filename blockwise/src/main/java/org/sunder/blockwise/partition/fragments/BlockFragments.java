@@ -47,10 +47,34 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
       count = Math.max(count, l);
     }
     GridGraph graph = GridGraph.of(block, weights, subsampling);
-    byte[] ignored = defective == null ? null : DefectiveSections.voxels(defective, block.shape());
+    byte[] ignored = ignoredVoxels(block, defective);
     RegionGraph regions = RegionGraph.of(labels, graph, insideOrNull, ignored);
     return new BlockFragments(labels, count, regions.statistics(),
         insideOrNull == null ? null : regions.insideStatistics());
+  }
+
+  /**
+   * Per voxel of {@code block}, 1 where the fragment methods leave the voxel's edges out of
+   * their costs: in a {@link DefectiveSections defective section}, or {@link DetachedVoxels
+   * detached} from every object. The seams judge the voxels near a face the same way from a slab
+   * of affinities that reaches {@link DetachedVoxels#REACH} voxels beyond the face's edges.
+   *
+   * @param options the fragment options, fitted to the voxel size or not
+   */
+  public static byte[] ignoredVoxels(AffinityBlock block, FragmentOptions options) {
+    FragmentOptions fitted = options.forDimension(block.shape().length);
+    return ignoredVoxels(block, DefectiveSections.find(block, fitted.voxelSize()));
+  }
+
+  private static byte[] ignoredVoxels(AffinityBlock block, boolean[] defectiveOrNull) {
+    byte[] ignored = DetachedVoxels.find(block);
+    if (defectiveOrNull != null) {
+      byte[] inDefective = DefectiveSections.voxels(defectiveOrNull, block.shape());
+      for (int i = 0; i < ignored.length; i++) {
+        ignored[i] |= inDefective[i];
+      }
+    }
+    return ignored;
   }
 
   /**

@@ -209,18 +209,6 @@ public final class DefectiveSections {
     return WatershedFragments.consecutive(labels);
   }
 
-  /**
-   * Per voxel of {@code block}, 1 in a defective plane (see {@link #find}), else 0: the voxels
-   * whose edges the fragment methods leave out; null when no plane is defective.
-   *
-   * @param options the fragment options, fitted to the voxel size or not
-   */
-  public static byte[] ignoredVoxels(AffinityBlock block, FragmentOptions options) {
-    FragmentOptions fitted = options.forDimension(block.shape().length);
-    boolean[] defective = find(block, fitted.voxelSize());
-    return defective == null ? null : voxels(defective, block.shape());
-  }
-
   /** 1 for every voxel of a defective plane, else 0: the voxels whose edges say nothing. */
   static byte[] voxels(boolean[] defective, int[] shape) {
     int planeSize = shape[0] * shape[1];

@@ -59,4 +59,9 @@ public record FragmentsAgglomerationPartitioner(FragmentOptions fragments,
         .clusterOf();
     return Arrays.copyOfRange(clusterOfNode, 1, clusterOfNode.length);
   }
+
+  @Override
+  public byte[] ignoredVoxels(AffinityBlock block) {
+    return BlockFragments.ignoredVoxels(block, fragments);
+  }
 }

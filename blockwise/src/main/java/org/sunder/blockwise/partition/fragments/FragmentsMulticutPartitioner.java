@@ -63,4 +63,9 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
   private MulticutResult solve(int count, EdgeStatistics statistics) {
     return Multicut.ofLinkage(count, statistics, linkage, 1, kernighanLin);
   }
+
+  @Override
+  public byte[] ignoredVoxels(AffinityBlock block) {
+    return BlockFragments.ignoredVoxels(block, fragments);
+  }
 }

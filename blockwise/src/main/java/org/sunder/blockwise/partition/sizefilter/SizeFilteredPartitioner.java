@@ -16,8 +16,8 @@ import org.sunder.blockwise.partition.agglomeration.Linkage;
  * Any {@link Partitioner} followed by a {@link SizeFilter}: the region graph of the segments
  * over the block's signed edges gives the attraction between them, and {@link CannotLink} says
  * which pairs the method itself kept apart by a constraint ({@code methodLinkage} is the
- * method's linkage, used only for {@link CannotLink#NONZERO_LINKAGE}). Adds one pass over the
- * edges.
+ * method's linkage, used only for {@link CannotLink#NONZERO_LINKAGE}). The edges the method
+ * leaves out ({@link Partitioner#ignoredVoxels}) stay out. Adds one pass over the edges.
  *
  * <p>In a blockwise run ({@link #partitionSettled(AffinityBlock, byte[], byte[])}) a piece that
  * is unsettled or reaches a voxel the caller marks (a block's halo and the core's voxels near a
@@ -90,10 +90,15 @@ public record SizeFilteredPartitioner(Partitioner inner, SizeFilter filter, Weig
     return new SettledPartition(out, unsettled);
   }
 
+  @Override
+  public byte[] ignoredVoxels(AffinityBlock block) {
+    return inner.ignoredVoxels(block);
+  }
+
   private Segmentation filtered(AffinityBlock block, Segmentation segmentation,
       boolean[] leaveAloneOrNull) {
     EdgeStatistics statistics = RegionGraph.of(segmentation.labels(),
-        GridGraph.of(block, weights, subsampling)).statistics();
+        GridGraph.of(block, weights, subsampling), null, inner.ignoredVoxels(block)).statistics();
     return filter.apply(segmentation, statistics,
         cannotLinkFlags(cannotLink, statistics, methodLinkage), leaveAloneOrNull);
   }
