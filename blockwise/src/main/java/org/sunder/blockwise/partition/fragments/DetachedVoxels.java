@@ -36,24 +36,61 @@ public final class DetachedVoxels {
     byte[] attached = new byte[n];
     for (int k = 0; k < offsets.length; k++) {
       int axis = nearestAxis(offsets[k]);
-      if (axis < 0) {
-        continue;
-      }
-      int sign = offsets[k][axis];
-      int stride = stride(shape, axis);
-      for (int i = 0; i < n; i++) {
-        int to = i / stride % shape[axis] + sign;
-        if (to >= 0 && to < shape[axis] && block.affinity(i, k) >= ATTRACTS) {
-          attached[i] = 1;
-          attached[i + sign * stride] = 1;
-        }
+      if (axis >= 0) {
+        markAttached(block, k, axis, offsets[k][axis], attached);
       }
     }
     byte[] detached = new byte[n];
     for (int i = 0; i < n; i++) {
-      detached[i] = (byte) (attached[i] == 0 && !hasAttachedNeighbour(attached, shape, i) ? 1 : 0);
+      detached[i] = (byte) (1 - attached[i]);
+    }
+    // the erosion: a voxel beside an attached one is not detached
+    int stride = 1;
+    for (int axis = 0; axis < shape.length; axis++) {
+      int extent = shape[axis];
+      int outer = n / (stride * extent);
+      for (int hi = 0; hi < outer; hi++) {
+        for (int c = 0; c < extent; c++) {
+          int base = stride * (c + extent * hi);
+          for (int i = base; i < base + stride; i++) {
+            if (c > 0 && attached[i - stride] != 0
+                || c + 1 < extent && attached[i + stride] != 0) {
+              detached[i] = 0;
+            }
+          }
+        }
+      }
+      stride *= extent;
     }
     return detached;
+  }
+
+  /**
+   * Marks both ends of every edge of channel {@code k} (a nearest-neighbour offset of
+   * {@code sign} along {@code axis}) whose affinity attracts; rows in memory order, no division
+   * per voxel.
+   */
+  private static void markAttached(AffinityBlock block, int k, int axis, int sign,
+      byte[] attached) {
+    int[] shape = block.shape();
+    int stride = 1;
+    for (int d = 0; d < axis; d++) {
+      stride *= shape[d];
+    }
+    int extent = shape[axis];
+    int outer = block.voxelCount() / (stride * extent);
+    int step = sign * stride;
+    for (int hi = 0; hi < outer; hi++) {
+      for (int c = Math.max(0, -sign); c < Math.min(extent, extent - sign); c++) {
+        int base = stride * (c + extent * hi);
+        for (int i = base; i < base + stride; i++) {
+          if (block.affinity(i, k) >= ATTRACTS) {
+            attached[i] = 1;
+            attached[i + step] = 1;
+          }
+        }
+      }
+    }
   }
 
   /** The axis of a nearest-neighbour offset (one component of magnitude 1), else -1. */
@@ -68,25 +105,5 @@ public final class DetachedVoxels {
       }
     }
     return axis;
-  }
-
-  private static int stride(int[] shape, int axis) {
-    int stride = 1;
-    for (int d = 0; d < axis; d++) {
-      stride *= shape[d];
-    }
-    return stride;
-  }
-
-  private static boolean hasAttachedNeighbour(byte[] attached, int[] shape, int i) {
-    int stride = 1;
-    for (int d = 0; d < shape.length; d++) {
-      int c = i / stride % shape[d];
-      if (c > 0 && attached[i - stride] != 0 || c + 1 < shape[d] && attached[i + stride] != 0) {
-        return true;
-      }
-      stride *= shape[d];
-    }
-    return false;
   }
 }
