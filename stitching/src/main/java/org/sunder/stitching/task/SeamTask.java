@@ -14,11 +14,12 @@ import org.sunder.stitching.setup.StitchingSetup;
 
 /**
  * The seam stage's task for one face: read the provisional ids and the affinities of the face's
- * slab (as deep on each side as the longest offset along the face's axis) and aggregate every
- * voxel edge the face owns (all offsets, long-range ones with the partition's subsampling, which
- * is a function of global coordinates) into {@link SeamEdges}; for the fragment methods also the
- * pairs that continue across the face, from the continuation flags both blocks wrote. Reads only; runs after every
- * block of the partition stage. O(slab voxels * offsets).
+ * slab (as deep on each side as the longest offset along the face's axis; see {@link #readBox})
+ * and aggregate every voxel edge the face owns (all offsets, long-range ones with the
+ * partition's subsampling, which is a function of global coordinates) into {@link SeamEdges};
+ * for the fragment methods also the pairs that continue across the face, from the continuation
+ * flags both blocks wrote. Reads only; runs after every block of the partition stage.
+ * O(slab voxels * offsets).
  */
 public final class SeamTask {
   private SeamTask() {}

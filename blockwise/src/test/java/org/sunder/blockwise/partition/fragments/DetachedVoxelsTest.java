@@ -41,7 +41,7 @@ class DetachedVoxelsTest {
   }
 
   @Test
-  void aVoxelThatAttractsANeighbourIsNeverDetachedNorAreItsNeighbours() {
+  void bothEndsOfAnAttractingEdgeAreNeverDetached() {
     Random random = new Random(3);
     int[] shape = {8, 7, 6};
     for (int trial = 0; trial < 20; trial++) {
@@ -146,8 +146,10 @@ class DetachedVoxelsTest {
     }
   }
 
-  /** Affinities 0, 0.25, 0.5, 0.75 or 1 (ties at the threshold included); each at least 0.5 with
-   * probability {@code attract}. */
+  /**
+   * Affinities 0, 0.25, 0.5, 0.75 or 1 (ties at the threshold included); each at least 0.5 with
+   * probability {@code attract}.
+   */
   private static AffinityBlock randomBlock(Random random, int[] shape, double attract) {
     int n = shape[0] * shape[1] * shape[2];
     float[] values = new float[n * OFFSETS.length];
