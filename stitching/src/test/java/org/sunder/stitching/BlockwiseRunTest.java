@@ -39,7 +39,6 @@ import org.sunder.blockwise.store.Dataset;
 import org.sunder.blockwise.store.DatasetSpec;
 import org.sunder.blockwise.store.StorageFormat;
 import org.sunder.blockwise.synth.Degradation;
-import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
 import org.sunder.stitching.setup.AffinityReader;
 import org.sunder.stitching.setup.StitchingSetup;
@@ -199,12 +198,7 @@ class BlockwiseRunTest {
   @Test
   void fragmentMethodsCutNoMoreObjectsAtFacesThanAtControlPlanes() {
     long[] shape = {128, 128, 48};
-    TissuePreset preset = TissuePreset.COMPACT_CELLS;
-    SyntheticVolume volume = preset.volume(1, shape);
-    float[] affinities = preset.affinities(volume, 1);
-    int[][] offsets = TissuePreset.offsets().vectors();
-    TissueScene scene = new TissueScene(new int[] {128, 128, 48}, volume.labels(), affinities,
-        offsets);
+    TissueScene scene = TissueScene.ofPreset(TissuePreset.COMPACT_CELLS, 1, shape);
     int[] chunk = {32, 32, 8};
     int[] block = {64, 64, 24};
     for (PartitionConfig config : List.of(MULTICUT, FRAGMENTS_MEAN)) {
@@ -233,21 +227,17 @@ class BlockwiseRunTest {
   void aSeamSlabReadsTheFaceAsBeforeAndJudgesVoxelsAsTheWholeVolume() {
     long[] shape = {96, 96, 32};
     TissuePreset preset = TissuePreset.DENSE_NEURITES;
-    SyntheticVolume volume = preset.volume(2, shape);
-    float[] affinities = preset.affinities(volume, 2);
-    int[][] offsets = TissuePreset.offsets().vectors();
-    TissueScene scene = new TissueScene(new int[] {96, 96, 32}, volume.labels(), affinities,
-        offsets);
+    TissueScene scene = TissueScene.ofPreset(preset, 2, shape);
     StitchingSetup setup = stage(scene, "wide-seams", StorageFormat.ZARR, new int[] {48, 48, 16},
-        TissuePreset.offsets().reach(), PartitionConfig.robustDefault(volume.spec().voxelSize()));
+        TissuePreset.offsets().reach(),
+        PartitionConfig.robustDefault(preset.spec(2, shape).voxelSize()));
     setup.validateInputs();
     setup.createLabels();
     BlockGrid grid = setup.grid();
     for (int b = 0; b < grid.blockCount(); b++) {
       PartitionTask.run(setup, b);
     }
-    byte[] wholeDetached = DetachedVoxels.find(AffinityBlock.ofFloats(affinities, scene.shape,
-        new long[3], Offsets.of(offsets), null));
+    byte[] wholeDetached = DetachedVoxels.find(scene.wholeBlock());
     int detachedSeen = 0;
     for (int f = 0; f < grid.faceCount(); f++) {
       Face face = grid.face(f);
@@ -301,16 +291,12 @@ class BlockwiseRunTest {
   void fragmentMethodsFilterSmallSegmentsAsTheWholeVolumeWould() {
     long[] shape = {96, 96, 32};
     TissuePreset preset = TissuePreset.DENSE_NEURITES;
-    SyntheticVolume volume = preset.volume(2, shape);
-    float[] affinities = preset.affinities(volume, 2);
-    int[][] offsets = TissuePreset.offsets().vectors();
-    TissueScene scene = new TissueScene(new int[] {96, 96, 32}, volume.labels(), affinities,
-        offsets);
+    TissueScene scene = TissueScene.ofPreset(preset, 2, shape);
     int[] chunk = {16, 16, 8};
     int[] block = {48, 48, 16};
-    PartitionConfig filtered = PartitionConfig.robustDefault(volume.spec().voxelSize());
-    PartitionConfig unfiltered = new FragmentsMulticutMethod().fittedTo(
-        volume.spec().voxelSize(), null);
+    double[] voxelSize = preset.spec(2, shape).voxelSize();
+    PartitionConfig filtered = PartitionConfig.robustDefault(voxelSize);
+    PartitionConfig unfiltered = new FragmentsMulticutMethod().fittedTo(voxelSize, null);
     assertTrue(filtered.minSegmentSize() > 1, filtered.toString());
     long[][] runs = new long[2][];
     for (int r = 0; r < 2; r++) {
@@ -329,8 +315,7 @@ class BlockwiseRunTest {
     }
     org.sunder.blockwise.partition.Segmentation segments =
         org.sunder.blockwise.partition.Segmentation.fromClusters(before, null);
-    AffinityBlock all = AffinityBlock.ofFloats(affinities, scene.shape, new long[3],
-        Offsets.of(offsets), null);
+    AffinityBlock all = scene.wholeBlock();
     org.sunder.blockwise.graph.EdgeStatistics statistics = org.sunder.blockwise.graph.RegionGraph
         .of(segments.labels(), org.sunder.blockwise.graph.GridGraph.of(all, filtered.weights(),
             filtered.subsampling()), null, filtered.create().ignoredVoxels(all)).statistics();

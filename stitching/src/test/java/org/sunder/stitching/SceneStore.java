@@ -2,7 +2,6 @@ package org.sunder.stitching;
 
 import java.nio.file.Path;
 import net.imglib2.img.array.ArrayImgs;
-import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.Segmentation;
@@ -39,9 +38,7 @@ public final class SceneStore {
 
   /** The whole-volume partition, as one process holding everything would compute it. */
   static Segmentation wholeVolume(TissueScene scene, PartitionConfig config) {
-    AffinityBlock block = AffinityBlock.ofFloats(scene.affinities, scene.shape, new long[3],
-        Offsets.of(scene.offsets), null);
-    return config.create().partition(block);
+    return config.create().partition(scene.wholeBlock());
   }
 
   static long[] readLabels(StitchingSetup setup) {

@@ -1,9 +1,12 @@
 package org.sunder.stitching;
 
+import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.synth.Degradation;
 import org.sunder.blockwise.synth.ExactAffinities;
 import org.sunder.blockwise.synth.SynthSpec;
 import org.sunder.blockwise.synth.SyntheticVolume;
+import org.sunder.blockwise.synth.TissuePreset;
 
 /**
  * A synthetic test volume (the synth package's tissue generator): ground truth, offsets and
@@ -36,6 +39,18 @@ public final class TissueScene {
   /** The small synthetic tissue of the given shape and seed. */
   public static TissueScene small(long seed, long[] shape, Degradation degradation) {
     return generate(SynthSpec.small(seed).withShape(shape), SceneStore.offsets(), degradation);
+  }
+
+  /** A realistic tissue preset: its ground truth, offsets and degraded affinities. */
+  static TissueScene ofPreset(TissuePreset preset, long seed, long[] shape) {
+    SyntheticVolume volume = preset.volume(seed, shape);
+    return new TissueScene(new int[] {(int) shape[0], (int) shape[1], (int) shape[2]},
+        volume.labels(), preset.affinities(volume, seed), TissuePreset.offsets().vectors());
+  }
+
+  /** The whole volume's affinities as one block at the origin. */
+  AffinityBlock wholeBlock() {
+    return AffinityBlock.ofFloats(affinities, shape, new long[3], Offsets.of(offsets), null);
   }
 
   int voxelCount() {

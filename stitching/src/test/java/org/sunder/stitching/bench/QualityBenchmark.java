@@ -149,9 +149,9 @@ public final class QualityBenchmark {
 
     List<Run> runs = new ArrayList<>();
     List<Baselines> baselines = new ArrayList<>();
-    List<String> presets = List.of(System.getProperty("presets", "").split(","));
+    String presets = System.getProperty("presets");
     for (TissuePreset preset : TissuePreset.values()) {
-      if (!presets.equals(List.of("")) && !presets.contains(preset.presetName())) {
+      if (presets != null && !List.of(presets.split(",")).contains(preset.presetName())) {
         continue;
       }
       for (long seed : seeds) {
