@@ -63,4 +63,39 @@ public final class Shapes {
   public static int intElementCount(int[] shape) {
     return Math.toIntExact(elementCount(shape));
   }
+
+  /**
+   * For every voxel of the sub-box ({@code subShape} starting at {@code origin} inside a box of
+   * {@code outerShape}), in the sub-box's order, its index in the outer box. Allocates
+   * {@code intElementCount(subShape)} ints; O(that).
+   */
+  public static int[] subBoxIndices(int[] outerShape, int[] origin, int[] subShape) {
+    int n = outerShape.length;
+    int[] indices = new int[intElementCount(subShape)];
+    int[] stride = new int[n];
+    int step = 1;
+    for (int d = 0; d < n; d++) {
+      stride[d] = step;
+      step *= outerShape[d];
+    }
+    int[] position = new int[n];
+    int rows = indices.length / subShape[0];
+    int next = 0;
+    for (int r = 0; r < rows; r++) {
+      int start = 0;
+      for (int d = 0; d < n; d++) {
+        start += (origin[d] + position[d]) * stride[d];
+      }
+      for (int x = 0; x < subShape[0]; x++) {
+        indices[next++] = start + x;
+      }
+      for (int d = 1; d < n; d++) {
+        if (++position[d] < subShape[d]) {
+          break;
+        }
+        position[d] = 0;
+      }
+    }
+    return indices;
+  }
 }

@@ -88,7 +88,7 @@ public final class CoreSegments {
   /** The core's voxels of a block's extended box (memory order), flagged 1. O(extended voxels). */
   static byte[] coreVoxels(Block block) {
     byte[] core = new byte[Shapes.intElementCount(block.extendedShape())];
-    for (int i : BoxIndex.subBoxIndices(block.extendedShape(),
+    for (int i : Shapes.subBoxIndices(block.extendedShape(),
         BoxIndex.origin(block.extendedMin(), block.coreMin()), block.coreShape())) {
       core[i] = 1;
     }
@@ -153,7 +153,7 @@ public final class CoreSegments {
     Segmentation segmentation = partition.pieces();
     int[] extShape = block.extendedShape();
     int[] coreShape = block.coreShape();
-    int[] coreIndex = BoxIndex.subBoxIndices(extShape,
+    int[] coreIndex = Shapes.subBoxIndices(extShape,
         BoxIndex.origin(block.extendedMin(), block.coreMin()), coreShape);
     int[] labels = segmentation.labels();
     int[] localOf = new int[segmentation.segmentCount() + 1];

@@ -19,6 +19,7 @@ import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.SettledPartition;
 import org.sunder.stitching.SceneStore;
@@ -229,7 +230,7 @@ public class ReducedGraphTest {
   public static AffinityBlock crop(float[] affinities, int[] shape, Offsets offsets, long[] min,
       long[] max) {
     int[] sub = BoxIndex.shape(min, max);
-    int[] index = BoxIndex.subBoxIndices(shape, BoxIndex.origin(new long[3], min), sub);
+    int[] index = Shapes.subBoxIndices(shape, BoxIndex.origin(new long[3], min), sub);
     int n = shape[0] * shape[1] * shape[2];
     float[] out = new float[index.length * offsets.count()];
     for (int k = 0; k < offsets.count(); k++) {
@@ -241,7 +242,7 @@ public class ReducedGraphTest {
   }
 
   public static long[] cut(long[] labels, int[] shape, long[] min, long[] max) {
-    int[] index = BoxIndex.subBoxIndices(shape, BoxIndex.origin(new long[3], min),
+    int[] index = Shapes.subBoxIndices(shape, BoxIndex.origin(new long[3], min),
         BoxIndex.shape(min, max));
     long[] out = new long[index.length];
     for (int i = 0; i < index.length; i++) {
@@ -252,7 +253,7 @@ public class ReducedGraphTest {
 
   private static void paste(long[] core, long[] coreMin, int[] coreShape, long[] volume,
       int[] shape) {
-    int[] index = BoxIndex.subBoxIndices(shape, BoxIndex.origin(new long[3], coreMin), coreShape);
+    int[] index = Shapes.subBoxIndices(shape, BoxIndex.origin(new long[3], coreMin), coreShape);
     for (int i = 0; i < index.length; i++) {
       volume[index[i]] = core[i];
     }
