@@ -1,6 +1,7 @@
 package org.sunder.blockwise.graph;
 
 import java.util.Arrays;
+import java.util.List;
 import net.imglib2.Cursor;
 import net.imglib2.img.array.ArrayImg;
 import net.imglib2.img.basictypeaccess.array.ByteArray;
@@ -24,6 +25,10 @@ import org.sunder.blockwise.grid.Shapes;
  * float values are neither NaN nor outside [0, 1], mask shape equals box shape) and throw
  * {@link GraphInputException} naming the voxel, channel or value. The value arrays are wrapped,
  * not copied: callers must not change them afterwards. Immutable and thread-safe after that.
+ *
+ * <p>A block may carry a <em>context</em> ({@link #withContext}): affinities of a wider box
+ * around it, at least its nearest-neighbour channels, for voxel-level work whose result at a
+ * voxel depends on more of the volume than the offsets reach (the fragment methods' watershed).
  */
 public final class AffinityBlock {
   private final long[] globalMin;
@@ -33,16 +38,70 @@ public final class AffinityBlock {
   private final float[] floats;
   private final byte[] bytes;
   private final byte[] mask;
+  private final AffinityBlock context;
 
   private AffinityBlock(long[] globalMin, int[] shape, Offsets offsets, float[] floats,
       byte[] bytes, byte[] mask) {
+    this(globalMin, shape, offsets, floats, bytes, mask, null);
+  }
+
+  private AffinityBlock(long[] globalMin, int[] shape, Offsets offsets, float[] floats,
+      byte[] bytes, byte[] mask, AffinityBlock context) {
     this.globalMin = globalMin.clone();
     this.shape = shape.clone();
     this.offsets = offsets;
     this.floats = floats;
     this.bytes = bytes;
     this.mask = mask;
+    this.context = context;
     this.voxelCount = Shapes.intElementCount(shape);
+  }
+
+  /**
+   * This block with {@code context} as its context: a block (itself without a context) whose
+   * box holds this one's, with a channel for every nearest-neighbour offset of this block's.
+   * Shares this block's arrays.
+   */
+  public AffinityBlock withContext(AffinityBlock context) {
+    if (context.context != null) {
+      throw input("context: a context block must not carry a context of its own");
+    }
+    if (context.dimension() != dimension()) {
+      throw input("context: " + context.dimension() + " axes; the block has " + dimension());
+    }
+    for (int d = 0; d < shape.length; d++) {
+      if (context.globalMin[d] > globalMin[d]
+          || context.globalMin[d] + context.shape[d] < globalMin[d] + shape[d]) {
+        throw input("context: box at " + Arrays.toString(context.globalMin) + " of shape "
+            + Arrays.toString(context.shape) + " does not hold the block's box at "
+            + Arrays.toString(globalMin) + " of shape " + Arrays.toString(shape));
+      }
+    }
+    List<int[]> contextVectors = Arrays.asList(context.offsets.vectors());
+    for (int k = 0; k < offsets.count(); k++) {
+      int[] v = offsets.vector(k);
+      if (!offsets.isLongRange(k) && contextVectors.stream().noneMatch(c -> Arrays.equals(c, v))) {
+        throw input("context: no channel for the nearest-neighbour offset " + Arrays.toString(v));
+      }
+    }
+    return new AffinityBlock(globalMin, shape, offsets, floats, bytes, mask, context);
+  }
+
+  /** The context set by {@link #withContext}, or null. */
+  public AffinityBlock contextOrNull() {
+    return context;
+  }
+
+  /**
+   * Where this block's box starts inside its context's box, per axis (memory order); only for a
+   * block with a context.
+   */
+  public int[] originInContext() {
+    int[] origin = new int[shape.length];
+    for (int d = 0; d < shape.length; d++) {
+      origin[d] = (int) (globalMin[d] - context.globalMin[d]);
+    }
+    return origin;
   }
 
   /**

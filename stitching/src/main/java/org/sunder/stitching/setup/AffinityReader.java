@@ -1,24 +1,86 @@
 package org.sunder.stitching.setup;
 
+import java.util.Arrays;
 import net.imglib2.FinalInterval;
 import net.imglib2.img.array.ArrayImg;
 import org.sunder.blockwise.graph.AffinityBlock;
+import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.grid.Block;
+import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.store.Container;
 
-/** Reads the affinities (all channels) and the optional mask of a box into an {@link AffinityBlock}. */
+/** Reads the affinities and the optional mask of a box into an {@link AffinityBlock}. */
 public final class AffinityReader {
   private AffinityReader() {}
 
+  /** All channels of the box {@code min..max} (inclusive, memory order). */
   public static AffinityBlock read(StitchingSetup setup, long[] min, long[] max) {
+    return read(setup, min, max, 0, setup.offsets().count() - 1);
+  }
+
+  /**
+   * The extended box of {@code block}; for a method that {@linkplain
+   * org.sunder.blockwise.partition.config.PartitionMethod#usesFragments uses fragments}, with its
+   * {@linkplain AffinityBlock#withContext context}: the nearest-neighbour channels of the
+   * {@link #contextBox}, so that the fragments in the extended box are those a whole-volume run
+   * makes there but for rare floods from farther away.
+   */
+  public static AffinityBlock readBlock(StitchingSetup setup, Block block) {
+    AffinityBlock affinities = read(setup, block.extendedMin(), block.extendedMax());
+    if (!setup.partition().method().usesFragments()) {
+      return affinities;
+    }
+    long[][] box = contextBox(setup.grid(), block);
+    if (Arrays.equals(box[0], block.extendedMin()) && Arrays.equals(box[1], block.extendedMax())) {
+      return affinities;
+    }
+    int[] channels = nearestNeighbourChannels(setup.offsets());
+    return affinities.withContext(read(setup, box[0], box[1], channels[0], channels[1]));
+  }
+
+  /**
+   * The box of a block's fragment context: its extended box grown by the grid's halo on every
+   * side, clipped to the volume ({@code {min, max}}, inclusive, memory order).
+   */
+  public static long[][] contextBox(BlockGrid grid, Block block) {
+    int n = grid.numDimensions();
+    long[] min = new long[n];
+    long[] max = new long[n];
+    for (int d = 0; d < n; d++) {
+      min[d] = Math.max(0, block.extendedMin()[d] - grid.halo()[d]);
+      max[d] = Math.min(grid.volumeShape()[d] - 1, block.extendedMax()[d] + grid.halo()[d]);
+    }
+    return new long[][] {min, max};
+  }
+
+  /** The first and last channel of the smallest run of channels holding every unit offset. */
+  static int[] nearestNeighbourChannels(Offsets offsets) {
+    int first = -1;
+    int last = -1;
+    for (int k = 0; k < offsets.count(); k++) {
+      if (!offsets.isLongRange(k)) {
+        first = first < 0 ? k : first;
+        last = k;
+      }
+    }
+    return first < 0 ? new int[] {0, offsets.count() - 1} : new int[] {first, last};
+  }
+
+  private static AffinityBlock read(StitchingSetup setup, long[] min, long[] max,
+      int firstChannel, int lastChannel) {
     Container input = setup.openInput();
     int n = min.length;
-    long[] amin = java.util.Arrays.copyOf(min, n + 1);
-    long[] amax = java.util.Arrays.copyOf(max, n + 1);
-    amax[n] = setup.offsets().count() - 1;
+    long[] amin = Arrays.copyOf(min, n + 1);
+    long[] amax = Arrays.copyOf(max, n + 1);
+    amin[n] = firstChannel;
+    amax[n] = lastChannel;
     ArrayImg<?, ?> affinities = input.openDataset(setup.affinitiesPath())
         .read(new FinalInterval(amin, amax));
     ArrayImg<?, ?> mask = setup.hasMask()
         ? input.openDataset(setup.maskPath()).read(new FinalInterval(min, max)) : null;
-    return AffinityBlock.of(affinities, min, setup.offsets(), mask);
+    Offsets offsets = firstChannel == 0 && lastChannel == setup.offsets().count() - 1
+        ? setup.offsets()
+        : new Offsets(Arrays.copyOfRange(setup.offsets().vectors(), firstChannel, lastChannel + 1));
+    return AffinityBlock.of(affinities, min, offsets, mask);
   }
 }

@@ -71,8 +71,7 @@ public record PartitionSample(int block, long extendedVoxels, long coreVoxels, d
     BlockGrid grid = setup.grid();
     Block block = grid.block(blockIndex);
     long start = System.nanoTime();
-    AffinityBlock affinities =
-        AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
+    AffinityBlock affinities = AffinityReader.readBlock(setup, block);
     double read = (System.nanoTime() - start) / 1e9;
     CoreSegments.Result result =
         PartitionTask.partition(setup, block, affinities, setup.partition());

@@ -13,8 +13,8 @@ import org.sunder.stitching.setup.AffinityReader;
 import org.sunder.stitching.setup.StitchingSetup;
 
 /**
- * The partition stage's task for one block: read the extended box's affinities (and mask),
- * partition them with the configured method (merges that lean on the halo's open voxels held
+ * The partition stage's task for one block: read the extended box's affinities (and mask; for
+ * the fragment methods with a context, see {@link AffinityReader#readBlock}), partition them with the configured method (merges that lean on the halo's open voxels held
  * back for the global solve, see {@link CoreSegments}; a size filter, for the voxel methods,
  * left to segments wholly in the core away from its faces; see {@link #filtersAfterSolve}), crop to the core, write the core's provisional ids (whole
  * chunks, so no other block's task touches them), for the fragment methods also the core's
@@ -30,8 +30,7 @@ public final class PartitionTask {
   /** Runs the task for block {@code blockIndex}; the label dataset must exist. */
   public static BlockSummary run(StitchingSetup setup, int blockIndex) {
     Block block = setup.grid().block(blockIndex);
-    AffinityBlock affinities =
-        AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
+    AffinityBlock affinities = AffinityReader.readBlock(setup, block);
     PartitionConfig config = setup.partition();
     CoreSegments.Result result = partition(setup, block, affinities, config);
     Dataset labels = setup.openLabels();
@@ -56,8 +55,7 @@ public final class PartitionTask {
   public static double timeWithoutWriting(StitchingSetup setup, int blockIndex) {
     long start = System.nanoTime();
     Block block = setup.grid().block(blockIndex);
-    AffinityBlock affinities =
-        AffinityReader.read(setup, block.extendedMin(), block.extendedMax());
+    AffinityBlock affinities = AffinityReader.readBlock(setup, block);
     partition(setup, block, affinities, setup.partition());
     return (System.nanoTime() - start) / 1e9;
   }

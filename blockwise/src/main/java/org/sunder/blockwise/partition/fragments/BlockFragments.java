@@ -6,6 +6,7 @@ import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.RegionGraph;
 import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
+import org.sunder.blockwise.grid.Shapes;
 import org.sunder.blockwise.partition.PieceEdges;
 import org.sunder.blockwise.partition.Segmentation;
 import org.sunder.blockwise.partition.SettledPartition;
@@ -40,14 +41,15 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
   public static BlockFragments of(AffinityBlock block, FragmentOptions options,
       WeightRule weights, Subsampling subsampling, byte[] insideOrNull) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
-    boolean[] defective = DefectiveSections.find(block, fitted.voxelSize());
-    int[] labels = label(block, fitted, defective);
+    AffinityBlock source = source(block);
+    boolean[] defective = DefectiveSections.find(source, fitted.voxelSize());
+    int[] labels = croppedLabels(block, label(source, fitted, defective));
     int count = 0;
     for (int l : labels) {
       count = Math.max(count, l);
     }
     GridGraph graph = GridGraph.of(block, weights, subsampling);
-    byte[] ignored = ignoredVoxels(block, defective);
+    byte[] ignored = cropped(block, ignoredVoxels(source, defective));
     RegionGraph regions = RegionGraph.of(labels, graph, insideOrNull, ignored);
     return new BlockFragments(labels, count, regions.statistics(),
         insideOrNull == null ? null : regions.insideStatistics());
@@ -63,7 +65,49 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
    */
   public static byte[] ignoredVoxels(AffinityBlock block, FragmentOptions options) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
-    return ignoredVoxels(block, DefectiveSections.find(block, fitted.voxelSize()));
+    AffinityBlock source = source(block);
+    return cropped(block,
+        ignoredVoxels(source, DefectiveSections.find(source, fitted.voxelSize())));
+  }
+
+  /**
+   * The box the voxel-level work reads: the block's {@link AffinityBlock#contextOrNull context}
+   * when it has one, so that fragments and voxel judgements near the block's sides are those of
+   * a wider box (a seeded watershed floods from seeds anywhere in its box), else the block.
+   */
+  private static AffinityBlock source(AffinityBlock block) {
+    return block.contextOrNull() != null ? block.contextOrNull() : block;
+  }
+
+  /**
+   * Fragment labels of {@link #source}'s box restricted to {@code block}'s box and renumbered
+   * 1..count in order of first appearance.
+   */
+  private static int[] croppedLabels(AffinityBlock block, int[] labels) {
+    if (block.contextOrNull() == null) {
+      return labels;
+    }
+    int[] inside = Shapes.subBoxIndices(block.contextOrNull().shape(), block.originInContext(),
+        block.shape());
+    int[] out = new int[inside.length];
+    for (int i = 0; i < inside.length; i++) {
+      out[i] = labels[inside[i]];
+    }
+    return WatershedFragments.consecutive(out);
+  }
+
+  /** Flags of {@link #source}'s box restricted to {@code block}'s box. */
+  private static byte[] cropped(AffinityBlock block, byte[] values) {
+    if (block.contextOrNull() == null) {
+      return values;
+    }
+    int[] inside = Shapes.subBoxIndices(block.contextOrNull().shape(), block.originInContext(),
+        block.shape());
+    byte[] out = new byte[inside.length];
+    for (int i = 0; i < inside.length; i++) {
+      out[i] = values[inside[i]];
+    }
+    return out;
   }
 
   private static byte[] ignoredVoxels(AffinityBlock block, boolean[] defectiveOrNull) {
@@ -78,13 +122,16 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
   }
 
   /**
-   * Fragment labels only (boundary map and seeded watershed). In anisotropic data, fragments
-   * step over {@link DefectiveSections}: such a plane takes the boundary map and then the
+   * Fragment labels only (boundary map and seeded watershed), 1..count in order of first
+   * appearance. In anisotropic data, fragments step over {@link DefectiveSections}: such a
+   * plane takes the boundary map and then the
    * fragments of the nearest sound plane, and {@link #of} leaves its edges out.
    */
   public static int[] label(AffinityBlock block, FragmentOptions options) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
-    return label(block, fitted, DefectiveSections.find(block, fitted.voxelSize()));
+    AffinityBlock source = source(block);
+    return croppedLabels(block,
+        label(source, fitted, DefectiveSections.find(source, fitted.voxelSize())));
   }
 
   private static int[] label(AffinityBlock block, FragmentOptions fitted,
