@@ -10,7 +10,8 @@ import org.sunder.stitching.task.PartitionTask;
 /**
  * What one partition task ({@link PartitionTask}) of a run holds in memory, by formula: the
  * largest extended block's voxels times (channels x bytes per affinity value + the method's
- * working bytes per voxel + {@value #LABEL_BYTES_PER_VOXEL} bytes of provisional labels).
+ * working bytes per voxel + {@value #LABEL_BYTES_PER_VOXEL} bytes of provisional labels + for the
+ * fragment methods, the share of their context: {@link #contextBytesPerExtendedVoxel}).
  * O(dimensions); reads only the affinities' metadata.
  *
  * <p>The working bytes per voxel are the method's own figure
@@ -21,14 +22,25 @@ import org.sunder.stitching.task.PartitionTask;
  * @param valueType affinity data type, lower case ({@code float32} or {@code uint8})
  * @param bytesPerValue bytes of one affinity value
  * @param workingBytesPerVoxel the method's working bytes per voxel
+ * @param contextBytesPerVoxel the fragment methods' context per extended voxel, else 0
  */
 public record PartitionEstimate(long extendedVoxels, int channels, String valueType,
-    int bytesPerValue, int workingBytesPerVoxel) {
-  /** Working bytes per voxel of the Mutex Watershed (KernelBenchmark, allocated). */
-  /** Working bytes per voxel of agglomeration from voxels (KernelBenchmark, mean linkage, allocated). */
-  /** Working bytes per voxel of the fragment methods (stated bound, not measured). */
+    int bytesPerValue, int workingBytesPerVoxel, int contextBytesPerVoxel) {
   /** Bytes per voxel of the provisional labels (uint64). */
   public static final int LABEL_BYTES_PER_VOXEL = 8;
+  /**
+   * Bytes per voxel of a fragment method's context ({@link AffinityReader#readBlock}) besides
+   * its three nearest-neighbour channels: boundary map, fragment labels, flags and the flood's
+   * queue (a stated bound, not measured).
+   */
+  static final int CONTEXT_WORKING_BYTES = 20;
+  /**
+   * Context voxels per extended voxel, a bound: the context grows each side of the extended box
+   * by the halo, and where the halo overhead is at most 1.35 (the default shapes' target) every
+   * axis's core is at least 2 / 0.35 halos long, so the context is at most (1.7 / 1.35)^3 = 2.0
+   * times the extended box.
+   */
+  static final int CONTEXT_PER_EXTENDED_VOXEL = 2;
 
   /** The estimate for {@code setup}'s largest block. */
   public static PartitionEstimate of(StitchingSetup setup) {
@@ -39,9 +51,10 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
     for (int d = 0; d < volume.length; d++) {
       extent[d] = Math.min(volume[d], grid.blockShape()[d] + 2L * grid.halo()[d]);
     }
+    PartitionMethod method = setup.partition().method();
     return new PartitionEstimate(Shapes.elementCount(extent), setup.offsets().count(),
-        type.name().toLowerCase(Locale.ROOT), bytesPerValue(type),
-        setup.partition().method().workingBytesPerVoxel());
+        type.name().toLowerCase(Locale.ROOT), bytesPerValue(type), method.workingBytesPerVoxel(),
+        contextBytesPerExtendedVoxel(method, bytesPerValue(type)));
   }
 
   /** Bytes of one affinity value of {@code type}: 1 for uint8, else 4. */
@@ -55,7 +68,18 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
    */
   public static long bytesPerExtendedVoxel(PartitionMethod method, int channels,
       int bytesPerValue) {
-    return (long) channels * bytesPerValue + method.workingBytesPerVoxel() + LABEL_BYTES_PER_VOXEL;
+    return (long) channels * bytesPerValue + method.workingBytesPerVoxel() + LABEL_BYTES_PER_VOXEL
+        + contextBytesPerExtendedVoxel(method, bytesPerValue);
+  }
+
+  /**
+   * A fragment method's context, per voxel of the extended box: {@link
+   * #CONTEXT_PER_EXTENDED_VOXEL} x (three nearest-neighbour channels + {@link
+   * #CONTEXT_WORKING_BYTES}); 0 for the other methods, which read no context.
+   */
+  static int contextBytesPerExtendedVoxel(PartitionMethod method, int bytesPerValue) {
+    return method.usesFragments()
+        ? CONTEXT_PER_EXTENDED_VOXEL * (3 * bytesPerValue + CONTEXT_WORKING_BYTES) : 0;
   }
 
   /**
@@ -71,7 +95,7 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
 
   /** Bytes per voxel besides the affinities. */
   public int otherBytesPerVoxel() {
-    return workingBytesPerVoxel + LABEL_BYTES_PER_VOXEL;
+    return workingBytesPerVoxel + LABEL_BYTES_PER_VOXEL + contextBytesPerVoxel;
   }
 
   /** Bytes one partition task holds. */
