@@ -111,33 +111,18 @@ public final class GlobalSolve {
 
   /**
    * The fewest continued voxel pairs (see {@link SeamEdges#continued()}) for which the solve
-   * joins two pieces before it continues the method. Joining on a single pair also joins the
-   * slivers that a block with a thin halo cuts differently from its neighbour, which merges
-   * objects the one-block run keeps apart. Measured on the dense-neurites preset (seed 1, 128 x
-   * 128 x 48 voxels, 8 blocks), fragment agglomeration / multicut: at least 1 pair, 0.27 / 0.24
-   * bits from the one-block result, 2 objects cut at faces; at least 10, 0.11 / 0.064 bits, 3
-   * cut (2 at the control planes); joining nothing, 0.33 / 0.10 bits, 19 / 10 cut. Joining only
-   * mutually best pairs measured worse (more objects cut where a block split a fragment its
-   * neighbour kept whole). Measured again once the multicut stopped depending on node numbering
-   * (default method, three presets, seeds 1-3, 128 x 128 x 48 voxels, 12 blocks): at least 1
-   * pair, 0.044 / 0.040 / 0.034 bits from the one-block result (dense neurites / compact cells /
-   * bodies and neurites) but a blockwise adapted Rand error of 0.086 / 0.043 / 0.026; at least
-   * 10, 0.058 / 0.008 / 0.062 bits and 0.078 / 0.035 / 0.025. With the one-block run's fragments
-   * given to every block (a diagnostic), every piece left to the solve and joins from 1 pair, the
-   * blockwise result equals the one-block result (bodies and neurites, seed 1: VOI 2e-15 bits):
-   * what remains is that fragments near a face depend on the box they were computed in.
-   * Measured again once the multicut stopped refining by Kernighan–Lin (default method, seeds
-   * 1-3, 96 x 256 x 256 voxels, 27 blocks, {@code QualityBenchmark ... default 27}), bits from
-   * the whole-volume result and objects cut at faces beyond the control planes, dense neurites /
-   * compact cells / bodies and neurites: at least 10 pairs, 0.035 / 0.013 / 0.046 bits and
-   * +4.0 / +0.6 / +10.0 objects; at least 3, 0.014 / 0.016 / 0.028 bits and +3.4 / -1.7 / +5.0
-   * objects, for an adapted Rand error 1-2 % higher (0.1376 to 0.1386, 0.0496 to 0.0512, 0.0534
-   * to 0.0547); at least 1, 0.015 / 0.030 bits on the first two (compact cells worse). Fragment
-   * agglomeration in the same runs, at least 10 / at least 3: 0.40 / 0.13 bits and +10.7 / +5.3
-   * objects on dense neurites, 0.015 / 0.018 bits and +6.3 / -1.3 on compact cells, 1.03 / 0.67
-   * bits and +26.5 / +9.5 on bodies and neurites (seeds 1 and 2).
+   * joins two pieces before it continues the method: one. The fragment methods compute a
+   * block's fragments in its context ({@code AffinityReader#readBlock}), so the two blocks at a
+   * face see the same fragments there, and one pair across the face marks the halves of one
+   * fragment of a one-block run. Measured with the default method ({@code QualityBenchmark 256
+   * 256 96 1,2,3 default 27}), bits from the whole-volume result, dense neurites / compact cells
+   * / bodies and neurites: from 1 pair 0.008 / 0.008 / 0.0002, every volume cutting as many
+   * objects at the faces as the whole-volume result; from 3 pairs 0.009 / 0.009 / 0.004, one
+   * more object cut on every volume of bodies and neurites. Before the context, a block with a
+   * thin halo cut slivers near a face differently from its neighbour, a single pair joined them
+   * wrongly, and 3 measured best (the repository's history holds those figures).
    */
-  static final long MIN_CONTINUED_PAIRS = 3;
+  static final long MIN_CONTINUED_PAIRS = 1;
 
   /**
    * The solver's clusters of {@code graph}, after joining the pieces that continue across a
