@@ -278,9 +278,9 @@ class BlockwiseRunTest {
 
   /**
    * The fragment methods read each block with a context (its extended box grown by the halo,
-   * nearest-neighbour channels only), and the fragments in a block's core come out as the
-   * whole volume's more often than without it (dense-neurites preset, 18 blocks with a thin
-   * halo); the Mutex Watershed reads no context.
+   * within the sections for these per-section fragments; nearest-neighbour channels only), and
+   * the fragments in a block's core come out as the whole volume's more often than without it
+   * (dense-neurites preset, 18 blocks with a thin halo); the Mutex Watershed reads no context.
    */
   @Test
   void fragmentMethodsReadAContextAndMakeTheWholeVolumesFragmentsInTheCore() {
@@ -300,13 +300,17 @@ class BlockwiseRunTest {
       Block block = grid.block(b);
       AffinityBlock read = AffinityReader.readBlock(setup, block);
       AffinityBlock context = read.contextOrNull();
-      long[][] box = AffinityReader.contextBox(grid, block);
+      long[][] box = AffinityReader.contextBox(grid, block, 2);
       assertArrayEquals(box[0], context.globalMin());
       assertEquals(3, context.channelCount(), "the nearest-neighbour channels");
-      for (int d = 0; d < 3; d++) {
+      for (int d = 0; d < 2; d++) {
+        assertEquals(Math.max(0, block.extendedMin()[d] - grid.halo()[d]), box[0][d]);
         assertEquals(Math.min(shape[d] - 1, block.extendedMax()[d] + grid.halo()[d]) - box[0][d]
             + 1, context.shape(d));
       }
+      // fragments of sections flood within a section: no context across them
+      assertEquals(block.extendedMin()[2], box[0][2]);
+      assertEquals(block.extendedShape()[2], context.shape(2));
       int[] origin = new int[3];
       for (int d = 0; d < 3; d++) {
         origin[d] = (int) (block.coreMin()[d] - block.extendedMin()[d]);

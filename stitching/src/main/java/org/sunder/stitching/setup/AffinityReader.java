@@ -7,6 +7,7 @@ import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
+import org.sunder.blockwise.partition.fragments.FragmentOptions;
 import org.sunder.blockwise.store.Container;
 
 /** Reads the affinities and the optional mask of a box into an {@link AffinityBlock}. */
@@ -30,7 +31,10 @@ public final class AffinityReader {
     if (!setup.partition().method().usesFragments()) {
       return affinities;
     }
-    long[][] box = contextBox(setup.grid(), block);
+    FragmentOptions fragments = setup.partition().fragments();
+    int sliceAxis = fragments == null ? -1
+        : fragments.forDimension(block.numDimensions()).sliceAxis();
+    long[][] box = contextBox(setup.grid(), block, sliceAxis);
     if (Arrays.equals(box[0], block.extendedMin()) && Arrays.equals(box[1], block.extendedMax())) {
       return affinities;
     }
@@ -40,15 +44,17 @@ public final class AffinityReader {
 
   /**
    * The box of a block's fragment context: its extended box grown by the grid's halo on every
-   * side, clipped to the volume ({@code {min, max}}, inclusive, memory order).
+   * side, clipped to the volume ({@code {min, max}}, inclusive, memory order), except along
+   * {@code sliceAxis} (or none, when −1): fragments made plane by plane flood within a plane.
    */
-  public static long[][] contextBox(BlockGrid grid, Block block) {
+  public static long[][] contextBox(BlockGrid grid, Block block, int sliceAxis) {
     int n = grid.numDimensions();
     long[] min = new long[n];
     long[] max = new long[n];
     for (int d = 0; d < n; d++) {
-      min[d] = Math.max(0, block.extendedMin()[d] - grid.halo()[d]);
-      max[d] = Math.min(grid.volumeShape()[d] - 1, block.extendedMax()[d] + grid.halo()[d]);
+      int grow = d == sliceAxis ? 0 : grid.halo()[d];
+      min[d] = Math.max(0, block.extendedMin()[d] - grow);
+      max[d] = Math.min(grid.volumeShape()[d] - 1, block.extendedMax()[d] + grow);
     }
     return new long[][] {min, max};
   }
