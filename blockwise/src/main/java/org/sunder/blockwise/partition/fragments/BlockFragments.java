@@ -124,8 +124,8 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
   /**
    * Fragment labels only (boundary map and seeded watershed), 1..count in order of first
    * appearance. In anisotropic data, fragments step over {@link DefectiveSections}: such a
-   * plane takes the boundary map and then the
-   * fragments of the nearest sound plane, and {@link #of} leaves its edges out.
+   * plane takes the boundary map and then the fragments of the nearest sound plane, and
+   * {@link #of} leaves its edges out.
    */
   public static int[] label(AffinityBlock block, FragmentOptions options) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
