@@ -10,6 +10,7 @@ import java.util.Map;
 import net.imglib2.FinalInterval;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.WeightRule;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.partition.fragments.BlockFragments;
 import org.sunder.blockwise.partition.fragments.FragmentOptions;
@@ -40,6 +41,8 @@ public final class SplitSurvey {
   /** Extra segments spanning at least this many sections count as long pieces. */
   private static final int LONG_PIECE = 7;
   private static final int[] CHUNK = {32, 32, 8};
+  /** The default method's voxel-edge weights. */
+  private static final WeightRule LOGIT = WeightRule.logit(LOGIT_CLAMP);
 
   private SplitSurvey() {}
 
@@ -205,8 +208,7 @@ public final class SplitSurvey {
             || !(isLongPieceOf(pieces, a, b) || isLongPieceOf(pieces, b, a))) {
           continue;
         }
-        double c = Math.min(Math.max(affinities[i + k * n], LOGIT_CLAMP), 1 - LOGIT_CLAMP);
-        double w = Math.log(c / (1 - c));
+        double w = LOGIT.weight(affinities[i + k * n], 0f);
         if (truth[i] != 0 && truth[i] == truth[j]) {
           costSame[k] += w;
           edgesSame[k]++;

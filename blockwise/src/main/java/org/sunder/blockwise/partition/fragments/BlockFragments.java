@@ -42,14 +42,15 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
       WeightRule weights, Subsampling subsampling, byte[] insideOrNull) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
     AffinityBlock source = source(block);
+    int[] inSource = indicesInSource(block);
     boolean[] defective = DefectiveSections.find(source, fitted.voxelSize());
-    int[] labels = croppedLabels(block, label(source, fitted, defective));
+    int[] labels = croppedLabels(label(source, fitted, defective), inSource);
     int count = 0;
     for (int l : labels) {
       count = Math.max(count, l);
     }
     GridGraph graph = GridGraph.of(block, weights, subsampling);
-    byte[] ignored = cropped(block, ignoredVoxels(source, defective));
+    byte[] ignored = cropped(ignoredVoxels(source, defective), inSource);
     RegionGraph regions = RegionGraph.of(labels, graph, insideOrNull, ignored);
     return new BlockFragments(labels, count, regions.statistics(),
         insideOrNull == null ? null : regions.insideStatistics());
@@ -66,8 +67,8 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
   public static byte[] ignoredVoxels(AffinityBlock block, FragmentOptions options) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
     AffinityBlock source = source(block);
-    return cropped(block,
-        ignoredVoxels(source, DefectiveSections.find(source, fitted.voxelSize())));
+    return cropped(ignoredVoxels(source, DefectiveSections.find(source, fitted.voxelSize())),
+        indicesInSource(block));
   }
 
   /**
@@ -80,32 +81,37 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
   }
 
   /**
-   * Fragment labels of {@link #source}'s box restricted to {@code block}'s box and renumbered
-   * 1..count in order of first appearance.
+   * For each voxel of {@code block}'s box, its index in {@link #source}'s box; null when the
+   * block has no context (the source is the block).
    */
-  private static int[] croppedLabels(AffinityBlock block, int[] labels) {
-    if (block.contextOrNull() == null) {
+  private static int[] indicesInSource(AffinityBlock block) {
+    return block.contextOrNull() == null ? null : Shapes.subBoxIndices(
+        block.contextOrNull().shape(), block.originInContext(), block.shape());
+  }
+
+  /**
+   * Fragment labels of {@link #source}'s box at {@code inSource} (all of them when null),
+   * renumbered 1..count in order of first appearance.
+   */
+  private static int[] croppedLabels(int[] labels, int[] inSource) {
+    if (inSource == null) {
       return labels;
     }
-    int[] inside = Shapes.subBoxIndices(block.contextOrNull().shape(), block.originInContext(),
-        block.shape());
-    int[] out = new int[inside.length];
-    for (int i = 0; i < inside.length; i++) {
-      out[i] = labels[inside[i]];
+    int[] out = new int[inSource.length];
+    for (int i = 0; i < inSource.length; i++) {
+      out[i] = labels[inSource[i]];
     }
     return WatershedFragments.consecutive(out);
   }
 
-  /** Flags of {@link #source}'s box restricted to {@code block}'s box. */
-  private static byte[] cropped(AffinityBlock block, byte[] values) {
-    if (block.contextOrNull() == null) {
-      return values;
+  /** Flags of {@link #source}'s box at {@code inSource} (all of them when null). */
+  private static byte[] cropped(byte[] flags, int[] inSource) {
+    if (inSource == null) {
+      return flags;
     }
-    int[] inside = Shapes.subBoxIndices(block.contextOrNull().shape(), block.originInContext(),
-        block.shape());
-    byte[] out = new byte[inside.length];
-    for (int i = 0; i < inside.length; i++) {
-      out[i] = values[inside[i]];
+    byte[] out = new byte[inSource.length];
+    for (int i = 0; i < inSource.length; i++) {
+      out[i] = flags[inSource[i]];
     }
     return out;
   }
@@ -130,8 +136,8 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
   public static int[] label(AffinityBlock block, FragmentOptions options) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
     AffinityBlock source = source(block);
-    return croppedLabels(block,
-        label(source, fitted, DefectiveSections.find(source, fitted.voxelSize())));
+    return croppedLabels(label(source, fitted, DefectiveSections.find(source, fitted.voxelSize())),
+        indicesInSource(block));
   }
 
   private static int[] label(AffinityBlock block, FragmentOptions fitted,
