@@ -66,7 +66,8 @@ class BlockFinalIdsTest {
       List<BlockSummary> summaries = new ArrayList<>();
       for (int b = 0; b < blocks; b++) {
         summaries.add(new BlockSummary(b, new long[segmentCount[b]], boundary[b],
-            new int[boundary[b].length], EdgeStatistics.empty(), new long[0], new long[0],
+            new int[boundary[b].length], new long[boundary[b].length], EdgeStatistics.empty(),
+            new long[0], new long[0],
             EdgeStatistics.empty()));
       }
       FinalIdMap expected = FinalIds.assign(layout, blocks, summaries, graph, clusters);

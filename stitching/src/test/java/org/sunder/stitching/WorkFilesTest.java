@@ -50,7 +50,8 @@ class WorkFilesTest {
       su[i] = Long.MIN_VALUE + 2 * i;
       sv[i] = su[i] + 1;
     }
-    return new BlockSummary(block, sizes, boundary, sides,
+    long[] firstVoxels = random.longs(boundary.length, 0, Long.MAX_VALUE).toArray();
+    return new BlockSummary(block, sizes, boundary, sides, firstVoxels,
         randomStatistics(random, random.nextInt(30)), su, sv,
         random.nextBoolean() ? EdgeStatistics.empty() : randomStatistics(random, 7));
   }
@@ -130,12 +131,14 @@ class WorkFilesTest {
   /**
    * Reference: Python's {@code zlib.crc32} (the CRC-32 of ISO 3309 / ITU-T V.42 that
    * {@code java.util.zip.CRC32} also computes) and {@code struct} big-endian unpacking read the
-   * file independently of our reader: checksum, magic, version, block, segment sizes.
+   * file independently of our reader: checksum, magic, version, block, segment sizes, boundary
+   * segments' local ids and first voxels.
    */
   @Test
   void layoutMatchesAnIndependentReader() {
     PythonReference.requireModules("zlib", "struct");
-    BlockSummary summary = randomSummary(new Random(29), 11);
+    BlockSummary summary = randomSummary(new Random(30), 11);
+    assertTrue(summary.boundaryLocalIds().length > 0, "a summary with boundary segments");
     Path file = dir.resolve("11.summary");
     BlockSummaryFile.write(file, summary);
     String script = String.join("\n",
@@ -146,11 +149,24 @@ class WorkFilesTest {
         "magic = data[:8].decode('ascii')",
         "version, block, n = struct.unpack('>iii', data[8:20])",
         "sizes = struct.unpack('>%dq' % n, data[20:20 + 8 * n])",
-        "print(ok, magic, version, block, ' '.join(map(str, sizes)))");
+        "at = 20 + 8 * n",
+        "b, = struct.unpack('>i', data[at:at + 4])",
+        "ids = struct.unpack('>%di' % b, data[at + 4:at + 4 + 4 * b])",
+        "first = struct.unpack('>%dq' % b, data[at + 4 + 8 * b:at + 4 + 16 * b])",
+        "print(ok, magic, version, block, ' '.join(map(str, sizes)), '|',",
+        "      ' '.join(map(str, ids)), '|', ' '.join(map(str, first)))");
     String out = PythonReference.runChecked(script, file.toString()).strip();
-    StringBuilder expected = new StringBuilder("True SUNDSUMM 1 11");
+    StringBuilder expected = new StringBuilder("True SUNDSUMM 2 11");
     for (long size : summary.segmentSizes()) {
       expected.append(' ').append(size);
+    }
+    expected.append(" |");
+    for (int id : summary.boundaryLocalIds()) {
+      expected.append(' ').append(id);
+    }
+    expected.append(" |");
+    for (long first : summary.boundaryFirstVoxels()) {
+      expected.append(' ').append(first);
     }
     assertEquals(expected.toString(), out);
   }

@@ -26,8 +26,8 @@ class ReportPartsTest {
   }
 
   private static BlockSummary summary(int block, long... sizes) {
-    return new BlockSummary(block, sizes, new int[0], new int[0], EdgeStatistics.empty(),
-        new long[0], new long[0], EdgeStatistics.empty());
+    return new BlockSummary(block, sizes, new int[0], new int[0], new long[0],
+        EdgeStatistics.empty(), new long[0], new long[0], EdgeStatistics.empty());
   }
 
   @Test

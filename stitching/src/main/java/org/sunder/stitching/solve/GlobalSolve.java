@@ -62,7 +62,8 @@ public final class GlobalSolve {
     blocks.sort(Comparator.comparingInt(BlockSummary::block));
     ReducedGraph graph = ReducedGraph.assemble(layout, blocks, seams);
     ReducedGraphSolver solver = solverFor(config);
-    int[] clusters = clustersJoiningContinuations(graph, solver);
+    int[] clusters =
+        clustersJoiningContinuations(graph, ReducedGraph.firstVoxels(blocks), solver);
     FinalIds.requireComplete(blockCount, blocks);
     long[] segmentCounts = new long[blockCount];
     for (BlockSummary s : blocks) {
@@ -127,17 +128,21 @@ public final class GlobalSolve {
   /**
    * The solver's clusters of {@code graph}, after joining the pieces that continue across a
    * face (the halves of one fragment; only the fragment methods report them): the method then
-   * continues from the fragment-level statistics a one-block run would see. O(p log p).
+   * continues from the fragment-level statistics a one-block run would see, over the joined
+   * pieces in ascending order of their first voxels ({@code firstVoxels}, per node), the order
+   * of a one-block run's fragments, so that ties fall as they fall there. O(p log p).
    */
-  static int[] clustersJoiningContinuations(ReducedGraph graph, ReducedGraphSolver solver) {
+  static int[] clustersJoiningContinuations(ReducedGraph graph, long[] firstVoxels,
+      ReducedGraphSolver solver) {
     if (graph.continued().size() == 0) {
       return solver.clusters(graph);
     }
-    int[] group = graph.continuationGroups(MIN_CONTINUED_PAIRS);
-    int[] ofGroup = solver.clusters(graph.joined(group));
-    int[] clusters = new int[group.length];
-    for (int i = 0; i < group.length; i++) {
-      clusters[i] = ofGroup[group[i]];
+    ReducedGraph.Joined joined =
+        graph.joined(graph.continuationGroups(MIN_CONTINUED_PAIRS), firstVoxels);
+    int[] ofJoined = solver.clusters(joined.graph());
+    int[] clusters = new int[joined.nodeOf().length];
+    for (int i = 0; i < clusters.length; i++) {
+      clusters[i] = ofJoined[joined.nodeOf()[i]];
     }
     return clusters;
   }

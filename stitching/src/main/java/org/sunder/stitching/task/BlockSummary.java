@@ -22,6 +22,10 @@ import org.sunder.blockwise.grid.BlockGrid;
  * @param boundarySides per boundary segment, a bit mask of the block's sides it is near:
  *     bit {@code 2 * axis} the lower side along {@code axis}, bit {@code 2 * axis + 1} the upper
  *     side (sides on the volume border never count); 0 for an unsettled piece far from faces
+ * @param boundaryFirstVoxels per boundary segment, the index in the volume (memory order) of
+ *     its first voxel in the core. The fragment methods' solve orders the joined pieces by the
+ *     smallest of these, the order in which a one-block run numbers its fragments, so that
+ *     ties fall as they would there
  * @param innerEdges statistics of the edges with both ends in this block's core between two
  *     different boundary segments, keyed by provisional id
  * @param separatedU with {@code separatedV}: the pairs of boundary segments (provisional ids,
@@ -36,7 +40,7 @@ import org.sunder.blockwise.grid.BlockGrid;
  *     blocks filter nothing themselves)
  */
 public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalIds,
-    int[] boundarySides, EdgeStatistics innerEdges, long[] separatedU, long[] separatedV,
+    int[] boundarySides, long[] boundaryFirstVoxels, EdgeStatistics innerEdges, long[] separatedU, long[] separatedV,
     EdgeStatistics interiorEdges) implements Serializable {
 
   /** The number of segments (local ids) of the block. */
@@ -62,7 +66,9 @@ public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalId
     return other instanceof BlockSummary s && block == s.block
         && Arrays.equals(segmentSizes, s.segmentSizes)
         && Arrays.equals(boundaryLocalIds, s.boundaryLocalIds)
-        && Arrays.equals(boundarySides, s.boundarySides) && innerEdges.equals(s.innerEdges)
+        && Arrays.equals(boundarySides, s.boundarySides)
+        && Arrays.equals(boundaryFirstVoxels, s.boundaryFirstVoxels)
+        && innerEdges.equals(s.innerEdges)
         && Arrays.equals(separatedU, s.separatedU) && Arrays.equals(separatedV, s.separatedV)
         && interiorEdges.equals(s.interiorEdges);
   }

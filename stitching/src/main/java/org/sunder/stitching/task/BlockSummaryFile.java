@@ -13,13 +13,13 @@ import org.sunder.blockwise.graph.EdgeStatistics;
  * <pre>
  *   int block
  *   int n, long[n] segmentSizes
- *   int b, int[b] boundaryLocalIds, int[b] boundarySides
+ *   int b, int[b] boundaryLocalIds, int[b] boundarySides, long[b] boundaryFirstVoxels
  *   table innerEdges       (int rows, long[] u, long[] v, double[] sum, long[] count,
  *                           double[] min, double[] max)
  *   int s, long[s] separatedU, long[s] separatedV
  *   table interiorEdges
  * </pre>
- * 8 bytes per segment, 8 per boundary segment, 48 per edge, 16 per separated pair. Write and read
+ * 8 bytes per segment, 16 per boundary segment, 48 per edge, 16 per separated pair. Write and read
  * are O(file size) (reading re-validates the tables, O(m log m)).
  */
 public final class BlockSummaryFile {
@@ -55,7 +55,7 @@ public final class BlockSummaryFile {
     int n = s.segmentSizes().length;
     int b = s.boundaryLocalIds().length;
     int sep = s.separatedU().length;
-    long body = 4 + 4 + 8L * n + 4 + 8L * b
+    long body = 4 + 4 + 8L * n + 4 + 16L * b
         + CheckedFile.statisticsBytes(s.innerEdges().size())
         + 4 + 16L * sep + CheckedFile.statisticsBytes(s.interiorEdges().size());
     ByteBuffer out = CheckedFile.start(MAGIC, body);
@@ -68,6 +68,8 @@ public final class BlockSummaryFile {
     out.position(out.position() + 4 * b);
     out.asIntBuffer().put(s.boundarySides());
     out.position(out.position() + 4 * b);
+    out.asLongBuffer().put(s.boundaryFirstVoxels());
+    out.position(out.position() + 8 * b);
     CheckedFile.putStatistics(out, s.innerEdges());
     out.putInt(sep);
     out.asLongBuffer().put(s.separatedU());
@@ -101,16 +103,18 @@ public final class BlockSummaryFile {
       int block = in.getInt();
       int n = CheckedFile.count(in, 8, file, WHAT, "segment");
       long[] sizes = CheckedFile.longs(in, n);
-      int b = CheckedFile.count(in, 8, file, WHAT, "boundary segment");
+      int b = CheckedFile.count(in, 16, file, WHAT, "boundary segment");
       int[] boundary = CheckedFile.ints(in, b);
       int[] sides = CheckedFile.ints(in, b);
+      long[] firstVoxels = CheckedFile.longs(in, b);
       EdgeStatistics inner = CheckedFile.getStatistics(in, file, WHAT);
       int sep = CheckedFile.count(in, 16, file, WHAT, "separated pair");
       long[] su = CheckedFile.longs(in, sep);
       long[] sv = CheckedFile.longs(in, sep);
       EdgeStatistics interior = CheckedFile.getStatistics(in, file, WHAT);
       CheckedFile.requireConsumed(in, file, WHAT);
-      return new BlockSummary(block, sizes, boundary, sides, inner, su, sv, interior);
+      return new BlockSummary(block, sizes, boundary, sides, firstVoxels, inner, su, sv,
+          interior);
     } catch (java.nio.BufferUnderflowException e) {
       throw CheckedFile.bad(file, WHAT, "is truncated");
     }

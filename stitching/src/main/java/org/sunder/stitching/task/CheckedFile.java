@@ -19,7 +19,8 @@ import org.sunder.blockwise.graph.EdgeStatistics;
  * finished; a retried task writes the same bytes. O(file size) either way.
  */
 public final class CheckedFile {
-  static final int VERSION = 1;
+  /** 2: block summaries carry their boundary segments' first voxels. */
+  static final int VERSION = 2;
   static final int HEADER = 12;
   static final int TRAILER = 8;
 

@@ -1,5 +1,6 @@
 package org.sunder.stitching.task;
 
+import java.util.Arrays;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
@@ -186,12 +187,15 @@ public final class CoreSegments {
         boundaryCount += boundary[local] ? 1 : 0;
       }
     }
+    long[] firstVoxels = firstVoxels(grid.volumeShape(), block, coreLocal, localCount);
     int[] boundaryIds = new int[boundaryCount];
     int[] boundarySides = new int[boundaryCount];
+    long[] boundaryFirstVoxels = new long[boundaryCount];
     int next = 0;
     for (int k = 1; k <= localCount; k++) {
       if (boundary[k]) {
         boundaryIds[next] = k;
+        boundaryFirstVoxels[next] = firstVoxels[k];
         boundarySides[next++] = sides[k];
       }
     }
@@ -212,9 +216,39 @@ public final class CoreSegments {
       provisional[i] = local == 0 ? 0 : layout.provisional(block.index(), local);
     }
     return new Result(provisional,
-        new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, inner.edges(),
-            inner.separatedU(), inner.separatedV(), inner.interior()),
+        new BlockSummary(block.index(), sizes, boundaryIds, boundarySides, boundaryFirstVoxels,
+            inner.edges(), inner.separatedU(), inner.separatedV(), inner.interior()),
         markContinuations ? continuations(grid, block, labels, coreIndex) : null);
+  }
+
+  /**
+   * Per local id {@code 1..localCount}, the index in the volume (memory order) of its first
+   * voxel in the core ({@code coreLocal}: local ids in core order, 0 for none). O(core voxels).
+   */
+  static long[] firstVoxels(long[] volumeShape, Block block, int[] coreLocal, int localCount) {
+    int n = volumeShape.length;
+    int[] coreShape = block.coreShape();
+    long[] coreMin = block.coreMin();
+    long[] first = new long[localCount + 1];
+    Arrays.fill(first, -1);
+    int[] p = new int[n];
+    for (int i = 0; i < coreLocal.length; i++) {
+      int local = coreLocal[i];
+      if (local > 0 && first[local] < 0) {
+        long index = 0;
+        for (int d = n - 1; d >= 0; d--) {
+          index = index * volumeShape[d] + coreMin[d] + p[d];
+        }
+        first[local] = index;
+      }
+      for (int d = 0; d < n; d++) {
+        if (++p[d] < coreShape[d]) {
+          break;
+        }
+        p[d] = 0;
+      }
+    }
+    return first;
   }
 
   /**

@@ -1,24 +1,30 @@
 package org.sunder.stitching.solve;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Collections;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Random;
 import java.util.Set;
+import java.util.stream.LongStream;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.IdLayout;
+import org.sunder.blockwise.partition.ReducedGraphSolver;
+import org.sunder.blockwise.partition.agglomeration.Agglomeration;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.config.FragmentsAgglomerationMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
+import org.sunder.stitching.RandomReducedGraphs;
 import org.sunder.stitching.task.BlockSummary;
 import org.sunder.stitching.task.SeamEdges;
 
@@ -43,8 +49,10 @@ class GlobalSolveTest {
     java.util.Arrays.fill(sizes, 10);
     int[] sides = new int[boundary.length];
     java.util.Arrays.fill(sides, 2);
-    return new BlockSummary(block, sizes, boundary, sides, inner, separatedU, separatedV,
-        EdgeStatistics.empty());
+    long[] firstVoxels = java.util.Arrays.stream(boundary).mapToLong(k -> id(block, k))
+        .toArray();
+    return new BlockSummary(block, sizes, boundary, sides, firstVoxels, inner, separatedU,
+        separatedV, EdgeStatistics.empty());
   }
 
   @Test
@@ -105,6 +113,98 @@ class GlobalSolveTest {
       assertEquals(!joined, map.apply(id(0, 1)) == map.apply(id(1, 2)), "continued " + continued);
       assertNotEquals(map.apply(id(0, 1)), map.apply(id(0, 2)));
     }
+  }
+
+  /**
+   * Ties fall as in a one-block run: random fragment graphs whose weights take three values
+   * (many equal means), each fragment cut into pieces with provisional ids in random order,
+   * the pieces of a fragment continued into each other and each pair's statistics on one pair
+   * of their pieces. Joined and ordered by first voxel, the mean-linkage solve gives the
+   * partition of the agglomeration of the fragments themselves (numbered in first-voxel order,
+   * as a one-block run numbers them); in provisional-id order it gives another on some graphs.
+   */
+  @Test
+  void joinedPiecesAreSolvedInTheOrderOfTheirFirstVoxels() {
+    Random random = new Random(8);
+    Agglomeration oneBlock = new Agglomeration(Linkage.MEAN, false);
+    ReducedGraphSolver solver = MEAN.createSolver();
+    int differentInIdOrder = 0;
+    for (int trial = 0; trial < 100; trial++) {
+      int fragments = 4 + random.nextInt(20);
+      EdgeStatistics.Accumulator whole = new EdgeStatistics.Accumulator(16);
+      for (int e = 0; e < 3 * fragments; e++) {
+        int a = random.nextInt(fragments);
+        int b = random.nextInt(fragments);
+        if (a != b) {
+          double w = new double[] {-1, 1, 2}[random.nextInt(3)];
+          whole.add(a, b, w, 1, w, w);
+        }
+      }
+      EdgeStatistics fragmentGraph = whole.build();
+      int[] want = RandomReducedGraphs.canonical(
+          oneBlock.run(fragments, fragmentGraph).clustering().clusterOf());
+      // pieces: fragment f has pieces firstPiece[f] .. firstPiece[f + 1] - 1, first voxels
+      // ascending with f; nodes hold the pieces in a random order
+      int[] firstPiece = new int[fragments + 1];
+      for (int f = 0; f < fragments; f++) {
+        firstPiece[f + 1] = firstPiece[f] + (f == 0 ? 2 : 1 + random.nextInt(3));
+      }
+      int pieces = firstPiece[fragments];
+      List<Integer> order = new ArrayList<>();
+      for (int p = 0; p < pieces; p++) {
+        order.add(p);
+      }
+      Collections.shuffle(order, random);
+      int[] nodeOfPiece = new int[pieces];
+      long[] firstVoxels = new long[pieces];
+      long[] ids = new long[pieces];
+      for (int node = 0; node < pieces; node++) {
+        nodeOfPiece[order.get(node)] = node;
+        firstVoxels[node] = 1000L + 7L * order.get(node);
+        ids[node] = 50L + node;
+      }
+      EdgeStatistics.Accumulator edges = new EdgeStatistics.Accumulator(16);
+      for (int e = 0; e < fragmentGraph.size(); e++) {
+        int a = (int) fragmentGraph.u(e);
+        int b = (int) fragmentGraph.v(e);
+        int pa = firstPiece[a] + random.nextInt(firstPiece[a + 1] - firstPiece[a]);
+        int pb = firstPiece[b] + random.nextInt(firstPiece[b + 1] - firstPiece[b]);
+        edges.add(nodeOfPiece[pa], nodeOfPiece[pb], fragmentGraph.sum(e),
+            fragmentGraph.count(e), fragmentGraph.min(e), fragmentGraph.max(e));
+      }
+      EdgeStatistics.Accumulator continued = new EdgeStatistics.Accumulator(16);
+      for (int f = 0; f < fragments; f++) {
+        for (int p = firstPiece[f] + 1; p < firstPiece[f + 1]; p++) {
+          continued.add(nodeOfPiece[p - 1], nodeOfPiece[p], 1);
+        }
+      }
+      ReducedGraph graph = new ReducedGraph(ids, edges.build(), new int[0], new int[0],
+          continued.build());
+      int[] fragmentOfNode = new int[pieces];
+      for (int f = 0; f < fragments; f++) {
+        for (int p = firstPiece[f]; p < firstPiece[f + 1]; p++) {
+          fragmentOfNode[nodeOfPiece[p]] = f;
+        }
+      }
+      int[] got = GlobalSolve.clustersJoiningContinuations(graph, firstVoxels, solver);
+      assertArrayEquals(want, RandomReducedGraphs.canonical(byFragment(got, fragmentOfNode,
+          fragments)), "trial " + trial);
+      int[] inIdOrder = GlobalSolve.clustersJoiningContinuations(graph,
+          LongStream.range(0, pieces).toArray(), solver);
+      differentInIdOrder += Arrays.equals(want, RandomReducedGraphs.canonical(
+          byFragment(inIdOrder, fragmentOfNode, fragments))) ? 0 : 1;
+    }
+    assertTrue(differentInIdOrder > 5, "graphs whose ties fall otherwise in id order: "
+        + differentInIdOrder);
+  }
+
+  /** Per fragment, the cluster of its pieces (all pieces of a fragment share one). */
+  private static int[] byFragment(int[] clusterOfNode, int[] fragmentOfNode, int fragments) {
+    int[] out = new int[fragments];
+    for (int node = 0; node < clusterOfNode.length; node++) {
+      out[fragmentOfNode[node]] = clusterOfNode[node];
+    }
+    return out;
   }
 
   @Test

@@ -7,6 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Arrays;
 import java.util.Random;
+import java.util.stream.LongStream;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.BlockGrid;
@@ -52,7 +53,8 @@ class MulticutPartSolverTest {
   /** The single-level solve's clusters: continued pieces joined, then the multicut. */
   private static int[] singleLevel(ReducedGraph graph) {
     return RandomReducedGraphs.canonical(
-        GlobalSolve.clustersJoiningContinuations(graph, SINGLE_LEVEL));
+        GlobalSolve.clustersJoiningContinuations(graph,
+            LongStream.range(0, graph.nodeCount()).toArray(), SINGLE_LEVEL));
   }
 
   /** The multicut objective of {@code clusters} on the graph's summed weights. */

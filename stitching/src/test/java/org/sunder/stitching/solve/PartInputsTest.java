@@ -61,8 +61,12 @@ class PartInputsTest {
       long[] sv = separated.stream().mapToLong(p -> p[1]).toArray();
       long[] sizes = new long[n];
       Arrays.fill(sizes, 10);
-      summaries.add(new BlockSummary(b, sizes, boundary, new int[n], inner.build(), su, sv,
-          EdgeStatistics.empty()));
+      long[] firstVoxels = new long[n];
+      for (int k = 0; k < n; k++) {
+        firstVoxels[k] = layout.provisional(b, boundary[k]);
+      }
+      summaries.add(new BlockSummary(b, sizes, boundary, new int[n], firstVoxels, inner.build(),
+          su, sv, EdgeStatistics.empty()));
     }
     List<SeamEdges> seams = new ArrayList<>();
     EdgeStatistics.Accumulator[] faces = new EdgeStatistics.Accumulator[grid.faceCount()];

@@ -197,6 +197,77 @@ public class ReducedGraphTest {
     }
     ReducedGraph graph = ReducedGraph.assemble(layout, summaries, List.of());
     assertEquals(boundary.length, graph.nodeCount());
+    // each node's first voxel: the smallest volume index holding its provisional id
+    java.util.Map<Long, Long> first = new java.util.HashMap<>();
+    for (int i = n - 1; i >= 0; i--) {
+      first.put(provisional[i], (long) i);
+    }
+    long[] firstVoxels = ReducedGraph.firstVoxels(summaries);
+    for (int node = 0; node < graph.nodeCount(); node++) {
+      assertEquals(first.get(graph.nodeIds()[node]), firstVoxels[node], grid.toString());
+    }
+  }
+
+  @Test
+  void joinedGraphNumbersGroupsByTheirSmallestRankAndKeepsEveryPairBetweenThem() {
+    Random random = new Random(41);
+    for (int trial = 0; trial < 50; trial++) {
+      int n = 2 + random.nextInt(30);
+      long[] ids = new long[n];
+      for (int i = 0; i < n; i++) {
+        ids[i] = 100 + 3L * i;
+      }
+      EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(16);
+      for (int e = 0; e < 3 * n; e++) {
+        int a = random.nextInt(n);
+        int b = random.nextInt(n);
+        if (a != b) {
+          acc.add(a, b, random.nextGaussian(), 1 + random.nextInt(4), -1, 1);
+        }
+      }
+      ReducedGraph graph = new ReducedGraph(ids, acc.build(), new int[] {0}, new int[] {1});
+      int[] group = new int[n];
+      for (int i = 0; i < n; i++) {
+        int other = random.nextInt(i + 1);
+        group[i] = random.nextInt(3) == 0 ? group[other] : i;
+      }
+      long[] rank = random.longs(n, 0, 1_000_000).distinct().toArray();
+      if (rank.length < n) {
+        continue;
+      }
+      ReducedGraph.Joined joined = graph.joined(group, rank);
+      long[] smallest = new long[n];
+      Arrays.fill(smallest, Long.MAX_VALUE);
+      for (int i = 0; i < n; i++) {
+        smallest[group[i]] = Math.min(smallest[group[i]], rank[i]);
+      }
+      long[] nodes = joined.graph().nodeIds();
+      for (int i = 0; i < n; i++) {
+        assertEquals(smallest[group[i]], nodes[joined.nodeOf()[i]]);
+      }
+      for (int k = 1; k < nodes.length; k++) {
+        assertTrue(nodes[k - 1] < nodes[k], "ascending ranks");
+      }
+      EdgeStatistics.Accumulator want = new EdgeStatistics.Accumulator(16);
+      EdgeStatistics edges = graph.edges();
+      for (int e = 0; e < edges.size(); e++) {
+        int a = joined.nodeOf()[(int) edges.u(e)];
+        int b = joined.nodeOf()[(int) edges.v(e)];
+        if (a != b) {
+          want.add(a, b, edges.sum(e), edges.count(e), edges.min(e), edges.max(e));
+        }
+      }
+      EdgeStatistics expected = want.build();
+      EdgeStatistics actual = joined.graph().edges();
+      assertEquals(expected.size(), actual.size());
+      for (int e = 0; e < expected.size(); e++) {
+        assertEquals(expected.u(e), actual.u(e));
+        assertEquals(expected.v(e), actual.v(e));
+        assertEquals(expected.count(e), actual.count(e));
+        assertEquals(expected.sum(e), actual.sum(e), 1e-9);
+      }
+      assertEquals(0, joined.graph().separatedU().length);
+    }
   }
 
   private static long[] boundaryIds(IdLayout layout, List<BlockSummary> summaries) {

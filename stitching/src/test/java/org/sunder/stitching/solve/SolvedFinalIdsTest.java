@@ -28,7 +28,8 @@ class SolvedFinalIdsTest {
     long[] sizes = new long[segments];
     Arrays.fill(sizes, 1);
     return new BlockSummary(block, sizes, boundary, new int[boundary.length],
-        EdgeStatistics.empty(), new long[0], new long[0], EdgeStatistics.empty());
+        new long[boundary.length], EdgeStatistics.empty(), new long[0], new long[0],
+        EdgeStatistics.empty());
   }
 
   /** Per block maps, built in a shuffled block order, gathered into one array per block. */
