@@ -186,6 +186,13 @@ public final class GridGraph {
             visitor));
   }
 
+  /** As {@link #forEachAffinityAcross(int[], EdgeVisitor)} for 64-bit labels. */
+  public void forEachAffinityAcross(long[] labels, EdgeVisitor visitor) {
+    requireLabels(labels.length);
+    forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
+        visitRow(k, start, length, global, thin, decisions, mask, null, labels, true, visitor));
+  }
+
   /** A row of offset {@code k}; see {@link RowVisitor}. */
   private interface OffsetRowVisitor {
     void row(int k, int start, int length, long[] global, boolean thin,

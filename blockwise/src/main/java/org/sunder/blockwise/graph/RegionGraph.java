@@ -157,14 +157,12 @@ public final class RegionGraph {
         acc.add(low, high, sum, count, min, max);
         return;
       }
-      double total = sum + Math.log(odds);
-      // a lone edge's sum is its weight, rounded to a float as the rule rounds it
-      acc.add(low, high, count == 1 ? (float) total : total, count, min, max);
+      acc.add(low, high, sum + Math.log(odds), count, min, max);
     }
 
     /** The rule's weight of a clamped affinity, as {@link WeightRule#weight} computes it. */
     private static double logitWeight(double c) {
-      return (float) Math.log(c / (1 - c));
+      return (float) WeightRule.logitOfClamped(c);
     }
 
     EdgeStatistics build() {

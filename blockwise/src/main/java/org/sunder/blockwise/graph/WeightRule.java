@@ -165,6 +165,16 @@ public record WeightRule(Kind kind, boolean[] attractive, Transform transform, d
     return clamp == null ? LOGIT_EPSILON : clamp;
   }
 
+  /**
+   * {@code log(c / (1 − c))} of an affinity {@code c} already clamped: a weight of an unbiased
+   * logit rule before its rounding to a float. Pair sums add these in double precision (a
+   * block's {@link RegionGraph} and a face's seam edges alike), so that a pair's sum comes out
+   * the same, up to its last bits, however its edges are grouped.
+   */
+  public static double logitOfClamped(double c) {
+    return Math.log(c / (1 - c));
+  }
+
   /** The weight of affinity {@code a} with channel parameter {@code p} (see above). */
   public float weight(float a, float p) {
     if (kind == Kind.CHANNEL_ROLE) {

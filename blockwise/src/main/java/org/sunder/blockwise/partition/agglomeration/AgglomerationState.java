@@ -291,8 +291,9 @@ final class AgglomerationState {
   private double value(int e) {
     int i = stride * e;
     return switch (linkage) {
-      case SUM, MAX, MIN -> stat[i];
-      case MEAN -> stat[i] / stat[i + 1];
+      case SUM -> Linkage.onGrid(stat[i]);
+      case MAX, MIN -> stat[i];
+      case MEAN -> Linkage.onGrid(stat[i] / stat[i + 1]);
       case ABS_MAX -> {
         double a = stat[i];
         double b = stat[i + 1];

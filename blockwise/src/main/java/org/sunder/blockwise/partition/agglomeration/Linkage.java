@@ -13,6 +13,11 @@ import org.sunder.blockwise.partition.Segmentation;
  * (see {@link org.sunder.blockwise.graph.EdgeStatistics}): the criteria of "A Generalized
  * Framework for Agglomerative Clustering of Signed Graphs applied to Instance Segmentation"
  * (2019/2022). JSON names: {@code sum}, {@code mean}, {@code max}, {@code min}, {@code abs-max}.
+ *
+ * <p>Sum and mean values are taken {@link #onGrid on a grid}: a blockwise run adds a pair's
+ * weights in another order than a one-block run, so its sums differ in their last bits, and
+ * without the grid a pair that ties with another in one run would not in the other; on the grid
+ * both fall to the same tie order.
  */
 public enum Linkage {
   /** Sum of the weights. */
@@ -50,11 +55,24 @@ public enum Linkage {
         + name + "\"; expected one of sum, mean, max, min, abs-max");
   }
 
+  /** The spacing of {@link #onGrid}: 2^-24, a float's resolution at 1. */
+  public static final double GRID = 0x1p-24;
+
+  /**
+   * {@code x} rounded to the nearest multiple of {@link #GRID}. Sums and means that differ only
+   * in their last bits round to the same value (unless they straddle a midpoint, a chance of
+   * about their difference over the grid), and sums of values on the grid below 2^29 in
+   * magnitude are exact in any order.
+   */
+  public static double onGrid(double x) {
+    return Math.rint(x / GRID) * GRID;
+  }
+
   /** The linkage value of statistics (sum, count, min, max). */
   public double value(double sum, long count, double min, double max) {
     return switch (this) {
-      case SUM -> sum;
-      case MEAN -> sum / count;
+      case SUM -> onGrid(sum);
+      case MEAN -> onGrid(sum / count);
       case MAX -> max;
       case MIN -> min;
       case ABS_MAX -> Math.abs(max) >= Math.abs(min) ? max : min;
