@@ -105,7 +105,8 @@ class SeamSumTest {
         assertEquals(want.u(e), summed.u(e), where);
         assertEquals(want.v(e), summed.v(e), where);
         assertEquals(want.count(e), summed.count(e), where);
-        assertEquals(want.sum(e), summed.sum(e), 1e-9 * want.count(e), where);
+        // the seams add unrounded logits (PairSums), the reference the rule's float weights
+        assertEquals(want.sum(e), summed.sum(e), 1e-6 * want.count(e), where);
         assertEquals(want.min(e), summed.min(e), where);
         assertEquals(want.max(e), summed.max(e), where);
       }

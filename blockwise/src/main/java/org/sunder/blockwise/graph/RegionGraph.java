@@ -201,15 +201,15 @@ public final class RegionGraph {
 
   /** As {@link #of(int[], GridGraph)} for 64-bit labels. */
   public static RegionGraph of(long[] labels, GridGraph graph) {
-    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
-    graph.forEachEdgeAcross(labels, (s, t, k, w) -> {
+    PairSums sums = new PairSums(graph);
+    sums.forEachValueAcross(labels, (s, t, k, value) -> {
       long a = labels[s];
       long b = labels[t];
       if (a != 0 && b != 0) {
-        acc.add(a, b, w);
+        sums.add(a, b, value);
       }
     });
-    return new RegionGraph(acc.build(), EdgeStatistics.empty());
+    return new RegionGraph(sums.build(), EdgeStatistics.empty());
   }
 
   /** The statistics per touching pair of labels, canonical order. */

@@ -4,6 +4,7 @@ import java.util.Arrays;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.PairSums;
 import org.sunder.blockwise.graph.RegionGraph;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
@@ -378,11 +379,11 @@ public final class CoreSegments {
     for (int i : coreIndex) {
       inCore[i] = true;
     }
-    EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
+    PairSums core = new PairSums(extendedGraph);
     EdgeStatistics.Accumulator repulsive = new EdgeStatistics.Accumulator(256);
-    EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(256);
+    PairSums interior = new PairSums(extendedGraph);
     boolean interiorEdges = withInteriorEdges;
-    extendedGraph.forEachEdgeAcross(labels, (s, t, k, w) -> {
+    core.forEachValueAcross(labels, (s, t, k, w) -> {
       int a = boundaryOf[labels[s]];
       int b = boundaryOf[labels[t]];
       if (interiorEdges && (a == 0 || b == 0) && (filterOf[labels[s]] || filterOf[labels[t]])
@@ -400,16 +401,16 @@ public final class CoreSegments {
       if (inCore[s] && inCore[t]) {
         core.add(a, b, w);
       }
-      if (w < 0 && !unsettled[a] && !unsettled[b]) {
-        repulsive.add(a, b, w);
+      if (core.repels(w) && !unsettled[a] && !unsettled[b]) {
+        repulsive.add(a, b, 1);
       }
     });
-    return inner(layout, block, core, repulsive, interior);
+    return inner(layout, block, core.build(), repulsive, interior.build());
   }
 
   /** The accumulated statistics of local ids as an {@link Inner} of provisional ids. */
-  private static Inner inner(IdLayout layout, int block, EdgeStatistics.Accumulator core,
-      EdgeStatistics.Accumulator repulsive, EdgeStatistics.Accumulator interior) {
+  private static Inner inner(IdLayout layout, int block, EdgeStatistics core,
+      EdgeStatistics.Accumulator repulsive, EdgeStatistics interior) {
     EdgeStatistics apart = repulsive.build();
     long[] su = new long[apart.size()];
     long[] sv = new long[apart.size()];
@@ -417,8 +418,8 @@ public final class CoreSegments {
       su[e] = layout.provisional(block, apart.u(e));
       sv[e] = layout.provisional(block, apart.v(e));
     }
-    return new Inner(provisional(layout, block, core.build()), su, sv,
-        provisional(layout, block, interior.build()));
+    return new Inner(provisional(layout, block, core), su, sv,
+        provisional(layout, block, interior));
   }
 
   /**
@@ -453,7 +454,7 @@ public final class CoreSegments {
         repulsive.add(a, b, anywhere.min(e));
       }
     }
-    return inner(layout, block, core, repulsive, interior);
+    return inner(layout, block, core.build(), repulsive, interior.build());
   }
 
   /** {@code local} with local ids replaced by provisional ids. */

@@ -3,7 +3,7 @@ package org.sunder.stitching.task;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
-import org.sunder.blockwise.graph.WeightRule;
+import org.sunder.blockwise.graph.PairSums;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.Face;
 import org.sunder.blockwise.grid.Shapes;
@@ -54,10 +54,9 @@ public final class SeamExtraction {
    * As {@link #extract(BlockGrid, Face, long[], GridGraph)}, and with {@code continuations}
    * (the blocks' continuation flags over the slab, or null) the face's continued pairs; edges
    * with an end where {@code ignoredOrNull} (one flag per slab voxel, or null) is non-zero are
-   * left out, as the blocks leave out a defective section's edges. Under an unbiased logit rule
-   * the pair sums add each edge's unrounded logit and the minima and maxima are kept as clamped
-   * affinities, as a block's {@link org.sunder.blockwise.graph.RegionGraph} keeps them, so that
-   * the reduced graph's sums agree with a one-block run's up to their last bits.
+   * left out, as the blocks leave out a defective section's edges. Pairs are summed as a
+   * block's region graph sums them ({@link PairSums}), so that the reduced graph's sums agree
+   * with a one-block run's up to their last bits.
    */
   public static SeamEdges extract(BlockGrid grid, Face face, long[] labels, byte[] continuations,
       byte[] ignoredOrNull, GridGraph slabGraph) {
@@ -68,10 +67,8 @@ public final class SeamExtraction {
     long[] gridShape = grid.gridShape();
     int axis = face.axis();
     int lower = face.lowerBlock();
-    EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
-    double clamp = slabGraph.rule().unbiasedLogitClamp();
-    boolean logits = !Double.isNaN(clamp);
-    GridGraph.EdgeVisitor owned = (s, t, k, value) -> {
+    PairSums sums = new PairSums(slabGraph);
+    sums.forEachValueAcross(labels, (s, t, k, value) -> {
       int bs = blockOf[s];
       int bt = blockOf[t];
       if (bs == bt) {
@@ -83,27 +80,13 @@ public final class SeamExtraction {
           || ignoredOrNull != null && (ignoredOrNull[s] | ignoredOrNull[t]) != 0) {
         return;
       }
-      if (owner(bs, bt, gridShape, n, axis) != lower) {
-        return;
+      if (owner(bs, bt, gridShape, n, axis) == lower) {
+        sums.add(ls, lt, value);
       }
-      if (logits) {
-        double c = Math.min(Math.max(value, clamp), 1 - clamp);
-        acc.add(ls, lt, WeightRule.logitOfClamped(c), 1, c, c);
-      } else {
-        acc.add(ls, lt, value);
-      }
-    };
-    EdgeStatistics edges;
-    if (logits) {
-      slabGraph.forEachAffinityAcross(labels, owned);
-      edges = acc.build().withMinMax(c -> (float) WeightRule.logitOfClamped(c));
-    } else {
-      slabGraph.forEachEdgeAcross(labels, owned);
-      edges = acc.build();
-    }
+    });
     EdgeStatistics continued = continuations == null ? EdgeStatistics.empty()
         : continued(face, labels, continuations, min, shape);
-    return new SeamEdges(face.index(), edges, continued);
+    return new SeamEdges(face.index(), sums.build(), continued);
   }
 
   /**

@@ -163,8 +163,9 @@ final class PreviousAgglomerationState {
 
   private double value(int e) {
     return switch (linkage) {
-      case SUM, MAX, MIN -> a[e];
-      case MEAN -> a[e] / b[e];
+      case SUM -> Linkage.onGrid(a[e]);
+      case MAX, MIN -> a[e];
+      case MEAN -> Linkage.onGrid(a[e] / b[e]);
       case ABS_MAX -> Math.abs(a[e]) >= Math.abs(b[e]) ? a[e] : b[e];
     };
   }
