@@ -264,7 +264,10 @@ public final class IntSetPool {
     int m = set << RECORD_LOG;
     int[] members = spilled;
     System.arraycopy(meta, m + INLINE, members, 0, INLINE_CAPACITY);
-    int log = logFor(INLINE_CAPACITY + 1);
+    int log = MIN_LOG;
+    while (INLINE_CAPACITY + 1 > (3 << log) >>> 2) {
+      log++;
+    }
     meta[m + START] = allocate(log);
     meta[m + LOG] = log;
     meta[m + COUNT] = (INLINE_CAPACITY + 1) | TABLED;
@@ -274,50 +277,11 @@ public final class IntSetPool {
     insertNew(set, value);
   }
 
-  /**
-   * Makes room in {@code set} for {@code members} members in all (a table at most 3/4 full), so
-   * that adding that many grows it no more: one rehash where doubling would take several, for a
-   * set about to receive many members at once. Changes no membership.
-   */
-  public void reserve(int set, int members) {
-    if (members <= INLINE_CAPACITY) {
-      return;
-    }
-    int m = set << RECORD_LOG;
-    int count = meta[m + COUNT];
-    int log = logFor(members);
-    if (count >= 0) {
-      int[] inline = spilled;
-      System.arraycopy(meta, m + INLINE, inline, 0, count);
-      meta[m + START] = allocate(log);
-      meta[m + LOG] = log;
-      meta[m + COUNT] = count | TABLED;
-      for (int i = 0; i < count; i++) {
-        insertNew(set, inline[i]);
-      }
-    } else if (log > meta[m + LOG]) {
-      resize(set, log);
-    }
-  }
-
-  /** The smallest table capacity (log2, at least {@link #MIN_LOG}) for {@code members}. */
-  private static int logFor(int members) {
-    int log = MIN_LOG;
-    while (members > (3 << log) >>> 2) {
-      log++;
-    }
-    return log;
-  }
-
   private void grow(int set) {
-    resize(set, meta[(set << RECORD_LOG) + LOG] + 1);
-  }
-
-  /** Moves the table of {@code set} to a new one of {@code 1 << log} slots (larger). */
-  private void resize(int set, int log) {
     int m = set << RECORD_LOG;
     int oldAddress = meta[m + START];
     int oldLog = meta[m + LOG];
+    int log = oldLog + 1;
     int address = allocate(log);
     int[] source = pages[oldAddress >>> PAGE_BITS];
     int oldBase = oldAddress & PAGE_MASK;

@@ -15,10 +15,7 @@ import org.junit.jupiter.api.Test;
 
 class IntSetPoolTest {
 
-  /**
-   * Random operations on many sets (room reserved now and then) against java.util.HashSet, the
-   * reference.
-   */
+  /** Random operations on many sets against java.util.HashSet, the reference. */
   @Test
   void randomOperationsMatchHashSets() {
     Random random = new Random(29);
@@ -43,8 +40,6 @@ class IntSetPoolTest {
             if (random.nextInt(50) == 0) {
               r.clear();
               pool.clear(s);
-            } else if (random.nextInt(10) == 0) {
-              pool.reserve(s, r.size() + random.nextInt(200));
             }
           }
         }

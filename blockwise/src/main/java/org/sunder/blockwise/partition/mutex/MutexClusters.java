@@ -124,7 +124,6 @@ final class MutexClusters {
     int[] m = moved;
     sets.copyTo(loser, m);
     sets.clear(loser);
-    sets.reserve(winner, sets.size(winner) + count);
     if (count > 1) {
       // the partners' records and tables fetched together, not one miss after another
       int ignored = 0;
