@@ -326,7 +326,7 @@ class BlockwiseRunTest {
       Block block = grid.block(b);
       AffinityBlock read = AffinityReader.readBlock(setup, block);
       AffinityBlock context = read.contextOrNull();
-      long[][] box = AffinityReader.contextBox(grid, block, 2);
+      long[][] box = AffinityReader.contextBox(grid, block, 2, 1);
       assertArrayEquals(box[0], context.globalMin());
       assertEquals(3, context.channelCount(), "the nearest-neighbour channels");
       for (int d = 0; d < 2; d++) {
@@ -359,6 +359,20 @@ class BlockwiseRunTest {
     StitchingSetup mws = stage(scene, "no-context", StorageFormat.ZARR, new int[] {48, 48, 16},
         TissuePreset.offsets().reach(), MWS);
     assertNull(AffinityReader.readBlock(mws, mws.grid().block(0)).contextOrNull());
+    // fragment agglomeration reads a context two halos wide
+    StitchingSetup agglomeration = stage(scene, "wide-context", StorageFormat.ZARR,
+        new int[] {32, 32, 16}, new int[] {6, 6, 2}, new PartitionConfig(
+            new FragmentsAgglomerationMethod(), null, null, null, null, null, options, null));
+    for (int b = 0; b < grid.blockCount(); b++) {
+      Block block = agglomeration.grid().block(b);
+      AffinityBlock context = AffinityReader.readBlock(agglomeration, block).contextOrNull();
+      for (int d = 0; d < 2; d++) {
+        long min = Math.max(0, block.extendedMin()[d] - 2L * grid.halo()[d]);
+        assertEquals(min, context.globalMin()[d], "block " + b);
+        assertEquals(Math.min(shape[d] - 1, block.extendedMax()[d] + 2L * grid.halo()[d]) - min
+            + 1, context.shape(d), "block " + b);
+      }
+    }
   }
 
   /**

@@ -286,6 +286,13 @@ class RunResolverTest {
         s.halo());
     assertTrue(extended * 660 <= perTask, extended + " voxels");
     assertTrue(origin.limitText().contains("memory per task"), origin.limitText());
+    // Fragment agglomeration: 13 x 4 + 150 + 8, and 4 x (3 x 4 + 20) for its context two halos
+    // wide (at most 3.5 times the extended box).
+    String agglomeration = "{\"input\": {\"container\": \"" + root
+        + "\", \"missingChunks\": \"fill\"},"
+        + " \"partition\": {\"method\": \"fragments-agglomeration\"}}";
+    assertEquals(338, resolve(agglomeration, budget(2, 8L << 30, perTask)).blockOrigin()
+        .bytesPerExtendedVoxel());
     // Many cores: the block count floor stops the growth first.
     RunSettings many = resolve("{\"input\": {\"container\": \"" + root
         + "\", \"missingChunks\": \"fill\"}}", budget(64, 1L << 40, 1L << 36));

@@ -34,7 +34,8 @@ public final class AffinityReader {
     FragmentOptions fragments = setup.partition().fragments();
     int sliceAxis = fragments == null ? -1
         : fragments.forDimension(block.numDimensions()).sliceAxis();
-    long[][] box = contextBox(setup.grid(), block, sliceAxis);
+    long[][] box = contextBox(setup.grid(), block, sliceAxis,
+        setup.partition().method().contextHalos());
     if (Arrays.equals(box[0], block.extendedMin()) && Arrays.equals(box[1], block.extendedMax())) {
       return affinities;
     }
@@ -43,16 +44,17 @@ public final class AffinityReader {
   }
 
   /**
-   * The box of a block's fragment context: its extended box grown by the grid's halo on every
-   * side, clipped to the volume ({@code {min, max}}, inclusive, memory order), except along
-   * {@code sliceAxis} (or none, when −1): fragments made plane by plane flood within a plane.
+   * The box of a block's fragment context: its extended box grown by {@code halos} times the
+   * grid's halo on every side, clipped to the volume ({@code {min, max}}, inclusive, memory
+   * order), except along {@code sliceAxis} (or none, when −1): fragments made plane by plane
+   * flood within a plane.
    */
-  public static long[][] contextBox(BlockGrid grid, Block block, int sliceAxis) {
+  public static long[][] contextBox(BlockGrid grid, Block block, int sliceAxis, int halos) {
     int n = grid.numDimensions();
     long[] min = new long[n];
     long[] max = new long[n];
     for (int d = 0; d < n; d++) {
-      int grow = d == sliceAxis ? 0 : grid.halo()[d];
+      int grow = d == sliceAxis ? 0 : halos * grid.halo()[d];
       min[d] = Math.max(0, block.extendedMin()[d] - grow);
       max[d] = Math.min(grid.volumeShape()[d] - 1, block.extendedMax()[d] + grow);
     }

@@ -35,12 +35,16 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
    */
   static final int CONTEXT_WORKING_BYTES = 20;
   /**
-   * Context voxels per extended voxel, a bound: the context grows each side of the extended box
-   * by the halo, and where the halo overhead is at most 1.35 (the default shapes' target) every
-   * axis's core is at least 2 / 0.35 halos long, so the context is at most (1.7 / 1.35)^3 = 2.0
-   * times the extended box.
+   * Context voxels per extended voxel for a context {@code halos} halos wide, a bound: the
+   * context grows each side of the extended box by that many halos, and where the halo overhead
+   * is at most 1.35 (the default shapes' target) every axis's core is at least 2 / 0.35 halos
+   * long, so the context is at most ((1.35 + 0.35 halos) / 1.35)^3 times the extended box: 2
+   * for one halo, 4 for two (3.5 rounded up).
    */
-  static final int CONTEXT_PER_EXTENDED_VOXEL = 2;
+  static int contextPerExtendedVoxel(int halos) {
+    double perAxis = (1.35 + 0.35 * halos) / 1.35;
+    return (int) Math.ceil(perAxis * perAxis * perAxis);
+  }
 
   /** The estimate for {@code setup}'s largest block. */
   public static PartitionEstimate of(StitchingSetup setup) {
@@ -74,12 +78,12 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
 
   /**
    * A fragment method's context, per voxel of the extended box: {@link
-   * #CONTEXT_PER_EXTENDED_VOXEL} x (three nearest-neighbour channels + {@link
+   * #contextPerExtendedVoxel} x (three nearest-neighbour channels + {@link
    * #CONTEXT_WORKING_BYTES}); 0 for the other methods, which read no context.
    */
   static int contextBytesPerExtendedVoxel(PartitionMethod method, int bytesPerValue) {
-    return method.usesFragments()
-        ? CONTEXT_PER_EXTENDED_VOXEL * (3 * bytesPerValue + CONTEXT_WORKING_BYTES) : 0;
+    return method.contextHalos() > 0 ? contextPerExtendedVoxel(method.contextHalos())
+        * (3 * bytesPerValue + CONTEXT_WORKING_BYTES) : 0;
   }
 
   /**

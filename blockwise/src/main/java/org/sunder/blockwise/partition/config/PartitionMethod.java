@@ -47,6 +47,15 @@ public sealed interface PartitionMethod extends Serializable
     return false;
   }
 
+  /**
+   * How many halos wide a block's fragment context is around its extended box (the partition
+   * stage reads it so that a block makes the whole volume's fragments near its faces): one for
+   * a fragment method, none for the others.
+   */
+  default int contextHalos() {
+    return usesFragments() ? 1 : 0;
+  }
+
   /** Whether the method takes {@code linkage}, {@code constraints} and {@code threshold}. */
   default boolean takesLinkage() {
     return true;
