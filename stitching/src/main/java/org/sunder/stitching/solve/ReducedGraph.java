@@ -96,7 +96,7 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
 
   /**
    * Per node, the first voxel of its segment ({@link BlockSummary#boundaryFirstVoxels}), in the
-   * node order of {@link #assemble}. O(n log b) for b blocks.
+   * node order of {@link #assemble}. O(n + b log b) for b blocks.
    */
   public static long[] firstVoxels(List<BlockSummary> summaries) {
     List<BlockSummary> blocks = new ArrayList<>(summaries);
