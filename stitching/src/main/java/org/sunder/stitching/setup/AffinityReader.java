@@ -28,14 +28,14 @@ public final class AffinityReader {
    */
   public static AffinityBlock readBlock(StitchingSetup setup, Block block) {
     AffinityBlock affinities = read(setup, block.extendedMin(), block.extendedMax());
-    if (!setup.partition().method().usesFragments()) {
+    int halos = setup.partition().method().contextHalos();
+    if (halos == 0) {
       return affinities;
     }
     FragmentOptions fragments = setup.partition().fragments();
     int sliceAxis = fragments == null ? -1
         : fragments.forDimension(block.numDimensions()).sliceAxis();
-    long[][] box = contextBox(setup.grid(), block, sliceAxis,
-        setup.partition().method().contextHalos());
+    long[][] box = contextBox(setup.grid(), block, sliceAxis, halos);
     if (Arrays.equals(box[0], block.extendedMin()) && Arrays.equals(box[1], block.extendedMax())) {
       return affinities;
     }

@@ -4,6 +4,8 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.Comparator;
 import java.util.List;
+import java.util.stream.IntStream;
+import java.util.stream.LongStream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.EdgeStatistics;
@@ -99,19 +101,8 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
    * node order of {@link #assemble}. O(n + b log b) for b blocks.
    */
   public static long[] firstVoxels(List<BlockSummary> summaries) {
-    List<BlockSummary> blocks = new ArrayList<>(summaries);
-    blocks.sort(Comparator.comparingInt(BlockSummary::block));
-    int nodeCount = 0;
-    for (BlockSummary s : blocks) {
-      nodeCount += s.boundaryFirstVoxels().length;
-    }
-    long[] first = new long[nodeCount];
-    int next = 0;
-    for (BlockSummary s : blocks) {
-      System.arraycopy(s.boundaryFirstVoxels(), 0, first, next, s.boundaryFirstVoxels().length);
-      next += s.boundaryFirstVoxels().length;
-    }
-    return first;
+    return summaries.stream().sorted(Comparator.comparingInt(BlockSummary::block))
+        .flatMapToLong(s -> LongStream.of(s.boundaryFirstVoxels())).toArray();
   }
 
   /**
@@ -138,18 +129,8 @@ public record ReducedGraph(long[] nodeIds, EdgeStatistics edges, int[] separated
     for (int i = 0; i < n; i++) {
       groupRank[group[i]] = Math.min(groupRank[group[i]], rank[i]);
     }
-    int groups = 0;
-    for (int i = 0; i < n; i++) {
-      groups += group[i] == i ? 1 : 0;
-    }
-    long[] ranks = new long[groups];
-    int next = 0;
-    for (int i = 0; i < n; i++) {
-      if (group[i] == i) {
-        ranks[next++] = groupRank[i];
-      }
-    }
-    Arrays.sort(ranks);
+    long[] ranks = IntStream.range(0, n).filter(i -> group[i] == i).mapToLong(i -> groupRank[i])
+        .sorted().toArray();
     long[] from = new long[n];
     long[] to = new long[n];
     int[] nodeOf = new int[n];

@@ -40,7 +40,8 @@ import org.sunder.blockwise.grid.BlockGrid;
  *     blocks filter nothing themselves)
  */
 public record BlockSummary(int block, long[] segmentSizes, int[] boundaryLocalIds,
-    int[] boundarySides, long[] boundaryFirstVoxels, EdgeStatistics innerEdges, long[] separatedU, long[] separatedV,
+    int[] boundarySides, long[] boundaryFirstVoxels, EdgeStatistics innerEdges,
+    long[] separatedU, long[] separatedV,
     EdgeStatistics interiorEdges) implements Serializable {
 
   /** The number of segments (local ids) of the block. */

@@ -227,27 +227,26 @@ public final class CoreSegments {
    * voxel in the core ({@code coreLocal}: local ids in core order, 0 for none). O(core voxels).
    */
   static long[] firstVoxels(long[] volumeShape, Block block, int[] coreLocal, int localCount) {
-    int n = volumeShape.length;
+    int[] firstInCore = new int[localCount + 1];
+    Arrays.fill(firstInCore, -1);
+    for (int i = 0; i < coreLocal.length; i++) {
+      if (coreLocal[i] > 0 && firstInCore[coreLocal[i]] < 0) {
+        firstInCore[coreLocal[i]] = i;
+      }
+    }
     int[] coreShape = block.coreShape();
     long[] coreMin = block.coreMin();
     long[] first = new long[localCount + 1];
-    Arrays.fill(first, -1);
-    int[] p = new int[n];
-    for (int i = 0; i < coreLocal.length; i++) {
-      int local = coreLocal[i];
-      if (local > 0 && first[local] < 0) {
-        long index = 0;
-        for (int d = n - 1; d >= 0; d--) {
-          index = index * volumeShape[d] + coreMin[d] + p[d];
-        }
-        first[local] = index;
+    for (int local = 1; local <= localCount; local++) {
+      int rest = firstInCore[local];
+      long index = 0;
+      long stride = 1;
+      for (int d = 0; d < coreShape.length; d++) {
+        index += (coreMin[d] + rest % coreShape[d]) * stride;
+        rest /= coreShape[d];
+        stride *= volumeShape[d];
       }
-      for (int d = 0; d < n; d++) {
-        if (++p[d] < coreShape[d]) {
-          break;
-        }
-        p[d] = 0;
-      }
+      first[local] = index;
     }
     return first;
   }
