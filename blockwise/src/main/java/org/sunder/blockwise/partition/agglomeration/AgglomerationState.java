@@ -152,8 +152,7 @@ final class AgglomerationState {
     if (u == v) {
       throw new IllegalArgumentException("edge from node " + u + " to itself");
     }
-    long key = PairSet.pair(u, v);
-    int e = pairs.get(key);
+    int e = pairs.putIfAbsent(PairSet.pair(u, v), edgeCount);
     if (e >= 0) {
       combine(e, first(sum, min, max), second(count, min), id, id);
       return;
@@ -172,7 +171,6 @@ final class AgglomerationState {
       maxId[e] = id;
       minId[e] = id;
     }
-    pairs.put(key, e);
   }
 
   private double first(double sum, double min, double max) {
