@@ -92,20 +92,9 @@ final class AgglomerationState {
   static AgglomerationState ofGrid(Agglomeration options, GridGraph grid) {
     int n = grid.nodeCount();
     int offsets = grid.offsetCount();
-    if (4L * n * offsets > Integer.MAX_VALUE - 8) {
+    int[] delta = distinctDeltas(grid);
+    if (4L * n * offsets > Integer.MAX_VALUE - 8 || delta == null) {
       return null;
-    }
-    int[] delta = new int[offsets];
-    for (int k = 0; k < offsets; k++) {
-      delta[k] = grid.delta(k);
-      if (delta[k] == 0) {
-        return null;
-      }
-      for (int j = 0; j < k; j++) {
-        if (Math.abs(delta[j]) == Math.abs(delta[k])) {
-          return null;
-        }
-      }
     }
     AgglomerationState s = new AgglomerationState(options, n);
     s.gridDelta = delta;
@@ -116,6 +105,53 @@ final class AgglomerationState {
     s.queue = new EdgeQueue(s.constraints, s.mutexOrder, slots / 2);
     grid.forEachEdge((source, target, k, w) -> s.addGridEdge(source, target, source + k * n, w));
     return s;
+  }
+
+  /**
+   * The index steps of {@code grid}'s offsets, or null when one is 0 or two can join the same
+   * voxel pair (equal or opposite steps).
+   */
+  static int[] distinctDeltas(GridGraph grid) {
+    int[] delta = new int[grid.offsetCount()];
+    for (int k = 0; k < delta.length; k++) {
+      delta[k] = grid.delta(k);
+      if (delta[k] == 0) {
+        return null;
+      }
+      for (int j = 0; j < k; j++) {
+        if (Math.abs(delta[j]) == Math.abs(delta[k])) {
+          return null;
+        }
+      }
+    }
+    return delta;
+  }
+
+  /**
+   * A state for {@code pairCount} pairs aggregated by the caller (sum or mean linkage), each
+   * given once by {@link #putPair} at its index; indices order ties.
+   */
+  static AgglomerationState ofPairs(Agglomeration options, int nodeCount, int pairCount) {
+    if (options.linkage() != Linkage.SUM && options.linkage() != Linkage.MEAN) {
+      throw new IllegalArgumentException("pairs by sum and count need sum or mean linkage, not "
+          + options.linkage());
+    }
+    AgglomerationState s = new AgglomerationState(options, nodeCount);
+    s.eu = new int[pairCount];
+    s.ev = new int[pairCount];
+    s.allocateStatistics(pairCount);
+    s.edgeCount = pairCount;
+    return s;
+  }
+
+  /** Pair {@code e} of an {@link #ofPairs} state: nodes {@code u != v}, their edges' sum and count. */
+  void putPair(int e, int u, int v, double sum, long count) {
+    eu[e] = u;
+    ev[e] = v;
+    stat[stride * e] = sum;
+    if (stride == 2) {
+      stat[2 * e + 1] = count;
+    }
   }
 
   private void allocateStatistics(int m) {

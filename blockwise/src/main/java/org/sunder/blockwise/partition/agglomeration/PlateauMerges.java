@@ -33,7 +33,6 @@ import org.sunder.blockwise.partition.Clustering;
  * otherwise {@link #of} returns null.
  */
 final class PlateauMerges {
-  private final GridGraph grid;
   private final int n;
   private final int offsets;
   private final int[] delta;
@@ -54,14 +53,10 @@ final class PlateauMerges {
   private int merges;
   private boolean handedOver;
 
-  private PlateauMerges(GridGraph grid, float[] weight, float top, float second) {
-    this.grid = grid;
+  private PlateauMerges(GridGraph grid, int[] delta, float[] weight, float top, float second) {
     this.n = grid.nodeCount();
     this.offsets = grid.offsetCount();
-    this.delta = new int[offsets];
-    for (int k = 0; k < offsets; k++) {
-      delta[k] = grid.delta(k);
-    }
+    this.delta = delta;
     this.weight = weight;
     this.top = top;
     double gap = (double) top - second;
@@ -95,8 +90,9 @@ final class PlateauMerges {
   static PlateauMerges of(Agglomeration options, GridGraph grid) {
     int n = grid.nodeCount();
     int offsets = grid.offsetCount();
+    int[] delta = AgglomerationState.distinctDeltas(grid);
     if (options.linkage() != Linkage.MEAN || options.constraints() || options.recordsTree()
-        || (long) n * offsets > Integer.MAX_VALUE - 8 || !distinctPairs(grid)) {
+        || (long) n * offsets > Integer.MAX_VALUE - 8 || delta == null) {
       return null;
     }
     float[] weight = new float[n * offsets];
@@ -116,22 +112,7 @@ final class PlateauMerges {
         || Linkage.onGrid(second) == top) {
       return null;
     }
-    return new PlateauMerges(grid, weight, top, second);
-  }
-
-  /** Whether no two offsets join the same voxel pair (equal or opposite index steps). */
-  private static boolean distinctPairs(GridGraph grid) {
-    for (int k = 0; k < grid.offsetCount(); k++) {
-      if (grid.delta(k) == 0) {
-        return false;
-      }
-      for (int j = 0; j < k; j++) {
-        if (Math.abs(grid.delta(j)) == Math.abs(grid.delta(k))) {
-          return false;
-        }
-      }
-    }
-    return true;
+    return new PlateauMerges(grid, delta, weight, top, second);
   }
 
   /** Phase 1: the merges at {@code top}, in ascending edge id, until a handover is due. */
@@ -232,29 +213,36 @@ final class PlateauMerges {
     return handedOver;
   }
 
-  /** Phase 2: the general state on the graph of the plateau's clusters. */
+  /**
+   * Phase 2: the general state on the graph of the plateau's clusters, numbered by first voxel.
+   * Pairs are aggregated cluster by cluster (each from its smaller-numbered side) and indexed in
+   * ascending order of their smallest edge id: a first pass marks those ids in a bit set, the
+   * second puts each pair at the count of marks before its own.
+   */
   Agglomeration.Result finish(Agglomeration options) {
     int[] node = new int[n];
     Arrays.fill(node, -1);
+    int[] rootOfNode = new int[n];
     int nodes = 0;
     for (int v = 0; v < n; v++) {
       int root = find(v);
       if (node[root] < 0) {
+        rootOfNode[nodes] = root;
         node[root] = nodes++;
       }
       node[v] = node[root];
     }
-    AgglomerationState state = new AgglomerationState(options, nodes, 8 * nodes);
-    for (int e = 0; e < weight.length; e++) {
-      float w = weight[e];
-      if (w == w) {
-        int a = node[e % n];
-        int b = node[e % n + delta[e / n]];
-        if (a != b) {
-          state.addEdge(a, b, w, 1, w, w, e);
-        }
-      }
+    PairAggregator pairs = new PairAggregator(node, rootOfNode, nodes);
+    long[] firstEdges = new long[(weight.length + 63) >>> 6];
+    int pairCount = pairs.forEachPair((a, b, sum, count, first) ->
+        firstEdges[first >>> 6] |= 1L << first);
+    int[] marksBefore = new int[firstEdges.length];
+    for (int i = 1; i < firstEdges.length; i++) {
+      marksBefore[i] = marksBefore[i - 1] + Long.bitCount(firstEdges[i - 1]);
     }
+    AgglomerationState state = AgglomerationState.ofPairs(options, nodes, pairCount);
+    pairs.forEachPair((a, b, sum, count, first) -> state.putPair(marksBefore[first >>> 6]
+        + Long.bitCount(firstEdges[first >>> 6] & ((1L << first) - 1)), a, b, sum, count));
     int[] clusterOf = state.run().clustering().clusterOf();
     int[] representative = new int[n];
     for (int v = 0; v < n; v++) {
@@ -262,5 +250,95 @@ final class PlateauMerges {
     }
     return new Agglomeration.Result(Clustering.fromRepresentatives(representative),
         MergeTree.empty(n));
+  }
+
+  /** Receives one pair of clusters {@code a < b}: its edges' sum and count, its smallest id. */
+  @FunctionalInterface
+  private interface PairVisitor {
+    void visit(int a, int b, double sum, int count, int firstEdge);
+  }
+
+  /** The edges between clusters summed per pair, one cluster's pairs at a time. */
+  private final class PairAggregator {
+    private final int[] node;
+    private final int[] rootOfNode;
+    private final int nodes;
+    /** Per neighbour cluster its slot in the arrays below while the current cluster is open. */
+    private final int[] slotOf;
+    private int[] neighbour = new int[64];
+    private double[] sum = new double[64];
+    private int[] count = new int[64];
+    private int[] first = new int[64];
+    private int open;
+
+    PairAggregator(int[] node, int[] rootOfNode, int nodes) {
+      this.node = node;
+      this.rootOfNode = rootOfNode;
+      this.nodes = nodes;
+      this.slotOf = new int[nodes];
+      Arrays.fill(slotOf, -1);
+    }
+
+    /** Visits every pair of clusters joined by an edge; returns their number. */
+    int forEachPair(PairVisitor visitor) {
+      int pairs = 0;
+      for (int a = 0; a < nodes; a++) {
+        int root = rootOfNode[a];
+        int v = root;
+        do {
+          for (int k = 0; k < offsets; k++) {
+            int base = k * n;
+            add(a, v + delta[k], base + v);
+            int source = v - delta[k];
+            if (source >= 0 && source < n) {
+              add(a, source, base + source);
+            }
+          }
+          v = next[v];
+        } while (v != root);
+        for (int i = 0; i < open; i++) {
+          visitor.visit(a, neighbour[i], sum[i], count[i], first[i]);
+          slotOf[neighbour[i]] = -1;
+        }
+        pairs += open;
+        open = 0;
+      }
+      return pairs;
+    }
+
+    /** Adds edge slot {@code e} to the pair of cluster {@code a} and voxel {@code other}. */
+    private void add(int a, int other, int e) {
+      float w = weight[e];
+      if (w != w) {
+        return;
+      }
+      int b = node[other];
+      if (b <= a) {
+        return;
+      }
+      int i = slotOf[b];
+      if (i < 0) {
+        if (open == neighbour.length) {
+          grow();
+        }
+        i = open++;
+        slotOf[b] = i;
+        neighbour[i] = b;
+        sum[i] = 0;
+        count[i] = 0;
+        first[i] = e;
+      }
+      sum[i] += w;
+      count[i]++;
+      first[i] = Math.min(first[i], e);
+    }
+
+    private void grow() {
+      int capacity = 2 * neighbour.length;
+      neighbour = Arrays.copyOf(neighbour, capacity);
+      sum = Arrays.copyOf(sum, capacity);
+      count = Arrays.copyOf(count, capacity);
+      first = Arrays.copyOf(first, capacity);
+    }
   }
 }
