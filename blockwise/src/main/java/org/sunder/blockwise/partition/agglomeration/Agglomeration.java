@@ -36,9 +36,10 @@ import org.sunder.blockwise.partition.mutex.MutexWatershed;
  * cluster with fewer neighbours is contracted into the other, renaming it in place in each
  * neighbour's map; a binary heap with lazy deletion ({@link EdgeQueue}) holds the candidates.
  * On a grid the edges keep their grid ids and no edge list is built. {@code O(m log m)} expected
- * for {@code m} edges. Mean linkage without constraints on a grid first makes its merges at the
- * largest weight by a union–find sweep ({@link PlateauMerges}; the same labels), then runs the
- * above on the graph of the clusters. Memory about 70 to 90 bytes per grid edge (mean linkage, measured).
+ * for {@code m} edges; memory about 70 to 90 bytes per grid edge (mean linkage, measured). Mean
+ * linkage without constraints on a grid first makes its merges at the largest weight by a
+ * union–find sweep ({@link PlateauMerges}; the same labels), then runs the above on the graph of
+ * the clusters: 40 to 50 bytes per grid edge on realistic predictions, 23 on the clean block.
  * Immutable; each run is independent, so one instance may serve several threads.
  */
 public final class Agglomeration {
