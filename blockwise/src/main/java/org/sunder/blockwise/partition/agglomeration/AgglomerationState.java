@@ -249,6 +249,9 @@ final class AgglomerationState {
     }
     // nodes above the packed capacity start in their own table
     adjacency = new ClusterAdjacency(nodeCount, Math.max(1, Math.min(largest, 8)));
+    for (int c = 0; c < nodeCount; c++) {
+      adjacency.reserve(c, degree[c]);
+    }
     queue = new EdgeQueue(constraints, mutexOrder, edgeCount);
     for (int e = 0; e < edgeCount; e++) {
       adjacency.addNew(eu[e], ev[e], e);

@@ -55,6 +55,21 @@ final class ClusterAdjacency {
     return t[i] == ABSENT ? ABSENT : t[i + 1];
   }
 
+  /**
+   * Gives {@code c}, still without neighbours, a table for {@code neighbours} entries at once
+   * when they would outgrow its packed block; no effect otherwise. Building then never grows it.
+   */
+  void reserve(int c, int neighbours) {
+    if (neighbours <= packedCapacity || table[c] != null || size[c] != 0) {
+      return;
+    }
+    int capacity = MIN_TABLE;
+    while (4L * neighbours > 3L * capacity) {
+      capacity <<= 1;
+    }
+    table[c] = newTable(capacity);
+  }
+
   /** Adds a neighbour known to be absent (building); cheaper than {@link #put}. */
   void addNew(int c, int neighbour, int edge) {
     if (table[c] == null && size[c] < packedCapacity) {
