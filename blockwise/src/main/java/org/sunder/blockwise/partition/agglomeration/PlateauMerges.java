@@ -222,17 +222,15 @@ final class PlateauMerges {
   Agglomeration.Result finish(Agglomeration options) {
     int[] node = new int[n];
     Arrays.fill(node, -1);
-    int[] rootOfNode = new int[n];
     int nodes = 0;
     for (int v = 0; v < n; v++) {
       int root = find(v);
       if (node[root] < 0) {
-        rootOfNode[nodes] = root;
         node[root] = nodes++;
       }
       node[v] = node[root];
     }
-    PairAggregator pairs = new PairAggregator(node, rootOfNode, nodes);
+    PairAggregator pairs = new PairAggregator(node, nodes);
     long[] firstEdges = new long[(weight.length + 63) >>> 6];
     int pairCount = pairs.forEachPair((a, b, sum, count, first) ->
         firstEdges[first >>> 6] |= 1L << first);
@@ -258,11 +256,16 @@ final class PlateauMerges {
     void visit(int a, int b, double sum, int count, int firstEdge);
   }
 
-  /** The edges between clusters summed per pair, one cluster's pairs at a time. */
+  /**
+   * The edges between clusters summed per pair, one cluster's pairs at a time, its voxels in
+   * ascending order (so the edge slots they read share cache lines).
+   */
   private final class PairAggregator {
     private final int[] node;
-    private final int[] rootOfNode;
     private final int nodes;
+    /** The voxels of cluster {@code a} are {@code members[start[a]..start[a + 1])}, ascending. */
+    private final int[] start;
+    private final int[] members;
     /** Per neighbour cluster its slot in the arrays below while the current cluster is open. */
     private final int[] slotOf;
     private int[] neighbour = new int[64];
@@ -271,10 +274,21 @@ final class PlateauMerges {
     private int[] first = new int[64];
     private int open;
 
-    PairAggregator(int[] node, int[] rootOfNode, int nodes) {
+    PairAggregator(int[] node, int nodes) {
       this.node = node;
-      this.rootOfNode = rootOfNode;
       this.nodes = nodes;
+      start = new int[nodes + 1];
+      for (int a : node) {
+        start[a + 1]++;
+      }
+      for (int a = 0; a < nodes; a++) {
+        start[a + 1] += start[a];
+      }
+      members = new int[n];
+      int[] filled = Arrays.copyOf(start, nodes);
+      for (int v = 0; v < n; v++) {
+        members[filled[node[v]]++] = v;
+      }
       this.slotOf = new int[nodes];
       Arrays.fill(slotOf, -1);
     }
@@ -283,9 +297,8 @@ final class PlateauMerges {
     int forEachPair(PairVisitor visitor) {
       int pairs = 0;
       for (int a = 0; a < nodes; a++) {
-        int root = rootOfNode[a];
-        int v = root;
-        do {
+        for (int m = start[a]; m < start[a + 1]; m++) {
+          int v = members[m];
           for (int k = 0; k < offsets; k++) {
             int base = k * n;
             add(a, v + delta[k], base + v);
@@ -294,8 +307,7 @@ final class PlateauMerges {
               add(a, source, base + source);
             }
           }
-          v = next[v];
-        } while (v != root);
+        }
         for (int i = 0; i < open; i++) {
           visitor.visit(a, neighbour[i], sum[i], count[i], first[i]);
           slotOf[neighbour[i]] = -1;
