@@ -388,6 +388,23 @@ public final class EdgeStatistics implements Serializable {
       return size;
     }
 
+    /**
+     * Adds everything accumulated here to {@code target} and empties this one (its table keeps
+     * its capacity): one pass over the table.
+     */
+    public void drainInto(Accumulator target) {
+      long[] t = table;
+      for (int at = 0; at < t.length && size > 0; at += SLOT) {
+        if (t[at + 2] != 0) {
+          target.add(t[at], t[at + 1], Double.longBitsToDouble(t[at + 3]), t[at + 2] - 1,
+              Double.longBitsToDouble(t[at + 4]), Double.longBitsToDouble(t[at + 5]));
+          t[at + 2] = 0;
+          size--;
+        }
+      }
+      lastAt = -1;
+    }
+
     /** The canonical table of everything added. */
     public EdgeStatistics build() {
       long[] u = new long[size];

@@ -54,7 +54,10 @@ public final class RegionGraph {
       }
     }
     double logitClamp = graph.rule().unbiasedLogitClamp();
-    PairRuns runs = new PairRuns(labels, insideOrNull, ignoredOrNull, logitClamp);
+    AffinityBlock block = graph.block();
+    int sliceVoxels = block.dimension() == 1 ? block.voxelCount()
+        : block.voxelCount() / block.shape(block.dimension() - 1);
+    PairRuns runs = new PairRuns(labels, sliceVoxels, insideOrNull, ignoredOrNull, logitClamp);
     if (Double.isNaN(logitClamp)) {
       graph.forEachEdgeAcross(labels, runs);
     } else {
@@ -88,6 +91,16 @@ public final class RegionGraph {
     private final double logitClamp;
     private final boolean logits;
     private final EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
+    /**
+     * The current slice's pairs (the edges come slice by slice along the last axis): a table
+     * small enough for the processor's cache takes the runs, and {@link #acc} takes each pair
+     * once per slice. On the presets' blocks a pair's edges lie in about one slice, and runs
+     * outnumber pairs 12 to 17 times.
+     */
+    private final EdgeStatistics.Accumulator slicePairs = new EdgeStatistics.Accumulator(1024);
+    private final int sliceVoxels;
+    /** The first voxel after the current slice. */
+    private int sliceEnd;
     /** The current run's pair (the larger label flagged {@link #INSIDE} or not). */
     private long low;
     private long high;
@@ -99,8 +112,10 @@ public final class RegionGraph {
     /** Under logits: the product of the run's odds not yet in {@link #sum}. */
     private double odds;
 
-    PairRuns(int[] labels, byte[] insideOrNull, byte[] ignoredOrNull, double logitClamp) {
+    PairRuns(int[] labels, int sliceVoxels, byte[] insideOrNull, byte[] ignoredOrNull,
+        double logitClamp) {
       this.labels = labels;
+      this.sliceVoxels = sliceVoxels;
       this.insideOrNull = insideOrNull;
       this.ignoredOrNull = ignoredOrNull;
       this.logitClamp = logitClamp;
@@ -110,6 +125,12 @@ public final class RegionGraph {
     /** {@code value}: the edge's weight, or under logits its affinity. */
     @Override
     public void visit(int s, int t, int k, float value) {
+      if (s >= sliceEnd) {
+        flush();
+        count = 0;
+        slicePairs.drainInto(acc);
+        sliceEnd = (s / sliceVoxels + 1) * sliceVoxels;
+      }
       int a = labels[s];
       int b = labels[t];
       if (a == 0 || b == 0
@@ -154,10 +175,10 @@ public final class RegionGraph {
         return;
       }
       if (!logits) {
-        acc.add(low, high, sum, count, min, max);
+        slicePairs.add(low, high, sum, count, min, max);
         return;
       }
-      acc.add(low, high, sum + Math.log(odds), count, min, max);
+      slicePairs.add(low, high, sum + Math.log(odds), count, min, max);
     }
 
     /** The rule's weight of a clamped affinity, as {@link WeightRule#weight} computes it. */
@@ -168,6 +189,7 @@ public final class RegionGraph {
     EdgeStatistics build() {
       flush();
       count = 0;
+      slicePairs.drainInto(acc);
       EdgeStatistics rows = acc.build();
       return logits ? rows.withMinMax(PairRuns::logitWeight) : rows;
     }

@@ -188,6 +188,42 @@ class EdgeStatisticsTest {
     assertThrows(IllegalArgumentException.class, () -> acc.add(3, 3, 1));
   }
 
+  /**
+   * A small accumulator drained into a large one at random moments (as the region graph drains
+   * each slice's pairs) against every add made in the large one directly; integer statistics, so
+   * the sums are exact in any order.
+   */
+  @Test
+  void drainingIntoAnotherAccumulatorEqualsAddingThere() {
+    Random random = new Random(31);
+    EdgeStatistics.Accumulator direct = new EdgeStatistics.Accumulator(1);
+    EdgeStatistics.Accumulator drained = new EdgeStatistics.Accumulator(1);
+    EdgeStatistics.Accumulator part = new EdgeStatistics.Accumulator(1);
+    int drains = 0;
+    for (int step = 0; step < 20000; step++) {
+      long a = random.nextInt(300);
+      long b = random.nextInt(300) + (random.nextInt(4) == 0 ? 1L << 62 : 0);
+      if (a == b) {
+        continue;
+      }
+      double lo = random.nextInt(9) - 4;
+      double hi = lo + random.nextInt(3);
+      long count = 1 + random.nextInt(3);
+      double sum = random.nextInt(20) - 10;
+      direct.add(a, b, sum, count, lo, hi);
+      part.add(a, b, sum, count, lo, hi);
+      if (random.nextInt(500) == 0) {
+        part.drainInto(drained);
+        assertEquals(0, part.size());
+        drains++;
+      }
+    }
+    part.drainInto(drained);
+    assertTrue(drains > 20, drains + " drains");
+    assertEquals(direct.build(), drained.build());
+    assertEquals(EdgeStatistics.empty(), part.build(), "a drained accumulator is empty");
+  }
+
   @Test
   void renumberedEqualsRelabelToPositionsAndIsNullForAnUnlistedId() {
     Random random = new Random(55);
