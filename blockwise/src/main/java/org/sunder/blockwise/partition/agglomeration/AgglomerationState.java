@@ -27,8 +27,6 @@ import org.sunder.blockwise.partition.Clustering;
  * Watershed's order puts the pair's first edge.
  */
 final class AgglomerationState {
-  /** Neighbours a node of a sparse input keeps in its packed block before it needs a table. */
-  private static final int PACKED_NEIGHBOURS = 8;
   private final Linkage linkage;
   private final boolean constraints;
   private final double threshold;
@@ -131,8 +129,7 @@ final class AgglomerationState {
 
   /**
    * A state for {@code pairCount} pairs aggregated by the caller (sum or mean linkage), each
-   * given once by {@link #putPair} at its index (indices order ties), and each node's
-   * neighbours once by {@link #putNeighbours}.
+   * given once by {@link #putPair} at its index; indices order ties.
    */
   static AgglomerationState ofPairs(Agglomeration options, int nodeCount, int pairCount) {
     if (options.linkage() != Linkage.SUM && options.linkage() != Linkage.MEAN) {
@@ -144,19 +141,7 @@ final class AgglomerationState {
     s.ev = new int[pairCount];
     s.allocateStatistics(pairCount);
     s.edgeCount = pairCount;
-    s.adjacency = new ClusterAdjacency(nodeCount, PACKED_NEIGHBOURS);
     return s;
-  }
-
-  /**
-   * The {@code count} neighbours of node {@code a} in an {@link #ofPairs} state and the indices
-   * of the pairs joining them; its map is built at once, while it stays in the cache.
-   */
-  void putNeighbours(int a, int[] neighbours, int[] pairIndices, int count) {
-    adjacency.reserve(a, count);
-    for (int i = 0; i < count; i++) {
-      adjacency.addNew(a, neighbours[i], pairIndices[i]);
-    }
   }
 
   /** Pair {@code e} of an {@link #ofPairs} state: nodes {@code u != v}, their edges' sum and count. */
@@ -250,16 +235,9 @@ final class AgglomerationState {
     }
   }
 
-  /** Builds adjacency (unless given) and queue of a sparse input once every edge is added. */
+  /** Builds adjacency and queue of a sparse input once every edge is added. */
   private void finishSparse() {
     pairs = null;
-    queue = new EdgeQueue(constraints, mutexOrder, edgeCount);
-    if (adjacency != null) {
-      for (int e = 0; e < edgeCount; e++) {
-        offer(e);
-      }
-      return;
-    }
     int[] degree = new int[nodeCount];
     for (int e = 0; e < edgeCount; e++) {
       degree[eu[e]]++;
@@ -270,10 +248,11 @@ final class AgglomerationState {
       largest = Math.max(largest, d);
     }
     // nodes above the packed capacity start in their own table
-    adjacency = new ClusterAdjacency(nodeCount, Math.max(1, Math.min(largest, PACKED_NEIGHBOURS)));
+    adjacency = new ClusterAdjacency(nodeCount, Math.max(1, Math.min(largest, 8)));
     for (int c = 0; c < nodeCount; c++) {
       adjacency.reserve(c, degree[c]);
     }
+    queue = new EdgeQueue(constraints, mutexOrder, edgeCount);
     for (int e = 0; e < edgeCount; e++) {
       adjacency.addNew(eu[e], ev[e], e);
       adjacency.addNew(ev[e], eu[e], e);

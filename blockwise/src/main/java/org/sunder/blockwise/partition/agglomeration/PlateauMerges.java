@@ -215,9 +215,9 @@ final class PlateauMerges {
 
   /**
    * Phase 2: the general state on the graph of the plateau's clusters, numbered by first voxel.
-   * Pairs are aggregated cluster by cluster (each from both sides) and indexed in ascending
-   * order of their smallest edge id: a first pass marks those ids in a bit set, the second puts
-   * each pair at the count of marks before its own and gives each cluster its map at once.
+   * Pairs are aggregated cluster by cluster (each from its smaller-numbered side) and indexed in
+   * ascending order of their smallest edge id: a first pass marks those ids in a bit set, the
+   * second puts each pair at the count of marks before its own.
    */
   Agglomeration.Result finish(Agglomeration options) {
     int[] node = new int[n];
@@ -232,35 +232,15 @@ final class PlateauMerges {
     }
     PairAggregator pairs = new PairAggregator(node, nodes);
     long[] firstEdges = new long[(weight.length + 63) >>> 6];
-    int[] pairCount = new int[1];
-    pairs.forEachCluster((a, neighbours, neighbour, sum, count, first) -> {
-      for (int i = 0; i < neighbours; i++) {
-        if (neighbour[i] > a) {
-          firstEdges[first[i] >>> 6] |= 1L << first[i];
-          pairCount[0]++;
-        }
-      }
-    });
+    int pairCount = pairs.forEachPair((a, b, sum, count, first) ->
+        firstEdges[first >>> 6] |= 1L << first);
     int[] marksBefore = new int[firstEdges.length];
     for (int i = 1; i < firstEdges.length; i++) {
       marksBefore[i] = marksBefore[i - 1] + Long.bitCount(firstEdges[i - 1]);
     }
-    AgglomerationState state = AgglomerationState.ofPairs(options, nodes, pairCount[0]);
-    int[][] index = {new int[64]};
-    pairs.forEachCluster((a, neighbours, neighbour, sum, count, first) -> {
-      if (index[0].length < neighbours) {
-        index[0] = new int[Math.max(neighbours, 2 * index[0].length)];
-      }
-      int[] pair = index[0];
-      for (int i = 0; i < neighbours; i++) {
-        int f = first[i];
-        pair[i] = marksBefore[f >>> 6] + Long.bitCount(firstEdges[f >>> 6] & ((1L << f) - 1));
-        if (neighbour[i] > a) {
-          state.putPair(pair[i], a, neighbour[i], sum[i], count[i]);
-        }
-      }
-      state.putNeighbours(a, neighbour, pair, neighbours);
-    });
+    AgglomerationState state = AgglomerationState.ofPairs(options, nodes, pairCount);
+    pairs.forEachPair((a, b, sum, count, first) -> state.putPair(marksBefore[first >>> 6]
+        + Long.bitCount(firstEdges[first >>> 6] & ((1L << first) - 1)), a, b, sum, count));
     int[] clusterOf = state.run().clustering().clusterOf();
     int[] representative = new int[n];
     for (int v = 0; v < n; v++) {
@@ -270,13 +250,10 @@ final class PlateauMerges {
         MergeTree.empty(n));
   }
 
-  /**
-   * Receives cluster {@code a}'s pairs: {@code neighbours} entries of its neighbour clusters and,
-   * per pair, the sum and count of its edges and its smallest edge id (arrays reused).
-   */
+  /** Receives one pair of clusters {@code a < b}: its edges' sum and count, its smallest id. */
   @FunctionalInterface
-  private interface ClusterVisitor {
-    void visit(int a, int neighbours, int[] neighbour, double[] sum, int[] count, int[] first);
+  private interface PairVisitor {
+    void visit(int a, int b, double sum, int count, int firstEdge);
   }
 
   /**
@@ -316,8 +293,9 @@ final class PlateauMerges {
       Arrays.fill(slotOf, -1);
     }
 
-    /** Visits every cluster with the pairs it is part of, in ascending cluster number. */
-    void forEachCluster(ClusterVisitor visitor) {
+    /** Visits every pair of clusters joined by an edge; returns their number. */
+    int forEachPair(PairVisitor visitor) {
+      int pairs = 0;
       for (int a = 0; a < nodes; a++) {
         for (int m = start[a]; m < start[a + 1]; m++) {
           int v = members[m];
@@ -330,12 +308,14 @@ final class PlateauMerges {
             }
           }
         }
-        visitor.visit(a, open, neighbour, sum, count, first);
         for (int i = 0; i < open; i++) {
+          visitor.visit(a, neighbour[i], sum[i], count[i], first[i]);
           slotOf[neighbour[i]] = -1;
         }
+        pairs += open;
         open = 0;
       }
+      return pairs;
     }
 
     /** Adds edge slot {@code e} to the pair of cluster {@code a} and voxel {@code other}. */
@@ -345,7 +325,7 @@ final class PlateauMerges {
         return;
       }
       int b = node[other];
-      if (b == a) {
+      if (b <= a) {
         return;
       }
       int i = slotOf[b];
