@@ -39,7 +39,7 @@ import org.sunder.blockwise.partition.mutex.MutexWatershed;
  * for {@code m} edges; memory about 70 to 90 bytes per grid edge (mean linkage, measured). Mean
  * linkage without constraints on a grid first makes its merges at the largest weight by a
  * union–find sweep ({@link PlateauMerges}; the same labels), then runs the above on the graph of
- * the clusters: 40 to 50 bytes per grid edge on realistic predictions, 23 on the clean block.
+ * the clusters: 38 to 45 bytes per grid edge on realistic predictions, 22 on the clean block.
  * Immutable; each run is independent, so one instance may serve several threads.
  */
 public final class Agglomeration {

@@ -6,8 +6,9 @@ import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.partition.Clustering;
 
 /**
- * Mean linkage on a grid in two phases, with the labels of {@link AgglomerationState} alone.
- * On realistic predictions about four fifths of the merges happen at the largest weight
+ * Mean linkage on a grid in two phases, with the labels of {@link AgglomerationState} alone
+ * (pairs' sums are added in another order, so a mean that falls within its last bits of a
+ * midpoint of the grid could round the other way). On realistic predictions about four fifths of the merges happen at the largest weight
  * {@code top} (affinities a network pushed to 1, clamped), and the general state pays a heap
  * and cluster maps for each.
  *
@@ -26,9 +27,9 @@ import org.sunder.blockwise.partition.Clustering;
  * cluster counts the edges leaving it; while at most one cluster has that many, no pair can
  * (the phase hands over as soon as a second one does), so the sweep decides as the queue would.
  *
- * <p>Phase 2: the clusters become the nodes of a sparse graph, each pair's edges summed in
- * ascending id, pairs numbered by their smallest edge id, which keeps the queue's tie order; the
- * general state finishes on it. Applies where {@code top} lies on the grid (float weights of
+ * <p>Phase 2: the clusters become the nodes of a sparse graph, each pair's edges summed, pairs
+ * numbered by their smallest edge id, which keeps the queue's tie order; the general state
+ * finishes on it. Applies where {@code top} lies on the grid (float weights of
  * magnitude at least 1 do) and above the threshold, and the offsets join distinct voxel pairs;
  * otherwise {@link #of} returns null.
  */
@@ -77,7 +78,8 @@ final class PlateauMerges {
         leaving[v]++;
         leaving[v + delta[e / n]]++;
       }
-    }    for (int v = 0; v < n; v++) {
+    }
+    for (int v = 0; v < n; v++) {
       clustersWithManyEdges += leaving[v] >= manyEdges ? 1 : 0;
     }
   }
