@@ -72,11 +72,12 @@ final class PlateauMerges {
       size[v] = 1;
       next[v] = v;
     }
-    for (int e = 0; e < weight.length; e++) {
-      if (weight[e] == weight[e]) {
-        int v = e % n;
-        leaving[v]++;
-        leaving[v + delta[e / n]]++;
+    for (int k = 0; k < offsets; k++) {
+      for (int v = 0, e = k * n; v < n; v++, e++) {
+        if (weight[e] == weight[e]) {
+          leaving[v]++;
+          leaving[v + delta[k]]++;
+        }
       }
     }
     for (int v = 0; v < n; v++) {
