@@ -95,7 +95,7 @@ public final class RegionGraph {
      * The current slice's pairs (the edges come slice by slice along the last axis): a table
      * small enough for the processor's cache takes the runs, and {@link #acc} takes each pair
      * once per slice. On the presets' blocks a pair's edges lie in about one slice, and runs
-     * outnumber pairs 12 to 17 times.
+     * outnumber pairs 14 to 17 times.
      */
     private final EdgeStatistics.Accumulator slicePairs = new EdgeStatistics.Accumulator(1024);
     private final int sliceVoxels;

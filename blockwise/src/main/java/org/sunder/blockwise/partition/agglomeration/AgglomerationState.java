@@ -144,7 +144,10 @@ final class AgglomerationState {
     return s;
   }
 
-  /** Pair {@code e} of an {@link #ofPairs} state: nodes {@code u != v}, their edges' sum and count. */
+  /**
+   * Pair {@code e} of an {@link #ofPairs} state: nodes {@code u != v}, the sum and count of the
+   * edges between them.
+   */
   void putPair(int e, int u, int v, double sum, long count) {
     eu[e] = u;
     ev[e] = v;
