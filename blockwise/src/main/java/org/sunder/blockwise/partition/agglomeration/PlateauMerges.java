@@ -8,9 +8,9 @@ import org.sunder.blockwise.partition.Clustering;
 /**
  * Mean linkage on a grid in two phases, with the labels of {@link AgglomerationState} alone
  * (pairs' sums are added in another order, so a mean that falls within its last bits of a
- * midpoint of the grid could round the other way). On realistic predictions about four fifths of the merges happen at the largest weight
- * {@code top} (affinities a network pushed to 1, clamped), and the general state pays a heap
- * and cluster maps for each.
+ * midpoint of the grid could round the other way). On realistic predictions about four
+ * fifths of the merges happen at the largest weight {@code top} (affinities a network pushed
+ * to 1, clamped), and the general state pays a heap and cluster maps for each.
  *
  * <p>Phase 1, the plateau, without queue or maps. A pair of clusters has mean linkage
  * {@code top} exactly when every edge between them weighs {@code top}, and such a pair is
