@@ -126,9 +126,7 @@ public final class RegionGraph {
     @Override
     public void visit(int s, int t, int k, float value) {
       if (s >= sliceEnd) {
-        flush();
-        count = 0;
-        slicePairs.drainInto(acc);
+        closeSlice();
         sliceEnd = (s / sliceVoxels + 1) * sliceVoxels;
       }
       int a = labels[s];
@@ -186,10 +184,15 @@ public final class RegionGraph {
       return (float) WeightRule.logitOfClamped(c);
     }
 
-    EdgeStatistics build() {
+    /** Ends the current run and moves the slice's pairs into the block's table. */
+    private void closeSlice() {
       flush();
       count = 0;
       slicePairs.drainInto(acc);
+    }
+
+    EdgeStatistics build() {
+      closeSlice();
       EdgeStatistics rows = acc.build();
       return logits ? rows.withMinMax(PairRuns::logitWeight) : rows;
     }

@@ -12,6 +12,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
+import org.sunder.blockwise.collections.PairSet;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.GridGraph;
 import org.sunder.blockwise.graph.Offsets;
@@ -159,7 +160,7 @@ class PlateauMergesTest {
         int a = cluster[ends.get(e)[0]];
         int b = cluster[ends.get(e)[1]];
         if (a != b) {
-          double[] s = pairs.computeIfAbsent(((long) Math.min(a, b) << 32) | Math.max(a, b),
+          double[] s = pairs.computeIfAbsent(PairSet.pair(a, b),
               key -> new double[] {0, 0, Double.MAX_VALUE});
           s[0] += weights.get(e);
           s[1]++;
