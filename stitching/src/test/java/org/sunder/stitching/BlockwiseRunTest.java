@@ -326,6 +326,9 @@ class BlockwiseRunTest {
       Block block = grid.block(b);
       AffinityBlock read = AffinityReader.readBlock(setup, block);
       AffinityBlock context = read.contextOrNull();
+      // both boxes come from one pass over the chunks, each with the volume's values
+      assertSameAffinities(scene.wholeBlock(), read);
+      assertSameAffinities(scene.wholeBlock(), context);
       long[][] box = AffinityReader.contextBox(grid, block, 2, 1);
       assertArrayEquals(box[0], context.globalMin());
       assertEquals(3, context.channelCount(), "the nearest-neighbour channels");
@@ -371,6 +374,21 @@ class BlockwiseRunTest {
         assertEquals(min, context.globalMin()[d], "block " + b);
         assertEquals(Math.min(shape[d] - 1, block.extendedMax()[d] + 2L * grid.halo()[d]) - min
             + 1, context.shape(d), "block " + b);
+      }
+    }
+  }
+
+  /** Every affinity of {@code part} (its first channels) is the whole volume's at that place. */
+  private static void assertSameAffinities(AffinityBlock whole, AffinityBlock part) {
+    int[] position = new int[3];
+    for (int i = 0; i < part.voxelCount(); i++) {
+      int[] local = part.position(i);
+      for (int d = 0; d < 3; d++) {
+        position[d] = (int) (local[d] + part.globalMin(d));
+      }
+      int at = whole.index(position);
+      for (int k = 0; k < part.channelCount(); k++) {
+        assertEquals(whole.affinity(at, k), part.affinity(i, k), "voxel " + i + ", channel " + k);
       }
     }
   }

@@ -127,6 +127,80 @@ public final class Dataset {
   }
 
   /**
+   * Reads several boxes at once, each as {@link #read(Interval)} would, decoding every chunk
+   * that any of them touches once: boxes that overlap (a block's box and the wider context
+   * around it, say) cost the decoding of their union's chunks, not of each box's. Memory: the
+   * boxes' arrays and one decoded chunk.
+   *
+   * @throws StoreException as {@link #read(Interval)}, before any chunk is read
+   */
+  public List<ArrayImg<?, ?>> read(List<? extends Interval> boxes) {
+    int n = spec.numDimensions();
+    int count = boxes.size();
+    long[][] mins = new long[count][];
+    int[][] dims = new int[count][];
+    Object[] targets = new Object[count];
+    long[] first = new long[n];
+    long[] last = new long[n];
+    Arrays.fill(first, Long.MAX_VALUE);
+    Arrays.fill(last, -1);
+    for (int b = 0; b < count; b++) {
+      long[] min = boxes.get(b).minAsLongArray();
+      long[] max = boxes.get(b).maxAsLongArray();
+      checkBox(min, max, "read");
+      mins[b] = min;
+      dims[b] = boxDims(min, max, "read");
+      if (Shapes.intElementCount(dims[b]) > 0) {
+        for (int d = 0; d < n; d++) {
+          first[d] = Math.min(first[d], min[d]);
+          last[d] = Math.max(last[d], max[d]);
+        }
+      }
+    }
+    for (int b = 0; b < count; b++) {
+      targets[b] = ElementArrays.allocate(spec.dataType(), Shapes.intElementCount(dims[b]));
+    }
+    int[] from = new int[n];
+    int[] to = new int[n];
+    int[] size = new int[n];
+    forEachChunk(first, last, chunk -> {
+      ChunkFormat.DecodedChunk decoded = null;
+      boolean loaded = false;
+      for (int b = 0; b < count; b++) {
+        intersect(chunk, mins[b], dims[b], from, to, size);
+        if (!positive(size)) {
+          continue;
+        }
+        if (!loaded) {
+          decoded = load(chunk, clippedDims(chunk));
+          loaded = true;
+        }
+        if (decoded == null) {
+          if (!spec.fillValue().isZero()) {
+            BoxCopy.fill(targets[b], dims[b], to, size, spec.fillValue());
+          }
+        } else {
+          BoxCopy.copy(decoded.elements(), decoded.dims(), from, targets[b], dims[b], to, size);
+        }
+      }
+    });
+    List<ArrayImg<?, ?>> images = new ArrayList<>(count);
+    for (int b = 0; b < count; b++) {
+      images.add(ElementArrays.wrap(targets[b], spec.dataType(), toLong(dims[b])));
+    }
+    return images;
+  }
+
+  private static boolean positive(int[] size) {
+    for (int s : size) {
+      if (s <= 0) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /**
    * Writes {@code data} with its origin at {@code min}; the box must lie inside the volume and
    * the element type must match. Chunks covered only in part are read, changed and rewritten.
    * Every chunk of the box is encoded in memory before the first file is replaced, so bad

@@ -98,6 +98,33 @@ class DatasetRoundTripTest {
     }
     Object whole = storage(reopened.read(new FinalInterval(SHAPE)));
     assertTrue(Objects.deepEquals(expected, whole));
+    // several boxes in one pass, overlapping or not, one of them inside another
+    for (int round = 0; round < 4; round++) {
+      List<FinalInterval> boxes = new ArrayList<>();
+      for (int k = 0; k < 1 + round; k++) {
+        boxes.add(randomBox(random, volume));
+      }
+      FinalInterval outer = boxes.get(0);
+      long[] innerMin = outer.minAsLongArray();
+      long[] innerMax = innerMin.clone();
+      boxes.add(new FinalInterval(innerMin, innerMax));
+      List<ArrayImg<?, ?>> together = reopened.read(boxes);
+      assertEquals(boxes.size(), together.size());
+      for (int k = 0; k < boxes.size(); k++) {
+        assertTrue(Objects.deepEquals(storage(reopened.read(boxes.get(k))),
+            storage(together.get(k))), "box " + k + " of round " + round);
+      }
+    }
+  }
+
+  private static FinalInterval randomBox(Random random, int[] volume) {
+    long[] min = new long[3];
+    long[] max = new long[3];
+    for (int d = 0; d < 3; d++) {
+      min[d] = random.nextInt(volume[d]);
+      max[d] = min[d] + random.nextInt(volume[d] - (int) min[d]);
+    }
+    return new FinalInterval(min, max);
   }
 
   @Test

@@ -368,6 +368,9 @@ class StoreErrorsTest {
         new long[] {-1, 0, 0}, new long[] {3, 3, 3})), "min [-1, 0, 0]");
     assertStoreError(ErrorKind.INVALID_INPUT, () -> dataset.read(new FinalInterval(4, 4)),
         "3 dimensions");
+    assertStoreError(ErrorKind.INVALID_INPUT, () -> dataset.read(List.of(
+        new FinalInterval(2, 2, 2), new FinalInterval(new long[] {0, 0, 0},
+            new long[] {19, 13, 5}))), "max [19, 13, 5]");
     assertStoreError(ErrorKind.INVALID_INPUT, () -> dataset.readChunk(new long[] {3, 0, 0}),
         "grid position [3, 0, 0]", "grid [3, 3, 2]");
   }

@@ -1,6 +1,7 @@
 package org.sunder.stitching.setup;
 
 import java.util.Arrays;
+import java.util.List;
 import net.imglib2.FinalInterval;
 import net.imglib2.img.array.ArrayImg;
 import org.sunder.blockwise.graph.AffinityBlock;
@@ -8,7 +9,6 @@ import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.fragments.FragmentOptions;
-import org.sunder.blockwise.store.Container;
 
 /** Reads the affinities and the optional mask of a box into an {@link AffinityBlock}. */
 public final class AffinityReader {
@@ -27,20 +27,27 @@ public final class AffinityReader {
    * makes there but for rare floods from farther away.
    */
   public static AffinityBlock readBlock(StitchingSetup setup, Block block) {
-    AffinityBlock affinities = read(setup, block.extendedMin(), block.extendedMax());
+    long[] min = block.extendedMin();
+    long[] max = block.extendedMax();
     int halos = setup.partition().method().contextHalos();
     if (halos == 0) {
-      return affinities;
+      return read(setup, min, max);
     }
     FragmentOptions fragments = setup.partition().fragments();
     int sliceAxis = fragments == null ? -1
         : fragments.forDimension(block.numDimensions()).sliceAxis();
-    long[][] box = contextBox(setup.grid(), block, sliceAxis, halos);
-    if (Arrays.equals(box[0], block.extendedMin()) && Arrays.equals(box[1], block.extendedMax())) {
-      return affinities;
+    long[][] context = contextBox(setup.grid(), block, sliceAxis, halos);
+    if (Arrays.equals(context[0], min) && Arrays.equals(context[1], max)) {
+      return read(setup, min, max);
     }
+    int all = setup.offsets().count() - 1;
     int[] channels = nearestNeighbourChannels(setup.offsets());
-    return affinities.withContext(read(setup, box[0], box[1], channels[0], channels[1]));
+    // one pass over the chunks: the context holds the extended box, whose chunks then decode once
+    List<ArrayImg<?, ?>> images = setup.openInput().openDataset(setup.affinitiesPath()).read(
+        List.of(channelBox(min, max, 0, all),
+            channelBox(context[0], context[1], channels[0], channels[1])));
+    return block(setup, min, max, images.get(0), 0, all).withContext(
+        block(setup, context[0], context[1], images.get(1), channels[0], channels[1]));
   }
 
   /**
@@ -76,16 +83,27 @@ public final class AffinityReader {
 
   private static AffinityBlock read(StitchingSetup setup, long[] min, long[] max,
       int firstChannel, int lastChannel) {
-    Container input = setup.openInput();
+    ArrayImg<?, ?> affinities = setup.openInput().openDataset(setup.affinitiesPath())
+        .read(channelBox(min, max, firstChannel, lastChannel));
+    return block(setup, min, max, affinities, firstChannel, lastChannel);
+  }
+
+  /** The box {@code min..max} with channels {@code firstChannel..lastChannel} as its last axis. */
+  private static FinalInterval channelBox(long[] min, long[] max, int firstChannel,
+      int lastChannel) {
     int n = min.length;
     long[] amin = Arrays.copyOf(min, n + 1);
     long[] amax = Arrays.copyOf(max, n + 1);
     amin[n] = firstChannel;
     amax[n] = lastChannel;
-    ArrayImg<?, ?> affinities = input.openDataset(setup.affinitiesPath())
-        .read(new FinalInterval(amin, amax));
-    ArrayImg<?, ?> mask = setup.hasMask()
-        ? input.openDataset(setup.maskPath()).read(new FinalInterval(min, max)) : null;
+    return new FinalInterval(amin, amax);
+  }
+
+  /** The channels' affinities of the box {@code min..max}, with the box's mask if the run has one. */
+  private static AffinityBlock block(StitchingSetup setup, long[] min, long[] max,
+      ArrayImg<?, ?> affinities, int firstChannel, int lastChannel) {
+    ArrayImg<?, ?> mask = setup.hasMask() ? setup.openInput().openDataset(setup.maskPath())
+        .read(new FinalInterval(min, max)) : null;
     Offsets offsets = firstChannel == 0 && lastChannel == setup.offsets().count() - 1
         ? setup.offsets()
         : new Offsets(Arrays.copyOfRange(setup.offsets().vectors(), firstChannel, lastChannel + 1));
