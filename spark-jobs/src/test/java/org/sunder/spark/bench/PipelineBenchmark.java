@@ -49,6 +49,10 @@ import org.sunder.testing.HeapPeak;
  * as every executor does once, and the later runs show what each further block costs an
  * executor that has warmed up.
  *
+ * <p>{@code -Dblocks=z,y,x} sets the block shape instead of the default's (which at these sizes
+ * spans the volume in y and x): blocks cut in every axis, as a large volume's are, read a
+ * fragment context around their extended box.
+ *
  * <p>Not a test. Arguments: {@code [tissue] [seed] [z,y,x ...]}, default
  * {@code dense-neurites 1 96,256,256 192,512,512}. Volumes are generated once under
  * {@code java.io.tmpdir/sunder-pipeline-bench} (the larger one needs about 12 GB of heap).
@@ -105,9 +109,12 @@ public final class PipelineBenchmark {
           (System.nanoTime() - t0) / 1e9);
     }
     Path config = dir.resolve("run.json");
+    String blocks = System.getProperty("blocks");
+    String output = blocks == null ? "segmentation" : "segmentation-" + blocks.replace(',', 'x');
     Files.writeString(config, "{\"axes\": \"zyx\", \"input\": {\"container\": \""
         + root + "\", \"affinities\": \"" + SyntheticScenario.AFFINITIES + "\"}, "
-        + "\"output\": {\"dataset\": \"segmentation\"}}");
+        + "\"output\": {\"dataset\": \"" + output + "\"}"
+        + (blocks == null ? "" : ", \"blocks\": {\"shape\": [" + blocks + "]}") + "}");
 
     System.out.printf(Locale.ROOT, "%n%d x %d x %d (z y x) = %.1f M voxels, run %s (the JVM's "
         + "CPU so far: %.1f s)%n", zyx[0], zyx[1], zyx[2], voxels / 1e6, runOfRuns,

@@ -1,10 +1,15 @@
 package org.sunder.stitching.bench;
 
+import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.lang.management.ManagementFactory;
 import java.lang.management.ThreadMXBean;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Comparator;
 import java.util.List;
+import java.util.stream.Stream;
 import net.imglib2.FinalInterval;
 import net.imglib2.img.array.ArrayImgs;
 import net.imglib2.img.basictypeaccess.array.LongArray;
@@ -113,6 +118,17 @@ final class BlockwiseRuns {
     container.createDataset(AFFINITIES, DatasetSpec.of(dims, chunks, DataType.FLOAT32)
             .withCodec(CodecSpec.blosc("lz4", 5, 1)))
         .write(ArrayImgs.floats(affinities, dims), new long[4]);
+  }
+
+  /** Deletes {@code root} and everything under it. */
+  static void deleteTree(Path root) throws IOException {
+    try (Stream<Path> paths = Files.walk(root)) {
+      for (Path p : paths.sorted(Comparator.reverseOrder()).toList()) {
+        Files.delete(p);
+      }
+    } catch (UncheckedIOException e) {
+      throw e.getCause();
+    }
   }
 
   /** The whole of a 3D UINT64 dataset. */

@@ -162,14 +162,8 @@ public final class HierarchicalSolveBenchmark {
       System.out.printf(Locale.ROOT, "single-level solve: %.2f CPU s; partitions %s%n",
           singleSeconds, equal ? "identical" : "DIFFER");
     }
-    deleteTree(work);
+    BlockwiseRuns.deleteTree(work);
     return total * 1e9 / edges;
-  }
-
-  private static void deleteTree(Path dir) throws java.io.IOException {
-    try (var paths = Files.walk(dir)) {
-      paths.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
-    }
   }
 
   /** The deterministic synthetic edges of each block (see the class comment). */

@@ -16,13 +16,11 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.Comparator;
 import java.util.List;
 import java.util.Locale;
 import java.util.SortedSet;
 import java.util.TreeSet;
 import java.util.function.ToDoubleFunction;
-import java.util.stream.Stream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.graph.AffinityBlock;
@@ -193,7 +191,7 @@ public final class QualityBenchmark {
             }
           }
         } finally {
-          deleteTree(root);
+          BlockwiseRuns.deleteTree(root);
         }
       }
     }
@@ -390,15 +388,5 @@ public final class QualityBenchmark {
 
   private static String f4(double v) {
     return Double.isNaN(v) ? "-" : String.format(Locale.ROOT, "%.4f", v);
-  }
-
-  private static void deleteTree(Path root) throws IOException {
-    try (Stream<Path> paths = Files.walk(root)) {
-      for (Path p : paths.sorted(Comparator.reverseOrder()).toList()) {
-        Files.delete(p);
-      }
-    } catch (UncheckedIOException e) {
-      throw e.getCause();
-    }
   }
 }
