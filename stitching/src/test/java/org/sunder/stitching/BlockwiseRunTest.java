@@ -500,7 +500,30 @@ class BlockwiseRunTest {
         for (int i = 0; i < mask.length; i++) {
           assertEquals(expected[i], labels[i]);
         }
+      } else {
+        // a fragment method reads each block's mask and its context's in one pass too
+        StitchingSetup fragments = new StitchingSetup(setup.inputRoot(), setup.affinitiesPath(),
+            "mask", setup.outputRoot(), setup.labelsPath(), setup.grid(), setup.offsets(),
+            MULTICUT);
+        for (int b = 0; b < setup.grid().blockCount(); b++) {
+          AffinityBlock read = AffinityReader.readBlock(fragments, setup.grid().block(b));
+          assertSameMask(mask, read);
+          assertSameMask(mask, read.contextOrNull());
+        }
       }
+    }
+  }
+
+  /** {@code part}'s mask is the volume's ({@link #SHAPE}) at every voxel of its box. */
+  private static void assertSameMask(byte[] mask, AffinityBlock part) {
+    int[] position = new int[3];
+    for (int i = 0; i < part.voxelCount(); i++) {
+      int[] local = part.position(i);
+      for (int d = 0; d < 3; d++) {
+        position[d] = (int) (local[d] + part.globalMin(d));
+      }
+      int at = (int) (position[0] + SHAPE[0] * (position[1] + SHAPE[1] * position[2]));
+      assertEquals(mask[at] != 0, part.inside(i), "voxel " + i);
     }
   }
 

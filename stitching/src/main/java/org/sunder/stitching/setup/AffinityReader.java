@@ -9,6 +9,7 @@ import org.sunder.blockwise.graph.Offsets;
 import org.sunder.blockwise.grid.Block;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.partition.fragments.FragmentOptions;
+import org.sunder.blockwise.store.Container;
 
 /** Reads the affinities and the optional mask of a box into an {@link AffinityBlock}. */
 public final class AffinityReader {
@@ -43,11 +44,16 @@ public final class AffinityReader {
     int all = setup.offsets().count() - 1;
     int[] channels = nearestNeighbourChannels(setup.offsets());
     // one pass over the chunks: the context holds the extended box, whose chunks then decode once
-    List<ArrayImg<?, ?>> images = setup.openInput().openDataset(setup.affinitiesPath()).read(
+    Container input = setup.openInput();
+    List<ArrayImg<?, ?>> images = input.openDataset(setup.affinitiesPath()).read(
         List.of(channelBox(min, max, 0, all),
             channelBox(context[0], context[1], channels[0], channels[1])));
-    return block(setup, min, max, images.get(0), 0, all).withContext(
-        block(setup, context[0], context[1], images.get(1), channels[0], channels[1]));
+    List<ArrayImg<?, ?>> masks = setup.hasMask()
+        ? input.openDataset(setup.maskPath()).read(List.of(new FinalInterval(min, max),
+            new FinalInterval(context[0], context[1])))
+        : Arrays.asList(null, null);
+    return block(setup, min, images.get(0), masks.get(0), 0, all).withContext(
+        block(setup, context[0], images.get(1), masks.get(1), channels[0], channels[1]));
   }
 
   /**
@@ -83,9 +89,12 @@ public final class AffinityReader {
 
   private static AffinityBlock read(StitchingSetup setup, long[] min, long[] max,
       int firstChannel, int lastChannel) {
-    ArrayImg<?, ?> affinities = setup.openInput().openDataset(setup.affinitiesPath())
+    Container input = setup.openInput();
+    ArrayImg<?, ?> affinities = input.openDataset(setup.affinitiesPath())
         .read(channelBox(min, max, firstChannel, lastChannel));
-    return block(setup, min, max, affinities, firstChannel, lastChannel);
+    ArrayImg<?, ?> mask = setup.hasMask()
+        ? input.openDataset(setup.maskPath()).read(new FinalInterval(min, max)) : null;
+    return block(setup, min, affinities, mask, firstChannel, lastChannel);
   }
 
   /** The box {@code min..max} with channels {@code firstChannel..lastChannel} as its last axis. */
@@ -99,14 +108,12 @@ public final class AffinityReader {
     return new FinalInterval(amin, amax);
   }
 
-  /** The channels' affinities of the box {@code min..max}, with the box's mask if the run has one. */
-  private static AffinityBlock block(StitchingSetup setup, long[] min, long[] max,
-      ArrayImg<?, ?> affinities, int firstChannel, int lastChannel) {
-    ArrayImg<?, ?> mask = setup.hasMask() ? setup.openInput().openDataset(setup.maskPath())
-        .read(new FinalInterval(min, max)) : null;
+  /** The channels' affinities of the box at {@code min}, with its mask or null. */
+  private static AffinityBlock block(StitchingSetup setup, long[] min, ArrayImg<?, ?> affinities,
+      ArrayImg<?, ?> maskOrNull, int firstChannel, int lastChannel) {
     Offsets offsets = firstChannel == 0 && lastChannel == setup.offsets().count() - 1
         ? setup.offsets()
         : new Offsets(Arrays.copyOfRange(setup.offsets().vectors(), firstChannel, lastChannel + 1));
-    return AffinityBlock.of(affinities, min, offsets, mask);
+    return AffinityBlock.of(affinities, min, offsets, maskOrNull);
   }
 }
