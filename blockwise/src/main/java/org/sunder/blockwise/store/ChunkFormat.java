@@ -18,11 +18,23 @@ interface ChunkFormat {
 
   /**
    * Decodes a chunk file. The result's dims cover at least {@code clippedDims} in every
-   * dimension and at most the chunk shape.
+   * dimension and at most the chunk shape. With {@code lastNeededOrNull} (a position inside
+   * {@code clippedDims}, memory order) only the elements up to it in memory order are needed:
+   * the rest may be left unspecified, and a format whose codec decodes front to back stops
+   * there (see {@link org.sunder.blockwise.store.codec.Codec#decodePrefix}).
    *
    * @throws IOException naming what is wrong (header, size, compressed data)
    */
-  DecodedChunk decode(byte[] file, int[] clippedDims) throws IOException;
+  DecodedChunk decode(byte[] file, int[] clippedDims, int[] lastNeededOrNull) throws IOException;
+
+  /** Elements up to and including {@code position} in memory order, in an array of {@code dims}. */
+  static int prefixElements(int[] position, int[] dims) {
+    long index = 0;
+    for (int d = dims.length - 1; d >= 0; d--) {
+      index = index * dims[d] + position[d];
+    }
+    return Math.toIntExact(index + 1);
+  }
 
   /** The file content for {@code elements} of shape {@code storedDims}. */
   ByteBuffer[] encode(Object elements, int[] storedDims);

@@ -29,7 +29,10 @@ import org.sunder.blockwise.store.codec.Codec;
  * writers share a chunk. Missing chunks read as the fill value.
  *
  * <p>Cost: a box read or write touches every chunk it intersects once; whole aligned chunks
- * are encoded from and decoded into the caller's or result's array without an extra copy.
+ * are encoded from and decoded into the caller's or result's array without an extra copy. A
+ * read decodes a chunk only up to the last element it needs in memory order where the codec
+ * decodes front to back (raw, blosc, zstd; in Zarr's C order and N5): a box of an affinity
+ * dataset's first channels, whose channel axis is the slowest, decodes those channels' share.
  */
 public final class Dataset {
   private static final int LOCK_STRIPES = 64;
@@ -114,7 +117,7 @@ public final class Dataset {
       int[] to = new int[n];
       int[] size = new int[n];
       intersect(chunk, min, dims, from, to, size);
-      ChunkFormat.DecodedChunk decoded = load(chunk, clipped);
+      ChunkFormat.DecodedChunk decoded = load(chunk, clipped, later(null, from, size));
       if (decoded == null) {
         if (!spec.fillValue().isZero()) {
           BoxCopy.fill(target, dims, to, size, spec.fillValue());
@@ -164,16 +167,21 @@ public final class Dataset {
     int[] to = new int[n];
     int[] size = new int[n];
     forEachChunk(first, last, chunk -> {
-      ChunkFormat.DecodedChunk decoded = null;
-      boolean loaded = false;
+      int[] lastNeeded = null;
+      for (int b = 0; b < count; b++) {
+        intersect(chunk, mins[b], dims[b], from, to, size);
+        if (positive(size)) {
+          lastNeeded = later(lastNeeded, from, size);
+        }
+      }
+      if (lastNeeded == null) {
+        return;
+      }
+      ChunkFormat.DecodedChunk decoded = load(chunk, clippedDims(chunk), lastNeeded);
       for (int b = 0; b < count; b++) {
         intersect(chunk, mins[b], dims[b], from, to, size);
         if (!positive(size)) {
           continue;
-        }
-        if (!loaded) {
-          decoded = load(chunk, clippedDims(chunk));
-          loaded = true;
         }
         if (decoded == null) {
           if (!spec.fillValue().isZero()) {
@@ -189,6 +197,26 @@ public final class Dataset {
       images.add(ElementArrays.wrap(targets[b], spec.dataType(), toLong(dims[b])));
     }
     return images;
+  }
+
+  /**
+   * The later in memory order of {@code current} (or null) and the last element of the box at
+   * {@code from} of {@code size}: the position whose slowest differing coordinate is larger.
+   */
+  private static int[] later(int[] current, int[] from, int[] size) {
+    int[] last = new int[from.length];
+    for (int d = 0; d < last.length; d++) {
+      last[d] = from[d] + size[d] - 1;
+    }
+    if (current == null) {
+      return last;
+    }
+    for (int d = last.length - 1; d >= 0; d--) {
+      if (last[d] != current[d]) {
+        return last[d] > current[d] ? last : current;
+      }
+    }
+    return current;
   }
 
   private static boolean positive(int[] size) {
@@ -290,7 +318,7 @@ public final class Dataset {
 
   /** The chunk's current content in its stored shape, or the fill value if it is missing. */
   private Object storedElements(long[] chunk, int[] clipped, int[] stored) {
-    ChunkFormat.DecodedChunk decoded = load(chunk, clipped);
+    ChunkFormat.DecodedChunk decoded = load(chunk, clipped, null);
     if (decoded != null && Arrays.equals(decoded.dims(), stored)) {
       return decoded.elements();
     }
@@ -310,7 +338,7 @@ public final class Dataset {
   public ArrayImg<?, ?> readChunk(long[] gridPosition) {
     checkGrid(gridPosition);
     int[] clipped = clippedDims(gridPosition);
-    ChunkFormat.DecodedChunk decoded = load(gridPosition, clipped);
+    ChunkFormat.DecodedChunk decoded = load(gridPosition, clipped, null);
     Object elements;
     if (decoded == null) {
       elements = ElementArrays.allocate(spec.dataType(),
@@ -386,14 +414,15 @@ public final class Dataset {
     return format.chunkFile(dir, gridPosition);
   }
 
-  private ChunkFormat.DecodedChunk load(long[] grid, int[] clipped) {
+  /** The chunk at {@code grid} decoded up to {@code lastNeededOrNull} (all when null), or null. */
+  private ChunkFormat.DecodedChunk load(long[] grid, int[] clipped, int[] lastNeededOrNull) {
     Path file = format.chunkFile(dir, grid);
     byte[] bytes = AtomicWrites.readIfExists(file);
     if (bytes == null) {
       return null;
     }
     try {
-      return format.decode(bytes, clipped);
+      return format.decode(bytes, clipped, lastNeededOrNull);
     } catch (IOException | RuntimeException e) {
       if (e instanceof StoreException store && store.kind() != ErrorKind.INTERNAL) {
         throw store;

@@ -40,7 +40,8 @@ final class N5ChunkFormat implements ChunkFormat {
   }
 
   @Override
-  public DecodedChunk decode(byte[] file, int[] clippedDims) throws IOException {
+  public DecodedChunk decode(byte[] file, int[] clippedDims, int[] lastNeededOrNull)
+      throws IOException {
     int n = spec.numDimensions();
     if (file.length < 4) {
       throw new IOException("block has " + file.length + " bytes, less than its 4-byte header");
@@ -80,7 +81,10 @@ final class N5ChunkFormat implements ChunkFormat {
       }
     }
     int bytes = (int) count * spec.dataType().bytes();
-    byte[] raw = codec.decode(file, headerSize, file.length - headerSize, bytes);
+    int needed = lastNeededOrNull == null ? (int) count
+        : ChunkFormat.prefixElements(lastNeededOrNull, size);
+    byte[] raw = codec.decodePrefix(file, headerSize, file.length - headerSize, bytes,
+        needed * spec.dataType().bytes());
     Object elements = ElementArrays.fromBytes(raw, 0, (int) count, spec.dataType(),
         ByteOrder.BIG_ENDIAN);
     return new DecodedChunk(elements, size);

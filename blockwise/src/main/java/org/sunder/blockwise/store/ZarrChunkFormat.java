@@ -49,10 +49,15 @@ final class ZarrChunkFormat implements ChunkFormat {
   }
 
   @Override
-  public DecodedChunk decode(byte[] file, int[] clippedDims) throws IOException {
+  public DecodedChunk decode(byte[] file, int[] clippedDims, int[] lastNeededOrNull)
+      throws IOException {
     int count = spec.chunkElements();
     int elementSize = spec.dataType().bytes();
-    byte[] raw = codec.decode(file, 0, file.length, count * elementSize);
+    // a prefix in memory order is a prefix of the stored bytes in C order only
+    int needed = lastNeededOrNull == null || spec.chunkOrder() == ChunkOrder.F ? count
+        : ChunkFormat.prefixElements(lastNeededOrNull, chunkDims);
+    byte[] raw = codec.decodePrefix(file, 0, file.length, count * elementSize,
+        needed * elementSize);
     if (spec.chunkOrder() == ChunkOrder.F) {
       raw = BoxCopy.transpose(raw, chunkDims, elementSize, true);
     }

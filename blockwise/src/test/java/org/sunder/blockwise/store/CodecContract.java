@@ -53,6 +53,28 @@ abstract class CodecContract {
   }
 
   @Test
+  void aPrefixDecodesToTheSameBytesAsTheWhole() throws IOException {
+    Random random = new Random(15);
+    for (DataType type : new DataType[] {DataType.UINT8, DataType.FLOAT32, DataType.INT64}) {
+      Codec codec = codec(type);
+      for (boolean compressible : new boolean[] {false, true}) {
+        // large enough for codecs that decode in blocks to hold several
+        byte[] data = chunkBytes(type, 300_000 / type.bytes(), ByteOrder.LITTLE_ENDIAN,
+            compressible, random);
+        byte[] encoded = codec.encode(data);
+        for (int prefix : new int[] {0, 1, random.nextInt(data.length), data.length - 1,
+            data.length}) {
+          byte[] decoded = codec.decodePrefix(encoded, 0, encoded.length, data.length, prefix);
+          String what = type + (compressible ? ", compressible" : ", random") + ", prefix "
+              + prefix + " of " + data.length;
+          assertEquals(data.length, decoded.length, what);
+          assertArrayEquals(Arrays.copyOf(data, prefix), Arrays.copyOf(decoded, prefix), what);
+        }
+      }
+    }
+  }
+
+  @Test
   void truncatedInputOrAnotherSizeFailsWithAnIOException() {
     Random random = new Random(14);
     for (DataType type : new DataType[] {DataType.UINT8, DataType.FLOAT32, DataType.INT64}) {

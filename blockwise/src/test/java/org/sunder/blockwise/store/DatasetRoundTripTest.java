@@ -3,10 +3,16 @@ package org.sunder.blockwise.store;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.io.IOException;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Objects;
 import java.util.Random;
@@ -22,6 +28,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.Arguments;
 import org.junit.jupiter.params.provider.MethodSource;
+import org.sunder.blockwise.StoreException;
 import org.sunder.blockwise.store.codec.CodecSpec;
 
 /**
@@ -37,7 +44,8 @@ class DatasetRoundTripTest {
 
   static List<Arguments> layouts() {
     List<Arguments> out = new ArrayList<>();
-    CodecSpec[] codecs = {CodecSpec.raw(), CodecSpec.gzip(5), CodecSpec.zstd(3)};
+    CodecSpec[] codecs = {CodecSpec.raw(), CodecSpec.gzip(5), CodecSpec.zstd(3),
+        CodecSpec.blosc("lz4", 5, 1)};
     int i = 0;
     for (StorageFormat format : StorageFormat.values()) {
       for (DataType type : DataType.values()) {
@@ -94,7 +102,7 @@ class DatasetRoundTripTest {
       Object want = ElementArrays.allocate(type, size[0] * size[1] * size[2]);
       BoxCopy.copy(expected, volume, min, want, size, new int[3], size);
       assertTrue(Objects.deepEquals(want, storage(read)),
-          "box at " + java.util.Arrays.toString(min) + " size " + java.util.Arrays.toString(size));
+          "box at " + Arrays.toString(min) + " size " + Arrays.toString(size));
     }
     Object whole = storage(reopened.read(new FinalInterval(SHAPE)));
     assertTrue(Objects.deepEquals(expected, whole));
@@ -125,6 +133,38 @@ class DatasetRoundTripTest {
       max[d] = min[d] + random.nextInt(volume[d] - (int) min[d]);
     }
     return new FinalInterval(min, max);
+  }
+
+  /**
+   * A box that needs only the first elements of a chunk (in memory order: its first channel,
+   * say) decodes no further: with the last blosc block of the chunk made unreadable, the first
+   * channel still reads and the last fails, naming the chunk.
+   */
+  @Test
+  void aBoxNeedingTheStartOfAChunkDecodesOnlyThatFar() throws IOException {
+    long[] shape = {64, 64, 4, 3};
+    int[] chunks = {64, 64, 4, 3};
+    Dataset dataset = Container.create(tmp.resolve("prefix"), StorageFormat.ZARR)
+        .createDataset("affinities", DatasetSpec.of(shape, chunks, DataType.FLOAT32)
+            .withCodec(CodecSpec.blosc("lz4", 5, 1)));
+    float[] values = (float[]) RandomArrays.random(DataType.FLOAT32, 64 * 64 * 4 * 3,
+        new Random(17));
+    dataset.write(ElementArrays.wrap(values, DataType.FLOAT32, shape), new long[4]);
+    Path file = dataset.chunkFile(new long[4]);
+    byte[] frame = Files.readAllBytes(file);
+    // blosc: a 16-byte header, then the start of each block (little-endian ints)
+    int blocks = (64 * 64 * 4 * 3 * 4 + 32 * 1024 - 1) / (32 * 1024);
+    assertTrue(blocks > 3, "the chunk has several blocks: " + blocks);
+    ByteBuffer.wrap(frame).order(ByteOrder.LITTLE_ENDIAN)
+        .putInt(16 + 4 * (blocks - 1), Integer.MAX_VALUE);
+    Files.write(file, frame);
+    float[] firstChannel = (float[]) storage(dataset.read(new FinalInterval(
+        new long[] {0, 0, 0, 0}, new long[] {63, 63, 3, 0})));
+    assertArrayEquals(Arrays.copyOf(values, 64 * 64 * 4), firstChannel);
+    StoreException e = assertThrows(StoreException.class,
+        () -> dataset.read(new FinalInterval(new long[] {0, 0, 0, 2},
+            new long[] {63, 63, 3, 2})));
+    assertTrue(e.getMessage().contains("grid position [0, 0, 0, 0]"), e.getMessage());
   }
 
   @Test

@@ -68,6 +68,13 @@ public final class BloscCodec implements Codec {
   @Override
   public byte[] decode(byte[] source, int offset, int length, int decodedSize)
       throws IOException {
+    return decodePrefix(source, offset, length, decodedSize, decodedSize);
+  }
+
+  /** Decodes the blocks that hold the prefix, and no others. */
+  @Override
+  public byte[] decodePrefix(byte[] source, int offset, int length, int decodedSize,
+      int prefixSize) throws IOException {
     if (length < HEADER) {
       throw new IOException("blosc frame has " + length + " bytes, less than its 16-byte header");
     }
@@ -120,7 +127,7 @@ public final class BloscCodec implements Codec {
           + ", expected 0 to 4 (blosclz, lz4, snappy, zlib, zstd)");
     }
     new FrameReader(source, offset, (int) cbytes, flags, typesize, (int) blocksize, format)
-        .decodeInto(out);
+        .decodeInto(out, Math.min(prefixSize, decodedSize));
     return out;
   }
 
@@ -147,10 +154,12 @@ public final class BloscCodec implements Codec {
       this.inflater = format == 3 ? new Inflater() : null;
     }
 
-    void decodeInto(byte[] out) throws IOException {
+    /** Decodes the blocks that hold {@code out}'s first {@code prefix} bytes. */
+    void decodeInto(byte[] out, int prefix) throws IOException {
       try {
         int nbytes = out.length;
         int nblocks = (int) ((nbytes + (long) blocksize - 1) / blocksize);
+        int needed = (int) ((prefix + (long) blocksize - 1) / blocksize);
         int leftover = nbytes % blocksize;
         if (HEADER + 4L * nblocks > cbytes) {
           throw new IOException("blosc frame of " + cbytes + " bytes is too short for the"
@@ -164,7 +173,7 @@ public final class BloscCodec implements Codec {
         byte[] scratch = (flags & FLAG_BITSHUFFLE) != 0 ? new byte[longest] : null;
         ByteBuffer starts = ByteBuffer.wrap(src, base + HEADER, 4 * nblocks)
             .order(ByteOrder.LITTLE_ENDIAN);
-        for (int j = 0; j < nblocks; j++) {
+        for (int j = 0; j < needed; j++) {
           boolean last = j == nblocks - 1 && leftover > 0;
           int bsize = last ? leftover : blocksize;
           long start = starts.getInt() & 0xffffffffL;

@@ -20,4 +20,15 @@ public interface Codec {
    *     message says what was found and what was expected
    */
   byte[] decode(byte[] source, int offset, int length, int decodedSize) throws IOException;
+
+  /**
+   * As {@link #decode}, for a reader that needs only the first {@code prefixSize} bytes: they
+   * are as {@code decode} gives them, the rest of the {@code decodedSize} bytes are unspecified.
+   * Codecs that decode front to back stop once the prefix is out; the others decode it all
+   * (this default). What lies beyond the prefix is not checked.
+   */
+  default byte[] decodePrefix(byte[] source, int offset, int length, int decodedSize,
+      int prefixSize) throws IOException {
+    return decode(source, offset, length, decodedSize);
+  }
 }

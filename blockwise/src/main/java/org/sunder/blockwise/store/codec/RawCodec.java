@@ -19,4 +19,15 @@ public final class RawCodec implements Codec {
     }
     return Arrays.copyOfRange(source, offset, offset + length);
   }
+
+  @Override
+  public byte[] decodePrefix(byte[] source, int offset, int length, int decodedSize,
+      int prefixSize) throws IOException {
+    if (length != decodedSize) {
+      throw new IOException("raw chunk has " + length + " bytes, expected " + decodedSize);
+    }
+    byte[] out = new byte[decodedSize];
+    System.arraycopy(source, offset, out, 0, Math.min(prefixSize, decodedSize));
+    return out;
+  }
 }

@@ -2,6 +2,8 @@ package org.sunder.blockwise.store.codec;
 
 import com.github.luben.zstd.Zstd;
 import com.github.luben.zstd.ZstdException;
+import com.github.luben.zstd.ZstdInputStreamNoFinalizer;
+import java.io.ByteArrayInputStream;
 import java.io.IOException;
 
 /** Zstandard frames (RFC 8878) through zstd-jni, which bundles its native library. */
@@ -35,6 +37,28 @@ public final class ZstdCodec implements Codec {
     if (size != decodedSize) {
       throw new IOException("zstd data decompresses to " + size + " bytes, expected "
           + decodedSize);
+    }
+    return out;
+  }
+
+  /** Streams the frame until the prefix is out: zstd decodes blocks of at most 128 KiB in order. */
+  @Override
+  public byte[] decodePrefix(byte[] source, int offset, int length, int decodedSize,
+      int prefixSize) throws IOException {
+    if (prefixSize >= decodedSize) {
+      return decode(source, offset, length, decodedSize);
+    }
+    byte[] out = new byte[decodedSize];
+    int read;
+    try (ZstdInputStreamNoFinalizer in =
+        new ZstdInputStreamNoFinalizer(new ByteArrayInputStream(source, offset, length))) {
+      read = in.readNBytes(out, 0, prefixSize);
+    } catch (IOException | ZstdException e) {
+      throw new IOException("zstd data is corrupt: " + e.getMessage(), e);
+    }
+    if (read != prefixSize) {
+      throw new IOException("zstd data decompresses to " + read + " bytes, expected at least "
+          + prefixSize + " of " + decodedSize);
     }
     return out;
   }
