@@ -41,11 +41,16 @@ public final class ZstdCodec implements Codec {
     return out;
   }
 
-  /** Streams the frame until the prefix is out: zstd decodes blocks of at most 128 KiB in order. */
+  /**
+   * Streams the frame until the prefix is out (zstd decodes blocks of at most 128 KiB in order),
+   * at about the one-call decode's cost per byte (832 KiB float chunks, warmed: 0.23 of a chunk
+   * in 0.25 ms, 0.5 in 0.49, 0.7 in 0.70, the whole in one call 0.85); a prefix longer than
+   * three quarters decodes whole in one call, which costs as much and checks the whole frame.
+   */
   @Override
   public byte[] decodePrefix(byte[] source, int offset, int length, int decodedSize,
       int prefixSize) throws IOException {
-    if (prefixSize >= decodedSize) {
+    if (prefixSize > decodedSize / 4 * 3) {
       return decode(source, offset, length, decodedSize);
     }
     byte[] out = new byte[decodedSize];
