@@ -110,23 +110,7 @@ public final class Dataset {
     if (isChunk(min, dims, grid)) {
       return (ArrayImg<T, ?>) readChunk(grid);
     }
-    Object target = ElementArrays.allocate(spec.dataType(), Shapes.intElementCount(dims));
-    forEachChunk(min, max, chunk -> {
-      int[] clipped = clippedDims(chunk);
-      int[] from = new int[n];
-      int[] to = new int[n];
-      int[] size = new int[n];
-      intersect(chunk, min, dims, from, to, size);
-      ChunkFormat.DecodedChunk decoded = load(chunk, clipped, later(null, from, size));
-      if (decoded == null) {
-        if (!spec.fillValue().isZero()) {
-          BoxCopy.fill(target, dims, to, size, spec.fillValue());
-        }
-      } else {
-        BoxCopy.copy(decoded.elements(), decoded.dims(), from, target, dims, to, size);
-      }
-    });
-    return (ArrayImg<T, ?>) ElementArrays.wrap(target, spec.dataType(), toLong(dims));
+    return (ArrayImg<T, ?>) read(List.of(box)).get(0);
   }
 
   /**

@@ -1,7 +1,6 @@
 package org.sunder.blockwise.store.codec;
 
 import java.io.IOException;
-import java.util.Arrays;
 
 /** No compression: the bytes are stored as they are. */
 public final class RawCodec implements Codec {
@@ -14,10 +13,7 @@ public final class RawCodec implements Codec {
   @Override
   public byte[] decode(byte[] source, int offset, int length, int decodedSize)
       throws IOException {
-    if (length != decodedSize) {
-      throw new IOException("raw chunk has " + length + " bytes, expected " + decodedSize);
-    }
-    return Arrays.copyOfRange(source, offset, offset + length);
+    return decodePrefix(source, offset, length, decodedSize, decodedSize);
   }
 
   @Override
