@@ -198,9 +198,14 @@ class BlockwiseRunTest {
   /**
    * Realistic predictions (the compact-cells preset, 128 x 128 x 48 voxels, 8 blocks): the
    * fragment methods cut no more objects at block faces than at the control planes (plus the
-   * audit's tolerance), and stay within 0.02 bits of their one-block result. Before their
-   * blocks gave back unsettled fragments and the solve rejoined fragment halves, 19 and 8 of 79
-   * objects were cut at faces against 1 at the control planes (0.32 and 0.02 bits).
+   * audit's tolerance), and stay near their one-block result: 0.02 bits, 0.04 for the multicut.
+   * Before their blocks gave back unsettled fragments and the solve rejoined fragment halves, 19
+   * and 8 of 79 objects were cut at faces against 1 at the control planes (0.32 and 0.02 bits).
+   * The multicut's bound was 0.02 until its fragments' borders moved ({@code FragmentBorders}):
+   * a move reads labels up to the longest offset away, so where a block's watershed differs
+   * from the whole volume's (3D fragments flood from beyond the context) the moves carry the
+   * difference that far inward; the multicut lies 0.036 bits from its one-block result here
+   * (0.018 on average on the 27-block benchmark volumes).
    */
   @Test
   void fragmentMethodsCutNoMoreObjectsAtFacesThanAtControlPlanes() {
@@ -220,7 +225,8 @@ class BlockwiseRunTest {
       assertTrue(audit.objectsCrossingFaces() > 50, audit.toString());
       assertFalse(audit.objectsWorseThanControl(), config + ": " + audit);
       double voi = score(whole(scene, config), blockwise, false).voi();
-      assertTrue(voi <= 0.02, config + ": VOI to one block " + voi);
+      double bound = config == MULTICUT ? 0.04 : 0.02;
+      assertTrue(voi <= bound, config + ": VOI to one block " + voi);
     }
   }
 

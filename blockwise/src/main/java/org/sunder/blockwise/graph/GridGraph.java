@@ -141,7 +141,8 @@ public final class GridGraph {
   /** Visits the present edges of offset {@code k} in ascending source voxel. */
   public void forEachEdge(int k, EdgeVisitor visitor) {
     forEachRow(k, (start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, null, false, visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, null, null, null, false,
+            visitor));
   }
 
   /**
@@ -158,7 +159,7 @@ public final class GridGraph {
   public void forEachEdgeAcross(int[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, labels, null, false,
+        visitRow(k, start, length, global, thin, decisions, mask, labels, null, null, false,
             visitor));
   }
 
@@ -170,7 +171,20 @@ public final class GridGraph {
   public void forEachAffinityAcross(int[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, labels, null, true, visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, labels, null, null, true,
+            visitor));
+  }
+
+  /**
+   * Visits the present edges with an end where {@code marked} is not 0 (one flag per voxel of
+   * the box), in the order of {@link #forEachEdgeAcross(int[], EdgeVisitor)}; the weight is
+   * computed only for the edges visited.
+   */
+  public void forEachEdgeTouching(byte[] marked, EdgeVisitor visitor) {
+    requireLabels(marked.length);
+    forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
+        visitRow(k, start, length, global, thin, decisions, mask, null, null, marked, false,
+            visitor));
   }
 
   /** The rule that makes this graph's weights. */
@@ -182,7 +196,7 @@ public final class GridGraph {
   public void forEachEdgeAcross(long[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, labels, false,
+        visitRow(k, start, length, global, thin, decisions, mask, null, labels, null, false,
             visitor));
   }
 
@@ -190,7 +204,8 @@ public final class GridGraph {
   public void forEachAffinityAcross(long[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, labels, true, visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, null, labels, null, true,
+            visitor));
   }
 
   /** A row of offset {@code k}; see {@link RowVisitor}. */
@@ -329,11 +344,12 @@ public final class GridGraph {
 
   /**
    * One row of edges; with {@code intLabels} or {@code longLabels}, only edges across labels;
-   * {@code affinities}: pass the affinity instead of the weight.
+   * with {@code marked}, only edges with a marked end; {@code affinities}: pass the affinity
+   * instead of the weight.
    */
   private void visitRow(int k, int start, int length, long[] global, boolean thin,
       Subsampling.RowDecisions decisions, byte[] mask, int[] intLabels, long[] longLabels,
-      boolean affinities, EdgeVisitor visitor) {
+      byte[] marked, boolean affinities, EdgeVisitor visitor) {
     int dk = delta[k];
     int base = k * nodeCount;
     long x0 = global[0];
@@ -344,7 +360,8 @@ public final class GridGraph {
       int source = start + i;
       int target = source + dk;
       if (intLabels != null ? intLabels[source] == intLabels[target]
-          : longLabels != null && longLabels[source] == longLabels[target]) {
+          : longLabels != null ? longLabels[source] == longLabels[target]
+          : marked != null && (marked[source] | marked[target]) == 0) {
         continue;
       }
       if (!kept(source, target, k, global, x0, i, thin, decisions, mask)) {

@@ -59,7 +59,7 @@ class FragmentsPartitionerTest {
         + " \"seedSmoothing\": 0.5}}");
     perSlice.validate(OFFSETS);
     BlockFragments fragments = BlockFragments.of(bytes, perSlice.fragments(), perSlice.weights(),
-        perSlice.subsampling());
+        perSlice.subsampling(), true);
     int plane = SHAPE[0] * SHAPE[1];
     Map<Integer, Integer> sliceOf = new HashMap<>();
     for (int i = 0; i < truth.length; i++) {

@@ -14,6 +14,7 @@ import org.sunder.blockwise.graph.WeightRule;
 import org.sunder.blockwise.partition.agglomeration.Agglomeration;
 import org.sunder.blockwise.partition.agglomeration.AgglomerationPartitioner;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
+import org.sunder.blockwise.partition.config.FragmentsMulticutMethod;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.partition.fragments.BlockFragments;
 import org.sunder.blockwise.partition.fragments.FragmentOptions;
@@ -85,12 +86,13 @@ class SettledPartitionTest {
   void fragmentMethodsGiveBackTheFragmentsOfClustersWithOpenVoxels() {
     Random random = new Random(21);
     FragmentOptions options = FragmentOptions.defaults();
-    Partitioner[] methods = {
-        PartitionConfig.fromJson("{\"method\": \"fragments-agglomeration\"}").create(),
-        PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}").create()};
+    PartitionConfig[] configs = {
+        PartitionConfig.fromJson("{\"method\": \"fragments-agglomeration\"}"),
+        PartitionConfig.fromJson("{\"method\": \"fragments-multicut\"}")};
     int unsettledSeen = 0;
     for (int trial = 0; trial < 6; trial++) {
-      for (Partitioner method : methods) {
+      for (PartitionConfig config : configs) {
+        Partitioner method = config.create();
         AffinityBlock block = PartitionFixtures.randomBlock(random, SHAPE, trial % 2 == 0);
         assertEquals(method.partition(block),
             method.partitionSettled(block, new byte[block.voxelCount()]).pieces());
@@ -100,7 +102,9 @@ class SettledPartitionTest {
         }
         Segmentation full = method.partition(block);
         SettledPartition settled = method.partitionSettled(block, open);
-        int[] fragments = BlockFragments.label(block, options);
+        int[] fragments =
+            BlockFragments.of(block, options, config.weights(), config.subsampling(),
+                config.method() instanceof FragmentsMulticutMethod).labels();
         int[] f = full.labels();
         int[] p = settled.pieces().labels();
         assertTrue(PartitionFixtures.isValid(settled.pieces(), block.maskOrNull()));

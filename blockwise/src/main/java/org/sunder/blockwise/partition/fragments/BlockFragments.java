@@ -14,7 +14,9 @@ import org.sunder.blockwise.partition.SettledPartition;
 /**
  * The fragments of one block and the statistics of the signed edges between them: the common
  * first half of the fragment-based methods. {@link BoundaryMap} from the nearest-neighbour
- * channels, {@link WatershedFragments}, then the {@link RegionGraph} over every present edge of
+ * channels, {@link WatershedFragments}, for the multicut {@link FragmentBorders} (border voxels
+ * moved to the fragment their edges attract most), then the {@link RegionGraph} over every
+ * present edge of
  * the block's {@link GridGraph} (all offsets, long-range too).
  *
  * @param labels fragment of each voxel, 1..count, 0 where masked
@@ -27,30 +29,37 @@ import org.sunder.blockwise.partition.SettledPartition;
 public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
     EdgeStatistics insideStatistics) {
 
-  /** Computes the fragments of {@code block}. */
+  /**
+   * Computes the fragments of {@code block}; with {@code movesBorders}, their border voxels moved
+   * by {@link FragmentBorders} (the multicut's fragments; fragment agglomeration keeps the
+   * watershed's, so that its blockwise result stays its one-block result).
+   */
   public static BlockFragments of(AffinityBlock block, FragmentOptions options,
-      WeightRule weights, Subsampling subsampling) {
-    return of(block, options, weights, subsampling, null);
+      WeightRule weights, Subsampling subsampling, boolean movesBorders) {
+    return of(block, options, weights, subsampling, movesBorders, null);
   }
 
   /**
-   * As {@link #of(AffinityBlock, FragmentOptions, WeightRule, Subsampling)}, also measuring, in
-   * the same pass over the edges, the statistics over the edges whose ends are both marked in
-   * {@code insideOrNull} (one flag per voxel; for a block, its core).
+   * As {@link #of(AffinityBlock, FragmentOptions, WeightRule, Subsampling, boolean)}, also
+   * measuring, in the same pass over the edges, the statistics over the edges whose ends are
+   * both marked in {@code insideOrNull} (one flag per voxel; for a block, its core).
    */
   public static BlockFragments of(AffinityBlock block, FragmentOptions options,
-      WeightRule weights, Subsampling subsampling, byte[] insideOrNull) {
+      WeightRule weights, Subsampling subsampling, boolean movesBorders, byte[] insideOrNull) {
     FragmentOptions fitted = options.forDimension(block.shape().length);
     AffinityBlock source = source(block);
     int[] inSource = indicesInSource(block);
     boolean[] defective = DefectiveSections.find(source, fitted.voxelSize());
+    GridGraph graph = GridGraph.of(block, weights, subsampling);
+    byte[] ignored = cropped(ignoredVoxels(source, defective), inSource);
     int[] labels = croppedLabels(label(source, fitted, defective), inSource);
+    if (movesBorders) {
+      labels = FragmentBorders.reassign(labels, graph, ignored, fitted.sliceAxis());
+    }
     int count = 0;
     for (int l : labels) {
       count = Math.max(count, l);
     }
-    GridGraph graph = GridGraph.of(block, weights, subsampling);
-    byte[] ignored = cropped(ignoredVoxels(source, defective), inSource);
     RegionGraph regions = RegionGraph.of(labels, graph, insideOrNull, ignored);
     return new BlockFragments(labels, count, regions.statistics(),
         insideOrNull == null ? null : regions.insideStatistics());

@@ -28,7 +28,7 @@ public record FragmentsAgglomerationPartitioner(FragmentOptions fragments,
 
   @Override
   public Segmentation partition(AffinityBlock block) {
-    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, false);
     return f.toSegmentation(clusterOfFragment(f), block.maskOrNull());
   }
 
@@ -50,7 +50,8 @@ public record FragmentsAgglomerationPartitioner(FragmentOptions fragments,
 
   private SettledPartition settled(AffinityBlock block, byte[] open, byte[] insideOrNull) {
     SettledPartition.checkOpen(open, block.voxelCount());
-    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, insideOrNull);
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, false,
+        insideOrNull);
     return f.settled(clusterOfFragment(f), open, block.maskOrNull());
   }
 

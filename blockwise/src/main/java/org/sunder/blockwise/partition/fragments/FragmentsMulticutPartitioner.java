@@ -31,7 +31,7 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
 
   @Override
   public Segmentation partition(AffinityBlock block) {
-    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling);
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, true);
     MulticutResult cut = solve(f.count(), f.statistics());
     return f.toSegmentation(cut.labels(), block.maskOrNull());
   }
@@ -54,7 +54,8 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
 
   private SettledPartition settled(AffinityBlock block, byte[] open, byte[] insideOrNull) {
     SettledPartition.checkOpen(open, block.voxelCount());
-    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, insideOrNull);
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, true,
+        insideOrNull);
     return f.settled(solve(f.count(), f.statistics()).labels(), open,
         block.maskOrNull());
   }

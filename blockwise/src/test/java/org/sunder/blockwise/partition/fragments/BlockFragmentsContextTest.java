@@ -19,8 +19,9 @@ import org.sunder.blockwise.synth.SyntheticVolume;
 import org.sunder.blockwise.synth.TissuePreset;
 
 /**
- * A block with a {@linkplain AffinityBlock#withContext context}: its fragments and ignored voxels
- * are those of the context's box, restricted to the block.
+ * A block with a {@linkplain AffinityBlock#withContext context}: its watershed fragments and
+ * ignored voxels are those of the context's box, restricted to the block; after
+ * {@link FragmentBorders}, its fragments are the whole volume's where it holds every edge.
  */
 class BlockFragmentsContextTest {
   private static final long[] SHAPE = {72, 64, 20};
@@ -52,16 +53,74 @@ class BlockFragmentsContextTest {
         assertArrayEquals(expected, BlockFragments.label(withContext, options), where);
         assertArrayEquals(gather(wholeIgnored, inside),
             BlockFragments.ignoredVoxels(withContext, options), where);
-        BlockFragments fragments = BlockFragments.of(withContext, options, WeightRule.logit(0.01),
-            Subsampling.none());
-        assertArrayEquals(expected, fragments.labels(), where);
-        assertEquals(Arrays.stream(expected).max().orElse(0), fragments.count(), where);
         differedWithoutContext +=
             Arrays.equals(expected, BlockFragments.label(part, options)) ? 0 : 1;
       }
     }
     assertTrue(differedWithoutContext > 0,
         "without the context some box's fragments differ from the whole volume's");
+  }
+
+  /**
+   * After {@link FragmentBorders} a block's fragments are the whole volume's on the voxels whose
+   * every edge lies in the block: compared as "same fragment or not" between face neighbours
+   * (ids differ by their numbering, and a fragment that leaves the block may fall into pieces).
+   */
+  @Test
+  void aBlocksFragmentsAreTheWholeVolumesWhereTheBlockHoldsEveryEdge() {
+    long[] volumeShape = {128, 128, 24};
+    int[] box = {128, 128, 24};
+    Random random = new Random(12);
+    for (TissuePreset preset : TissuePreset.values()) {
+      SyntheticVolume volume = preset.volume(3, volumeShape);
+      AffinityBlock whole = AffinityBlock.ofFloats(preset.affinities(volume, 3), box,
+          new long[3], TissuePreset.offsets(), null);
+      FragmentOptions options = FragmentOptions.fittedTo(volume.spec().voxelSize());
+      int[] wholeLabels = BlockFragments.of(whole, options, WeightRule.logit(0.01),
+          Subsampling.none(), true).labels();
+      assertFalse(Arrays.equals(wholeLabels, BlockFragments.label(whole, options)),
+          preset.presetName() + ": some border voxel moves");
+      int[] reach = whole.offsets().reach();
+      for (int trial = 0; trial < 2; trial++) {
+        int[] min = new int[3];
+        int[] shape = new int[3];
+        for (int d = 0; d < 3; d++) {
+          shape[d] = box[d] * 5 / 8 + random.nextInt(box[d] / 4);
+          min[d] = random.nextInt(box[d] - shape[d] + 1);
+        }
+        BlockFragments fragments = BlockFragments.of(
+            subBox(whole, min, shape).withContext(nearestNeighbours(whole)), options,
+            WeightRule.logit(0.01), Subsampling.none(), true);
+        int[] labels = fragments.labels();
+        assertEquals(Arrays.stream(labels).max().orElse(0), fragments.count());
+        int[] inside = Shapes.subBoxIndices(box, min, shape);
+        int[] strides = VoxelBox.strides(shape);
+        int compared = 0;
+        int[] p = new int[3];
+        for (int i = 0; i < labels.length; i++) {
+          for (int d = 0; d < 3; d++) {
+            int j = i + strides[d];
+            if (interior(p, reach, shape) && p[d] + 1 < shape[d] - reach[d]) {
+              assertEquals(wholeLabels[inside[i]] == wholeLabels[inside[j]],
+                  labels[i] == labels[j], preset.presetName() + " box at "
+                      + Arrays.toString(min) + ", voxel " + Arrays.toString(p) + ", axis " + d);
+              compared++;
+            }
+          }
+          VoxelBox.advance(p, shape);
+        }
+        assertTrue(compared > 10_000, "compared " + compared + " voxel pairs");
+      }
+    }
+  }
+
+  private static boolean interior(int[] p, int[] reach, int[] shape) {
+    for (int d = 0; d < p.length; d++) {
+      if (p[d] < reach[d] || p[d] >= shape[d] - reach[d]) {
+        return false;
+      }
+    }
+    return true;
   }
 
   @Test
