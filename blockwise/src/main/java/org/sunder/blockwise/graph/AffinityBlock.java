@@ -28,7 +28,8 @@ import org.sunder.blockwise.grid.Shapes;
  *
  * <p>A block may carry a <em>context</em> ({@link #withContext}): affinities of a wider box
  * around it, at least its nearest-neighbour channels, for voxel-level work whose result at a
- * voxel depends on more of the volume than the offsets reach (the fragment methods' watershed).
+ * voxel depends on more of the volume than the offsets reach (the fragment methods' watershed;
+ * with every channel, the moves of their border voxels).
  */
 public final class AffinityBlock {
   private final long[] globalMin;

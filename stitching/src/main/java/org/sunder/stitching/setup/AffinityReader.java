@@ -24,8 +24,9 @@ public final class AffinityReader {
    * The extended box of {@code block}; for a method that {@linkplain
    * org.sunder.blockwise.partition.config.PartitionMethod#usesFragments uses fragments}, with its
    * {@linkplain AffinityBlock#withContext context}: the nearest-neighbour channels of the
-   * {@link #contextBox}, so that the fragments in the extended box are those a whole-volume run
-   * makes there but for rare floods from farther away.
+   * {@link #contextBox} (every channel for a method that moves the borders of fragments made per
+   * section), so that the fragments in the extended box are those a whole-volume run makes
+   * there but for rare floods from farther away.
    */
   public static AffinityBlock readBlock(StitchingSetup setup, Block block) {
     long[] min = block.extendedMin();
@@ -42,7 +43,8 @@ public final class AffinityReader {
       return read(setup, min, max);
     }
     int all = setup.offsets().count() - 1;
-    int[] channels = nearestNeighbourChannels(setup.offsets());
+    int[] channels = setup.partition().method().movesFragmentBorders() && sliceAxis >= 0
+        ? new int[] {0, all} : nearestNeighbourChannels(setup.offsets());
     // one pass over the chunks: the context holds the extended box, whose chunks then decode once
     Container input = setup.openInput();
     List<ArrayImg<?, ?>> images = input.openDataset(setup.affinitiesPath()).read(

@@ -30,10 +30,12 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
   public static final int LABEL_BYTES_PER_VOXEL = 8;
   /**
    * Bytes per voxel of a fragment method's context ({@link AffinityReader#readBlock}) besides
-   * its three nearest-neighbour channels: boundary map, fragment labels, flags and the flood's
-   * queue (a stated bound, not measured).
+   * its channels: boundary map, fragment labels, flags and the flood's queue (a stated bound,
+   * not measured).
    */
   static final int CONTEXT_WORKING_BYTES = 20;
+  /** Bytes per context voxel of the moves of fragment borders (FragmentBorders' figure). */
+  static final int BORDER_MOVE_BYTES = 20;
   /**
    * Context voxels per extended voxel for a context {@code halos} halos wide, a bound: the
    * context grows each side of the extended box by that many halos, and where the halo overhead
@@ -58,7 +60,7 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
     PartitionMethod method = setup.partition().method();
     return new PartitionEstimate(Shapes.elementCount(extent), setup.offsets().count(),
         type.name().toLowerCase(Locale.ROOT), bytesPerValue(type), method.workingBytesPerVoxel(),
-        contextBytesPerExtendedVoxel(method, bytesPerValue(type)));
+        contextBytesPerExtendedVoxel(method, setup.offsets().count(), bytesPerValue(type)));
   }
 
   /** Bytes of one affinity value of {@code type}: 1 for uint8, else 4. */
@@ -73,17 +75,23 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
   public static long bytesPerExtendedVoxel(PartitionMethod method, int channels,
       int bytesPerValue) {
     return (long) channels * bytesPerValue + method.workingBytesPerVoxel() + LABEL_BYTES_PER_VOXEL
-        + contextBytesPerExtendedVoxel(method, bytesPerValue);
+        + contextBytesPerExtendedVoxel(method, channels, bytesPerValue);
   }
 
   /**
    * A fragment method's context, per voxel of the extended box: {@link
    * #contextPerExtendedVoxel} x (three nearest-neighbour channels + {@link
-   * #CONTEXT_WORKING_BYTES}); 0 for the other methods, which read no context.
+   * #CONTEXT_WORKING_BYTES}), for a method that moves fragment borders x (every channel + {@link
+   * #CONTEXT_WORKING_BYTES} + {@link #BORDER_MOVE_BYTES}); 0 for the other methods, which read
+   * no context.
    */
-  static int contextBytesPerExtendedVoxel(PartitionMethod method, int bytesPerValue) {
-    return method.contextHalos() > 0 ? contextPerExtendedVoxel(method.contextHalos())
-        * (3 * bytesPerValue + CONTEXT_WORKING_BYTES) : 0;
+  static int contextBytesPerExtendedVoxel(PartitionMethod method, int channels,
+      int bytesPerValue) {
+    int perVoxel = method.movesFragmentBorders()
+        ? channels * bytesPerValue + CONTEXT_WORKING_BYTES + BORDER_MOVE_BYTES
+        : 3 * bytesPerValue + CONTEXT_WORKING_BYTES;
+    return method.contextHalos() > 0 ? contextPerExtendedVoxel(method.contextHalos()) * perVoxel
+        : 0;
   }
 
   /**

@@ -31,6 +31,11 @@ public record FragmentsMulticutMethod() implements PartitionMethod {
   }
 
   @Override
+  public boolean movesFragmentBorders() {
+    return true;
+  }
+
+  @Override
   public Linkage defaultLinkage() {
     return Linkage.SUM;
   }

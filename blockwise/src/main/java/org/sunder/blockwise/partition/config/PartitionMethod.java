@@ -56,6 +56,15 @@ public sealed interface PartitionMethod extends Serializable
     return usesFragments() ? 1 : 0;
   }
 
+  /**
+   * Whether the method moves the border voxels of fragments made per section
+   * ({@link org.sunder.blockwise.partition.fragments.FragmentBorders}): its block context then
+   * holds every channel, not only the nearest-neighbour ones.
+   */
+  default boolean movesFragmentBorders() {
+    return false;
+  }
+
   /** Whether the method takes {@code linkage}, {@code constraints} and {@code threshold}. */
   default boolean takesLinkage() {
     return true;

@@ -14,9 +14,9 @@ import org.sunder.blockwise.partition.SettledPartition;
 /**
  * The fragments of one block and the statistics of the signed edges between them: the common
  * first half of the fragment-based methods. {@link BoundaryMap} from the nearest-neighbour
- * channels, {@link WatershedFragments}, for the multicut {@link FragmentBorders} (border voxels
- * moved to the fragment their edges attract most), then the {@link RegionGraph} over every
- * present edge of
+ * channels, {@link WatershedFragments}, for the multicut on sections {@link FragmentBorders}
+ * (border voxels moved to the fragment their edges attract most), then the {@link RegionGraph}
+ * over every present edge of
  * the block's {@link GridGraph} (all offsets, long-range too).
  *
  * @param labels fragment of each voxel, 1..count, 0 where masked
@@ -30,9 +30,10 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
     EdgeStatistics insideStatistics) {
 
   /**
-   * Computes the fragments of {@code block}; with {@code movesBorders}, their border voxels moved
-   * by {@link FragmentBorders} (the multicut's fragments; fragment agglomeration keeps the
-   * watershed's, so that its blockwise result stays its one-block result).
+   * Computes the fragments of {@code block}; with {@code movesBorders} and fragments made per
+   * section, their border voxels moved by {@link FragmentBorders} in the block's context, which
+   * must then hold every channel (the multicut's fragments; 3D fragments and fragment
+   * agglomeration keep the watershed's, see {@link FragmentBorders} for why).
    */
   public static BlockFragments of(AffinityBlock block, FragmentOptions options,
       WeightRule weights, Subsampling subsampling, boolean movesBorders) {
@@ -51,11 +52,19 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
     int[] inSource = indicesInSource(block);
     boolean[] defective = DefectiveSections.find(source, fitted.voxelSize());
     GridGraph graph = GridGraph.of(block, weights, subsampling);
-    byte[] ignored = cropped(ignoredVoxels(source, defective), inSource);
-    int[] labels = croppedLabels(label(source, fitted, defective), inSource);
-    if (movesBorders) {
-      labels = FragmentBorders.reassign(labels, graph, ignored, fitted.sliceAxis());
+    byte[] sourceIgnored = ignoredVoxels(source, defective);
+    int[] sourceLabels = label(source, fitted, defective);
+    if (movesBorders && fitted.sliceAxis() >= 0) {
+      if (!source.offsets().equals(block.offsets())) {
+        throw new IllegalArgumentException("moving fragment borders reads every channel of the"
+            + " context; it has " + source.offsets() + ", the block " + block.offsets());
+      }
+      sourceLabels = FragmentBorders.reassign(sourceLabels,
+          source == block ? graph : GridGraph.of(source, weights, subsampling), sourceIgnored,
+          fitted.sliceAxis());
     }
+    int[] labels = croppedLabels(sourceLabels, inSource);
+    byte[] ignored = cropped(sourceIgnored, inSource);
     int count = 0;
     for (int l : labels) {
       count = Math.max(count, l);

@@ -20,11 +20,18 @@ import org.sunder.blockwise.graph.GridGraph;
  * and the fragment a voxel has no edge into cannot win. Edges with an end in {@code ignored}
  * count for nothing.
  *
- * <p>A voxel's choice reads the edges and labels within the graph's longest offset, so in a
- * block it is a whole-volume run's wherever the block holds all of them: in its core (voxels of
- * the halo choose from the edges the block holds). Time: one pass over the edge slots, weights
- * computed for the border voxels' edges only; memory about {@code 13 · (1 + 2·axes)} bytes per
- * border voxel and 20 per voxel.
+ * <p>Only fragments made per section move ({@link BlockFragments}): a block's 3D fragments
+ * differ from the whole volume's near its sides (they flood from beyond its context), and moves,
+ * which read labels up to the longest offset away, carried those differences that far inward
+ * (compact cells, 27 blocks: 0.018–0.043 bits from the whole-volume result against about 0.008,
+ * though the whole volume's error fell by a third).
+ *
+ * <p>A voxel's choice reads the edges and labels within the graph's longest offset; a block
+ * therefore moves the voxels of its context (every channel, a halo or more around the block),
+ * whose choices are a whole-volume run's wherever the context holds those edges and the
+ * watershed's fragments. Time: one pass over the edge slots, weights computed for the border
+ * voxels' edges only; memory about {@code 13 · (1 + 2·axes)} bytes per border voxel and 20 per
+ * voxel.
  */
 final class FragmentBorders {
   private FragmentBorders() {}
