@@ -10,6 +10,7 @@ import java.util.Map;
 import net.imglib2.FinalInterval;
 import org.sunder.blockwise.graph.AffinityBlock;
 import org.sunder.blockwise.graph.Offsets;
+import org.sunder.blockwise.graph.Subsampling;
 import org.sunder.blockwise.graph.WeightRule;
 import org.sunder.blockwise.partition.config.PartitionConfig;
 import org.sunder.blockwise.partition.fragments.BlockFragments;
@@ -64,7 +65,8 @@ public final class SplitSurvey {
     long[] max = {shape[0] - 1, shape[1] - 1, shape[2] - 1, offsets.count() - 1};
     AffinityBlock block = AffinityBlock.of(container.openDataset(BlockwiseRuns.AFFINITIES)
         .read(new FinalInterval(new long[4], max)), new long[3], offsets, null);
-    int[] fragments = BlockFragments.label(block, FragmentOptions.fittedTo(voxelSize));
+    int[] fragments = BlockFragments.of(block, FragmentOptions.fittedTo(voxelSize), LOGIT,
+        Subsampling.none(), true).labels();
 
     Pieces pieces = new Pieces(segments, truth, (int) (shape[0] * shape[1]));
     System.out.printf(Locale.ROOT, "%s seed %d, %s voxels: %d segments, %d extra%n",
