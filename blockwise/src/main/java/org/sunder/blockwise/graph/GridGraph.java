@@ -141,8 +141,7 @@ public final class GridGraph {
   /** Visits the present edges of offset {@code k} in ascending source voxel. */
   public void forEachEdge(int k, EdgeVisitor visitor) {
     forEachRow(k, (start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, null, null, false,
-            visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, null, null, false, visitor));
   }
 
   /**
@@ -159,7 +158,7 @@ public final class GridGraph {
   public void forEachEdgeAcross(int[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, labels, null, null, false,
+        visitRow(k, start, length, global, thin, decisions, mask, labels, null, false,
             visitor));
   }
 
@@ -171,8 +170,7 @@ public final class GridGraph {
   public void forEachAffinityAcross(int[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, labels, null, null, true,
-            visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, labels, null, true, visitor));
   }
 
   /**
@@ -183,8 +181,7 @@ public final class GridGraph {
   public void forEachEdgeTouching(byte[] marked, EdgeVisitor visitor) {
     requireLabels(marked.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, null, marked, false,
-            visitor));
+        visitRowTouching(k, start, length, global, thin, decisions, mask, marked, visitor));
   }
 
   /** The rule that makes this graph's weights. */
@@ -196,7 +193,7 @@ public final class GridGraph {
   public void forEachEdgeAcross(long[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, labels, null, false,
+        visitRow(k, start, length, global, thin, decisions, mask, null, labels, false,
             visitor));
   }
 
@@ -204,8 +201,7 @@ public final class GridGraph {
   public void forEachAffinityAcross(long[] labels, EdgeVisitor visitor) {
     requireLabels(labels.length);
     forEachRowBySlice((k, start, length, global, thin, decisions, mask) ->
-        visitRow(k, start, length, global, thin, decisions, mask, null, labels, null, true,
-            visitor));
+        visitRow(k, start, length, global, thin, decisions, mask, null, labels, true, visitor));
   }
 
   /** A row of offset {@code k}; see {@link RowVisitor}. */
@@ -344,12 +340,11 @@ public final class GridGraph {
 
   /**
    * One row of edges; with {@code intLabels} or {@code longLabels}, only edges across labels;
-   * with {@code marked}, only edges with a marked end; {@code affinities}: pass the affinity
-   * instead of the weight.
+   * {@code affinities}: pass the affinity instead of the weight.
    */
   private void visitRow(int k, int start, int length, long[] global, boolean thin,
       Subsampling.RowDecisions decisions, byte[] mask, int[] intLabels, long[] longLabels,
-      byte[] marked, boolean affinities, EdgeVisitor visitor) {
+      boolean affinities, EdgeVisitor visitor) {
     int dk = delta[k];
     int base = k * nodeCount;
     long x0 = global[0];
@@ -360,8 +355,7 @@ public final class GridGraph {
       int source = start + i;
       int target = source + dk;
       if (intLabels != null ? intLabels[source] == intLabels[target]
-          : longLabels != null ? longLabels[source] == longLabels[target]
-          : marked != null && (marked[source] | marked[target]) == 0) {
+          : longLabels != null && longLabels[source] == longLabels[target]) {
         continue;
       }
       if (!kept(source, target, k, global, x0, i, thin, decisions, mask)) {
@@ -375,6 +369,34 @@ public final class GridGraph {
             ? byteWeights[(k << 8) + (bytes[base + source] & 0xff)]
             : rule.weight(floats[base + source], p);
       }
+      visitor.visit(source, target, k, w);
+    }
+    global[0] = x0;
+  }
+
+  /**
+   * One row of edges with a marked end. Apart from {@link #visitRow} on purpose: the JIT
+   * inlines a visitor at a call site that has seen one or two kinds, and the label passes'
+   * visitors run far more often than this one.
+   */
+  private void visitRowTouching(int k, int start, int length, long[] global, boolean thin,
+      Subsampling.RowDecisions decisions, byte[] mask, byte[] marked, EdgeVisitor visitor) {
+    int dk = delta[k];
+    int base = k * nodeCount;
+    long x0 = global[0];
+    byte[] bytes = block.byteValuesOrNull();
+    float[] floats = block.floatValuesOrNull();
+    float p = parameters[k];
+    for (int i = 0; i < length; i++) {
+      int source = start + i;
+      int target = source + dk;
+      if ((marked[source] | marked[target]) == 0
+          || !kept(source, target, k, global, x0, i, thin, decisions, mask)) {
+        continue;
+      }
+      float w = bytes != null
+          ? byteWeights[(k << 8) + (bytes[base + source] & 0xff)]
+          : rule.weight(floats[base + source], p);
       visitor.visit(source, target, k, w);
     }
     global[0] = x0;
