@@ -32,7 +32,7 @@ public record FragmentsMulticutMethod() implements PartitionMethod {
 
   @Override
   public boolean movesFragmentBorders() {
-    return true;
+    return FragmentsMulticutPartitioner.MOVES_BORDERS;
   }
 
   @Override

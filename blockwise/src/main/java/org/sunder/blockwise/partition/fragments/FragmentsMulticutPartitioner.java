@@ -22,6 +22,12 @@ import org.sunder.blockwise.partition.multicut.MulticutResult;
 public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage linkage,
     WeightRule weights, Subsampling subsampling, boolean kernighanLin) implements Partitioner {
 
+  /**
+   * Whether its fragments' border voxels move ({@link FragmentBorders}); the run reads every
+   * channel of a block's context for it (see the method's {@code movesFragmentBorders}).
+   */
+  public static final boolean MOVES_BORDERS = true;
+
   public FragmentsMulticutPartitioner {
     Objects.requireNonNull(fragments, "fragments");
     Objects.requireNonNull(linkage, "linkage");
@@ -31,7 +37,7 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
 
   @Override
   public Segmentation partition(AffinityBlock block) {
-    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, true);
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, MOVES_BORDERS);
     MulticutResult cut = solve(f.count(), f.statistics());
     return f.toSegmentation(cut.labels(), block.maskOrNull());
   }
@@ -54,7 +60,7 @@ public record FragmentsMulticutPartitioner(FragmentOptions fragments, Linkage li
 
   private SettledPartition settled(AffinityBlock block, byte[] open, byte[] insideOrNull) {
     SettledPartition.checkOpen(open, block.voxelCount());
-    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, true,
+    BlockFragments f = BlockFragments.of(block, fragments, weights, subsampling, MOVES_BORDERS,
         insideOrNull);
     return f.settled(solve(f.count(), f.statistics()).labels(), open,
         block.maskOrNull());

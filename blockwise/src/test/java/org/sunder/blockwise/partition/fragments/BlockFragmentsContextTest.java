@@ -65,9 +65,9 @@ class BlockFragmentsContextTest {
    * Fragments made per section, their borders moved ({@link FragmentBorders}): a block whose
    * context reaches twice the longest offset beyond it in-plane (the moves read one, and the
    * watershed's fragments they read need a margin, as a run's extended box and context give)
-   * and holds every section, with every channel, has the whole volume's fragments at every voxel, compared as "same fragment or not"
-   * between face neighbours (ids differ by their numbering). A context of nearest-neighbour
-   * channels only is refused.
+   * and holds every section, with every channel, has the whole volume's fragments at every
+   * voxel, compared as "same fragment or not" between face neighbours (ids differ by their
+   * numbering). A context of nearest-neighbour channels only is refused.
    */
   @Test
   void bordersMoveInTheContextAsInTheWholeVolume() {
