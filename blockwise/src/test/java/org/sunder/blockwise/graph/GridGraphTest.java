@@ -148,6 +148,60 @@ class GridGraphTest {
     }
   }
 
+  /**
+   * The edges with a marked end, under masks and subsampling, in the order of the pass across
+   * labels, with their weights or affinities; any non-zero flag marks (the pass lists a row's
+   * marked slots without a branch).
+   */
+  @Test
+  void edgesTouchingMarkedVoxelsAreTheFilteredEdgesSliceBySlice() {
+    Random random = new Random(55);
+    int[] shape = {11, 6, 5};
+    int n = 330;
+    byte[] flagValues = {1, 2, 127, -1, -128};
+    for (int trial = 0; trial < 8; trial++) {
+      byte[] mask = new byte[n];
+      byte[] marked = new byte[n];
+      for (int i = 0; i < n; i++) {
+        mask[i] = (byte) (random.nextInt(5) == 0 ? 0 : 1);
+        marked[i] = random.nextInt(2 + trial) == 0
+            ? flagValues[random.nextInt(flagValues.length)] : 0;
+      }
+      float[] affinities = randomAffinities(n, 6, random);
+      AffinityBlock block = AffinityBlock.ofFloats(affinities, shape, new long[] {5, 2, 7},
+          OFFSETS, trial % 2 == 0 ? mask : null);
+      Subsampling sub = trial < 4 ? Subsampling.none() : Subsampling.hash(0.5, trial);
+      GridGraph graph = GridGraph.of(block, WeightRule.logit(0.01), sub);
+      List<long[]> keyed = new ArrayList<>();
+      List<String> weights = new ArrayList<>();
+      List<String> values = new ArrayList<>();
+      graph.forEachEdge((s, t, k, w) -> {
+        if (marked[s] != 0 || marked[t] != 0) {
+          keyed.add(new long[] {s / (shape[0] * shape[1]), k, s, weights.size()});
+          weights.add(s + ">" + t + "@" + k + "=" + w);
+          values.add(s + ">" + t + "@" + k + "=" + affinities[s + k * n]);
+        }
+      });
+      keyed.sort(java.util.Comparator.<long[]>comparingLong(x -> x[0])
+          .thenComparingLong(x -> x[1]).thenComparingLong(x -> x[2]));
+      List<String> expectedWeights = new ArrayList<>();
+      List<String> expectedValues = new ArrayList<>();
+      for (long[] x : keyed) {
+        expectedWeights.add(weights.get((int) x[3]));
+        expectedValues.add(values.get((int) x[3]));
+      }
+      List<String> touching = new ArrayList<>();
+      graph.forEachEdgeTouching(marked, (s, t, k, w) -> touching.add(s + ">" + t + "@" + k + "="
+          + w));
+      List<String> touchingValues = new ArrayList<>();
+      graph.forEachAffinityTouching(marked, (s, t, k, a) -> touchingValues.add(s + ">" + t + "@"
+          + k + "=" + a));
+      assertEquals(expectedWeights, touching, "trial " + trial);
+      assertEquals(expectedValues, touchingValues, "trial " + trial);
+      assertFalse(expectedWeights.isEmpty());
+    }
+  }
+
   @Test
   void channelRoleWeights() {
     float[] a = new float[3 * 2 * 6];

@@ -265,9 +265,9 @@ class RunResolverTest {
     for (int d = 0; d < 3; d++) {
       assertEquals(0, s.blockShape()[d] % s.chunkShape()[d]);
     }
-    // Fragments-multicut: 13 x 4 + 150 + 8 bytes per extended voxel, and 2 x (13 x 4 + 20 + 20)
+    // Fragments-multicut: 13 x 4 + 150 + 8 bytes per extended voxel, and 2 x (13 x 4 + 20 + 21)
     // for the fragments' context, which holds every channel to move fragment borders.
-    assertEquals(394, origin.bytesPerExtendedVoxel());
+    assertEquals(396, origin.bytesPerExtendedVoxel());
     assertTrue(s.grid().blockCount() >= 4, "at least 2 blocks per core");
   }
 
@@ -308,13 +308,13 @@ class RunResolverTest {
     RunSettings s = resolve(json, budget(2, 8L << 30, 4L << 30));
     assertArrayEquals(new int[] {128, 128, 64}, s.blockShape());
     assertEquals(BlockShapeOrigin.CONFIGURED, s.blockOrigin().source());
-    // (64 + 6) x (128 + 54)^2 = 2318680 voxels x 394 bytes = 871.2 MiB > 256 MiB.
+    // (64 + 6) x (128 + 54)^2 = 2318680 voxels x 396 bytes = 875.7 MiB > 256 MiB.
     SunderException e = assertThrows(SunderException.class,
         () -> resolve(json, budget(2, 256L << 20, 128L << 20)));
     assertEquals(ErrorKind.INVALID_CONFIG, e.kind());
     assertTrue(e.getMessage().contains("blocks.shape: a block of [64, 128, 128] (zyx)"),
         e.getMessage());
-    assertTrue(e.getMessage().contains("2318680 voxels") && e.getMessage().contains("871.2 MiB")
+    assertTrue(e.getMessage().contains("2318680 voxels") && e.getMessage().contains("875.7 MiB")
         && e.getMessage().contains("256.0 MiB"), e.getMessage());
     SunderException chosen = assertThrows(SunderException.class, () -> resolve(
         "{\"input\": {\"container\": \"" + root + "\", \"missingChunks\": \"fill\"}}",

@@ -35,7 +35,7 @@ public record PartitionEstimate(long extendedVoxels, int channels, String valueT
    */
   static final int CONTEXT_WORKING_BYTES = 20;
   /** Bytes per context voxel of the moves of fragment borders (FragmentBorders' figure). */
-  static final int BORDER_MOVE_BYTES = 20;
+  static final int BORDER_MOVE_BYTES = 21;
   /**
    * Context voxels per extended voxel for a context {@code halos} halos wide, a bound: the
    * context grows each side of the extended box by that many halos, and where the halo overhead

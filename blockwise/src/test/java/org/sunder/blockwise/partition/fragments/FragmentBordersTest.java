@@ -1,6 +1,8 @@
 package org.sunder.blockwise.partition.fragments;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayDeque;
 import java.util.Arrays;
@@ -45,14 +47,16 @@ class FragmentBordersTest {
 
   /**
    * Random boxes, offsets, affinities, fragments and ignored voxels against a direct reading of
-   * the rule.
+   * the rule (sums of weights), under three weight rules: logit weights, compared as products of
+   * odds; centred weights and logit weights with a bias, summed.
    */
   @Test
   void matchesADirectReadingOfTheRuleOnRandomBlocks() {
+    double[] bias = {0.3, -0.2, 0.1, 0, 0.5, -0.4, 0.2, -0.1};
     Random random = new Random(17);
     int[][] offsetPool = {{-1, 0, 0}, {0, -1, 0}, {0, 0, -1}, {0, 0, -3}, {0, -2, 0},
         {-2, 0, 0}, {0, -3, 3}, {-1, -2, 0}};
-    for (int trial = 0; trial < 40; trial++) {
+    for (int trial = 0; trial < 60; trial++) {
       int[] shape = {3 + random.nextInt(9), 3 + random.nextInt(9), 2 + random.nextInt(5)};
       int n = shape[0] * shape[1] * shape[2];
       int offsetCount = 3 + random.nextInt(offsetPool.length - 2);
@@ -60,6 +64,12 @@ class FragmentBordersTest {
       for (int k = 0; k < offsetCount; k++) {
         zyx[k] = offsetPool[k];
       }
+      WeightRule rule = switch (trial % 3) {
+        case 0 -> LOGIT;
+        case 1 -> WeightRule.byValue(WeightRule.Transform.CENTERED, null);
+        default -> WeightRule.byValue(WeightRule.Transform.LOGIT,
+            Arrays.copyOf(bias, offsetCount));
+      };
       float[] affinities = new float[offsetCount * n];
       for (int i = 0; i < affinities.length; i++) {
         affinities[i] = random.nextFloat();
@@ -81,10 +91,37 @@ class FragmentBordersTest {
         }
       }
       int sliceAxis = random.nextBoolean() ? 2 : -1;
-      GridGraph graph = GridGraph.of(block, LOGIT, Subsampling.none());
+      GridGraph graph = GridGraph.of(block, rule, Subsampling.none());
       assertArrayEquals(directly(labels, graph, ignored, sliceAxis, shape),
           FragmentBorders.reassign(labels, graph, ignored, sliceAxis), "trial " + trial);
     }
+  }
+
+  /**
+   * Products of odds only where they stay in the double range: at most two edges per offset,
+   * each with odds up to (1 − clamp) / clamp; 13 offsets and a clamp of 10⁻¹² could reach
+   * 10^312, beyond the largest double (about 1.8 · 10^308, IEEE 754 binary64).
+   */
+  @Test
+  void comparesProductsOfOddsOnlyWhereTheyStayInTheDoubleRange() {
+    int[][] zyx = new int[13][];
+    for (int k = 0; k < 13; k++) {
+      zyx[k] = new int[] {0, 0, -1 - k};
+    }
+    AffinityBlock block = AffinityBlock.ofFloats(new float[13 * 20], new int[] {20, 1, 1},
+        new long[3], Offsets.fromZyx(zyx), null);
+    assertEquals(0.01, FragmentBorders.oddsClamp(
+        GridGraph.of(block, LOGIT, Subsampling.none())));
+    assertEquals(1e-11, FragmentBorders.oddsClamp(
+        GridGraph.of(block, WeightRule.logit(1e-11), Subsampling.none())));
+    assertTrue(Double.isNaN(FragmentBorders.oddsClamp(
+        GridGraph.of(block, WeightRule.logit(1e-12), Subsampling.none()))));
+    assertTrue(Double.isNaN(FragmentBorders.oddsClamp(GridGraph.of(block,
+        WeightRule.byValue(WeightRule.Transform.CENTERED, null), Subsampling.none()))));
+    double[] bias = new double[13];
+    bias[4] = 0.5;
+    assertTrue(Double.isNaN(FragmentBorders.oddsClamp(GridGraph.of(block,
+        WeightRule.byValue(WeightRule.Transform.LOGIT, bias), Subsampling.none()))));
   }
 
   /**
