@@ -271,12 +271,12 @@ class BadInputBatteryTest {
         List.of(List.of(-1, 0, 0), List.of(0, -1, 0), List.of(0, 0, -1))));
     // Extended box 400 x 4000 x 402 (zyx, clipped to the volume) = 643.2 M voxels: 1.93 G
     // affinity values fit one array, but at 3 x 4 + 150 + 8 bytes per voxel, and
-    // 2 x (3 x 4 + 20 + 20) for the fragments' context, the task needs about 164 GiB, more than
+    // 2 x (3 x 4 + 20 + 21) for the fragments' context, the task needs about 165 GiB, more than
     // any test heap.
     planAndRunRefuse(ErrorKind.INVALID_CONFIG, "{\"input\": {\"container\": \"" + big + "\","
         + " \"missingChunks\": \"fill\"}, \"blocks\": {\"shape\": [400, 4000, 400]}}",
         "blocks.shape: a block of [400, 4000, 400] (zyx)", "643200000 voxels",
-        "(274 bytes per voxel), more than the", "of this JVM's heap");
+        "(276 bytes per voxel), more than the", "of this JVM's heap");
   }
 
   // ------------------------------------------------------------ 5, 9c: evaluate --mask

@@ -71,12 +71,12 @@ class CliOutputTest {
     assertTrue(out.contains("tasks      partition 8, seams 12, solve 1 (driver), relabel 8 (8 chunks)"), out);
     // The halo (2 along x) is shorter than the longest offset along x (4): reported.
     assertTrue(out.contains("note "), out);
-    // Largest extended block: (6+2)(10+4)(14+4) = 2016 voxels x (5 x 4 + 158 + 120) bytes (150
-    // working, 8 of labels, 2 x (5 x 4 + 20 + 20) for the fragments' context).
+    // Largest extended block: (6+2)(10+4)(14+4) = 2016 voxels x (5 x 4 + 158 + 122) bytes (150
+    // working, 8 of labels, 2 x (5 x 4 + 20 + 21) for the fragments' context).
     Matcher memory = Pattern.compile("memory     about ([0-9.]+) MiB per partition task \\(2016"
         + " voxels").matcher(out);
     assertTrue(memory.find(), out);
-    assertEquals(2016 * (5 * 4 + 278) / (1024.0 * 1024.0), Double.parseDouble(memory.group(1)), 0.05);
+    assertEquals(2016 * (5 * 4 + 280) / (1024.0 * 1024.0), Double.parseDouble(memory.group(1)), 0.05);
     // The central block of the 2 x 2 x 2 grid, block 7, at its place in the volume.
     Matcher estimate = Pattern.compile("estimate   sample block at grid \\[1, 1, 1\\], voxels"
         + " z 6..11, y 10..19, x 14..27 \\(zyx\\), partitioned here in ([0-9.]+) s \\(reading"
