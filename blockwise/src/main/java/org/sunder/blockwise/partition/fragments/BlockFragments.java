@@ -59,9 +59,10 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
         throw new IllegalArgumentException("moving fragment borders reads every channel of the"
             + " context; it has " + source.offsets() + ", the block " + block.offsets());
       }
-      sourceLabels = FragmentBorders.reassign(sourceLabels,
-          source == block ? graph : GridGraph.of(source, weights, subsampling), sourceIgnored,
-          fitted.sliceAxis());
+      sourceLabels = source == block
+          ? FragmentBorders.reassign(sourceLabels, graph, sourceIgnored, fitted.sliceAxis())
+          : FragmentBorders.reassign(sourceLabels, GridGraph.of(source, weights, subsampling),
+              sourceIgnored, fitted.sliceAxis(), movableMin(block), movableMax(block));
     }
     int[] labels = croppedLabels(sourceLabels, inSource);
     byte[] ignored = cropped(sourceIgnored, inSource);
@@ -72,6 +73,28 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
     RegionGraph regions = RegionGraph.of(labels, graph, insideOrNull, ignored);
     return new BlockFragments(labels, count, regions.statistics(),
         insideOrNull == null ? null : regions.insideStatistics());
+  }
+
+  /**
+   * The first corner, in its context, of the box whose border voxels a block moves: its own box
+   * and the layer of voxels around it, through which the pieces at its sides connect. Beyond,
+   * the context keeps the watershed's fragments, which are what the moves read.
+   */
+  private static int[] movableMin(AffinityBlock block) {
+    int[] min = block.originInContext().clone();
+    for (int d = 0; d < min.length; d++) {
+      min[d] = Math.max(0, min[d] - 1);
+    }
+    return min;
+  }
+
+  /** The last corner (exclusive) of the box of {@link #movableMin}. */
+  private static int[] movableMax(AffinityBlock block) {
+    int[] max = block.originInContext().clone();
+    for (int d = 0; d < max.length; d++) {
+      max[d] = Math.min(block.contextOrNull().shape(d), max[d] + block.shape(d) + 1);
+    }
+    return max;
   }
 
   /**

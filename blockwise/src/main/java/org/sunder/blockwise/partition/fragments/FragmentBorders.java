@@ -28,8 +28,8 @@ import org.sunder.blockwise.graph.GridGraph;
  * a third).
  *
  * <p>A voxel's choice reads the edges and labels within the graph's longest offset; a block
- * therefore moves the voxels of its context (every channel, a halo or more around the block),
- * whose choices are a whole-volume run's wherever the context holds those edges and the
+ * therefore moves its voxels in its context (every channel, a halo or more around the block),
+ * where their choices are a whole-volume run's wherever the context holds those edges and the
  * watershed's fragments. Time: one pass over the edge slots, reading the affinities of the
  * border voxels' edges only (16–19 % of the voxels on the sectioned presets), with no logarithm
  * per edge under the default logit weights (their sum is the logarithm of a product of odds).
@@ -51,6 +51,18 @@ final class FragmentBorders {
    */
   static int[] reassign(int[] labels, GridGraph graph, byte[] ignoredOrNull, int sliceAxis) {
     int[] shape = graph.block().shape();
+    return reassign(labels, graph, ignoredOrNull, sliceAxis, new int[shape.length], shape);
+  }
+
+  /**
+   * As {@link #reassign(int[], GridGraph, byte[], int)}, moving only the border voxels in the
+   * box from {@code movableMin} (inclusive) to {@code movableMax} (exclusive), coordinates in
+   * {@code graph}'s box: a block moves the voxels its result keeps, whose moves read the context
+   * around them, and leaves the rest of the context as the watershed made it.
+   */
+  static int[] reassign(int[] labels, GridGraph graph, byte[] ignoredOrNull, int sliceAxis,
+      int[] movableMin, int[] movableMax) {
+    int[] shape = graph.block().shape();
     int n = labels.length;
     int[] strides = VoxelBox.strides(shape);
     int width = 1 + 2 * (sliceAxis >= 0 ? shape.length - 1 : shape.length);
@@ -62,7 +74,8 @@ final class FragmentBorders {
     int[] coordinate = new int[shape.length];
     for (int i = 0; i < n; i++) {
       int own = labels[i];
-      if (own != 0 && (ignoredOrNull == null || ignoredOrNull[i] == 0)) {
+      if (own != 0 && (ignoredOrNull == null || ignoredOrNull[i] == 0)
+          && within(coordinate, movableMin, movableMax)) {
         int at = borders * width;
         if (at + width > candidates.length) {
           candidates = Arrays.copyOf(candidates, 2 * candidates.length);
@@ -272,6 +285,15 @@ final class FragmentBorders {
     }
     candidates[at + count] = label;
     return count + 1;
+  }
+
+  private static boolean within(int[] coordinate, int[] min, int[] max) {
+    for (int d = 0; d < coordinate.length; d++) {
+      if (coordinate[d] < min[d] || coordinate[d] >= max[d]) {
+        return false;
+      }
+    }
+    return true;
   }
 
   private static int[] withoutIgnored(int[] labels, byte[] ignored) {

@@ -98,6 +98,62 @@ class FragmentBordersTest {
   }
 
   /**
+   * Moving only the border voxels of a box (a block's, inside its context): face neighbours
+   * both in the box are in one fragment or not as when every border voxel moves (a voxel's
+   * choice reads the watershed's fragments, not moved ones), and face neighbours both outside
+   * as the watershed left them.
+   */
+  @Test
+  void movingTheVoxelsOfABoxMovesThemAsAllBorderVoxelsMove() {
+    Random random = new Random(23);
+    Offsets offsets = Offsets.fromZyx(new int[][] {{-1, 0, 0}, {0, -1, 0}, {0, 0, -1},
+        {0, 0, -3}, {0, -3, 0}, {0, -2, 2}});
+    for (int trial = 0; trial < 20; trial++) {
+      int[] shape = {6 + random.nextInt(8), 6 + random.nextInt(8), 2 + random.nextInt(4)};
+      int n = shape[0] * shape[1] * shape[2];
+      float[] affinities = new float[offsets.count() * n];
+      for (int i = 0; i < affinities.length; i++) {
+        affinities[i] = random.nextFloat();
+      }
+      int[] labels = new int[n];
+      for (int i = 0; i < n; i++) {
+        labels[i] = i % shape[0] == 0 || random.nextInt(3) == 0 ? 1 + random.nextInt(5)
+            : labels[i - 1];
+      }
+      int[] min = new int[3];
+      int[] max = new int[3];
+      for (int d = 0; d < 3; d++) {
+        min[d] = random.nextInt(shape[d] / 2);
+        max[d] = min[d] + 1 + random.nextInt(shape[d] - min[d]);
+      }
+      GridGraph graph = GridGraph.of(AffinityBlock.ofFloats(affinities, shape, new long[3],
+          offsets, null), LOGIT, Subsampling.none());
+      int sliceAxis = trial % 2 == 0 ? 2 : -1;
+      int[] all = FragmentBorders.reassign(labels, graph, null, sliceAxis);
+      int[] some = FragmentBorders.reassign(labels, graph, null, sliceAxis, min, max);
+      int[] strides = {1, shape[0], shape[0] * shape[1]};
+      for (int i = 0; i < n; i++) {
+        for (int j : faceNeighbours(i, shape, strides, -1)) {
+          boolean in = inBox(i, shape, min, max) && inBox(j, shape, min, max);
+          boolean out = !inBox(i, shape, min, max) && !inBox(j, shape, min, max);
+          if (in) {
+            assertEquals(all[i] == all[j], some[i] == some[j], "trial " + trial + " in " + i);
+          } else if (out) {
+            assertEquals(labels[i] == labels[j], some[i] == some[j], "trial " + trial + " " + i);
+          }
+        }
+      }
+    }
+  }
+
+  private static boolean inBox(int i, int[] shape, int[] min, int[] max) {
+    int x = i % shape[0];
+    int y = i / shape[0] % shape[1];
+    int z = i / (shape[0] * shape[1]);
+    return x >= min[0] && x < max[0] && y >= min[1] && y < max[1] && z >= min[2] && z < max[2];
+  }
+
+  /**
    * Products of odds only where they stay in the double range: at most two edges per offset,
    * each with odds up to (1 − clamp) / clamp; 13 offsets and a clamp of 10⁻¹² could reach
    * 10^312, beyond the largest double (about 1.8 · 10^308, IEEE 754 binary64).
