@@ -375,15 +375,8 @@ public final class GridGraph {
       if (!kept(source, target, k, global, x0, i, thin, decisions, mask)) {
         continue;
       }
-      float w;
-      if (affinities) {
-        w = bytes != null ? (bytes[base + source] & 0xff) / 255f : floats[base + source];
-      } else {
-        w = bytes != null
-            ? byteWeights[(k << 8) + (bytes[base + source] & 0xff)]
-            : rule.weight(floats[base + source], p);
-      }
-      visitor.visit(source, target, k, w);
+      visitor.visit(source, target, k,
+          slotValue(bytes, floats, base + source, k, p, affinities));
     }
     global[0] = x0;
   }
@@ -417,17 +410,23 @@ public final class GridGraph {
       if (!kept(source, target, k, global, x0, i, thin, decisions, mask)) {
         continue;
       }
-      float w;
-      if (affinities) {
-        w = bytes != null ? (bytes[base + source] & 0xff) / 255f : floats[base + source];
-      } else {
-        w = bytes != null
-            ? byteWeights[(k << 8) + (bytes[base + source] & 0xff)]
-            : rule.weight(floats[base + source], p);
-      }
-      visitor.visit(source, target, k, w);
+      visitor.visit(source, target, k,
+          slotValue(bytes, floats, base + source, k, p, affinities));
     }
     global[0] = x0;
+  }
+
+  /**
+   * The affinity of edge slot {@code slot} of offset {@code k} (in [0, 1]; {@code value / 255}
+   * when quantized), or its weight ({@code p}: the offset's channel parameter).
+   */
+  private float slotValue(byte[] bytes, float[] floats, int slot, int k, float p,
+      boolean affinities) {
+    if (affinities) {
+      return bytes != null ? (bytes[slot] & 0xff) / 255f : floats[slot];
+    }
+    return bytes != null ? byteWeights[(k << 8) + (bytes[slot] & 0xff)]
+        : rule.weight(floats[slot], p);
   }
 
   /**

@@ -3,6 +3,7 @@ package org.sunder.stitching.solve;
 import java.util.Arrays;
 import java.util.PriorityQueue;
 import java.util.function.LongPredicate;
+import org.sunder.blockwise.collections.UnionFind;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 
 /**

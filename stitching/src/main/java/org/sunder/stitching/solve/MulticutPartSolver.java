@@ -3,6 +3,7 @@ package org.sunder.stitching.solve;
 import java.util.Arrays;
 import java.util.function.LongPredicate;
 import org.sunder.blockwise.collections.RadixSort;
+import org.sunder.blockwise.collections.UnionFind;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.multicut.Multicut;

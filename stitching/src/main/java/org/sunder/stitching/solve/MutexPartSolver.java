@@ -3,6 +3,7 @@ package org.sunder.stitching.solve;
 import java.util.Arrays;
 import java.util.function.LongPredicate;
 import org.sunder.blockwise.collections.PairSet;
+import org.sunder.blockwise.collections.UnionFind;
 
 /**
  * One part of a hierarchical Mutex Watershed ("The Mutex Watershed and its Objective: Efficient,

@@ -8,6 +8,7 @@ import java.util.stream.IntStream;
 import java.util.stream.LongStream;
 import org.sunder.blockwise.ErrorKind;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.collections.UnionFind;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.SegmentGraph;

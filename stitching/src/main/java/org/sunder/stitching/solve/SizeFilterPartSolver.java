@@ -4,6 +4,7 @@ import it.unimi.dsi.fastutil.longs.Long2IntOpenHashMap;
 import java.util.Arrays;
 import java.util.function.LongPredicate;
 import org.sunder.blockwise.collections.RadixSort;
+import org.sunder.blockwise.collections.UnionFind;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.partition.agglomeration.Linkage;
 import org.sunder.blockwise.partition.sizefilter.SizeFilter;

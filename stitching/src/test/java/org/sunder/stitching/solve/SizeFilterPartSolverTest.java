@@ -7,6 +7,7 @@ import java.util.Arrays;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.sunder.blockwise.SunderException;
+import org.sunder.blockwise.collections.UnionFind;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;

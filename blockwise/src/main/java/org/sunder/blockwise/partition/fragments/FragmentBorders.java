@@ -1,6 +1,7 @@
 package org.sunder.blockwise.partition.fragments;
 
 import java.util.Arrays;
+import org.sunder.blockwise.collections.UnionFind;
 import org.sunder.blockwise.graph.GridGraph;
 
 /**
@@ -162,7 +163,7 @@ final class FragmentBorders {
     for (int i = 0; i < n; i++) {
       int label = labels[i];
       boolean left = label != 0 && coordinate[0] > 0 && labels[i - 1] == label;
-      parent[i] = left ? find(parent, i - 1) : i;
+      parent[i] = left ? UnionFind.root(parent, i - 1) : i;
       int axes = label == 0 ? 0 : shape.length;
       for (int d = 1; d < axes; d++) {
         int below = i - strides[d];
@@ -170,7 +171,7 @@ final class FragmentBorders {
         // the voxel below to this one
         if (coordinate[d] > 0 && labels[below] == label
             && !(left && labels[below - 1] == label)) {
-          union(parent, i, below);
+          UnionFind.union(parent, i, below);
         }
       }
       VoxelBox.advance(coordinate, shape);
@@ -184,7 +185,7 @@ final class FragmentBorders {
       if (x > 0 && labels[i - 1] == labels[i]) {
         pieces[i] = pieces[i - 1];
       } else {
-        int root = find(parent, i);
+        int root = UnionFind.root(parent, i);
         pieces[i] = root == i ? ++count : pieces[root];
       }
     }
@@ -196,11 +197,8 @@ final class FragmentBorders {
   private static int[] joinIgnoredPieces(int[] pieces, int count, int[] shape, int[] strides,
       byte[] ignored) {
     int n = pieces.length;
-    int[] parent = new int[count + 1];
+    int[] parent = UnionFind.singletons(count + 1);
     boolean[] counted = new boolean[count + 1];
-    for (int p = 0; p <= count; p++) {
-      parent[p] = p;
-    }
     for (int i = 0; i < n; i++) {
       counted[pieces[i]] |= pieces[i] != 0 && ignored[i] == 0;
     }
@@ -210,11 +208,11 @@ final class FragmentBorders {
       joined = false;
       Arrays.fill(coordinate, 0);
       for (int i = 0; i < n; i++) {
-        int touched = pieces[i] == 0 || counted[find(parent, pieces[i])] ? 0
+        int touched = pieces[i] == 0 || counted[UnionFind.root(parent, pieces[i])] ? 0
             : countedNeighbour(i, pieces, shape, strides, coordinate, parent, counted);
         if (touched != 0) {
-          union(parent, pieces[i], touched);
-          counted[find(parent, touched)] = true;
+          UnionFind.union(parent, pieces[i], touched);
+          counted[UnionFind.root(parent, touched)] = true;
           joined = true;
           joinedAny = true;
         }
@@ -229,7 +227,7 @@ final class FragmentBorders {
     int joinedCount = 0;
     for (int i = 0; i < n; i++) {
       if (pieces[i] != 0) {
-        int root = find(parent, pieces[i]);
+        int root = UnionFind.root(parent, pieces[i]);
         out[i] = renumbered[root] != 0 ? renumbered[root] : (renumbered[root] = ++joinedCount);
       }
     }
@@ -244,33 +242,17 @@ final class FragmentBorders {
       int[] coordinate, int[] parent, boolean[] counted) {
     for (int d = 0; d < shape.length; d++) {
       int below = i - strides[d];
-      if (coordinate[d] > 0 && pieces[below] != 0 && counted[find(parent, pieces[below])]) {
+      if (coordinate[d] > 0 && pieces[below] != 0
+          && counted[UnionFind.root(parent, pieces[below])]) {
         return pieces[below];
       }
       int above = i + strides[d];
       if (coordinate[d] < shape[d] - 1 && pieces[above] != 0
-          && counted[find(parent, pieces[above])]) {
+          && counted[UnionFind.root(parent, pieces[above])]) {
         return pieces[above];
       }
     }
     return 0;
-  }
-
-  private static int find(int[] parent, int i) {
-    while (parent[i] != i) {
-      parent[i] = parent[parent[i]];
-      i = parent[i];
-    }
-    return i;
-  }
-
-  /** Joins the sets of {@code i} and {@code j}, the smaller root becoming the root. */
-  private static void union(int[] parent, int i, int j) {
-    int a = find(parent, i);
-    int b = find(parent, j);
-    if (a != b) {
-      parent[Math.max(a, b)] = Math.min(a, b);
-    }
   }
 
   /** Appends {@code label} to the candidates at {@code at} unless it is 0 or there already. */
