@@ -49,7 +49,8 @@ public final class BoundaryMap {
     float[] boundary = new float[n];
     Arrays.fill(boundary, -1f);
     int[] strides = VoxelBox.strides(shape);
-    int[] coordinate = new int[shape.length];
+    int rowLength = shape[0];
+    int[] rowCoordinate = new int[shape.length];
     for (int k = 0; k < offsets.length; k++) {
       if (!isNearestNeighbour(offsets[k], sliceAxis)) {
         continue;
@@ -58,10 +59,17 @@ public final class BoundaryMap {
       int step = offsets[k][axis];
       int delta = step * strides[axis];
       int base = k * n;
-      Arrays.fill(coordinate, 0);
-      for (int i = 0; i < n; i++) {
-        int c = coordinate[axis] + step;
-        if (c >= 0 && c < shape[axis]) {
+      // row by row: along the row's own axis the edges leave the box at one end; across rows
+      // a whole row's edges stay inside or leave
+      int first = axis == 0 ? Math.max(0, -step) : 0;
+      int end = axis == 0 ? Math.min(rowLength, rowLength - step) : rowLength;
+      Arrays.fill(rowCoordinate, 0);
+      for (int row = 0; row < n; row += rowLength, VoxelBox.advanceRow(rowCoordinate, shape)) {
+        int c = rowCoordinate[axis] + step;
+        if (axis > 0 && (c < 0 || c >= shape[axis])) {
+          continue;
+        }
+        for (int i = row + first; i < row + end; i++) {
           int j = i + delta;
           if (mask == null || (mask[i] != 0 && mask[j] != 0)) {
             float b = 1f - source.affinity(base + i);
@@ -73,7 +81,6 @@ public final class BoundaryMap {
             }
           }
         }
-        VoxelBox.advance(coordinate, shape);
       }
     }
     for (int i = 0; i < n; i++) {

@@ -8,6 +8,13 @@ package org.sunder.blockwise.partition.fragments;
 final class GaussianSmoothing {
   private GaussianSmoothing() {}
 
+  /**
+   * Lines along a strided axis are copied out this many side by side: neighbouring lines share
+   * each cache line, and a power-of-two stride would map one line's values to the same cache
+   * set, so line by line every read missed.
+   */
+  private static final int LINES_AT_ONCE = 16;
+
   static void smooth(double[] values, int[] shape, double[] sigma) {
     int n = values.length;
     int stride = 1;
@@ -15,20 +22,25 @@ final class GaussianSmoothing {
     for (int s : shape) {
       longest = Math.max(longest, s);
     }
-    double[] line = new double[longest];
+    double[][] lines = new double[LINES_AT_ONCE][longest];
     for (int d = 0; d < shape.length; d++) {
       int length = shape[d];
       if (sigma[d] > 0 && length > 1) {
         double[] kernel = kernel(sigma[d]);
         int block = stride * length;
         for (int outer = 0; outer < n; outer += block) {
-          for (int inner = 0; inner < stride; inner++) {
+          for (int inner = 0; inner < stride; inner += LINES_AT_ONCE) {
+            int width = Math.min(LINES_AT_ONCE, stride - inner);
             int start = outer + inner;
             for (int q = 0, i = start; q < length; q++, i += stride) {
-              line[q] = values[i];
+              for (int w = 0; w < width; w++) {
+                lines[w][q] = values[i + w];
+              }
             }
             for (int q = 0, i = start; q < length; q++, i += stride) {
-              values[i] = convolve(line, length, q, kernel);
+              for (int w = 0; w < width; w++) {
+                values[i + w] = convolve(lines[w], length, q, kernel);
+              }
             }
           }
         }
@@ -81,7 +93,7 @@ final class GaussianSmoothing {
     return m < length ? m : period - 1 - m;
   }
 
-  private static double[] kernel(double sigma) {
+  static double[] kernel(double sigma) {
     int radius = Math.max(1, (int) Math.ceil(3 * sigma));
     double[] k = new double[2 * radius + 1];
     double sum = 0;

@@ -40,6 +40,19 @@ public final class VoxelBox {
     throw new IllegalArgumentException("zero offset " + Arrays.toString(offset));
   }
 
+  /**
+   * Steps {@code coordinate}, the first voxel of a row along dimension 0, to the first voxel
+   * of the next row.
+   */
+  public static void advanceRow(int[] coordinate, int[] shape) {
+    for (int d = 1; d < shape.length; d++) {
+      if (++coordinate[d] < shape[d]) {
+        return;
+      }
+      coordinate[d] = 0;
+    }
+  }
+
   /** Steps {@code coordinate} to the next voxel in memory order. */
   public static void advance(int[] coordinate, int[] shape) {
     for (int d = 0; d < shape.length; d++) {

@@ -42,6 +42,49 @@ class GaussianSmoothingTest {
   }
 
   /**
+   * Random boxes (strides that are and are not multiples of the lines copied at once, axes of
+   * one voxel) and σ per axis: the same doubles, bit for bit, as convolving voxel by voxel, one
+   * axis after the other, each sum taken in kernel order.
+   */
+  @Test
+  void smoothsEveryLineAsAVoxelByVoxelConvolution() {
+    Random random = new Random(29);
+    for (int trial = 0; trial < 40; trial++) {
+      int[] shape = {1 + random.nextInt(40), 1 + random.nextInt(20), 1 + random.nextInt(5)};
+      double[] sigma = new double[3];
+      for (int d = 0; d < 3; d++) {
+        sigma[d] = random.nextInt(4) == 0 ? 0 : 0.1 + 1.5 * random.nextDouble();
+      }
+      double[] values = new double[shape[0] * shape[1] * shape[2]];
+      for (int i = 0; i < values.length; i++) {
+        values[i] = 100 * random.nextDouble();
+      }
+      double[] expected = values.clone();
+      int stride = 1;
+      for (int d = 0; d < 3; d++) {
+        if (sigma[d] > 0 && shape[d] > 1) {
+          double[] kernel = GaussianSmoothing.kernel(sigma[d]);
+          int radius = kernel.length / 2;
+          double[] before = expected.clone();
+          for (int i = 0; i < values.length; i++) {
+            int c = i / stride % shape[d];
+            double sum = 0;
+            for (int t = -radius; t <= radius; t++) {
+              int m = Math.floorMod(c + t, 2 * shape[d]);
+              m = m < shape[d] ? m : 2 * shape[d] - 1 - m;
+              sum += kernel[t + radius] * before[i + (m - c) * stride];
+            }
+            expected[i] = sum;
+          }
+        }
+        stride *= shape[d];
+      }
+      GaussianSmoothing.smooth(values, shape, sigma);
+      assertArrayEquals(expected, values);
+    }
+  }
+
+  /**
    * On random boxes whose "interior" values lie in {@code [smallest, largest]} and the others in
    * {@code [0, largest]}: where {@link GaussianSmoothing#changesNothing} says so for every axis,
    * smoothing leaves each interior value bit for bit as it was.
