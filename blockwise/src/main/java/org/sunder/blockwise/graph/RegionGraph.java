@@ -8,8 +8,11 @@ package org.sunder.blockwise.graph;
  * {@code O(nodeCount * offsetCount)} expected time plus {@code O(p log p)} for {@code p} pairs. Immutable.
  */
 public final class RegionGraph {
-  /** Marks a pair's row as one of edges inside the region in the one-pass accumulation. */
-  private static final long INSIDE = 1L << 62;
+  /**
+   * Marks a pair's row as one of edges inside the region in the one-pass accumulation: the bit
+   * above every 32-bit label, so a pair's ids still fit one sort key of 64 bits.
+   */
+  private static final long INSIDE = 1L << 31;
 
   private final EdgeStatistics statistics;
   private final EdgeStatistics insideStatistics;
@@ -198,7 +201,10 @@ public final class RegionGraph {
     }
   }
 
-  /** The rows flagged {@link #INSIDE} (or not), the flag cleared. */
+  /**
+   * The rows flagged {@link #INSIDE} (or not), the flag cleared: still in canonical order, as
+   * the flag sorts above every label.
+   */
   private static EdgeStatistics rowsWhere(EdgeStatistics rows, boolean flagged) {
     int count = 0;
     for (int e = 0; e < rows.size(); e++) {
@@ -221,7 +227,7 @@ public final class RegionGraph {
         max[row++] = rows.max(e);
       }
     }
-    return EdgeStatistics.of(u, v, sum, n, min, max);
+    return EdgeStatistics.ofCanonical(u, v, sum, n, min, max);
   }
 
   /** As {@link #of(int[], GridGraph)} for 64-bit labels. */

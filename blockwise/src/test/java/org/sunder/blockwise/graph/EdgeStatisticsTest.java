@@ -107,6 +107,77 @@ class EdgeStatisticsTest {
     }
   }
 
+  /**
+   * Ids near 0, at the top of the 32-bit range (one sort key per pair), across 2^32 and
+   * negative (sorted by columns): the accumulator's table equals the rows summed pair by pair
+   * in the order added, in canonical order.
+   */
+  @Test
+  void accumulatorBuildsTheCanonicalTableForIdsOfEveryRange() {
+    Random random = new Random(31);
+    long[] lowest = {0, (1L << 32) - 40, (1L << 32) - 20, -20, Long.MAX_VALUE - 40};
+    for (long low : lowest) {
+      for (int trial = 0; trial < 20; trial++) {
+        EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1);
+        Map<List<Long>, double[]> reference = new HashMap<>();
+        for (int e = 0; e < 300; e++) {
+          long a = low + random.nextInt(40);
+          long b = low + random.nextInt(40);
+          if (a == b) {
+            continue;
+          }
+          double w = random.nextInt(9) * 0.375 - 1.5 + random.nextDouble();
+          acc.add(a, b, w);
+          double[] row = reference.computeIfAbsent(List.of(Math.min(a, b), Math.max(a, b)),
+              k -> new double[] {0, 0, w, w});
+          row[0] += w;
+          row[1]++;
+          row[2] = Math.min(row[2], w);
+          row[3] = Math.max(row[3], w);
+        }
+        int n = reference.size();
+        long[] u = new long[n];
+        long[] v = new long[n];
+        double[] sum = new double[n];
+        long[] count = new long[n];
+        double[] min = new double[n];
+        double[] max = new double[n];
+        int r = 0;
+        for (var entry : reference.entrySet()) {
+          u[r] = entry.getKey().get(0);
+          v[r] = entry.getKey().get(1);
+          sum[r] = entry.getValue()[0];
+          count[r] = (long) entry.getValue()[1];
+          min[r] = entry.getValue()[2];
+          max[r++] = entry.getValue()[3];
+        }
+        EdgeStatistics built = acc.build();
+        assertEquals(EdgeStatistics.of(u, v, sum, count, min, max), built,
+            "ids from " + low + ", trial " + trial);
+        for (int i = 1; i < built.size(); i++) {
+          assertTrue(built.u(i - 1) < built.u(i)
+              || built.u(i - 1) == built.u(i) && built.v(i - 1) < built.v(i), "row " + i);
+        }
+      }
+    }
+  }
+
+  @Test
+  void canonicalRowsAreKeptAndRowsOutOfOrderRefused() {
+    double[] one = {1};
+    double[] two = {1, 1};
+    EdgeStatistics rows = EdgeStatistics.ofCanonical(new long[] {1, 1}, new long[] {2, 5}, two,
+        new long[] {1, 1}, two, two);
+    assertEquals(EdgeStatistics.of(new long[] {1, 1}, new long[] {5, 2}, two,
+        new long[] {1, 1}, two, two), rows);
+    assertThrows(IllegalArgumentException.class, () -> EdgeStatistics.ofCanonical(
+        new long[] {1, 1}, new long[] {5, 2}, two, new long[] {1, 1}, two, two));
+    assertThrows(IllegalArgumentException.class, () -> EdgeStatistics.ofCanonical(
+        new long[] {1, 1}, new long[] {2, 2}, two, new long[] {1, 1}, two, two));
+    assertThrows(IllegalArgumentException.class, () -> EdgeStatistics.ofCanonical(
+        new long[] {3}, new long[] {3}, one, new long[] {1}, one, one));
+  }
+
   @Test
   void mergeOfPartsEqualsWholeWhateverTheSplitAndOrder() {
     Random random = new Random(13);
