@@ -114,19 +114,24 @@ public final class DistanceTransform {
     int block = stride * length;
     double s = spacing[axis];
     for (int outer = 0; outer < n; outer += block) {
-      for (int inner = 0; inner < stride; inner++) {
+      for (int inner = 0; inner < stride; inner += LineTiles.WIDTH) {
+        int width = Math.min(LineTiles.WIDTH, stride - inner);
         int start = outer + inner;
-        for (int q = 0, i = start; q < length; q++, i += stride) {
-          b.line[q] = f[i];
+        LineTiles.gather(f, start, stride, length, width, b.tile);
+        for (int w = 0; w < width; w++) {
+          for (int q = 0, at = w; q < length; q++, at += width) {
+            b.line[q] = b.tile[at];
+          }
+          if (binary) {
+            binaryLine(b, length, s);
+          } else {
+            transformLine(b, length, s);
+          }
+          for (int q = 0, at = w; q < length; q++, at += width) {
+            b.tile[at] = b.result[q];
+          }
         }
-        if (binary) {
-          binaryLine(b, length, s);
-        } else {
-          transformLine(b, length, s);
-        }
-        for (int q = 0, i = start; q < length; q++, i += stride) {
-          f[i] = b.result[q];
-        }
+        LineTiles.scatter(b.tile, f, start, stride, length, width);
       }
     }
   }
@@ -216,8 +221,11 @@ public final class DistanceTransform {
     final double[] result;
     final int[] vertex;
     final double[] boundary;
+    /** Neighbouring lines side by side ({@link LineTiles}). */
+    final double[] tile;
 
     LineBuffers(int longest) {
+      tile = new double[longest * LineTiles.WIDTH];
       line = new double[longest];
       result = new double[longest];
       vertex = new int[longest];

@@ -8,13 +8,6 @@ package org.sunder.blockwise.partition.fragments;
 final class GaussianSmoothing {
   private GaussianSmoothing() {}
 
-  /**
-   * Lines along a strided axis are copied out this many side by side: neighbouring lines share
-   * each cache line, and a power-of-two stride would map one line's values to the same cache
-   * set, so line by line every read missed.
-   */
-  private static final int LINES_AT_ONCE = 16;
-
   static void smooth(double[] values, int[] shape, double[] sigma) {
     int n = values.length;
     int stride = 1;
@@ -22,30 +15,51 @@ final class GaussianSmoothing {
     for (int s : shape) {
       longest = Math.max(longest, s);
     }
-    double[][] lines = new double[LINES_AT_ONCE][longest];
+    double[] tile = new double[longest * LineTiles.WIDTH];
+    double[] line = new double[longest];
     for (int d = 0; d < shape.length; d++) {
       int length = shape[d];
       if (sigma[d] > 0 && length > 1) {
         double[] kernel = kernel(sigma[d]);
         int block = stride * length;
         for (int outer = 0; outer < n; outer += block) {
-          for (int inner = 0; inner < stride; inner += LINES_AT_ONCE) {
-            int width = Math.min(LINES_AT_ONCE, stride - inner);
-            int start = outer + inner;
-            for (int q = 0, i = start; q < length; q++, i += stride) {
-              for (int w = 0; w < width; w++) {
-                lines[w][q] = values[i + w];
-              }
+          if (stride == 1) {
+            System.arraycopy(values, outer, line, 0, length);
+            for (int q = 0; q < length; q++) {
+              values[outer + q] = convolve(line, length, q, kernel);
             }
+            continue;
+          }
+          for (int inner = 0; inner < stride; inner += LineTiles.WIDTH) {
+            int width = Math.min(LineTiles.WIDTH, stride - inner);
+            int start = outer + inner;
+            LineTiles.gather(values, start, stride, length, width, tile);
             for (int q = 0, i = start; q < length; q++, i += stride) {
-              for (int w = 0; w < width; w++) {
-                values[i + w] = convolve(lines[w], length, q, kernel);
-              }
+              convolveTile(tile, width, length, q, kernel, values, i);
             }
           }
         }
       }
       stride *= length;
+    }
+  }
+
+  /**
+   * Value {@code q} of each of a tile's lines ({@link LineTiles}), written to
+   * {@code out[at .. at + width − 1]}; each sum taken in the order {@link #convolve} takes it.
+   */
+  private static void convolveTile(double[] tile, int width, int length, int q,
+      double[] kernel, double[] out, int at) {
+    int radius = kernel.length / 2;
+    for (int w = 0; w < width; w++) {
+      out[at + w] = 0;
+    }
+    for (int t = -radius; t <= radius; t++) {
+      double k = kernel[t + radius];
+      int from = mirror(q + t, length) * width;
+      for (int w = 0; w < width; w++) {
+        out[at + w] += k * tile[from + w];
+      }
     }
   }
 
