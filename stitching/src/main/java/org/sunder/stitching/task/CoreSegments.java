@@ -42,6 +42,10 @@ import org.sunder.blockwise.partition.SettledPartition;
  * O(extended voxels * offsets).
  */
 public final class CoreSegments {
+  /** Where {@link #innerEdgesOfPieces} puts a row: among the core's pairs or the interior's. */
+  private static final byte CORE_ROW = 1;
+  private static final byte INTERIOR_ROW = 2;
+
   private CoreSegments() {}
 
   /**
@@ -428,19 +432,28 @@ public final class CoreSegments {
    */
   private static Inner innerEdgesOfPieces(IdLayout layout, int block, int[] localOf,
       boolean[] boundary, boolean[] unsettled, boolean[] filterNode, PieceEdges pieces) {
-    EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(256);
-    EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(256);
     EdgeStatistics inside = pieces.inside();
+    // which rows go where, counted first, so each table is sized once (a row is at most a pair)
+    byte[] target = new byte[inside.size()];
+    int coreRows = 0;
+    int interiorRows = 0;
     for (int e = 0; e < inside.size(); e++) {
       int ls = localOf[(int) inside.u(e)];
       int lt = localOf[(int) inside.v(e)];
-      if (ls == 0 || lt == 0) {
-        continue;
+      if (ls != 0 && lt != 0) {
+        target[e] = boundary[ls] && boundary[lt] ? CORE_ROW
+            : filterNode[ls] || filterNode[lt] ? INTERIOR_ROW : 0;
+        coreRows += target[e] == CORE_ROW ? 1 : 0;
+        interiorRows += target[e] == INTERIOR_ROW ? 1 : 0;
       }
-      EdgeStatistics.Accumulator into = boundary[ls] && boundary[lt] ? core
-          : filterNode[ls] || filterNode[lt] ? interior : null;
-      if (into != null) {
-        into.add(ls, lt, inside.sum(e), inside.count(e), inside.min(e), inside.max(e));
+    }
+    EdgeStatistics.Accumulator core = new EdgeStatistics.Accumulator(coreRows);
+    EdgeStatistics.Accumulator interior = new EdgeStatistics.Accumulator(interiorRows);
+    for (int e = 0; e < inside.size(); e++) {
+      if (target[e] != 0) {
+        (target[e] == CORE_ROW ? core : interior).add(localOf[(int) inside.u(e)],
+            localOf[(int) inside.v(e)], inside.sum(e), inside.count(e), inside.min(e),
+            inside.max(e));
       }
     }
     EdgeStatistics anywhere = pieces.anywhere();
