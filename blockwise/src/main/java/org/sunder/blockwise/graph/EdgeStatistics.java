@@ -423,10 +423,10 @@ public final class EdgeStatistics implements Serializable {
     }
 
     /**
-     * The canonical table of everything added. When every id lies in {@code [0, 2^32)} (block
-     * labels, pieces) each pair's two ids make one key and one radix sort orders the slots, whose
-     * rows are then read once each, a cache line or two; otherwise the rows are copied out and
-     * sorted by their two columns.
+     * The canonical table of everything added: the occupied slots in order of their pairs, then
+     * each slot's row read once (a cache line or two). When every id lies in {@code [0, 2^32)}
+     * (block labels, pieces) a pair's two ids make one key for one radix sort; otherwise the
+     * slots are ordered by their two ids in turn.
      */
     public EdgeStatistics build() {
       long[] t = table;
@@ -441,10 +441,17 @@ public final class EdgeStatistics implements Serializable {
           slots[r++] = at;
         }
       }
-      if (ids >>> 32 != 0) {
-        return buildByColumns();
+      if (ids >>> 32 == 0) {
+        RadixSort.sortByKeyUnsigned(keys, slots);
+      } else {
+        int[] unordered = slots;
+        int[] order = RadixSort.order(size, i -> RadixSort.signedKey(t[unordered[i]]),
+            i -> RadixSort.signedKey(t[unordered[i] + 1]));
+        slots = new int[size];
+        for (int i = 0; i < size; i++) {
+          slots[i] = unordered[order[i]];
+        }
       }
-      RadixSort.sortByKeyUnsigned(keys, slots);
       long[] u = new long[size];
       long[] v = new long[size];
       double[] sum = new double[size];
@@ -461,31 +468,6 @@ public final class EdgeStatistics implements Serializable {
         max[i] = Double.longBitsToDouble(t[at + 5]);
       }
       return new EdgeStatistics(u, v, sum, count, min, max);
-    }
-
-    /** {@link #build} for ids of any range. */
-    private EdgeStatistics buildByColumns() {
-      long[] u = new long[size];
-      long[] v = new long[size];
-      double[] sum = new double[size];
-      long[] count = new long[size];
-      double[] min = new double[size];
-      double[] max = new double[size];
-      int r = 0;
-      long[] t = table;
-      for (int at = 0; at < t.length; at += SLOT) {
-        if (t[at + 2] != 0) {
-          u[r] = t[at];
-          v[r] = t[at + 1];
-          count[r] = t[at + 2] - 1;
-          sum[r] = Double.longBitsToDouble(t[at + 3]);
-          min[r] = Double.longBitsToDouble(t[at + 4]);
-          max[r++] = Double.longBitsToDouble(t[at + 5]);
-        }
-      }
-      int[] order = RadixSort.order(size, i -> RadixSort.signedKey(u[i]),
-          i -> RadixSort.signedKey(v[i]));
-      return collapse(order, u, v, sum, count, min, max);
     }
 
     /** The slot of {@code (x, y)} in {@link #table}, or the empty slot where it would go. */
