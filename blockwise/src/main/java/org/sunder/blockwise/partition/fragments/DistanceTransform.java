@@ -114,6 +114,13 @@ public final class DistanceTransform {
     int block = stride * length;
     double s = spacing[axis];
     for (int outer = 0; outer < n; outer += block) {
+      if (stride == 1) {
+        // a line in memory order: no tile needed
+        System.arraycopy(f, outer, b.line, 0, length);
+        transformLine(b, length, s, binary);
+        System.arraycopy(b.result, 0, f, outer, length);
+        continue;
+      }
       for (int inner = 0; inner < stride; inner += LineTiles.WIDTH) {
         int width = Math.min(LineTiles.WIDTH, stride - inner);
         int start = outer + inner;
@@ -122,17 +129,22 @@ public final class DistanceTransform {
           for (int q = 0, at = w; q < length; q++, at += width) {
             b.line[q] = b.tile[at];
           }
-          if (binary) {
-            binaryLine(b, length, s);
-          } else {
-            transformLine(b, length, s);
-          }
+          transformLine(b, length, s, binary);
           for (int q = 0, at = w; q < length; q++, at += width) {
             b.tile[at] = b.result[q];
           }
         }
         LineTiles.scatter(b.tile, f, start, stride, length, width);
       }
+    }
+  }
+
+  /** {@link #binaryLine} when {@code binary}, else {@link #transformLine(LineBuffers, int, double)}. */
+  private static void transformLine(LineBuffers b, int length, double s, boolean binary) {
+    if (binary) {
+      binaryLine(b, length, s);
+    } else {
+      transformLine(b, length, s);
     }
   }
 
