@@ -1,8 +1,8 @@
 package org.sunder.blockwise.partition.multicut;
 
 import java.util.Objects;
+import org.sunder.blockwise.collections.IndexedMaxHeap;
 import org.sunder.blockwise.collections.IntList;
-import org.sunder.blockwise.collections.MaxHeap;
 import org.sunder.blockwise.graph.ContractionGraph;
 import org.sunder.blockwise.graph.EdgeStatistics;
 import org.sunder.blockwise.graph.SignedGraph;
@@ -17,7 +17,7 @@ import org.sunder.blockwise.partition.agglomeration.Linkage;
  * <ul>
  *   <li>{@link #greedyAdditive}: greedy additive edge contraction — repeatedly contract the edge
  *       of largest positive weight, summing the weights of parallel edges that the contraction
- *       creates, until no positive edge is left. {@code O(m log m)} with a lazy heap and
+ *       creates, until no positive edge is left. {@code O(m log m)} with an indexed heap and
  *       adjacencies merged smaller into larger. Ties: larger weight first, then the smaller
  *       pair of endpoints.</li>
  *   <li>{@link #refine}: Kernighan–Lin-style local search in the spirit of "An Efficient
@@ -89,12 +89,16 @@ public final class Multicut {
   public static MulticutResult greedyAdditive(int nodeCount, int[] u, int[] v, double[] w) {
     check(nodeCount, u, v, w);
     double[] weight = w.clone();
-    ContractionGraph.EdgeMerge sum = (into, from) -> weight[into] += weight[from];
+    // the positive edges, each keyed by its current weight and pair of ends
+    IndexedMaxHeap heap = new IndexedMaxHeap(u.length);
+    ContractionGraph.EdgeMerge sum = (into, from) -> {
+      weight[into] += weight[from];
+      heap.remove(from);
+    };
     ContractionGraph graph = ContractionGraph.build(nodeCount, u, v, sum);
-    MaxHeap heap = new MaxHeap(u.length);
     for (int e = 0; e < u.length; e++) {
       if (graph.alive(e) && weight[e] > 0) {
-        heap.push(weight[e], tie(graph, e), e);
+        heap.set(e, weight[e], tie(graph, e));
       }
     }
     int[] parent = new int[nodeCount];
@@ -103,13 +107,7 @@ public final class Multicut {
     }
     IntList touched = new IntList(16);
     while (!heap.isEmpty()) {
-      double key = heap.topKey();
-      long tie = heap.topTie();
-      int e = heap.topPayload();
-      heap.pop();
-      if (!graph.alive(e) || weight[e] != key || tie(graph, e) != tie) {
-        continue;
-      }
+      int e = heap.pop();
       int a = graph.endA(e);
       int b = graph.endB(e);
       int keep = graph.degree(b) > graph.degree(a) ? b : a;
@@ -120,7 +118,9 @@ public final class Multicut {
       for (int t = 0; t < touched.size(); t++) {
         int f = touched.get(t);
         if (weight[f] > 0) {
-          heap.push(weight[f], tie(graph, f), f);
+          heap.set(f, weight[f], tie(graph, f));
+        } else {
+          heap.remove(f);
         }
       }
     }
