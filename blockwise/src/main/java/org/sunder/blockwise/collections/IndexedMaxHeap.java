@@ -45,7 +45,7 @@ public final class IndexedMaxHeap {
 
   /** Removes and returns {@link #top()}. */
   public int pop() {
-    int item = items[0];
+    int item = top();
     remove(item);
     return item;
   }
