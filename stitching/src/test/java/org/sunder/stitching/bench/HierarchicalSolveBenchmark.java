@@ -43,7 +43,7 @@ import org.sunder.stitching.solve.SuperBlocks;
  * {@code SUNDER_JAVA_OPTS="-Xms8g -Xmx8g -XX:+AlwaysPreTouch"}: otherwise a run that grows the
  * heap pays the machine's first touch of that memory as its own CPU time (system time in its
  * page faults), and on this machine the small size's five runs then read 175 to 819 ns per edge
- * where touched in advance they read within 5 to 20 % of each other.
+ * where touched in advance they read within 4 to 23 % of each other.
  */
 public final class HierarchicalSolveBenchmark {
   private static final int N = 12;
