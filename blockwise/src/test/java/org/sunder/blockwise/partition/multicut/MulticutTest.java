@@ -52,6 +52,89 @@ class MulticutTest {
     }
   }
 
+  /**
+   * The greedy contraction step by step as its definition reads, on a weight matrix: contract
+   * the pair of clusters of largest positive summed weight (ties: the smaller pair of cluster
+   * ids), the cluster with more neighbours keeping its id (the smaller id on equal counts). Small
+   * integer weights, so sums are exact and ties frequent; the heap's bookkeeping must give the
+   * very same contractions.
+   */
+  @Test
+  void greedyContractionMakesTheContractionsOfItsDefinition() {
+    Random random = new Random(23);
+    for (int trial = 0; trial < 200; trial++) {
+      int n = 2 + random.nextInt(trial < 100 ? 12 : 60);
+      int m = random.nextInt(4 * n);
+      int[] u = new int[m];
+      int[] v = new int[m];
+      double[] w = new double[m];
+      for (int e = 0; e < m; e++) {
+        u[e] = random.nextInt(n);
+        v[e] = random.nextInt(n);
+        w[e] = random.nextInt(7) - 3;
+      }
+      int[] expected = Multicut.consecutiveFromZero(contractByDefinition(n, u, v, w));
+      assertArrayEquals(expected, Multicut.greedyAdditive(n, u, v, w).labels(),
+          "trial " + trial);
+    }
+  }
+
+  /** Per node, its cluster's surviving id. O(n^3); for small graphs. */
+  private static int[] contractByDefinition(int n, int[] u, int[] v, double[] w) {
+    double[][] weight = new double[n][n];
+    boolean[][] joined = new boolean[n][n];
+    for (int e = 0; e < u.length; e++) {
+      if (u[e] != v[e]) {
+        weight[u[e]][v[e]] += w[e];
+        weight[v[e]][u[e]] += w[e];
+        joined[u[e]][v[e]] = joined[v[e]][u[e]] = true;
+      }
+    }
+    boolean[] alive = new boolean[n];
+    java.util.Arrays.fill(alive, true);
+    int[] cluster = new int[n];
+    for (int i = 0; i < n; i++) {
+      cluster[i] = i;
+    }
+    while (true) {
+      int a = -1;
+      int b = -1;
+      for (int x = 0; x < n; x++) {
+        for (int y = x + 1; y < n; y++) {
+          if (alive[x] && alive[y] && joined[x][y] && weight[x][y] > 0
+              && (a < 0 || weight[x][y] > weight[a][b])) {
+            a = x;
+            b = y;
+          }
+        }
+      }
+      if (a < 0) {
+        return cluster;
+      }
+      int keep = degree(joined, alive, b) > degree(joined, alive, a) ? b : a;
+      int gone = keep == a ? b : a;
+      alive[gone] = false;
+      for (int c = 0; c < n; c++) {
+        if (alive[c] && c != keep && joined[gone][c]) {
+          weight[keep][c] += weight[gone][c];
+          weight[c][keep] = weight[keep][c];
+          joined[keep][c] = joined[c][keep] = true;
+        }
+        if (cluster[c] == gone) {
+          cluster[c] = keep;
+        }
+      }
+    }
+  }
+
+  private static int degree(boolean[][] joined, boolean[] alive, int x) {
+    int d = 0;
+    for (int c = 0; c < joined.length; c++) {
+      d += alive[c] && c != x && joined[x][c] ? 1 : 0;
+    }
+    return d;
+  }
+
   @Test
   void refinementNeverIncreasesTheObjectiveOfAnyStart() {
     Random random = new Random(13);
