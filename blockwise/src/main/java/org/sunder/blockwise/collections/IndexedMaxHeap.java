@@ -58,7 +58,7 @@ public final class IndexedMaxHeap {
       siftUp(i, key, tie, item);
       return;
     }
-    if (before(key, tie, keys[i], ties[i])) {
+    if (MaxHeap.before(key, tie, keys[i], ties[i])) {
       siftUp(i, key, tie, item);
     } else {
       siftDown(i, key, tie, item);
@@ -79,7 +79,7 @@ public final class IndexedMaxHeap {
     double key = keys[last];
     long tie = ties[last];
     int moved = items[last];
-    if (i > 0 && before(key, tie, keys[(i - 1) >>> 2], ties[(i - 1) >>> 2])) {
+    if (i > 0 && MaxHeap.before(key, tie, keys[(i - 1) >>> 2], ties[(i - 1) >>> 2])) {
       siftUp(i, key, tie, moved);
     } else {
       siftDown(i, key, tie, moved);
@@ -89,7 +89,7 @@ public final class IndexedMaxHeap {
   private void siftUp(int i, double key, long tie, int item) {
     while (i > 0) {
       int parent = (i - 1) >>> 2;
-      if (!before(key, tie, keys[parent], ties[parent])) {
+      if (!MaxHeap.before(key, tie, keys[parent], ties[parent])) {
         break;
       }
       move(parent, i);
@@ -107,21 +107,17 @@ public final class IndexedMaxHeap {
       int child = first;
       int end = Math.min(first + 4, size);
       for (int c = first + 1; c < end; c++) {
-        if (before(keys[c], ties[c], keys[child], ties[child])) {
+        if (MaxHeap.before(keys[c], ties[c], keys[child], ties[child])) {
           child = c;
         }
       }
-      if (!before(keys[child], ties[child], key, tie)) {
+      if (!MaxHeap.before(keys[child], ties[child], key, tie)) {
         break;
       }
       move(child, i);
       i = child;
     }
     place(i, key, tie, item);
-  }
-
-  private static boolean before(double k1, long t1, double k2, long t2) {
-    return k1 > k2 || (k1 == k2 && t1 < t2);
   }
 
   private void move(int from, int to) {

@@ -91,7 +91,11 @@ public final class MaxHeap {
     set(i, key, tie, payload);
   }
 
-  private static boolean before(double k1, long t1, double k2, long t2) {
+  /**
+   * Whether (k1, t1) comes out before (k2, t2): the larger key, then the smaller tie; also
+   * {@link IndexedMaxHeap}'s order.
+   */
+  static boolean before(double k1, long t1, double k2, long t2) {
     return k1 > k2 || (k1 == k2 && t1 < t2);
   }
 
