@@ -72,7 +72,8 @@ public final class RadixSort {
    * read (by index, so at random) only for indices that tie on every column before it. A group
    * of at most {@value #SMALL} indices is sorted by insertion, a larger one by a pass per byte
    * that varies in the group. {@code O(n (c + b))} at worst for {@code c} columns and {@code b}
-   * varying bytes in all; 24 bytes of memory per index, the result included.
+   * varying bytes in all; 24 bytes of memory per index, the result included. Indices already in
+   * order (a list built in the order it is sorted by) are found so in one pass and not sorted.
    *
    * @throws IllegalArgumentException when {@code n} is negative
    */
@@ -84,10 +85,30 @@ public final class RadixSort {
     for (int i = 0; i < n; i++) {
       order[i] = i;
     }
-    if (columns.length > 0) {
+    if (columns.length > 0 && !inOrder(n, columns)) {
       new Scratch(n).sortGroup(new long[n], order, 0, n, columns, 0);
     }
     return order;
+  }
+
+  /**
+   * Whether no index's keys come after the next index's. Stops at the first pair out of order,
+   * so an unordered list usually costs a few reads; O(n c) for a list in order.
+   */
+  private static boolean inOrder(int n, KeyColumn[] columns) {
+    next:
+    for (int i = 1; i < n; i++) {
+      for (KeyColumn column : columns) {
+        int c = Long.compareUnsigned(column.key(i - 1), column.key(i));
+        if (c < 0) {
+          continue next;
+        }
+        if (c > 0) {
+          return false;
+        }
+      }
+    }
+    return true;
   }
 
   /** The scratch arrays and byte histograms of one sort; one group is sorted at a time. */

@@ -104,6 +104,46 @@ class RadixSortTest {
   }
 
   @Test
+  void orderOfColumnsInOrderOrNearlySoMatchesTheJdkStableSort() {
+    // lists built in order skip the sort; one pair swapped anywhere (the last pair too) must not
+    Random random = new Random(47);
+    for (int trial = 0; trial < 60; trial++) {
+      int n = 2 + random.nextInt(3000);
+      long[] primary = new long[n];
+      long[] secondary = new long[n];
+      for (int i = 0; i < n; i++) {
+        primary[i] = randomKey(random, 1 + trial % 2);
+        secondary[i] = randomKey(random, 2);
+      }
+      Integer[] sorted = boxedOrder(n, (a, b) -> {
+        int cmp = Long.compareUnsigned(primary[a], primary[b]);
+        return cmp != 0 ? cmp : Long.compareUnsigned(secondary[a], secondary[b]);
+      });
+      long[] p = new long[n];
+      long[] s = new long[n];
+      for (int i = 0; i < n; i++) {
+        p[i] = primary[sorted[i]];
+        s[i] = secondary[sorted[i]];
+      }
+      if (trial % 3 != 0) {
+        int i = trial % 3 == 1 ? n - 2 : random.nextInt(n - 1);
+        long t = p[i];
+        p[i] = p[i + 1];
+        p[i + 1] = t;
+        t = s[i];
+        s[i] = s[i + 1];
+        s[i + 1] = t;
+      }
+      Integer[] expected = boxedOrder(n, (a, b) -> {
+        int cmp = Long.compareUnsigned(p[a], p[b]);
+        return cmp != 0 ? cmp : Long.compareUnsigned(s[a], s[b]);
+      });
+      assertArrayEquals(unboxed(expected), RadixSort.order(n, i -> p[i], i -> s[i]),
+          "trial " + trial);
+    }
+  }
+
+  @Test
   void signedKeyGivesTheSignedOrder() {
     Random random = new Random(23);
     long[] values = {Long.MIN_VALUE, -1, 0, 1, Long.MAX_VALUE, -256, 255};

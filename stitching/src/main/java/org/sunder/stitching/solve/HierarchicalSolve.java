@@ -19,7 +19,7 @@ import org.sunder.blockwise.SunderException;
  * ({@link PartSolver}): it settles what it can settle alone and hands up the rest, contracted.
  * Level 1's parts get the reduced graph's edges (an edge between two parts goes to both); level
  * {@code l + 1}'s part gets what its sub-parts handed up, the copies of each edge joined
- * ({@link SolveEdges#joinCopies}). When the rest fits under the bound, the driver solves it
+ * ({@link PartSolver#gather}). When the rest fits under the bound, the driver solves it
  * whole. With a work dir every part's output is an {@link EdgeFile} there, as in a distributed
  * run ({@code level-<l>/part-<p>.out}; the files stay after the solve); without one they stay
  * in memory.
@@ -114,7 +114,7 @@ public final class HierarchicalSolve {
       int[][] children = level == 1 ? null : childrenOf(superBlocks, level - 1);
       for (int p = 0; p < parts; p++) {
         SolveEdges input = level == 1 ? levelOneInput.apply(p)
-            : outputs.gather(children[p]);
+            : outputs.gather(children[p], solver);
         if (input == null || input.size() == 0) {
           continue;
         }
@@ -147,7 +147,7 @@ public final class HierarchicalSolve {
       level++;
     }
     long driverStart = cpuNanos();
-    SolveEdges whole = outputs == null ? levelOneInput.apply(-1) : outputs.gatherAll();
+    SolveEdges whole = outputs == null ? levelOneInput.apply(-1) : outputs.gatherAll(solver);
     if (whole.size() > maxDriverEdges) {
       throw new SunderException(ErrorKind.INVALID_CONFIG, "the " + solver.name()
           + " solve still has " + whole.size() + " edges after " + (level - 1)
@@ -257,29 +257,24 @@ public final class HierarchicalSolve {
       return dir == null ? memory[part] : EdgeFile.read(file(part));
     }
 
-    /** The outputs of {@code parts}, copies of each edge joined. */
-    SolveEdges gather(int[] parts) {
-      SolveEdges[] outs = new SolveEdges[parts.length];
-      int total = 0;
-      for (int i = 0; i < parts.length; i++) {
-        outs[i] = get(parts[i]);
-        total = Math.addExact(total, outs[i] == null ? 0 : outs[i].size());
-      }
-      SolveEdges all = new SolveEdges(total);
-      for (SolveEdges out : outs) {
+    /** The outputs of {@code parts}, copies of each edge joined ({@link PartSolver#gather}). */
+    SolveEdges gather(int[] parts, PartSolver solver) {
+      List<SolveEdges> outs = new ArrayList<>();
+      for (int part : parts) {
+        SolveEdges out = get(part);
         if (out != null) {
-          all.addAll(out);
+          outs.add(out);
         }
       }
-      return all.joinCopies();
+      return solver.gather(outs);
     }
 
-    SolveEdges gatherAll() {
+    SolveEdges gatherAll(PartSolver solver) {
       int[] every = new int[memory.length];
       for (int p = 0; p < every.length; p++) {
         every[p] = p;
       }
-      return gather(every);
+      return gather(every, solver);
     }
 
     void clear() {

@@ -3,8 +3,10 @@ package org.sunder.stitching.solve;
 import java.io.Serializable;
 import java.lang.management.ManagementFactory;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.HashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.function.IntFunction;
 import java.util.function.Supplier;
@@ -252,11 +254,11 @@ public final class LevelTasks {
     if (level == 1) {
       input = levelOne.get();
     } else {
-      SolveEdges all = new SolveEdges(16);
+      List<SolveEdges> outputs = new ArrayList<>();
       for (int below : superBlocks.subParts(level, part)) {
-        all.addAll(EdgeFile.read(files.edges(level - 1, below), belowChecksums[below]));
+        outputs.add(EdgeFile.read(files.edges(level - 1, below), belowChecksums[below]));
       }
-      input = all.joinCopies();
+      input = solver.gather(outputs);
     }
     PartResult result = input.size() == 0
         ? new PartResult(new long[0], new long[0], new SolveEdges(0), 0, 0)
@@ -288,12 +290,12 @@ public final class LevelTasks {
     long allocatedBefore = allocatedBytes();
     SuperBlocks superBlocks = superBlocks(setup);
     int parts = superBlocks.partCount(levels);
-    SolveEdges all = new SolveEdges(16);
+    List<SolveEdges> outputs = new ArrayList<>();
     for (int p = 0; p < parts; p++) {
-      all.addAll(EdgeFile.read(files.edges(levels, p), topChecksums[p]));
+      outputs.add(EdgeFile.read(files.edges(levels, p), topChecksums[p]));
     }
-    SolveEdges whole = all.joinCopies();
-    all = null;
+    SolveEdges whole = solver.gather(outputs);
+    outputs = null;
     MergeMap merges = whole.size() == 0 ? MergeMap.EMPTY
         : MergeMap.of(solver.solve(whole, node -> true));
     int[] partOf = new int[merges.size()];

@@ -1,6 +1,7 @@
 package org.sunder.stitching.solve;
 
 import java.util.Arrays;
+import java.util.List;
 import java.util.function.LongPredicate;
 import org.sunder.blockwise.collections.PairSet;
 import org.sunder.blockwise.collections.UnionFind;
@@ -51,6 +52,24 @@ public final class MutexPartSolver implements PartSolver {
   @Override
   public String name() {
     return "mutex-watershed";
+  }
+
+  /**
+   * Merges the outputs in the order each is in, the Mutex Watershed's ({@link #solve} hands up
+   * edges in the order it takes them): no sort here, and {@link #solve} finds its input in
+   * order. O(m log k) for m edges from k parts.
+   */
+  @Override
+  public SolveEdges gather(List<SolveEdges> outputs) {
+    SolveEdges all = SolveEdges.concatenation(outputs);
+    int[] runEnds = new int[outputs.size()];
+    int end = 0;
+    for (int r = 0; r < runEnds.length; r++) {
+      end += outputs.get(r).size();
+      runEnds[r] = end;
+    }
+    int[] merged = MutexOrder.merged(all, runEnds);
+    return merged != null ? all.joinCopies(merged) : all.joinCopies();
   }
 
   @Override

@@ -1,5 +1,6 @@
 package org.sunder.stitching.solve;
 
+import java.util.List;
 import java.util.function.LongPredicate;
 
 /**
@@ -18,4 +19,14 @@ public interface PartSolver {
    * @param inside whether a node (provisional id) belongs to the part
    */
   PartResult solve(SolveEdges edges, LongPredicate inside);
+
+  /**
+   * A part's input at the next level: the outputs of its parts one level down, the copies of
+   * each edge (one from the part at each of its ends) joined ({@link SolveEdges#joinCopies}).
+   * This concatenates them and joins in key order; a solver whose outputs come in an order of
+   * its own may merge them in it instead.
+   */
+  default SolveEdges gather(List<SolveEdges> outputs) {
+    return SolveEdges.concatenation(outputs).joinCopies();
+  }
 }

@@ -2,6 +2,7 @@ package org.sunder.stitching.solve;
 
 import java.io.Serializable;
 import java.util.Arrays;
+import java.util.List;
 
 /**
  * The signed edges of one part of a hierarchical solve, struct of arrays. Each edge joins two
@@ -64,11 +65,22 @@ public final class SolveEdges implements Serializable {
    */
   static SolveEdges wrap(long[] u, long[] v, double[] weight, long[] keyU, long[] keyV,
       byte[] kind) {
+    return wrap(u, v, weight, keyU, keyV, kind, u.length);
+  }
+
+  /**
+   * The first {@code size} edges of the given columns, which the list takes over (as
+   * {@link #wrap(long[], long[], double[], long[], long[], byte[])}); all of one length, at
+   * least {@code size}.
+   */
+  static SolveEdges wrap(long[] u, long[] v, double[] weight, long[] keyU, long[] keyV,
+      byte[] kind, int size) {
     int m = u.length;
     if (v.length != m || weight.length != m || keyU.length != m || keyV.length != m
-        || kind.length != m) {
-      throw new IllegalArgumentException("columns of lengths " + m + ", " + v.length + ", "
-          + weight.length + ", " + keyU.length + ", " + keyV.length + ", " + kind.length);
+        || kind.length != m || size < 0 || size > m) {
+      throw new IllegalArgumentException(size + " edges in columns of lengths " + m + ", "
+          + v.length + ", " + weight.length + ", " + keyU.length + ", " + keyV.length + ", "
+          + kind.length);
     }
     SolveEdges edges = new SolveEdges(0);
     edges.u = u;
@@ -77,7 +89,7 @@ public final class SolveEdges implements Serializable {
     edges.keyU = keyU;
     edges.keyV = keyV;
     edges.kind = kind;
-    edges.size = m;
+    edges.size = size;
     return edges;
   }
 
@@ -130,6 +142,19 @@ public final class SolveEdges implements Serializable {
   /** Appends edge {@code e} of {@code other} with its ends replaced by {@code a}, {@code b}. */
   public void add(SolveEdges other, int e, long a, long b) {
     add(a, b, other.weight[e], other.keyU[e], other.keyV[e], other.kind[e]);
+  }
+
+  /** The edges of {@code lists}, one after another. O(m). */
+  static SolveEdges concatenation(List<SolveEdges> lists) {
+    int total = 0;
+    for (SolveEdges list : lists) {
+      total = Math.addExact(total, list.size());
+    }
+    SolveEdges all = new SolveEdges(total);
+    for (SolveEdges list : lists) {
+      all.addAll(list);
+    }
+    return all;
   }
 
   /** Appends every edge of {@code other}. */
@@ -225,8 +250,20 @@ public final class SolveEdges implements Serializable {
    * per key. O(m) per varying key byte (a radix sort, {@link EdgeSort#byKey}).
    */
   public SolveEdges joinCopies() {
-    int[] order = EdgeSort.byKey(this);
-    // the columns in key order, one column at a time (independent reads the processor
+    return joinCopies(EdgeSort.byKey(this));
+  }
+
+  /**
+   * {@link #joinCopies()} in another order: the edges in {@code order}, a permutation of the
+   * indices that puts the copies of each edge side by side, each edge's copies joined into its
+   * first. O(m).
+   */
+  SolveEdges joinCopies(int[] order) {
+    if (order.length != size) {
+      throw new IllegalArgumentException("an order of " + order.length + " indices for "
+          + size + " edges");
+    }
+    // the columns in that order, one column at a time (independent reads the processor
     // overlaps), then one pass in order that keeps the first copy of each key
     long[] su = gather(u, order);
     long[] sv = gather(v, order);
@@ -257,9 +294,7 @@ public final class SolveEdges implements Serializable {
       joined++;
       i = j;
     }
-    SolveEdges out = wrap(su, sv, w, ku, kv, k);
-    out.size = joined;
-    return out;
+    return wrap(su, sv, w, ku, kv, k, joined);
   }
 
   private long[] gather(long[] column, int[] order) {
