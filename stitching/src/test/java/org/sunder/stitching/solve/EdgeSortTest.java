@@ -110,7 +110,7 @@ class EdgeSortTest {
     return edges;
   }
 
-  private static int[] reference(int n, EdgeComparator comparator) {
+  static int[] reference(int n, EdgeComparator comparator) {
     Integer[] order = new Integer[n];
     for (int i = 0; i < n; i++) {
       order[i] = i;
@@ -120,7 +120,7 @@ class EdgeSortTest {
     return Arrays.stream(order).mapToInt(Integer::intValue).toArray();
   }
 
-  private interface EdgeComparator {
+  interface EdgeComparator {
     int compare(int a, int b);
   }
 }

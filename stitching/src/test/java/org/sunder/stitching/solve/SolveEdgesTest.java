@@ -62,6 +62,21 @@ class SolveEdgesTest {
     assertEquals(3, wrapped.size());
     assertThrows(IllegalArgumentException.class, () -> SolveEdges.wrap(new long[2],
         new long[2], new double[2], new long[2], new long[1], new byte[2]));
+    SolveEdges first = SolveEdges.wrap(new long[] {1, 2}, new long[] {3, 4},
+        new double[] {0.5, -1}, new long[] {5, 6}, new long[] {7, 8}, new byte[] {0, 1}, 1);
+    SolveEdges one = new SolveEdges(1);
+    one.add(1, 3, 0.5, 5, 7, SolveEdges.MAX);
+    assertEquals(one, first);
+    assertThrows(IllegalArgumentException.class, () -> SolveEdges.wrap(new long[2],
+        new long[2], new double[2], new long[2], new long[2], new byte[2], 3));
+  }
+
+  @Test
+  void joinCopiesInAGivenOrderRefusesAnOrderOfAnotherLength() {
+    SolveEdges edges = random(new Random(89), 5, 10);
+    IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+        () -> edges.joinCopies(new int[] {0, 1, 2}));
+    assertEquals("an order of 3 indices for 5 edges", e.getMessage());
   }
 
   @Test
