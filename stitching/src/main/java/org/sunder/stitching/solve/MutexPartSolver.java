@@ -253,8 +253,14 @@ public final class MutexPartSolver implements PartSolver {
       return UnionFind.root(parent, x);
     }
 
+    /**
+     * Whether roots {@code a} and {@code b} are exclusive. A root without exclusions is in no
+     * pair of the set: on the benchmark's graphs that answers two in five calls without a
+     * lookup in the set's table.
+     */
     boolean exclusive(int a, int b) {
-      return exclusions.contains(PairSet.pair(a, b));
+      return listLength[a] > 0 && listLength[b] > 0
+          && exclusions.contains(PairSet.pair(a, b));
     }
 
     void exclude(int a, int b) {
