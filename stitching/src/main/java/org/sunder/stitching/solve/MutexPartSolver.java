@@ -92,18 +92,18 @@ public final class MutexPartSolver implements PartSolver {
       iv[t] = endV[e];
       attractiveAt[t] = edges.weight(e) > 0;
     }
-    int[] frontier = new int[n];
-    Arrays.fill(frontier, Integer.MAX_VALUE);
     int innerRepulsive = 0;
     for (int t = 0; t < m; t++) {
-      if (iu[t] < 0 || iv[t] < 0) {
-        int node = iu[t] >= 0 ? iu[t] : iv[t];
-        frontier[node] = Math.min(frontier[node], t);
-      } else if (!attractiveAt[t]) {
+      if (iu[t] >= 0 && iv[t] >= 0 && !attractiveAt[t]) {
         innerRepulsive++;
       }
     }
-    Clusters clusters = new Clusters(n, frontier, innerRepulsive);
+    Clusters clusters = new Clusters(n, innerRepulsive);
+    for (int t = 0; t < m; t++) {
+      if (iu[t] < 0 || iv[t] < 0) {
+        clusters.openAt(iu[t] >= 0 ? iu[t] : iv[t], t);
+      }
+    }
     long decided = 0;
     long heldBack = 0;
     for (int t = 0; t < m; t++) {
@@ -112,8 +112,8 @@ public final class MutexPartSolver implements PartSolver {
       }
       int a = clusters.find(iu[t]);
       int b = clusters.find(iv[t]);
-      boolean openA = clusters.frontier[a] < t;
-      boolean openB = clusters.frontier[b] < t;
+      boolean openA = clusters.frontier(a) < t;
+      boolean openB = clusters.frontier(b) < t;
       boolean attractive = attractiveAt[t];
       if (a == b || clusters.exclusive(a, b)) {
         decided++;
@@ -127,8 +127,8 @@ public final class MutexPartSolver implements PartSolver {
       } else if (openA && openB
           || attractive && !clusters.partnersSettled(openA ? b : a, t)) {
         heldBack++;
-        clusters.frontier[a] = Math.min(clusters.frontier[a], t);
-        clusters.frontier[b] = Math.min(clusters.frontier[b], t);
+        clusters.openAt(a, t);
+        clusters.openAt(b, t);
       } else {
         decided++;
         if (attractive) {
@@ -141,7 +141,7 @@ public final class MutexPartSolver implements PartSolver {
     int[] repAt = representatives(clusters, n);
     boolean[] complete = new boolean[n];
     for (int i = 0; i < n; i++) {
-      complete[i] = clusters.frontier[clusters.find(i)] == Integer.MAX_VALUE;
+      complete[i] = clusters.frontier(clusters.find(i)) == Integer.MAX_VALUE;
     }
     return result(edges, order, nodes, iu, iv, attractiveAt, repAt, complete, decided,
         heldBack);
@@ -218,39 +218,62 @@ public final class MutexPartSolver implements PartSolver {
     return PartResult.of(nodes, rep, remaining, decided, heldBack);
   }
 
-  /** Union-find with exclusion sets and a frontier per root. */
+  /**
+   * Union-find with exclusion sets and a frontier per root. A node's parent, frontier, list
+   * length and list head lie side by side in one record of four ints: the sweep reads them
+   * together for nodes in no useful order, and in a part above level 1 (millions of nodes) each
+   * array of its own cost a cache miss of its own.
+   */
   private static final class Clusters {
-    private final int[] parent;
-    private final int[] listLength;
-    private final int[] head;
+    private static final int PARENT = 0;
+    private static final int FRONTIER = 1;
+    private static final int LENGTH = 2;
+    private static final int HEAD = 3;
+    private static final int FIELDS = 4;
+    private final int[] record;
     private int[] entryNode;
     private int[] entryNext;
     private int entries;
     /** Pairs of roots made exclusive ({@link PairSet#pair}); a join leaves stale pairs. */
     private final PairSet exclusions;
-    final int[] frontier;
 
     /**
-     * {@code n} singletons. The exclusion set starts at a quarter of the {@code repulsive} inner
-     * edges and grows: on the benchmark's graphs 20 to 50 % of them make an exclusion, and
-     * zeroing a table for all of them took 7 % of a part's solve.
+     * {@code n} singletons, none open. The exclusion set starts at a quarter of the
+     * {@code repulsive} inner edges and grows: on the benchmark's graphs 20 to 50 % of them make
+     * an exclusion, and zeroing a table for all of them took 7 % of a part's solve.
      */
-    Clusters(int n, int[] frontier, int repulsive) {
-      parent = new int[n];
+    Clusters(int n, int repulsive) {
+      record = new int[Math.multiplyExact(n, FIELDS)];
       for (int i = 0; i < n; i++) {
-        parent[i] = i;
+        record[i * FIELDS + PARENT] = i;
+        record[i * FIELDS + FRONTIER] = Integer.MAX_VALUE;
+        record[i * FIELDS + HEAD] = -1;
       }
-      listLength = new int[n];
-      head = new int[n];
-      Arrays.fill(head, -1);
       entryNode = new int[16];
       entryNext = new int[16];
       exclusions = new PairSet(repulsive / 4);
-      this.frontier = frontier;
     }
 
+    /** The root of {@code x}, halving the path on the way ({@link UnionFind#root}). */
     int find(int x) {
-      return UnionFind.root(parent, x);
+      int[] r = record;
+      while (r[x * FIELDS + PARENT] != x) {
+        int grandparent = r[r[x * FIELDS + PARENT] * FIELDS + PARENT];
+        r[x * FIELDS + PARENT] = grandparent;
+        x = grandparent;
+      }
+      return x;
+    }
+
+    /** Root {@code r}'s frontier: the first position an edge unknown to the part touched it. */
+    int frontier(int r) {
+      return record[r * FIELDS + FRONTIER];
+    }
+
+    /** Moves root {@code r}'s frontier to position {@code t} if that is earlier. */
+    void openAt(int r, int t) {
+      int at = r * FIELDS + FRONTIER;
+      record[at] = Math.min(record[at], t);
     }
 
     /**
@@ -259,7 +282,7 @@ public final class MutexPartSolver implements PartSolver {
      * lookup in the set's table.
      */
     boolean exclusive(int a, int b) {
-      return listLength[a] > 0 && listLength[b] > 0
+      return record[a * FIELDS + LENGTH] > 0 && record[b * FIELDS + LENGTH] > 0
           && exclusions.contains(PairSet.pair(a, b));
     }
 
@@ -276,15 +299,15 @@ public final class MutexPartSolver implements PartSolver {
         entryNext = Arrays.copyOf(entryNext, entries * 2);
       }
       entryNode[entries] = partner;
-      entryNext[entries] = head[owner];
-      head[owner] = entries++;
-      listLength[owner]++;
+      entryNext[entries] = record[owner * FIELDS + HEAD];
+      record[owner * FIELDS + HEAD] = entries++;
+      record[owner * FIELDS + LENGTH]++;
     }
 
     /** Whether every cluster exclusive with root {@code r} is settled at position {@code t}. */
     boolean partnersSettled(int r, int t) {
-      for (int entry = head[r]; entry >= 0; entry = entryNext[entry]) {
-        if (frontier[find(entryNode[entry])] < t) {
+      for (int entry = record[r * FIELDS + HEAD]; entry >= 0; entry = entryNext[entry]) {
+        if (frontier(find(entryNode[entry])) < t) {
           return false;
         }
       }
@@ -293,18 +316,18 @@ public final class MutexPartSolver implements PartSolver {
 
     /** Joins roots {@code a} and {@code b}; the shorter exclusion list moves. */
     void join(int a, int b) {
-      int big = listLength[a] >= listLength[b] ? a : b;
+      int big = record[a * FIELDS + LENGTH] >= record[b * FIELDS + LENGTH] ? a : b;
       int small = big == a ? b : a;
-      parent[small] = big;
-      frontier[big] = Math.min(frontier[big], frontier[small]);
-      for (int entry = head[small]; entry >= 0; entry = entryNext[entry]) {
+      record[small * FIELDS + PARENT] = big;
+      openAt(big, frontier(small));
+      for (int entry = record[small * FIELDS + HEAD]; entry >= 0; entry = entryNext[entry]) {
         int partner = find(entryNode[entry]);
         if (exclusions.add(PairSet.pair(big, partner))) {
           append(big, partner);
         }
       }
-      head[small] = -1;
-      listLength[small] = 0;
+      record[small * FIELDS + HEAD] = -1;
+      record[small * FIELDS + LENGTH] = 0;
     }
   }
 }
