@@ -44,8 +44,9 @@ import org.sunder.blockwise.collections.UnionFind;
  * end settles everything: the Mutex Watershed itself.
  *
  * <p>O(m) per varying key byte for m edges (the radix sorts of {@link EdgeSort} and
- * {@link PartNodes}), union-find and exclusion sets near O(m α(m)) otherwise;
- * about 120 bytes per edge while it runs.
+ * {@link PartNodes}; input already in the order, as {@link #gather} gives it above level 1, is
+ * not sorted again), union-find and exclusion sets near O(m α(m)) otherwise; about 120 bytes per
+ * edge while it runs.
  */
 public final class MutexPartSolver implements PartSolver {
 
