@@ -13,29 +13,35 @@ import org.sunder.blockwise.collections.UnionFind;
  * <p>The Mutex Watershed takes edges in one fixed global order ({@link MutexOrder}): an
  * attractive edge joins its two clusters unless they are mutually exclusive, a repulsive edge
  * makes them exclusive unless they are joined. A part sees its inner edges and the edges that
- * leave it. Each inner cluster has a <em>frontier</em>: the position in the order of the first
- * edge that could change it without the part knowing, initially the first edge leaving the part
- * from one of its nodes. The part takes its inner edges in order; edge {@code e} at position
- * {@code t} between clusters {@code A} and {@code B} (a cluster is <em>settled</em> at
- * {@code t} when its frontier lies after {@code t}: no edge outside the part and no held-back
- * edge has touched it, so in the whole-graph run it is exactly this cluster with exactly these
- * exclusions; otherwise it is <em>open</em>, and in the whole-graph run it may have grown)
+ * leave it; the others, and the inner edges it holds back, are <em>unknown</em> to it. Each
+ * inner cluster has two positions in the order: its <em>frontier</em>, the first unknown edge
+ * that touched it, and its <em>member frontier</em>, the first unknown attractive one (initially
+ * the first edges leaving the part from one of its nodes). At position {@code t} a cluster is
+ * <em>settled</em> when its frontier lies after {@code t} (in the whole-graph run it is exactly
+ * this cluster with exactly these exclusions), <em>member-exact</em> when its member frontier
+ * does (in the whole-graph run it has exactly these members, though an edge leaving the part
+ * may have made it exclusive with a cluster the part does not know), and <em>open</em> otherwise
+ * (in the whole-graph run it may have grown). The part takes its inner
+ * edges in order; edge {@code e} at position {@code t} between clusters {@code A} and {@code B}
  * <ul>
  *   <li>is settled as nothing to do if {@code A = B} or the two are exclusive (joins and
  *       exclusions made here are made by the whole-graph run too, which only adds to them);
- *   <li>is settled, and applied, if both are settled;
- *   <li>if {@code A} is open and {@code B} settled: a repulsive edge is settled (in the
- *       whole-graph run {@code B} is still apart from whatever {@code A} grew into, so they
- *       become exclusive); an attractive edge is settled as a join when every cluster exclusive
- *       with {@code B} is settled (none of them can have grown into {@code A}'s cluster, so
- *       nothing forbids the join), and the joined cluster is open;
- *   <li>is held back otherwise, and opens both clusters at {@code t}.
+ *   <li>if repulsive, is settled when {@code A} or {@code B} is member-exact (in the whole-graph
+ *       run the member-exact one is still apart from whatever the other grew into, so they
+ *       become exclusive), and held back when both are open;
+ *   <li>if attractive, is settled as a join when both are member-exact (neither has grown, and
+ *       an exclusion between them would have come from an inner repulsive edge, which a
+ *       member-exact cluster cannot have held back), or when {@code A} is open and {@code B}
+ *       settled with every cluster exclusive with {@code B} member-exact (none of them can have
+ *       grown into {@code A}'s cluster, so nothing forbids the join; the joined cluster is
+ *       open); it is held back otherwise;
+ *   <li>held back, moves both clusters' frontiers to {@code t}, and their member frontiers too
+ *       when attractive.
  * </ul>
- * A settled operation changes only what no unknown edge before it touched (a settled cluster,
- * or an open one by a settled cluster whose exclusions are all with settled clusters), so it
- * commutes with every held-back or outside edge before it: the whole-graph run equals applying
- * the settled operations first (contracting the part) and then running the rest in the same
- * order. The next level therefore gets the contracted graph: held-back inner edges and leaving
+ * A settled operation changes only what no unknown edge before it could change (the members of
+ * a member-exact cluster, the exclusions of a settled one), so it commutes with every unknown
+ * edge before it: the whole-graph run equals applying the settled operations first
+ * (contracting the part) and then running the rest in the same order. The next level therefore gets the contracted graph: held-back inner edges and leaving
  * edges, ends relabelled to the smallest provisional id of their cluster, inner edges reduced
  * to the first attractive and the first repulsive edge per cluster pair (only those can decide
  * anything). A cluster whose frontier never moved (no edge leaves it, none of its edges was held
@@ -102,7 +108,7 @@ public final class MutexPartSolver implements PartSolver {
     Clusters clusters = new Clusters(n, innerRepulsive);
     for (int t = 0; t < m; t++) {
       if (iu[t] < 0 || iv[t] < 0) {
-        clusters.openAt(iu[t] >= 0 ? iu[t] : iv[t], t);
+        clusters.unknownAt(iu[t] >= 0 ? iu[t] : iv[t], t, attractiveAt[t]);
       }
     }
     long decided = 0;
@@ -113,30 +119,30 @@ public final class MutexPartSolver implements PartSolver {
       }
       int a = clusters.find(iu[t]);
       int b = clusters.find(iv[t]);
-      boolean openA = clusters.frontier(a) < t;
-      boolean openB = clusters.frontier(b) < t;
+      boolean openA = clusters.memberFrontier(a) < t;
+      boolean openB = clusters.memberFrontier(b) < t;
       boolean attractive = attractiveAt[t];
       if (a == b || clusters.exclusive(a, b)) {
         decided++;
+      } else if (!attractive) {
+        if (openA && openB) {
+          heldBack++;
+          clusters.unknownAt(a, t, false);
+          clusters.unknownAt(b, t, false);
+        } else {
+          decided++;
+          clusters.exclude(a, b);
+        }
       } else if (!openA && !openB) {
         decided++;
-        if (attractive) {
-          clusters.join(a, b);
-        } else {
-          clusters.exclude(a, b);
-        }
-      } else if (openA && openB
-          || attractive && !clusters.partnersSettled(openA ? b : a, t)) {
+        clusters.join(a, b);
+      } else if (openA && openB || !clusters.settled(openA ? b : a, t)) {
         heldBack++;
-        clusters.openAt(a, t);
-        clusters.openAt(b, t);
+        clusters.unknownAt(a, t, true);
+        clusters.unknownAt(b, t, true);
       } else {
         decided++;
-        if (attractive) {
-          clusters.join(a, b);
-        } else {
-          clusters.exclude(a, b);
-        }
+        clusters.join(a, b);
       }
     }
     int[] repAt = representatives(clusters, n);
@@ -220,17 +226,18 @@ public final class MutexPartSolver implements PartSolver {
   }
 
   /**
-   * Union-find with exclusion sets and a frontier per root. A node's parent, frontier, list
-   * length and list head lie side by side in one record of four ints: the sweep reads them
-   * together for nodes in no useful order, and in a part above level 1 (millions of nodes) each
-   * array of its own cost a cache miss of its own.
+   * Union-find with exclusion sets and two frontiers per root. A node's parent, frontiers, list
+   * length and list head lie side by side in one record: the sweep reads them together for
+   * nodes in no useful order, and in a part above level 1 (millions of nodes) each array of its
+   * own cost a cache miss of its own.
    */
   private static final class Clusters {
     private static final int PARENT = 0;
     private static final int FRONTIER = 1;
-    private static final int LENGTH = 2;
-    private static final int HEAD = 3;
-    private static final int FIELDS = 4;
+    private static final int MEMBER_FRONTIER = 2;
+    private static final int LENGTH = 3;
+    private static final int HEAD = 4;
+    private static final int FIELDS = 5;
     private final int[] record;
     private int[] entryNode;
     private int[] entryNext;
@@ -248,6 +255,7 @@ public final class MutexPartSolver implements PartSolver {
       for (int i = 0; i < n; i++) {
         record[i * FIELDS + PARENT] = i;
         record[i * FIELDS + FRONTIER] = Integer.MAX_VALUE;
+        record[i * FIELDS + MEMBER_FRONTIER] = Integer.MAX_VALUE;
         record[i * FIELDS + HEAD] = -1;
       }
       entryNode = new int[16];
@@ -271,10 +279,40 @@ public final class MutexPartSolver implements PartSolver {
       return record[r * FIELDS + FRONTIER];
     }
 
-    /** Moves root {@code r}'s frontier to position {@code t} if that is earlier. */
-    void openAt(int r, int t) {
-      int at = r * FIELDS + FRONTIER;
-      record[at] = Math.min(record[at], t);
+    /**
+     * Root {@code r}'s member frontier: the first position an attractive edge unknown to the
+     * part touched it (before it, its members are those of the whole-graph run).
+     */
+    int memberFrontier(int r) {
+      return record[r * FIELDS + MEMBER_FRONTIER];
+    }
+
+    /**
+     * Records an edge unknown to the part (leaving it, or held back) touching root {@code r} at
+     * position {@code t}: it moves the frontier, and the member frontier if it is attractive.
+     */
+    void unknownAt(int r, int t, boolean attractive) {
+      int at = r * FIELDS;
+      record[at + FRONTIER] = Math.min(record[at + FRONTIER], t);
+      if (attractive) {
+        record[at + MEMBER_FRONTIER] = Math.min(record[at + MEMBER_FRONTIER], t);
+      }
+    }
+
+    /**
+     * Whether root {@code r} is settled at position {@code t} (no unknown edge touched it
+     * before) and every cluster exclusive with it keeps its members there.
+     */
+    boolean settled(int r, int t) {
+      if (frontier(r) < t) {
+        return false;
+      }
+      for (int entry = record[r * FIELDS + HEAD]; entry >= 0; entry = entryNext[entry]) {
+        if (memberFrontier(find(entryNode[entry])) < t) {
+          return false;
+        }
+      }
+      return true;
     }
 
     /**
@@ -305,22 +343,14 @@ public final class MutexPartSolver implements PartSolver {
       record[owner * FIELDS + LENGTH]++;
     }
 
-    /** Whether every cluster exclusive with root {@code r} is settled at position {@code t}. */
-    boolean partnersSettled(int r, int t) {
-      for (int entry = record[r * FIELDS + HEAD]; entry >= 0; entry = entryNext[entry]) {
-        if (frontier(find(entryNode[entry])) < t) {
-          return false;
-        }
-      }
-      return true;
-    }
-
     /** Joins roots {@code a} and {@code b}; the shorter exclusion list moves. */
     void join(int a, int b) {
       int big = record[a * FIELDS + LENGTH] >= record[b * FIELDS + LENGTH] ? a : b;
       int small = big == a ? b : a;
       record[small * FIELDS + PARENT] = big;
-      openAt(big, frontier(small));
+      record[big * FIELDS + FRONTIER] = Math.min(frontier(big), frontier(small));
+      record[big * FIELDS + MEMBER_FRONTIER] =
+          Math.min(memberFrontier(big), memberFrontier(small));
       for (int entry = record[small * FIELDS + HEAD]; entry >= 0; entry = entryNext[entry]) {
         int partner = find(entryNode[entry]);
         if (exclusions.add(PairSet.pair(big, partner))) {

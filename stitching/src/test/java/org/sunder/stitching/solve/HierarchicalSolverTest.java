@@ -29,7 +29,7 @@ class HierarchicalSolverTest {
   void mutexWatershedEqualsSingleLevelOnRandomGraphs() {
     Random random = new Random(13);
     int levelsSeen = 0;
-    for (int trial = 0; trial < 60; trial++) {
+    for (int trial = 0; trial < 400; trial++) {
       BlockGrid grid = RandomReducedGraphs.grid(2 + random.nextInt(6), 1 + random.nextInt(5),
           1 + random.nextInt(4));
       IdLayout layout = IdLayout.forGrid(grid);
