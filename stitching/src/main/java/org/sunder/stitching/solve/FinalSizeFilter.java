@@ -39,18 +39,27 @@ final class FinalSizeFilter {
   record Result(int[] clusterOfNode, long[] joinedIds, int[] joinedCluster) {}
 
   /**
-   * @param blocks one summary per block, at its block index
-   * @param clusters per reduced-graph node, the solve's cluster (any numbering)
+   * What the filter reads that does not depend on the solve's clusters, so it can be prepared
+   * while the solve runs.
+   *
+   * @param interior the blocks' interior edges, merged
+   * @param interiorIds the ends of interior edges that are not reduced-graph nodes, ascending
+   * @param nodeSizes per reduced-graph node, its voxels
+   * @param interiorSizes per interior id, its voxels
+   * @param endU per interior edge, its first end: a node index, or {@code -1 - j} for interior
+   *     id {@code j}
+   * @param endV its second end, alike
    */
-  static Result apply(IdLayout layout, List<BlockSummary> blocks, ReducedGraph graph,
-      int[] clusters, PartitionConfig config) {
-    SizeFilter filter = config.createSizeFilter();
-    int nodes = graph.nodeCount();
-    int[] dense = denseClusters(clusters);
-    int clusterCount = 0;
-    for (int c : dense) {
-      clusterCount = Math.max(clusterCount, c + 1);
-    }
+  record Inputs(EdgeStatistics interior, long[] interiorIds, long[] nodeSizes,
+      long[] interiorSizes, int[] endU, int[] endV) {}
+
+  /**
+   * The filter's inputs independent of the clusters. O(k log n) for k interior edges and n
+   * nodes (binary searches of the ends).
+   *
+   * @param blocks one summary per block, at its block index
+   */
+  static Inputs inputs(IdLayout layout, List<BlockSummary> blocks, ReducedGraph graph) {
     List<EdgeStatistics> parts = new ArrayList<>();
     for (BlockSummary s : blocks) {
       parts.add(s.interiorEdges());
@@ -58,17 +67,58 @@ final class FinalSizeFilter {
     EdgeStatistics interior = EdgeStatistics.mergeAll(parts);
     long[] nodeIds = graph.nodeIds();
     long[] interiorIds = interiorEnds(interior, nodeIds);
+    long[] nodeSizes = new long[nodeIds.length];
+    for (int i = 0; i < nodeIds.length; i++) {
+      nodeSizes[i] = sizeOf(layout, blocks, nodeIds[i]);
+    }
+    long[] interiorSizes = new long[interiorIds.length];
+    for (int j = 0; j < interiorIds.length; j++) {
+      interiorSizes[j] = sizeOf(layout, blocks, interiorIds[j]);
+    }
+    int[] endU = new int[interior.size()];
+    int[] endV = new int[interior.size()];
+    for (int e = 0; e < interior.size(); e++) {
+      endU[e] = end(interior.u(e), nodeIds, interiorIds);
+      endV[e] = end(interior.v(e), nodeIds, interiorIds);
+    }
+    return new Inputs(interior, interiorIds, nodeSizes, interiorSizes, endU, endV);
+  }
+
+  /**
+   * @param blocks one summary per block, at its block index
+   * @param clusters per reduced-graph node, the solve's cluster (any numbering)
+   */
+  static Result apply(IdLayout layout, List<BlockSummary> blocks, ReducedGraph graph,
+      int[] clusters, PartitionConfig config) {
+    return apply(inputs(layout, blocks, graph), graph, clusters, config);
+  }
+
+  /**
+   * The filter on the solve's clusters, with its inputs prepared ({@link #inputs}).
+   *
+   * @param clusters per reduced-graph node, the solve's cluster (any numbering)
+   */
+  static Result apply(Inputs in, ReducedGraph graph, int[] clusters, PartitionConfig config) {
+    SizeFilter filter = config.createSizeFilter();
+    int nodes = graph.nodeCount();
+    int[] dense = denseClusters(clusters);
+    int clusterCount = 0;
+    for (int c : dense) {
+      clusterCount = Math.max(clusterCount, c + 1);
+    }
+    long[] nodeIds = graph.nodeIds();
+    long[] interiorIds = in.interiorIds();
     int total = clusterCount + interiorIds.length;
     int[] position = rankPositions(dense, nodeIds, interiorIds, clusterCount);
     long[] sizes = new long[total];
     for (int i = 0; i < nodes; i++) {
-      sizes[position[dense[i]]] += sizeOf(layout, blocks, nodeIds[i]);
+      sizes[position[dense[i]]] += in.nodeSizes()[i];
     }
     for (int j = 0; j < interiorIds.length; j++) {
-      sizes[position[clusterCount + j]] = sizeOf(layout, blocks, interiorIds[j]);
+      sizes[position[clusterCount + j]] = in.interiorSizes()[j];
     }
-    EdgeStatistics statistics = clusterStatistics(graph.edges(), dense, interior, nodeIds,
-        interiorIds, clusterCount, position);
+    EdgeStatistics statistics = clusterStatistics(graph.edges(), dense, in, clusterCount,
+        position);
     boolean[] flags = SizeFilteredPartitioner.cannotLinkFlags(config.sizeFilterCannotLink(),
         statistics, config.linkage());
     int[] group = filter.groups(sizes, statistics, flags, null);
@@ -147,9 +197,9 @@ final class FinalSizeFilter {
   }
 
   /** Statistics between filter segments, ids {@code 1..}: their positions plus 1. */
-  private static EdgeStatistics clusterStatistics(EdgeStatistics edges, int[] dense,
-      EdgeStatistics interior, long[] nodeIds, long[] interiorIds, int clusterCount,
-      int[] position) {
+  private static EdgeStatistics clusterStatistics(EdgeStatistics edges, int[] dense, Inputs in,
+      int clusterCount, int[] position) {
+    EdgeStatistics interior = in.interior();
     int m = edges.size();
     int k = interior.size();
     long[] u = new long[m + k];
@@ -159,20 +209,23 @@ final class FinalSizeFilter {
       v[e] = position[dense[(int) edges.v(e)]] + 1;
     }
     for (int e = 0; e < k; e++) {
-      u[m + e] = position[filterNode(interior.u(e), dense, nodeIds, interiorIds,
-          clusterCount)] + 1;
-      v[m + e] = position[filterNode(interior.v(e), dense, nodeIds, interiorIds,
-          clusterCount)] + 1;
+      u[m + e] = position[filterNode(in.endU()[e], dense, clusterCount)] + 1;
+      v[m + e] = position[filterNode(in.endV()[e], dense, clusterCount)] + 1;
     }
     return EdgeStatistics.of(u, v, concat(edges.copySum(), interior.copySum()),
         concat(edges.copyCount(), interior.copyCount()),
         concat(edges.copyMin(), interior.copyMin()), concat(edges.copyMax(), interior.copyMax()));
   }
 
-  private static int filterNode(long id, int[] dense, long[] nodeIds, long[] interiorIds,
-      int clusterCount) {
+  /** An interior edge's end ({@link Inputs#endU}) among the filter's segments. */
+  private static int filterNode(int end, int[] dense, int clusterCount) {
+    return end >= 0 ? dense[end] : clusterCount - 1 - end;
+  }
+
+  /** A provisional id's end code: its node index, or {@code -1 - j} for interior id j. */
+  private static int end(long id, long[] nodeIds, long[] interiorIds) {
     int node = Arrays.binarySearch(nodeIds, id);
-    return node >= 0 ? dense[node] : clusterCount + Arrays.binarySearch(interiorIds, id);
+    return node >= 0 ? node : -1 - Arrays.binarySearch(interiorIds, id);
   }
 
   private static double[] concat(double[] a, double[] b) {

@@ -4,6 +4,8 @@ import java.io.Serializable;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.CompletionException;
 import org.sunder.blockwise.grid.IdLayout;
 import org.sunder.blockwise.partition.ReducedGraphSolver;
 import org.sunder.blockwise.partition.config.PartitionConfig;
@@ -61,6 +63,10 @@ public final class GlobalSolve {
     List<BlockSummary> blocks = new ArrayList<>(summaries);
     blocks.sort(Comparator.comparingInt(BlockSummary::block));
     ReducedGraph graph = ReducedGraph.assemble(layout, blocks, seams);
+    // what the size filter reads besides the clusters, prepared on another core meanwhile
+    CompletableFuture<FinalSizeFilter.Inputs> filterInputs = config.minSegmentSize() > 1
+        ? CompletableFuture.supplyAsync(() -> FinalSizeFilter.inputs(layout, blocks, graph))
+        : null;
     ReducedGraphSolver solver = solverFor(config);
     int[] clusters =
         clustersJoiningContinuations(graph, ReducedGraph.firstVoxels(blocks), solver);
@@ -70,9 +76,9 @@ public final class GlobalSolve {
       segmentCounts[s.block()] = s.segmentCount();
     }
     SolvedFinalIds map;
-    if (config.minSegmentSize() > 1) {
+    if (filterInputs != null) {
       FinalSizeFilter.Result filtered =
-          FinalSizeFilter.apply(layout, blocks, graph, clusters, config);
+          FinalSizeFilter.apply(joined(filterInputs), graph, clusters, config);
       map = solvedWithJoined(layout, segmentCounts, graph.nodeIds(), filtered.clusterOfNode(),
           filtered.joinedIds(), filtered.joinedCluster());
     } else {
@@ -86,6 +92,21 @@ public final class GlobalSolve {
     SolveReport report = new SolveReport(solver.name(), segments, graph.nodeCount(),
         graph.edges().size(), map.finalIdCount(), seconds);
     return new Result(map, report);
+  }
+
+  /** The value of {@code future}, or the exception it ended with, unwrapped. */
+  private static <T> T joined(CompletableFuture<T> future) {
+    try {
+      return future.join();
+    } catch (CompletionException e) {
+      if (e.getCause() instanceof RuntimeException cause) {
+        throw cause;
+      }
+      if (e.getCause() instanceof Error cause) {
+        throw cause;
+      }
+      throw e;
+    }
   }
 
   /**
