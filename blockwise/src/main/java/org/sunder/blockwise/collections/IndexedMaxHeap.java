@@ -100,18 +100,8 @@ public final class IndexedMaxHeap {
 
   private void siftDown(int i, double key, long tie, int item) {
     while (true) {
-      int first = 4 * i + 1;
-      if (first >= size) {
-        break;
-      }
-      int child = first;
-      int end = Math.min(first + 4, size);
-      for (int c = first + 1; c < end; c++) {
-        if (MaxHeap.before(keys[c], ties[c], keys[child], ties[child])) {
-          child = c;
-        }
-      }
-      if (!MaxHeap.before(keys[child], ties[child], key, tie)) {
+      int child = MaxHeap.firstChild(keys, ties, i, size);
+      if (child < 0 || !MaxHeap.before(keys[child], ties[child], key, tie)) {
         break;
       }
       move(child, i);

@@ -71,18 +71,8 @@ public final class MaxHeap {
     int payload = payloads[size];
     int i = 0;
     while (true) {
-      int first = 4 * i + 1;
-      if (first >= size) {
-        break;
-      }
-      int child = first;
-      int end = Math.min(first + 4, size);
-      for (int c = first + 1; c < end; c++) {
-        if (before(keys[c], ties[c], keys[child], ties[child])) {
-          child = c;
-        }
-      }
-      if (!before(keys[child], ties[child], key, tie)) {
+      int child = firstChild(keys, ties, i, size);
+      if (child < 0 || !before(keys[child], ties[child], key, tie)) {
         break;
       }
       move(child, i);
@@ -97,6 +87,25 @@ public final class MaxHeap {
    */
   static boolean before(double k1, long t1, double k2, long t2) {
     return k1 > k2 || (k1 == k2 && t1 < t2);
+  }
+
+  /**
+   * Of the (up to four) children of position {@code i} in a 4-ary heap of {@code size} entries,
+   * the one that comes out first; -1 when {@code i} has none. Also {@link IndexedMaxHeap}'s.
+   */
+  static int firstChild(double[] keys, long[] ties, int i, int size) {
+    int first = 4 * i + 1;
+    if (first >= size) {
+      return -1;
+    }
+    int child = first;
+    int end = Math.min(first + 4, size);
+    for (int c = first + 1; c < end; c++) {
+      if (before(keys[c], ties[c], keys[child], ties[child])) {
+        child = c;
+      }
+    }
+    return child;
   }
 
   private void move(int from, int to) {

@@ -55,7 +55,7 @@ final class FinalSizeFilter {
 
   /**
    * The filter's inputs independent of the clusters. O(k log n) for k interior edges and n
-   * nodes (binary searches of the ends).
+   * nodes (one binary search of each end among the nodes).
    *
    * @param blocks one summary per block, at its block index
    */
@@ -66,7 +66,31 @@ final class FinalSizeFilter {
     }
     EdgeStatistics interior = EdgeStatistics.mergeAll(parts);
     long[] nodeIds = graph.nodeIds();
-    long[] interiorIds = interiorEnds(interior, nodeIds);
+    // each end looked up once among the nodes; the others are the interior ids
+    int k = interior.size();
+    int[] endU = new int[k];
+    int[] endV = new int[k];
+    long[] outside = new long[2 * k];
+    int count = 0;
+    for (int e = 0; e < k; e++) {
+      endU[e] = Arrays.binarySearch(nodeIds, interior.u(e));
+      if (endU[e] < 0) {
+        outside[count++] = interior.u(e);
+      }
+      endV[e] = Arrays.binarySearch(nodeIds, interior.v(e));
+      if (endV[e] < 0) {
+        outside[count++] = interior.v(e);
+      }
+    }
+    long[] interiorIds = Arrays.stream(outside, 0, count).sorted().distinct().toArray();
+    for (int e = 0; e < k; e++) {
+      if (endU[e] < 0) {
+        endU[e] = -1 - Arrays.binarySearch(interiorIds, interior.u(e));
+      }
+      if (endV[e] < 0) {
+        endV[e] = -1 - Arrays.binarySearch(interiorIds, interior.v(e));
+      }
+    }
     long[] nodeSizes = new long[nodeIds.length];
     for (int i = 0; i < nodeIds.length; i++) {
       nodeSizes[i] = sizeOf(layout, blocks, nodeIds[i]);
@@ -74,12 +98,6 @@ final class FinalSizeFilter {
     long[] interiorSizes = new long[interiorIds.length];
     for (int j = 0; j < interiorIds.length; j++) {
       interiorSizes[j] = sizeOf(layout, blocks, interiorIds[j]);
-    }
-    int[] endU = new int[interior.size()];
-    int[] endV = new int[interior.size()];
-    for (int e = 0; e < interior.size(); e++) {
-      endU[e] = end(interior.u(e), nodeIds, interiorIds);
-      endV[e] = end(interior.v(e), nodeIds, interiorIds);
     }
     return new Inputs(interior, interiorIds, nodeSizes, interiorSizes, endU, endV);
   }
@@ -176,21 +194,6 @@ final class FinalSizeFilter {
     return position;
   }
 
-  /** The ends of {@code interior}'s pairs that are not reduced-graph nodes, ascending, unique. */
-  private static long[] interiorEnds(EdgeStatistics interior, long[] nodeIds) {
-    long[] ends = new long[2 * interior.size()];
-    int count = 0;
-    for (int e = 0; e < interior.size(); e++) {
-      if (Arrays.binarySearch(nodeIds, interior.u(e)) < 0) {
-        ends[count++] = interior.u(e);
-      }
-      if (Arrays.binarySearch(nodeIds, interior.v(e)) < 0) {
-        ends[count++] = interior.v(e);
-      }
-    }
-    return Arrays.stream(ends, 0, count).sorted().distinct().toArray();
-  }
-
   private static long sizeOf(IdLayout layout, List<BlockSummary> blocks, long provisionalId) {
     return blocks.get(layout.blockOf(provisionalId)).segmentSizes()[
         (int) layout.localOf(provisionalId) - 1];
@@ -220,12 +223,6 @@ final class FinalSizeFilter {
   /** An interior edge's end ({@link Inputs#endU}) among the filter's segments. */
   private static int filterNode(int end, int[] dense, int clusterCount) {
     return end >= 0 ? dense[end] : clusterCount - 1 - end;
-  }
-
-  /** A provisional id's end code: its node index, or {@code -1 - j} for interior id j. */
-  private static int end(long id, long[] nodeIds, long[] interiorIds) {
-    int node = Arrays.binarySearch(nodeIds, id);
-    return node >= 0 ? node : -1 - Arrays.binarySearch(interiorIds, id);
   }
 
   private static double[] concat(double[] a, double[] b) {
