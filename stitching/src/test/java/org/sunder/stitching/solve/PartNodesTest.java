@@ -1,6 +1,7 @@
 package org.sunder.stitching.solve;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
 
 import java.util.Random;
 import java.util.TreeSet;
@@ -9,7 +10,7 @@ import org.junit.jupiter.api.Test;
 /**
  * {@link PartNodes} against a plain reference: the inside ends collected in a
  * {@code java.util.TreeSet} (ascending, each once), each end's index found by counting the
- * smaller nodes.
+ * smaller nodes; the predicate is asked once per distinct end.
  */
 class PartNodesTest {
 
@@ -26,10 +27,16 @@ class PartNodesTest {
         v[e] = random.nextLong() % spread;
       }
       long cut = random.nextLong() % spread;
-      PartNodes part = PartNodes.of(m, e -> u[e], e -> v[e], node -> node >= cut);
+      int[] asked = new int[1];
+      PartNodes part = PartNodes.of(m, e -> u[e], e -> v[e], node -> {
+        asked[0]++;
+        return node >= cut;
+      });
       TreeSet<Long> inside = new TreeSet<>();
+      TreeSet<Long> distinct = new TreeSet<>();
       for (int e = 0; e < m; e++) {
         for (long end : new long[] {u[e], v[e]}) {
+          distinct.add(end);
           if (end >= cut) {
             inside.add(end);
           }
@@ -45,6 +52,7 @@ class PartNodesTest {
       assertArrayEquals(expectedNodes, part.nodes(), "trial " + trial);
       assertArrayEquals(expectedIu, part.iu(), "trial " + trial);
       assertArrayEquals(expectedIv, part.iv(), "trial " + trial);
+      assertEquals(distinct.size(), asked[0], "inside asked once per distinct end");
     }
   }
 }
