@@ -234,6 +234,20 @@ final class ClusterAdjacency {
     return t == null ? packed[2 * (c * packedCapacity + slot) + 1] : t[2 * slot + 1];
   }
 
+  /**
+   * Reads, and returns, the slot where a search of {@code c}'s map for {@code neighbour} starts
+   * (its packed block's first key, or the key's home slot in its table), and does nothing else:
+   * a pass that reads these for many clusters before searching them lets their cache misses
+   * overlap instead of coming one after another.
+   */
+  int readAhead(int c, int neighbour) {
+    int[] t = table[c];
+    if (t == null) {
+      return packed[2 * c * packedCapacity];
+    }
+    return t[home(neighbour, t.length - 2)];
+  }
+
   private int packedIndex(int c, int neighbour) {
     int start = 2 * c * packedCapacity;
     int end = start + 2 * size[c];
