@@ -14,13 +14,8 @@ final class MutexOrder {
 
   /** Negative when edge {@code a} comes before edge {@code b}. */
   static int compare(SolveEdges edges, int a, int b) {
-    return compare(edges, a, edges, b);
-  }
-
-  /** Negative when edge {@code a} of {@code x} comes before edge {@code b} of {@code y}. */
-  static int compare(SolveEdges x, int a, SolveEdges y, int b) {
-    double wa = x.weight(a);
-    double wb = y.weight(b);
+    double wa = edges.weight(a);
+    double wb = edges.weight(b);
     int c = Double.compare(Math.abs(wb), Math.abs(wa));
     if (c != 0) {
       return c;
@@ -30,7 +25,7 @@ final class MutexOrder {
     if (pa != pb) {
       return pa ? -1 : 1;
     }
-    return SolveEdges.compareKeys(x, a, y, b);
+    return edges.compareKeys(a, b);
   }
 
   /**

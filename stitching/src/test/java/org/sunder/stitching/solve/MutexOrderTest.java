@@ -48,7 +48,7 @@ class MutexOrderTest {
       }
       swap[0] = swap.length - 1;
       swap[swap.length - 1] = 0;
-      if (MutexOrder.compare(run, 0, run, swap.length - 1) == 0) {
+      if (MutexOrder.compare(run, 0, swap.length - 1) == 0) {
         continue;
       }
       runs.set(r, reordered(run, swap));
