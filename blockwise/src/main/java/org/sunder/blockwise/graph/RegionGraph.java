@@ -8,6 +8,9 @@ package org.sunder.blockwise.graph;
  * {@code O(nodeCount * offsetCount)} expected time plus {@code O(p log p)} for {@code p} pairs. Immutable.
  */
 public final class RegionGraph {
+  /** Odds products beyond these are folded into a sum before they leave the double range. */
+  static final double SMALL_ODDS = 1e-200;
+  static final double LARGE_ODDS = 1e200;
   /**
    * Marks a pair's row as one of edges inside the region in the one-pass accumulation: the bit
    * above every 32-bit label, so a pair's ids still fit one sort key of 64 bits.
@@ -84,9 +87,6 @@ public final class RegionGraph {
    * them into weights once per pair, after the pass.
    */
   private static final class PairRuns implements GridGraph.EdgeVisitor {
-    /** Odds products beyond these are folded into the sum before they leave the double range. */
-    private static final double SMALL_ODDS = 1e-200;
-    private static final double LARGE_ODDS = 1e200;
     private final int[] labels;
     private final byte[] insideOrNull;
     private final byte[] ignoredOrNull;
