@@ -60,13 +60,12 @@ public final class SeamExtraction {
    */
   public static SeamEdges extract(BlockGrid grid, Face face, long[] labels, byte[] continuations,
       byte[] ignoredOrNull, GridGraph slabGraph) {
-    int n = grid.numDimensions();
     long[] min = slabGraph.block().globalMin();
     int[] shape = slabGraph.block().shape();
-    int[] blockOf = blockIndices(grid, min, shape);
-    long[] gridShape = grid.gridShape();
-    int axis = face.axis();
-    int lower = face.lowerBlock();
+    SlabBlocks blocks = new SlabBlocks(grid, min, shape);
+    int[] blockOf = blocks.ofVoxels();
+    int count = blocks.count();
+    boolean[] owned = blocks.ownedBy(face);
     PairSums sums = new PairSums(slabGraph);
     sums.forEachValueAcross(labels, (s, t, k, value) -> {
       int bs = blockOf[s];
@@ -80,7 +79,7 @@ public final class SeamExtraction {
           || ignoredOrNull != null && (ignoredOrNull[s] | ignoredOrNull[t]) != 0) {
         return;
       }
-      if (owner(bs, bt, gridShape, n, axis) == lower) {
+      if (owned[bs * count + bt]) {
         sums.add(ls, lt, value);
       }
     });
@@ -143,54 +142,97 @@ public final class SeamExtraction {
   }
 
   /**
-   * The lower block of the owning face of an edge between blocks {@code bs != bt}, if that face
-   * is normal to {@code axis}; else -1.
+   * The blocks a slab touches, numbered within the slab (dimension 0 fastest), so that an
+   * edge's owner is one look-up in a table of block pairs instead of divisions per edge.
    */
-  private static int owner(int bs, int bt, long[] gridShape, int n, int axis) {
-    long rs = bs;
-    long rt = bt;
-    for (int d = 0; d < n; d++) {
-      long gs = rs % gridShape[d];
-      long gt = rt % gridShape[d];
-      if (gs != gt) {
-        if (d != axis) {
-          return -1;
-        }
-        return gs < gt ? bs : bt;
-      }
-      rs /= gridShape[d];
-      rt /= gridShape[d];
-    }
-    return -1;
-  }
+  private static final class SlabBlocks {
+    private final BlockGrid grid;
+    private final long[] min;
+    private final int[] shape;
+    /** Per axis, the grid coordinate of the slab's first block and the blocks it spans. */
+    private final long[] first;
+    private final int[] extent;
+    private final int count;
 
-  private static int[] blockIndices(BlockGrid grid, long[] min, int[] shape) {
-    int n = shape.length;
-    int[] blockOf = new int[Shapes.intElementCount(shape)];
-    long[] gridShape = grid.gridShape();
-    long[][] partial = new long[n][];
-    long stride = 1;
-    for (int d = 0; d < n; d++) {
-      partial[d] = new long[shape[d]];
-      for (int x = 0; x < shape[d]; x++) {
-        partial[d][x] = grid.blockCoordinate(d, min[d] + x) * stride;
+    SlabBlocks(BlockGrid grid, long[] min, int[] shape) {
+      this.grid = grid;
+      this.min = min;
+      this.shape = shape;
+      int n = shape.length;
+      first = new long[n];
+      extent = new int[n];
+      int product = 1;
+      for (int d = 0; d < n; d++) {
+        first[d] = grid.blockCoordinate(d, min[d]);
+        extent[d] = (int) (grid.blockCoordinate(d, min[d] + shape[d] - 1) - first[d] + 1);
+        product *= extent[d];
       }
-      stride *= gridShape[d];
+      count = product;
     }
-    int[] p = new int[n];
-    for (int i = 0; i < blockOf.length; i++) {
-      long index = 0;
+
+    int count() {
+      return count;
+    }
+
+    /** Per slab voxel (memory order), the slab number of its block. */
+    int[] ofVoxels() {
+      int n = shape.length;
+      int[][] partial = new int[n][];
+      int stride = 1;
       for (int d = 0; d < n; d++) {
-        index += partial[d][p[d]];
-      }
-      blockOf[i] = (int) index;
-      for (int d = 0; d < n; d++) {
-        if (++p[d] < shape[d]) {
-          break;
+        partial[d] = new int[shape[d]];
+        for (int x = 0; x < shape[d]; x++) {
+          partial[d][x] = (int) (grid.blockCoordinate(d, min[d] + x) - first[d]) * stride;
         }
-        p[d] = 0;
+        stride *= extent[d];
       }
+      int[] blockOf = new int[Shapes.intElementCount(shape)];
+      int[] p = new int[n];
+      for (int i = 0; i < blockOf.length; i++) {
+        int index = 0;
+        for (int d = 0; d < n; d++) {
+          index += partial[d][p[d]];
+        }
+        blockOf[i] = index;
+        for (int d = 0; d < n; d++) {
+          if (++p[d] < shape[d]) {
+            break;
+          }
+          p[d] = 0;
+        }
+      }
+      return blockOf;
     }
-    return blockOf;
+
+    /**
+     * Per pair of slab blocks {@code (a, b)} at {@code a * count + b}, whether {@code face} owns
+     * their edges: the first axis (dimension 0 first) along which the two blocks differ is the
+     * face's, and the lower of the two along it is the face's lower block.
+     */
+    boolean[] ownedBy(Face face) {
+      int n = shape.length;
+      long[][] position = new long[count][n];
+      int[] block = new int[count];
+      for (int b = 0; b < count; b++) {
+        int rest = b;
+        for (int d = 0; d < n; d++) {
+          position[b][d] = first[d] + rest % extent[d];
+          rest /= extent[d];
+        }
+        block[b] = grid.blockIndex(position[b]);
+      }
+      boolean[] owned = new boolean[count * count];
+      for (int a = 0; a < count; a++) {
+        for (int b = 0; b < count; b++) {
+          int d = 0;
+          while (d < n && position[a][d] == position[b][d]) {
+            d++;
+          }
+          int lowerOfTwo = d < n && position[a][d] < position[b][d] ? block[a] : block[b];
+          owned[a * count + b] = d == face.axis() && lowerOfTwo == face.lowerBlock();
+        }
+      }
+      return owned;
+    }
   }
 }
