@@ -2,8 +2,6 @@ package org.sunder.stitching.solve;
 
 import java.io.Serializable;
 import java.util.Arrays;
-import org.sunder.blockwise.ErrorKind;
-import org.sunder.blockwise.SunderException;
 import org.sunder.blockwise.grid.BlockGrid;
 import org.sunder.blockwise.grid.IdLayout;
 
@@ -27,7 +25,7 @@ public final class SuperBlocks implements Serializable {
 
   public SuperBlocks(BlockGrid grid, IdLayout layout, int factor) {
     if (factor < 2) {
-      throw new SunderException(ErrorKind.INVALID_CONFIG, "solve.superBlockFactor: " + factor
+      throw new IllegalArgumentException("super-block factor " + factor
           + " blocks per axis; expected at least 2");
     }
     this.gridShape = grid.gridShape();
