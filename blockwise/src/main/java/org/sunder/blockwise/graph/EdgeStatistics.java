@@ -241,6 +241,39 @@ public final class EdgeStatistics implements Serializable {
   }
 
   /**
+   * The table with each id {@code x} replaced by {@code newIds[x]} (ids index the array, new ids
+   * lie in {@code [0, 2^31)}): pairs that become one id vanish, and the rows of pairs that
+   * coincide combine in this table's order, so sums come out as adding the rows one by one.
+   * One stable radix sort of the new pairs packed in 64-bit keys, where a hash table of the new
+   * pairs would be probed at random once per row: {@code O(size)} per varying key byte.
+   */
+  public EdgeStatistics mapped(int[] newIds) {
+    int n = u.length;
+    long[] keys = new long[n];
+    int[] rows = new int[n];
+    int k = 0;
+    for (int i = 0; i < n; i++) {
+      int p = newIds[Math.toIntExact(u[i])];
+      int q = newIds[Math.toIntExact(v[i])];
+      if (p < 0 || q < 0) {
+        throw new IllegalArgumentException("new id " + Math.min(p, q) + " for pair (" + u[i]
+            + ", " + v[i] + "); expected 0 or more");
+      }
+      if (p != q) {
+        keys[k] = (long) Math.min(p, q) << 32 | Math.max(p, q);
+        rows[k++] = i;
+      }
+    }
+    RadixSort.sortByKeyUnsigned(keys, rows, k);
+    Builder out = new Builder(k);
+    for (int j = 0; j < k; j++) {
+      int r = rows[j];
+      out.append(keys[j] >>> 32, keys[j] & 0xFFFFFFFFL, sum[r], count[r], min[r], max[r]);
+    }
+    return out.build();
+  }
+
+  /**
    * The table with each id replaced by its position in {@code sortedIds} (ascending, unique), or
    * null when an id is not listed. The map is increasing, so the canonical order is kept and
    * nothing is sorted or merged: {@code O(size log ids)}.

@@ -15,6 +15,52 @@ import java.util.Random;
 import org.junit.jupiter.api.Test;
 
 class EdgeStatisticsTest {
+  /**
+   * {@link EdgeStatistics#mapped} against adding the mapped rows one by one, in row order, to an
+   * {@link EdgeStatistics.Accumulator} (which keeps a pair's running sum): the same table bit for
+   * bit, on random tables whose maps merge many pairs and collapse some into one id.
+   */
+  @Test
+  void mappedCombinesCoincidingPairsInRowOrder() {
+    Random random = new Random(23);
+    for (int trial = 0; trial < 200; trial++) {
+      int ids = 2 + random.nextInt(60);
+      int rows = random.nextInt(300);
+      long[] u = new long[rows];
+      long[] v = new long[rows];
+      double[] sum = new double[rows];
+      long[] count = new long[rows];
+      double[] min = new double[rows];
+      double[] max = new double[rows];
+      for (int r = 0; r < rows; r++) {
+        u[r] = random.nextInt(ids);
+        v[r] = (u[r] + 1 + random.nextInt(ids - 1)) % ids;
+        count[r] = 1 + random.nextInt(5);
+        min[r] = random.nextGaussian();
+        max[r] = min[r] + random.nextDouble();
+        sum[r] = random.nextGaussian() * 1e3 + random.nextDouble() * 1e-9;
+      }
+      EdgeStatistics table = EdgeStatistics.of(u, v, sum, count, min, max);
+      int[] newIds = new int[ids];
+      int targets = 1 + random.nextInt(ids);
+      for (int x = 0; x < ids; x++) {
+        newIds[x] = random.nextInt(targets) * (trial % 3 == 0 ? 1_000_003 : 1);
+      }
+      EdgeStatistics.Accumulator alone = new EdgeStatistics.Accumulator(4);
+      for (int r = 0; r < table.size(); r++) {
+        int p = newIds[(int) table.u(r)];
+        int q = newIds[(int) table.v(r)];
+        if (p != q) {
+          alone.add(p, q, table.sum(r), table.count(r), table.min(r), table.max(r));
+        }
+      }
+      assertEquals(alone.build(), table.mapped(newIds), "trial " + trial);
+    }
+    EdgeStatistics one = EdgeStatistics.of(new long[] {0}, new long[] {1}, new double[] {1},
+        new long[] {1}, new double[] {1}, new double[] {1});
+    assertThrows(IllegalArgumentException.class, () -> one.mapped(new int[] {-1, 2}));
+  }
+
 
   @Test
   void accumulatorMatchesBruteForceAndIsCanonical() {

@@ -251,27 +251,10 @@ public record BlockFragments(int[] labels, int count, EdgeStatistics statistics,
         pieceOfFragment[labels[i]] = pieceLabels[i];
       }
     }
-    return new PieceEdges(toPieces(insideStatistics, pieceOfFragment),
-        toPieces(statistics, pieceOfFragment));
-  }
-
-  /**
-   * Rows between fragments summed per pair of pieces, in row order (so the sums do not depend on
-   * anything but the rows); rows inside one piece dropped. O(rows) expected plus a sort of the
-   * piece pairs.
-   */
-  private static EdgeStatistics toPieces(EdgeStatistics fragmentRows, int[] pieceOfFragment) {
-    EdgeStatistics.Accumulator pieces =
-        new EdgeStatistics.Accumulator(Math.max(16, fragmentRows.size() / 2));
-    for (int e = 0; e < fragmentRows.size(); e++) {
-      int p = pieceOfFragment[(int) fragmentRows.u(e)];
-      int q = pieceOfFragment[(int) fragmentRows.v(e)];
-      if (p != q) {
-        pieces.add(p, q, fragmentRows.sum(e), fragmentRows.count(e), fragmentRows.min(e),
-            fragmentRows.max(e));
-      }
-    }
-    return pieces.build();
+    // rows between fragments summed per pair of pieces in row order, so the sums depend on
+    // nothing but the rows; rows inside one piece dropped
+    return new PieceEdges(insideStatistics.mapped(pieceOfFragment),
+        statistics.mapped(pieceOfFragment));
   }
 
   /** The voxel segmentation that gives fragment {@code f} the cluster {@code clusterOf[f−1]}. */
