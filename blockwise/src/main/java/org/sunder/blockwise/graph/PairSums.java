@@ -72,18 +72,20 @@ public final class PairSums {
       max = Double.NEGATIVE_INFINITY;
     }
     count++;
-    double v = Double.isNaN(clamp) ? value : Math.min(Math.max(value, clamp), 1 - clamp);
-    if (!Double.isNaN(clamp)) {
-      odds *= v / (1 - v);
-      if (odds < RegionGraph.SMALL_ODDS || odds > RegionGraph.LARGE_ODDS) {
-        sum += Math.log(odds);
-        odds = 1;
-      }
-    } else {
-      sum += v;
+    if (Double.isNaN(clamp)) {
+      sum += value;
+      min = Math.min(min, value);
+      max = Math.max(max, value);
+      return;
     }
-    min = Math.min(min, v);
-    max = Math.max(max, v);
+    double c = Math.min(Math.max(value, clamp), 1 - clamp);
+    odds *= c / (1 - c);
+    if (odds < RegionGraph.SMALL_ODDS || odds > RegionGraph.LARGE_ODDS) {
+      sum += Math.log(odds);
+      odds = 1;
+    }
+    min = Math.min(min, c);
+    max = Math.max(max, c);
   }
 
   /** Adds the current run to the table and ends it. */

@@ -61,7 +61,6 @@ class EdgeStatisticsTest {
     assertThrows(IllegalArgumentException.class, () -> one.mapped(new int[] {-1, 2}));
   }
 
-
   @Test
   void accumulatorMatchesBruteForceAndIsCanonical() {
     Random random = new Random(13);
