@@ -15,6 +15,8 @@ public final class PairSums {
   private final GridGraph graph;
   private final double clamp;
   private final EdgeStatistics.Accumulator acc = new EdgeStatistics.Accumulator(1024);
+  // The run below mirrors RegionGraph.PairRuns' own on purpose: one run object shared by both
+  // made the region graph's pass, the hottest loop of the partition, 5-10 % slower.
   /** The current run's pair, smaller id first; {@code count} 0 when there is none. */
   private long low;
   private long high;
